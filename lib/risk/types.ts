@@ -21,6 +21,8 @@ export interface VolatilityFit {
   params: Record<string, number>;
   /** standard errors by parameter name where the fit defines them */
   standardErrors?: Record<string, number>;
+  /** robust (sandwich, quasi-maximum-likelihood) standard errors by parameter name where the fit defines them */
+  robustStandardErrors?: Record<string, number>;
   /** conditional variance series: variance[t] is the variance of returns[t] given returns before t */
   variance: Float64Array;
   /** the forecast variance for the day after the last return */
@@ -36,4 +38,13 @@ export interface VolatilityFit {
   /** plain-words limitations of this estimator and of this fit */
   limitations: string[];
   engineVersion: string;
+  /** ARCH only: the last m squared residuals, newest first, which its multi-day forecast needs */
+  recentSquaredResiduals?: number[];
+  /** set when the requested model failed or was near-integrated and the caller's fallback was used instead */
+  fallbackFrom?: {
+    kind: EstimatorKind;
+    params: Record<string, number>;
+    logLikelihood: number | null;
+    reason: string;
+  };
 }

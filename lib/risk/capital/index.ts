@@ -1,0 +1,2 @@
+/** Market-risk capital under a rule profile. */
+export * from "./capital";

@@ -1,0 +1,247 @@
+/**
+ * GARCH(1,1) by maximum likelihood: σ²ₜ = ω + α·e²ₜ₋₁ + β·σ²ₜ₋₁, eₜ = xₜ − μ, with zero or fitted constant
+ * mean, normal or Student-t errors, optional variance targeting, constraints ω > 0, α ≥ 0, β ≥ 0, α+β < 1.
+ */
+import { garch11Variance } from "./garch11-variance";
+import { garch11LogLikelihood, garch11ParameterNames, type Garch11Problem, type LikelihoodInit } from "./garch11-likelihood";
+import { backcastWeights, backcastValue, checkInit, describeInit, type InitRule } from "./initial-variance";
+import { fitEwma } from "./ewma";
+import { minimizeMultiStart } from "../optimize/multi-start";
+import { invertMatrix, multiplyMatrices } from "../linalg";
+import { standardisedMoments, kurtosisWarning, shortHistoryWarning } from "../fit-diagnostics";
+import { LIMITATIONS, NORMAL_TAILS } from "../limitations";
+import { ENGINE_VERSION } from "../version";
+import type { EngineWarning, VolatilityFit } from "../types";
+
+export { garch11Variance } from "./garch11-variance";
+export type { Garch11Params, VariancePath } from "./garch11-variance";
+
+/** Options of fitGarch11. */
+export interface FitGarch11Options {
+  /** "zero" (default): eₜ = xₜ; "fit": a constant mean μ is estimated with the other parameters */
+  mean?: "zero" | "fit";
+  /** error distribution (default "normal"); "t" fits the degrees of freedom ν */
+  distribution?: "normal" | "t";
+  /** variance targeting: ω = (1−α−β)·mean(e²), so ω is not a free parameter (default false) */
+  targeting?: boolean;
+  /** start-up variance rule (default "sample", the benchmark convention) */
+  init?: InitRule;
+  /** what to return when the fit fails or is near-integrated (α+β ≥ 0.999): "none" (default) or "ewma" (λ = 0.94) */
+  fallback?: "ewma" | "none";
+  /** BFGS runs from distinct starting points (default 2) */
+  starts?: number;
+}
+
+/** Fewest returns fitGarch11 accepts. */
+export const GARCH_MIN_RETURNS = 100;
+/** Returns below which a GARCH fit is flagged as short history (common practice, no source). */
+export const GARCH_WANTED_RETURNS = 500;
+/** Persistence α+β from which a fit is called near-integrated. */
+export const NEAR_INTEGRATED = 0.999;
+
+const NU_FLOOR = 2;
+
+function likelihoodInit(rule: InitRule, n: number, scale2: number): LikelihoodInit {
+  if (typeof rule === "number") return { kind: "fixed", value: rule / scale2 };
+  if (rule === "unconditional") return { kind: "unconditional" };
+  return { kind: "backcast", weights: backcastWeights(rule, n)! };
+}
+
+/**
+ * Fit GARCH(1,1) by maximum likelihood with analytic gradients and BFGS from several starting points.
+ * Returns are fitted in their own units (decimals or percent); parameters come back in the same units.
+ * @throws {Error} with fewer than 100 returns, a non-finite return, or all returns equal
+ * @example fitGarch11(returns, { mean: "fit" }).params; // { mu, omega, alpha, beta }
+ */
+export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Options = {}): VolatilityFit {
+  const n = returns.length;
+  if (n < GARCH_MIN_RETURNS) throw new Error(`fitGarch11 requires at least ${GARCH_MIN_RETURNS} returns`);
+  for (let i = 0; i < n; i++) if (!Number.isFinite(returns[i])) throw new Error(`fitGarch11 requires finite returns: return ${i} is ${returns[i]}`);
+  const fitMean = (options.mean ?? "zero") === "fit";
+  const studentT = (options.distribution ?? "normal") === "t";
+  const targeting = options.targeting ?? false;
+  const init = options.init ?? "sample";
+  const fallback = options.fallback ?? "none";
+  checkInit(init, "fitGarch11");
+  if (options.mean && options.mean !== "zero" && options.mean !== "fit") throw new RangeError('fitGarch11 requires mean "zero" or "fit"');
+  if (options.distribution && options.distribution !== "normal" && options.distribution !== "t") throw new RangeError('fitGarch11 requires distribution "normal" or "t"');
+
+  // fit on returns scaled to unit variance (exact: μ and ω scale back, α, β, ν do not change)
+  let mean = 0;
+  for (let i = 0; i < n; i++) mean += returns[i];
+  mean /= n;
+  let ss = 0;
+  for (let i = 0; i < n; i++) { const e = returns[i] - (fitMean ? mean : 0); ss += e * e; }
+  const scale = Math.sqrt(ss / n);
+  if (!(scale > 0)) throw new Error("fitGarch11 requires returns that are not all equal");
+  const xs = new Float64Array(n);
+  for (let i = 0; i < n; i++) xs[i] = returns[i] / scale;
+  const problem: Garch11Problem = { x: xs, fitMean, studentT, targeting, init: likelihoodInit(init, n, scale * scale) };
+  const names = garch11ParameterNames(problem);
+  const k = names.length;
+  const iMu = names.indexOf("mu"), iOm = names.indexOf("omega"), iAl = names.indexOf("alpha"), iBe = names.indexOf("beta"), iNu = names.indexOf("nu");
+
+  // unconstrained coordinates z → natural θ: ω = e^z, (α, β) = (e^a, e^b)/(1+e^a+e^b), ν = 2 + e^z
+  const theta = new Float64Array(k);
+  const gTheta = new Float64Array(k);
+  const toNatural = (z: ArrayLike<number>, out: Float64Array): void => {
+    if (iMu >= 0) out[iMu] = z[iMu];
+    if (iOm >= 0) out[iOm] = Math.exp(z[iOm]);
+    const ea = Math.exp(z[iAl]), eb = Math.exp(z[iBe]), d = 1 + ea + eb;
+    out[iAl] = ea / d; out[iBe] = eb / d;
+    if (iNu >= 0) out[iNu] = NU_FLOOR + Math.exp(z[iNu]);
+  };
+  const toFree = (mu: number, omega: number, alpha: number, beta: number, nu: number): Float64Array => {
+    const z = new Float64Array(k);
+    if (iMu >= 0) z[iMu] = mu;
+    if (iOm >= 0) z[iOm] = Math.log(omega);
+    const rest = 1 - alpha - beta;
+    z[iAl] = Math.log(alpha / rest); z[iBe] = Math.log(beta / rest);
+    if (iNu >= 0) z[iNu] = Math.log(nu - NU_FLOOR);
+    return z;
+  };
+  const objective = (z: Float64Array, gz: Float64Array): number => {
+    toNatural(z, theta);
+    const ll = garch11LogLikelihood(problem, theta, gTheta);
+    if (!Number.isFinite(ll)) return Infinity;
+    if (iMu >= 0) gz[iMu] = -gTheta[iMu] / n;
+    if (iOm >= 0) gz[iOm] = (-gTheta[iOm] * theta[iOm]) / n;
+    const a = theta[iAl], b = theta[iBe], ga = gTheta[iAl], gb = gTheta[iBe];
+    gz[iAl] = -(ga * a * (1 - a) - gb * a * b) / n;
+    gz[iBe] = -(-ga * a * b + gb * b * (1 - b)) / n;
+    if (iNu >= 0) gz[iNu] = (-gTheta[iNu] * (theta[iNu] - NU_FLOOR)) / n;
+    return -ll / n;
+  };
+
+  // starting points: a small grid of (α, β) with ω at the sample variance; the cheapest are ranked by value first
+  const mu0 = fitMean ? mean / scale : 0;
+  const starts: Float64Array[] = [];
+  for (const p of [0.97, 0.9, 0.99]) for (const a of [0.08, 0.15, 0.04]) starts.push(toFree(mu0, 1 - p, a, p - a, 8));
+  const best = minimizeMultiStart(objective, starts, { runs: options.starts ?? 2, gradientTolerance: 1e-9, maxIterations: 300 });
+  toNatural(best.x, theta);
+
+  // standard errors from the Hessian of the log-likelihood (central differences of the analytic gradient)
+  const hess = new Float64Array(k * k);
+  const gp = new Float64Array(k), gm = new Float64Array(k), tp = new Float64Array(k);
+  for (let i = 0; i < k; i++) {
+    const step = 1e-5 * Math.max(Math.abs(theta[i]), 0.1);
+    tp.set(theta); tp[i] = theta[i] + step; garch11LogLikelihood(problem, tp, gp);
+    tp[i] = theta[i] - step; garch11LogLikelihood(problem, tp, gm);
+    for (let j = 0; j < k; j++) hess[i * k + j] = (gp[j] - gm[j]) / (2 * step);
+  }
+  for (let i = 0; i < k; i++) for (let j = 0; j < i; j++) { const v = 0.5 * (hess[i * k + j] + hess[j * k + i]); hess[i * k + j] = v; hess[j * k + i] = v; }
+  const information = hess.map((v) => -v);
+  const cov = invertMatrix(information, k);
+  const scoreRows = new Float64Array(n * k);
+  garch11LogLikelihood(problem, theta, new Float64Array(k), scoreRows);
+  const opg = new Float64Array(k * k);
+  for (let t = 0; t < n; t++) for (let i = 0; i < k; i++) { const si = scoreRows[t * k + i]; for (let j = 0; j < k; j++) opg[i * k + j] += si * scoreRows[t * k + j]; }
+  const robust = cov ? multiplyMatrices(multiplyMatrices(cov, opg, k), cov, k) : null;
+  const unit = (name: string): number => (name === "mu" ? scale : name === "omega" ? scale * scale : 1);
+  const standardErrors: Record<string, number> = {};
+  const robustStandardErrors: Record<string, number> = {};
+  names.forEach((name, i) => {
+    standardErrors[name] = cov && cov[i * k + i] > 0 ? Math.sqrt(cov[i * k + i]) * unit(name) : NaN;
+    robustStandardErrors[name] = robust && robust[i * k + i] > 0 ? Math.sqrt(robust[i * k + i]) * unit(name) : NaN;
+  });
+
+  // back to the caller's units
+  const mu = fitMean ? theta[iMu] * scale : 0;
+  const alpha = theta[iAl];
+  const beta = theta[iBe];
+  const persistence = alpha + beta;
+  const residuals = new Float64Array(n);
+  for (let i = 0; i < n; i++) residuals[i] = returns[i] - mu;
+  let omega: number;
+  if (targeting) {
+    let s2 = 0;
+    for (let i = 0; i < n; i++) s2 += residuals[i] * residuals[i];
+    omega = (1 - persistence) * (s2 / n);
+  } else omega = theta[iOm] * scale * scale;
+  const nu = studentT ? theta[iNu] : NaN;
+  const params: Record<string, number> = {};
+  if (fitMean) params.mu = mu;
+  params.omega = omega;
+  params.alpha = alpha;
+  params.beta = beta;
+  if (studentT) params.nu = nu;
+  // log-likelihood recomputed in the caller's units
+  const original: Garch11Problem = { x: Float64Array.from(returns as ArrayLike<number>), fitMean, studentT, targeting, init: likelihoodInit(init, n, 1) };
+  const naturalOriginal = names.map((name) => (name === "nu" ? nu : params[name]));
+  const logLikelihood = garch11LogLikelihood(original, naturalOriginal);
+  let h1: number;
+  if (typeof init === "number") h1 = init;
+  else if (init === "unconditional") h1 = omega / (1 - persistence);
+  else h1 = omega + persistence * backcastValue(returns, backcastWeights(init, n)!, mu);
+  const path = garch11Variance(residuals, { omega, alpha, beta }, h1);
+  const longRunVariance = persistence < 1 ? omega / (1 - persistence) : null;
+  const halfLifeDays = persistence < 1 && persistence > 0 ? Math.log(0.5) / Math.log(persistence) : null;
+  const moments = standardisedMoments(residuals, path.variance);
+  const gradientNorm = Math.max(...Array.from(best.gradient, Math.abs));
+
+  const warnings: EngineWarning[] = [];
+  const short = shortHistoryWarning(n, GARCH_WANTED_RETURNS, "GARCH(1,1) by maximum likelihood");
+  if (short) warnings.push(short);
+  const kurt = kurtosisWarning(moments.kurtosis, !studentT);
+  if (kurt) warnings.push(kurt);
+  if (alpha < 1e-6) warnings.push({ code: "bound-hit", message: `α is at its lower bound of 0 (α = ${alpha.toExponential(2)}): yesterday's return does not move the variance in this fit.` });
+  if (beta < 1e-6) warnings.push({ code: "bound-hit", message: `β is at its lower bound of 0 (β = ${beta.toExponential(2)}): the fit has no memory beyond one day.` });
+  if (studentT && nu > 200) warnings.push({ code: "bound-hit", message: `ν is very large (${nu.toFixed(0)}): the Student-t errors are indistinguishable from normal ones.` });
+  if (studentT && nu < 2.1) warnings.push({ code: "bound-hit", message: `ν is at its lower bound of 2 (ν = ${nu.toFixed(3)}): the variance of the errors is barely finite.` });
+  const failed = !best.converged || !Number.isFinite(logLikelihood);
+  if (failed) warnings.push({ code: "not-converged", message: `The optimiser stopped without meeting its convergence test (${best.stop}, largest gradient ${gradientNorm.toExponential(2)}).` });
+  const nearIntegrated = persistence >= NEAR_INTEGRATED;
+  if (nearIntegrated) {
+    warnings.push({
+      code: "near-integrated",
+      message: `The fit is near-integrated: α+β = ${persistence.toFixed(5)} ≥ ${NEAR_INTEGRATED}, so shocks barely die out and the long-run variance is not reliable. ${fallback === "ewma" ? "As the caller chose, EWMA (λ = 0.94) is used instead." : "The caller chose no fallback, so these are the GARCH estimates as fitted."}`,
+    });
+  }
+  if (!cov) warnings.push({ code: "singular-hessian", message: "The Hessian of the log-likelihood is singular at the optimum: standard errors are not available." });
+
+  const limitations = [...LIMITATIONS.garch];
+  if (!studentT) limitations.push(NORMAL_TAILS);
+  const k2 = k;
+  const fit: VolatilityFit = {
+    kind: "garch",
+    params,
+    standardErrors,
+    robustStandardErrors,
+    variance: path.variance,
+    currentVariance: path.currentVariance,
+    longRunVariance,
+    logLikelihood,
+    initialization: describeInit(init),
+    diagnostics: {
+      n,
+      mean: fitMean ? "fit" : "zero",
+      distribution: studentT ? "t" : "normal",
+      targeting,
+      persistence,
+      halfLifeDays,
+      aic: -2 * logLikelihood + 2 * k2,
+      bic: -2 * logLikelihood + k2 * Math.log(n),
+      converged: best.converged,
+      stop: best.stop,
+      iterations: best.iterations,
+      evaluations: best.totalEvaluations,
+      startsEvaluated: best.startsEvaluated,
+      optimiserRuns: best.runs,
+      gradientNorm,
+      standardisedSkewness: moments.skewness,
+      standardisedKurtosis: moments.kurtosis,
+    },
+    warnings,
+    limitations,
+    engineVersion: ENGINE_VERSION,
+  };
+  if (fallback === "ewma" && (nearIntegrated || failed)) {
+    const ewma = fitEwma(returns, { lambda: 0.94, init: init === "unconditional" ? "sample" : init });
+    return {
+      ...ewma,
+      warnings: [...warnings, ...ewma.warnings, { code: "fallback-used", message: `GARCH(1,1) ${failed ? "did not converge" : "was near-integrated"}; EWMA with λ = 0.94 was used instead, as the caller chose.` }],
+      fallbackFrom: { kind: "garch", params, logLikelihood, reason: failed ? "not-converged" : "near-integrated" },
+    };
+  }
+  return fit;
+}
