@@ -1,0 +1,38 @@
+"use server";
+
+import { eq, sql } from "drizzle-orm";
+import { cookies } from "next/headers";
+import { getDb } from "@/db/client";
+import { users } from "@/db/schema";
+import { signOut } from "@/lib/auth";
+import { action } from "@/lib/auth/action";
+import { FIRM_COOKIE } from "@/lib/auth/actor";
+import { recordAudit } from "@/lib/audit/record";
+import { z } from "zod";
+
+/**
+ * Sign out: the session cookie is cleared and the person's session version is bumped, so any copy of the
+ * session token stops working on the server too.
+ */
+const endSession = action("member", z.object({}), async (_input, actor) => {
+  await getDb().transaction(async (tx) => {
+    await tx.update(users).set({ sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, actor.userId));
+    await recordAudit(tx, actor, { action: "session.sign_out", entityType: "user", entityId: actor.userId, summary: `${actor.name} signed out` });
+  });
+});
+
+export async function signOutAction(): Promise<void> {
+  await endSession({});
+  await signOut({ redirectTo: "/sign-in" });
+}
+
+/** Switch the firm a person works for (only among their own memberships; the gate re-checks on every request). */
+const chooseFirm = action("member", z.object({ firmId: z.string().uuid() }), async ({ firmId }, actor) => {
+  if (!actor.firms.some((f) => f.id === firmId)) return false;
+  (await cookies()).set(FIRM_COOKIE, firmId, { httpOnly: true, sameSite: "lax", path: "/" });
+  return true;
+});
+
+export async function switchFirmAction(formData: FormData): Promise<void> {
+  await chooseFirm({ firmId: formData.get("firmId") });
+}

@@ -1,0 +1,157 @@
+"use client";
+
+import { useMemo, useState } from "react";
+import { keepPreviousData, useQuery } from "@tanstack/react-query";
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { apiFetch } from "@/app/_components/api";
+import { inputClass, secondaryButtonClass } from "@/app/_components/field";
+import { formatTimestamp } from "@/app/_components/format";
+
+interface AuditRow {
+  id: string;
+  at: string;
+  actorName: string;
+  action: string;
+  entityType: string;
+  entityId: string | null;
+  summary: string;
+}
+interface AuditPage {
+  events: AuditRow[];
+  total: number;
+  page: number;
+  pageSize: number;
+  actions: string[];
+}
+
+const column = createColumnHelper<AuditRow>();
+const columns = [
+  column.accessor("at", { header: "When (UTC)", cell: (c) => <span className="figure whitespace-nowrap">{formatTimestamp(c.getValue())}</span> }),
+  column.accessor("actorName", { header: "Who", cell: (c) => c.getValue() || "System" }),
+  column.accessor("action", { header: "Action", cell: (c) => <code className="text-xs">{c.getValue()}</code> }),
+  column.accessor("summary", { header: "What" }),
+  column.accessor("entityType", {
+    header: "Record",
+    cell: (c) => (
+      <span className="text-xs text-ink-muted">
+        {c.getValue()}
+        {c.row.original.entityId ? ` ${c.row.original.entityId.slice(0, 8)}` : ""}
+      </span>
+    ),
+  }),
+];
+
+export function AuditTable() {
+  const [filters, setFilters] = useState({ action: "", from: "", to: "", q: "" });
+  const [page, setPage] = useState(1);
+  const pageSize = 50;
+  const queryString = useMemo(() => {
+    const params = new URLSearchParams({ page: String(page), pageSize: String(pageSize) });
+    for (const [key, value] of Object.entries(filters)) if (value) params.set(key, value);
+    return params.toString();
+  }, [filters, page]);
+  const { data, error, isLoading, isFetching } = useQuery({
+    queryKey: ["audit", queryString],
+    queryFn: () => apiFetch<AuditPage>(`/api/audit?${queryString}`),
+    placeholderData: keepPreviousData,
+  });
+  const table = useReactTable({ data: data?.events ?? [], columns, getCoreRowModel: getCoreRowModel(), manualPagination: true });
+  const pages = data ? Math.max(1, Math.ceil(data.total / pageSize)) : 1;
+
+  function update(key: keyof typeof filters, value: string) {
+    setFilters((f) => ({ ...f, [key]: value }));
+    setPage(1);
+  }
+
+  return (
+    <div className="flex flex-col gap-4">
+      <form role="search" aria-label="Filter the audit trail" className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()}>
+        <label className="flex flex-col gap-1 text-sm">
+          Action
+          <select className={inputClass} value={filters.action} onChange={(e) => update("action", e.target.value)}>
+            <option value="">All actions</option>
+            {data?.actions.map((a) => (
+              <option key={a} value={a}>
+                {a}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          From
+          <input type="date" className={inputClass} value={filters.from} onChange={(e) => update("from", e.target.value)} />
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          To
+          <input type="date" className={inputClass} value={filters.to} onChange={(e) => update("to", e.target.value)} />
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          Search
+          <input type="search" placeholder="Person or text" className={inputClass} value={filters.q} onChange={(e) => update("q", e.target.value)} />
+        </label>
+        <p className="pb-2 text-sm text-ink-muted" aria-live="polite">
+          {isFetching ? "Loading…" : data ? `${data.total} event${data.total === 1 ? "" : "s"}` : ""}
+        </p>
+      </form>
+      {error ? (
+        <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-3 text-sm text-alert">
+          {error instanceof Error ? error.message : "Could not load the audit trail."}
+        </p>
+      ) : null}
+      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+        <table className="w-full text-sm">
+          <caption className="sr-only">Audit events, newest first</caption>
+          <thead className="bg-paper-sunk text-left text-ink-soft">
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id}>
+                {group.headers.map((header) => (
+                  <th key={header.id} scope="col" className="px-3 py-2 font-medium">
+                    {flexRender(header.column.columnDef.header, header.getContext())}
+                  </th>
+                ))}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {isLoading ? (
+              <tr>
+                <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
+                  Loading the audit trail…
+                </td>
+              </tr>
+            ) : table.getRowModel().rows.length === 0 ? (
+              <tr>
+                <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
+                  No event matches these filters.
+                </td>
+              </tr>
+            ) : (
+              table.getRowModel().rows.map((row) => (
+                <tr key={row.id} className="border-t border-ink-line align-top" data-testid="audit-row">
+                  {row.getVisibleCells().map((cell) => (
+                    <td key={cell.id} className="px-3 py-2">
+                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                    </td>
+                  ))}
+                </tr>
+              ))
+            )}
+          </tbody>
+        </table>
+      </div>
+      <div className="flex items-center justify-between text-sm">
+        <span>
+          Page {page} of {pages}
+        </span>
+        <div className="flex gap-2">
+          <button type="button" className={secondaryButtonClass} disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
+            Newer
+          </button>
+          <button type="button" className={secondaryButtonClass} disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>
+            Older
+          </button>
+        </div>
+      </div>
+    </div>
+  );
+}

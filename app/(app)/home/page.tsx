@@ -1,0 +1,79 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { PageHeader } from "@/app/_components/page-header";
+import { DeadlineBadge } from "@/app/_components/deadline-badge";
+import { StatusBadge } from "@/app/_components/status-badge";
+import { formatDate, formatMonth } from "@/app/_components/format";
+import { pageActor } from "@/lib/auth/page";
+import { listPeriods } from "@/lib/data/periods";
+import { ROLE_LABELS } from "@/lib/auth/roles";
+import { can } from "@/lib/auth/permissions";
+
+export const metadata: Metadata = { title: "This month" };
+
+/** "What does this month end need from me now?" */
+export default async function HomePage() {
+  const { actor } = await pageActor();
+  const periods = await listPeriods(actor);
+  const open = periods.filter((p) => p.nextStep !== null);
+  const mine = open.filter((p) => p.nextStep && actor.roles.includes(p.nextStep.owner));
+
+  return (
+    <>
+      <PageHeader
+        title={`Good day, ${actor.name.split(" ")[0]}`}
+        lead={
+          mine.length > 0
+            ? `${mine.length} open period${mine.length === 1 ? " needs" : "s need"} something from you.`
+            : open.length > 0
+              ? "Nothing is waiting on you right now; others own the next steps below."
+              : "No reporting period is open."
+        }
+      />
+      {open.length === 0 ? (
+        <div className="rounded-lg border border-dashed border-ink-line bg-paper-raised p-8 text-center">
+          <h2 className="text-lg font-semibold">No open reporting period</h2>
+          <p className="mx-auto mt-2 max-w-xl text-ink-soft">
+            Periods open at each month end. {can(actor, "periods.open") ? "You can also open one by hand from Periods." : "A compliance officer can also open one by hand."}
+          </p>
+          <Link href="/periods" className="mt-4 inline-block font-medium text-brass underline">
+            Go to periods
+          </Link>
+        </div>
+      ) : (
+        <ul className="grid gap-4 lg:grid-cols-2">
+          {open.map((p) => {
+            const yours = p.nextStep && actor.roles.includes(p.nextStep.owner);
+            return (
+              <li key={p.id} className={`rounded-lg border bg-paper-raised p-5 ${yours ? "border-brass" : "border-ink-line"}`}>
+                <div className="flex flex-wrap items-start justify-between gap-2">
+                  <div>
+                    <h2 className="text-lg font-semibold">
+                      <Link href={`/periods/${p.id}`} className="hover:underline">
+                        {formatMonth(p.periodEnd)}
+                      </Link>
+                    </h2>
+                    <p className="text-sm text-ink-muted">Deadline {formatDate(p.deadline)}</p>
+                  </div>
+                  <DeadlineBadge businessDaysLeft={p.businessDaysLeft} overdue={p.overdue} done={false} />
+                </div>
+                {p.nextStep ? (
+                  <div className="mt-4 rounded-md bg-paper-sunk p-3">
+                    <p className="text-xs uppercase tracking-wide text-ink-muted">Next step</p>
+                    <p className="mt-1 font-medium">{p.nextStep.label}</p>
+                    <p className="mt-1 text-sm text-ink-soft">
+                      Owner: {ROLE_LABELS[p.nextStep.owner]} {yours ? <StatusBadge tone="caution">Yours</StatusBadge> : null}
+                    </p>
+                  </div>
+                ) : null}
+                <p className="mt-3 text-sm text-ink-muted">
+                  {p.steps.filter((s) => s.done).length} of {p.steps.length} steps done
+                </p>
+              </li>
+            );
+          })}
+        </ul>
+      )}
+    </>
+  );
+}

@@ -1,0 +1,163 @@
+"use client";
+
+import { useState } from "react";
+import { useForm, Controller } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { newMemberSchema, type NewMemberInput } from "@/lib/validation/firm";
+import { ROLES, ROLE_LABELS, type Role } from "@/lib/auth/roles";
+import { apiFetch, ApiError } from "@/app/_components/api";
+import { Field, inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { StatusBadge } from "@/app/_components/status-badge";
+import type { Member } from "@/lib/data/members";
+
+function RolePicker({ value, onChange, idPrefix }: { value: Role[]; onChange: (roles: Role[]) => void; idPrefix: string }) {
+  return (
+    <div className="flex flex-wrap gap-x-4 gap-y-1">
+      {ROLES.map((role) => (
+        <label key={role} className="flex items-center gap-1.5 text-sm" htmlFor={`${idPrefix}-${role}`}>
+          <input
+            id={`${idPrefix}-${role}`}
+            type="checkbox"
+            checked={value.includes(role)}
+            onChange={(e) => onChange(e.target.checked ? ROLES.filter((r) => r === role || value.includes(r)) : value.filter((r) => r !== role))}
+          />
+          {ROLE_LABELS[role]}
+        </label>
+      ))}
+    </div>
+  );
+}
+
+function MemberRow({ member, isSelf, onChanged }: { member: Member; isSelf: boolean; onChanged: (m: Member) => void }) {
+  const [roles, setRoles] = useState<Role[]>(member.roles);
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const dirty = roles.join() !== member.roles.join();
+
+  async function save(body: { roles?: Role[]; active?: boolean }) {
+    setBusy(true);
+    setError(null);
+    try {
+      const { member: updated } = await apiFetch<{ member: Member }>(`/api/members/${member.id}`, { method: "PATCH", body });
+      setRoles(updated.roles);
+      onChanged(updated);
+    } catch (e) {
+      setError(e instanceof Error ? e.message : "Could not save.");
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <li className="rounded-lg border border-ink-line bg-paper-raised p-4" data-testid="member-row">
+      <div className="flex flex-wrap items-start justify-between gap-2">
+        <div>
+          <p className="font-medium">
+            {member.name} {isSelf ? <span className="text-sm text-ink-muted">(you)</span> : null}
+          </p>
+          <p className="text-sm text-ink-muted">{member.email}</p>
+        </div>
+        {member.active ? <StatusBadge tone="ok">Active</StatusBadge> : <StatusBadge tone="neutral">Deactivated</StatusBadge>}
+      </div>
+      <fieldset className="mt-3" disabled={busy || !member.active}>
+        <legend className="sr-only">Roles of {member.name}</legend>
+        <RolePicker value={roles} onChange={setRoles} idPrefix={`m-${member.id}`} />
+      </fieldset>
+      <div className="mt-3 flex flex-wrap gap-2">
+        {member.active ? (
+          <>
+            <button type="button" className={secondaryButtonClass} disabled={!dirty || busy || roles.length === 0} onClick={() => save({ roles })}>
+              Save roles
+            </button>
+            <button type="button" className={secondaryButtonClass} disabled={busy} onClick={() => save({ active: false })}>
+              Deactivate
+            </button>
+          </>
+        ) : (
+          <button type="button" className={secondaryButtonClass} disabled={busy} onClick={() => save({ active: true })}>
+            Reactivate
+          </button>
+        )}
+      </div>
+      {roles.length === 0 ? <p className="mt-2 text-sm text-alert">Give at least one role.</p> : null}
+      {error ? (
+        <p role="alert" className="mt-2 text-sm text-alert">
+          {error}
+        </p>
+      ) : null}
+    </li>
+  );
+}
+
+export function MembersPanel({ initial, currentUserId }: { initial: Member[]; currentUserId: string }) {
+  const [members, setMembers] = useState(initial);
+  const [status, setStatus] = useState<string | null>(null);
+  const {
+    register,
+    control,
+    handleSubmit,
+    reset,
+    setError,
+    formState: { errors, isSubmitting },
+  } = useForm<NewMemberInput>({ resolver: zodResolver(newMemberSchema), defaultValues: { name: "", email: "", roles: [], password: "" } });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setStatus(null);
+    try {
+      const { member } = await apiFetch<{ member: Member }>("/api/members", { method: "POST", body: values });
+      setMembers((list) => [...list, member]);
+      reset();
+      setStatus(`${member.name} was added. A person who already has a Ballast account signs in with their existing password.`);
+    } catch (e) {
+      if (e instanceof ApiError && e.fields) {
+        for (const [field, message] of Object.entries(e.fields)) setError(field as keyof NewMemberInput, { message });
+      }
+      setStatus(e instanceof Error ? e.message : "Could not add the person.");
+    }
+  });
+
+  return (
+    <div className="flex flex-col gap-4">
+      <ul className="flex flex-col gap-3" aria-label="Members">
+        {members.map((m) => (
+          <MemberRow key={m.id} member={m} isSelf={m.userId === currentUserId} onChanged={(u) => setMembers((list) => list.map((x) => (x.id === u.id ? u : x)))} />
+        ))}
+      </ul>
+      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4 rounded-lg border border-ink-line bg-paper-raised p-5" aria-labelledby="add-member-heading">
+        <h3 id="add-member-heading" className="font-semibold">
+          Add a person
+        </h3>
+        <div className="grid gap-4 sm:grid-cols-2">
+          <Field id="new-name" label="Name" error={errors.name?.message}>
+            <input id="new-name" className={inputClass} aria-invalid={Boolean(errors.name)} {...register("name")} />
+          </Field>
+          <Field id="new-email" label="E-mail" error={errors.email?.message}>
+            <input id="new-email" type="email" className={inputClass} aria-invalid={Boolean(errors.email)} {...register("email")} />
+          </Field>
+        </div>
+        <Field id="new-password" label="First password" hint="At least 12 characters; they can change it later." error={errors.password?.message}>
+          <input id="new-password" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(errors.password)} {...register("password")} />
+        </Field>
+        <fieldset>
+          <legend className="mb-1 text-sm font-medium">Roles</legend>
+          <Controller control={control} name="roles" render={({ field }) => <RolePicker value={field.value} onChange={field.onChange} idPrefix="new-role" />} />
+          {errors.roles?.message ? (
+            <p role="alert" className="mt-1 text-sm text-alert">
+              {errors.roles.message}
+            </p>
+          ) : null}
+        </fieldset>
+        <div className="flex items-center gap-3">
+          <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
+            {isSubmitting ? "Adding…" : "Add person"}
+          </button>
+          {status ? (
+            <p role="status" className="text-sm text-ink-soft">
+              {status}
+            </p>
+          ) : null}
+        </div>
+      </form>
+    </div>
+  );
+}

@@ -1,0 +1,41 @@
+import type { Metadata } from "next";
+import { PageHeader } from "@/app/_components/page-header";
+import { pageActor } from "@/lib/auth/page";
+import { can } from "@/lib/auth/permissions";
+import { getFirmSettings } from "@/lib/data/firm";
+import { listMembers } from "@/lib/data/members";
+import { FirmSettingsForm } from "./firm-settings-form";
+import { MembersPanel } from "./members-panel";
+
+export const metadata: Metadata = { title: "Settings" };
+
+export default async function SettingsPage() {
+  const { actor } = await pageActor("firm.read");
+  const settings = await getFirmSettings(actor);
+  const admin = can(actor, "users.manage");
+  const members = admin ? await listMembers(actor) : [];
+  return (
+    <>
+      <PageHeader
+        title="Settings"
+        lead={admin ? "The firm's profile, its filing deadline rule, and who may do what." : "The firm's profile. Only an administrator can change it."}
+      />
+      <div className="grid gap-8 xl:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
+        <section aria-labelledby="firm-heading">
+          <h2 id="firm-heading" className="mb-3 text-lg font-semibold">
+            Firm
+          </h2>
+          <FirmSettingsForm initial={settings} editable={can(actor, "firm.settings")} />
+        </section>
+        {admin ? (
+          <section aria-labelledby="members-heading">
+            <h2 id="members-heading" className="mb-3 text-lg font-semibold">
+              People and roles
+            </h2>
+            <MembersPanel initial={members} currentUserId={actor.userId} />
+          </section>
+        ) : null}
+      </div>
+    </>
+  );
+}

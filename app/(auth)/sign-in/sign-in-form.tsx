@@ -1,0 +1,69 @@
+"use client";
+
+import { useState } from "react";
+import { useRouter } from "next/navigation";
+import { useForm } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { signIn } from "next-auth/react";
+import { signInSchema, type SignInInput } from "@/lib/validation/auth";
+import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+
+const GENERIC = "That e-mail and password do not match an active account.";
+const RATE_LIMITED = "Too many sign-in attempts. Wait 15 minutes and try again.";
+
+export function SignInForm({ next, expired }: { next: string; expired: boolean }) {
+  const router = useRouter();
+  const [formError, setFormError] = useState<string | null>(expired ? "Your session ended. Sign in again." : null);
+  const {
+    register,
+    handleSubmit,
+    formState: { errors, isSubmitting },
+  } = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: "", password: "" } });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError(null);
+    const result = await signIn("credentials", { ...values, redirect: false });
+    if (!result || result.error) {
+      setFormError(result?.code === "rate_limited" ? RATE_LIMITED : GENERIC);
+      return;
+    }
+    router.replace(next);
+    router.refresh();
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4" aria-describedby={formError ? "sign-in-error" : undefined}>
+      {formError ? (
+        <p id="sign-in-error" role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
+          {formError}
+        </p>
+      ) : null}
+      <Field id="email" label="E-mail" error={errors.email?.message}>
+        <input
+          id="email"
+          type="email"
+          autoComplete="username"
+          autoFocus
+          className={inputClass}
+          aria-invalid={Boolean(errors.email)}
+          aria-describedby={errors.email ? "email-error" : undefined}
+          {...register("email")}
+        />
+      </Field>
+      <Field id="password" label="Password" error={errors.password?.message}>
+        <input
+          id="password"
+          type="password"
+          autoComplete="current-password"
+          className={inputClass}
+          aria-invalid={Boolean(errors.password)}
+          aria-describedby={errors.password ? "password-error" : undefined}
+          {...register("password")}
+        />
+      </Field>
+      <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
+        {isSubmitting ? "Signing in…" : "Sign in"}
+      </button>
+    </form>
+  );
+}

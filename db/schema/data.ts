@@ -1,0 +1,85 @@
+import { sqliteTable, text, integer, real, index, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { id, createdAt, firmColumns } from "../columns";
+
+/** An uploaded file: positions for a period, or price history for the firm. Confirmed by a person before use. */
+export const uploads = sqliteTable(
+  "uploads",
+  {
+    id: id(),
+    ...firmColumns,
+    periodId: text("period_id"),
+    kind: text("kind").notNull(), // "positions" | "prices"
+    fileName: text("file_name").notNull(),
+    /** generated storage key, never the client's file name */
+    fileKey: text("file_key").notNull(),
+    sha256: text("sha256").notNull(),
+    sizeBytes: integer("size_bytes").notNull(),
+    /** pending → confirmed | cancelled; confirmed → superseded */
+    status: text("status").notNull().default("pending"),
+    summary: text("summary", { mode: "json" }).$type<Record<string, unknown>>(),
+    problems: text("problems", { mode: "json" }).$type<unknown[]>(),
+    uploadedBy: text("uploaded_by").notNull(),
+    confirmedBy: text("confirmed_by"),
+    confirmedAt: text("confirmed_at"),
+    supersededBy: text("superseded_by"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("uploads_firm_period").on(t.firmId, t.periodId)],
+);
+export type Upload = typeof uploads.$inferSelect;
+
+/** The firm's instruments, including exchange-rate series named by currency pair. */
+export const instruments = sqliteTable(
+  "instruments",
+  {
+    id: id(),
+    ...firmColumns,
+    code: text("code").notNull(),
+    name: text("name").notNull().default(""),
+    assetClass: text("asset_class").notNull().default("unknown"),
+    currency: text("currency").notNull().default(""),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("instruments_firm_code").on(t.firmId, t.code)],
+);
+export type Instrument = typeof instruments.$inferSelect;
+
+/** One closing price. A correction keeps the old row (current = false) and points to the upload that replaced it. */
+export const pricePoints = sqliteTable(
+  "price_points",
+  {
+    id: id(),
+    ...firmColumns,
+    instrumentId: text("instrument_id").notNull(),
+    date: text("date").notNull(),
+    close: real("close").notNull(),
+    uploadId: text("upload_id"),
+    current: integer("current", { mode: "boolean" }).notNull().default(true),
+    replacedByUpload: text("replaced_by_upload"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("price_points_firm_instrument_date").on(t.firmId, t.instrumentId, t.date)],
+);
+
+/** One month-end position row from a confirmed positions upload. */
+export const positions = sqliteTable(
+  "positions",
+  {
+    id: id(),
+    ...firmColumns,
+    periodId: text("period_id").notNull(),
+    uploadId: text("upload_id").notNull(),
+    rowNumber: integer("row_number").notNull(),
+    asOf: text("as_of").notNull(),
+    book: text("book").notNull(),
+    instrumentCode: text("instrument_code").notNull(),
+    instrumentName: text("instrument_name").notNull(),
+    assetClass: text("asset_class").notNull(),
+    currency: text("currency").notNull(),
+    quantity: real("quantity").notNull(),
+    price: real("price").notNull(),
+    marketValue: real("market_value").notNull(),
+    deltaExposure: real("delta_exposure"),
+  },
+  (t) => [index("positions_firm_upload").on(t.firmId, t.uploadId)],
+);

@@ -1,0 +1,53 @@
+import { sqliteTable, text, integer, index } from "drizzle-orm/sqlite-core";
+import { id, createdAt, firmColumns } from "../columns";
+
+/** A draft filing assembled from a run. Signed versions are locked; a change is a new version pointing back. */
+export const filings = sqliteTable(
+  "filings",
+  {
+    id: id(),
+    ...firmColumns,
+    periodId: text("period_id").notNull(),
+    runId: text("run_id").notNull(),
+    version: integer("version").notNull().default(1),
+    previousId: text("previous_id"),
+    /** draft → in_review → changes_requested → in_review … → signed → filed */
+    status: text("status").notNull().default("draft"),
+    content: text("content", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    coverNote: text("cover_note").notNull().default(""),
+    reason: text("reason").notNull().default(""),
+    preparedBy: text("prepared_by").notNull(),
+    submittedBy: text("submitted_by"),
+    filedAt: text("filed_at"),
+    filingReference: text("filing_reference"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("filings_firm_period").on(t.firmId, t.periodId)],
+);
+
+/** A review comment on one section of a filing. */
+export const reviewComments = sqliteTable("review_comments", {
+  id: id(),
+  ...firmColumns,
+  filingId: text("filing_id").notNull(),
+  section: text("section").notNull(),
+  body: text("body").notNull(),
+  kind: text("kind").notNull().default("comment"), // comment | changes_requested | reply
+  authorId: text("author_id").notNull(),
+  createdAt: createdAt(),
+});
+
+/** A signature over the SHA-256 of a filing's canonical content. */
+export const signatures = sqliteTable("signatures", {
+  id: id(),
+  ...firmColumns,
+  filingId: text("filing_id").notNull(),
+  signerId: text("signer_id").notNull(),
+  signerName: text("signer_name").notNull(),
+  licenceReference: text("licence_reference").notNull(),
+  contentHash: text("content_hash").notNull(),
+  signedAt: text("signed_at").notNull(),
+  supersededAt: text("superseded_at"),
+  supersededReason: text("superseded_reason"),
+  createdAt: createdAt(),
+});

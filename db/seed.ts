@@ -1,0 +1,114 @@
+/**
+ * The demo: an invented broker (Northmoor Brokerage) with one person per role and one holding two roles, and a
+ * smaller invented firm (Pellam Capital) so that tenant isolation can be seen. `npm run db:seed` resets and
+ * fills the configured database. Names, firms and addresses are invented (.example is a reserved domain).
+ */
+import path from "node:path";
+import { rmSync } from "node:fs";
+import { format, subMonths, endOfMonth } from "date-fns";
+import bcrypt from "bcryptjs";
+import { openDatabase, databaseUrl, type Database } from "./client";
+import { migrateDatabase } from "./migrate";
+import * as s from "./schema";
+import { deadlineFor } from "../lib/calendar/deadline";
+
+/** The demo-only password of every demo user. Never use it anywhere else. */
+export const DEMO_PASSWORD = "ballast-demo-2026";
+
+export const DEMO_USERS = [
+  { email: "ada.quayle@northmoor.example", name: "Ada Quayle", roles: ["admin"] },
+  { email: "tomas.reyne@northmoor.example", name: "Tomas Reyne", roles: ["compliance_officer"] },
+  { email: "priya.castell@northmoor.example", name: "Priya Castell", roles: ["risk_analyst"] },
+  { email: "helen.marsh@northmoor.example", name: "Helen Marsh", roles: ["compliance_head"] },
+  { email: "oskar.lind@northmoor.example", name: "Oskar Lind", roles: ["auditor"] },
+  { email: "nia.dorrance@northmoor.example", name: "Nia Dorrance", roles: ["compliance_officer", "risk_analyst"] },
+] as const;
+
+export const SECOND_FIRM_USERS = [
+  { email: "rafe.pellam@pellam.example", name: "Rafe Pellam", roles: ["admin", "compliance_head"] },
+  { email: "june.okafor@pellam.example", name: "June Okafor", roles: ["compliance_officer", "risk_analyst"] },
+] as const;
+
+/** Plus factors by exception count over 250 days (Basel Committee 1996 backtesting framework, Table 2). */
+export const BASEL_PLUS_FACTORS: Record<string, number> = { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 };
+
+/** Holidays of the demo firm's calendar (invented for the demo; a firm uploads its own). */
+const DEMO_HOLIDAYS = [
+  ["2026-12-24", "Christmas Eve"], ["2026-12-25", "Christmas Day"], ["2026-12-26", "Second Christmas Day"],
+  ["2026-12-31", "New Year's Eve"], ["2027-01-01", "New Year's Day"],
+] as const;
+
+async function seedFirm(
+  db: Database,
+  firm: { name: string; slug: string; currency: string; regulator: string },
+  people: readonly { email: string; name: string; roles: readonly string[] }[],
+  passwordHash: string,
+  today: Date,
+  holidayList: readonly (readonly [string, string])[],
+) {
+  const [row] = await db
+    .insert(s.firms)
+    .values({ name: firm.name, slug: firm.slug, reportingCurrency: firm.currency, regulatorName: firm.regulator, licenceLabel: "Registration no." })
+    .returning();
+  await db.insert(s.calendarSettings).values({ firmId: row.id, deadlineRule: "business-days-after", deadlineValue: 15 });
+  if (holidayList.length) await db.insert(s.holidays).values(holidayList.map(([date, name]) => ({ firmId: row.id, date, name })));
+  await db.insert(s.capitalRuleProfiles).values({ firmId: row.id, plusFactors: BASEL_PLUS_FACTORS });
+  const at = today.toISOString();
+  for (const person of people) {
+    const [user] = await db.insert(s.users).values({ email: person.email, name: person.name, passwordHash }).returning();
+    const [membership] = await db.insert(s.memberships).values({ firmId: row.id, userId: user.id, roles: [...person.roles] }).returning();
+    await db.insert(s.auditEvents).values({
+      firmId: row.id,
+      actorId: null,
+      actorName: "Demo set-up",
+      at,
+      action: "member.add",
+      entityType: "membership",
+      entityId: membership.id,
+      summary: `Added ${person.name} <${person.email}> as ${person.roles.join(", ")}`,
+    });
+  }
+  const periodEnd = format(endOfMonth(subMonths(today, 1)), "yyyy-MM-dd");
+  const deadline = deadlineFor(periodEnd, { kind: "business-days-after", days: 15 }, new Set(holidayList.map(([d]) => d)));
+  const [period] = await db.insert(s.reportingPeriods).values({ firmId: row.id, periodEnd, deadline }).returning();
+  await db.insert(s.auditEvents).values({
+    firmId: row.id,
+    actorId: null,
+    actorName: "Demo set-up",
+    at,
+    action: "period.open",
+    entityType: "reporting_period",
+    entityId: period.id,
+    summary: `Opened the period ending ${periodEnd} (deadline ${deadline})`,
+  });
+  return row;
+}
+
+/** Fill an empty, migrated database with the demo firms. `today` fixes the demo's month end. */
+export async function seedDemo(db: Database, today = new Date()): Promise<void> {
+  const existing = await db.select({ id: s.firms.id }).from(s.firms).limit(1);
+  if (existing.length) throw new Error("the database already holds firms; the demo seeds only an empty database");
+  const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 11);
+  await seedFirm(db, { name: "Northmoor Brokerage Ltd", slug: "northmoor", currency: "EUR", regulator: "Financial Markets Authority (demo)" }, DEMO_USERS, passwordHash, today, DEMO_HOLIDAYS);
+  await seedFirm(db, { name: "Pellam Capital Partners", slug: "pellam", currency: "GBP", regulator: "Conduct Authority (demo)" }, SECOND_FIRM_USERS, passwordHash, today, []);
+}
+
+if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename)) {
+  (async () => {
+    const url = databaseUrl();
+    if (url.startsWith("file:")) {
+      // The demo starts from a fresh file: remove the old one with its WAL side files.
+      const file = path.resolve(url.slice("file:".length));
+      for (const suffix of ["", "-wal", "-shm"]) rmSync(file + suffix, { force: true });
+    }
+    await migrateDatabase();
+    const db = openDatabase();
+    const pinned = process.env.BALLAST_CLOCK;
+    await seedDemo(db, pinned ? new Date(pinned.length === 10 ? `${pinned}T09:00:00Z` : pinned) : new Date());
+    db.$client.close();
+    console.log(`seeded the demo firms into ${databaseUrl()}`);
+  })().catch((error) => {
+    console.error(`seed failed: ${error instanceof Error ? error.message : error}`);
+    process.exit(1);
+  });
+}

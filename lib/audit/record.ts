@@ -1,0 +1,28 @@
+/** Write one audit event inside the caller's transaction, so the change and its record stand or fall together. */
+import "server-only";
+import { auditEvents } from "@/db/schema";
+import type { Tx, Database } from "@/db/client";
+import type { Actor } from "@/lib/auth/actor";
+
+export interface AuditInput {
+  action: string;
+  entityType: string;
+  entityId?: string | null;
+  summary: string;
+  detail?: Record<string, unknown>;
+}
+
+/** Record who did what, when, on which record. */
+export async function recordAudit(tx: Tx | Database, actor: Pick<Actor, "userId" | "name" | "firmId">, event: AuditInput): Promise<void> {
+  await tx.insert(auditEvents).values({
+    firmId: actor.firmId,
+    actorId: actor.userId,
+    actorName: actor.name,
+    at: new Date().toISOString(),
+    action: event.action,
+    entityType: event.entityType,
+    entityId: event.entityId ?? null,
+    summary: event.summary,
+    detail: event.detail ?? null,
+  });
+}

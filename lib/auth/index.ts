@@ -1,0 +1,78 @@
+/**
+ * Sign-in with Auth.js (next-auth 5): e-mail and password, JWT sessions carrying only the user id and a session
+ * version. Roles and firm are read from the membership on every request by lib/auth/actor.ts.
+ */
+import NextAuth, { CredentialsSignin, type DefaultSession } from "next-auth";
+import type {} from "next-auth/jwt";
+import Credentials from "next-auth/providers/credentials";
+import { eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { users } from "@/db/schema";
+import { signInSchema } from "@/lib/validation/auth";
+import { verifyPassword, dummyHash } from "./password";
+import { isSignInBlocked, recordSignInAttempt } from "./rate-limit";
+
+declare module "next-auth" {
+  interface Session {
+    user: { id: string } & DefaultSession["user"];
+  }
+}
+declare module "next-auth/jwt" {
+  interface JWT {
+    uid?: string;
+    sv?: number;
+  }
+}
+
+/** Too many recent failures for this account or address. */
+class RateLimited extends CredentialsSignin {
+  code = "rate_limited";
+}
+
+/** Hours a session lasts without activity. */
+export const SESSION_MAX_AGE_SECONDS = 8 * 60 * 60;
+
+/** The caller's address as the proxy in front reports it, for rate limiting. */
+function clientAddress(request: Request | undefined): string {
+  const forwarded = request?.headers.get("x-forwarded-for");
+  return forwarded?.split(",")[0]?.trim() || request?.headers.get("x-real-ip") || "local";
+}
+
+export const { handlers, auth, signIn, signOut } = NextAuth({
+  trustHost: true,
+  session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_SECONDS, updateAge: 15 * 60 },
+  pages: { signIn: "/sign-in", error: "/sign-in" },
+  providers: [
+    Credentials({
+      credentials: { email: {}, password: {} },
+      async authorize(raw, request) {
+        const parsed = signInSchema.safeParse(raw);
+        if (!parsed.success) return null;
+        const email = parsed.data.email.toLowerCase();
+        const address = clientAddress(request);
+        if (await isSignInBlocked(email, address)) throw new RateLimited();
+        const [user] = await getDb().select().from(users).where(eq(users.email, email));
+        // Compare against a dummy hash when there is no such user, so the answer takes as long either way.
+        const ok = await verifyPassword(parsed.data.password, user?.passwordHash ?? (await dummyHash()));
+        const accepted = Boolean(user && ok && user.active);
+        await recordSignInAttempt(email, address, accepted);
+        if (!accepted || !user) return null;
+        return { id: user.id, name: user.name, email: user.email, sessionVersion: user.sessionVersion } as never;
+      },
+    }),
+  ],
+  callbacks: {
+    jwt({ token, user }) {
+      if (user) {
+        token.uid = user.id;
+        token.sv = (user as { sessionVersion?: number }).sessionVersion ?? 1;
+      }
+      return token;
+    },
+    session({ session, token }) {
+      if (token.uid) session.user.id = token.uid;
+      (session as { sv?: number }).sv = token.sv;
+      return session;
+    },
+  },
+});

@@ -1,0 +1,151 @@
+/** Reporting periods: listing, opening, and what each still needs and from whom. */
+import "server-only";
+import { and, desc, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { calendarSettings, holidays, reportingPeriods, uploads, methodStatements, runs, filings } from "@/db/schema";
+import { AppError } from "@/lib/errors";
+import { recordAudit } from "@/lib/audit/record";
+import type { Actor } from "@/lib/auth/actor";
+import type { Role } from "@/lib/auth/roles";
+import { businessDaysBetween, deadlineFor, type DeadlineRule } from "@/lib/calendar/deadline";
+import { today } from "@/lib/clock";
+import { periodEndOf } from "@/lib/validation/periods";
+
+/** The month-end steps in order, each with the role that owns it. */
+export const STEPS = [
+  { key: "positions", label: "Upload and confirm month-end positions", owner: "compliance_officer" },
+  { key: "method", label: "Approve the method statement", owner: "risk_analyst" },
+  { key: "run", label: "Complete a run", owner: "risk_analyst" },
+  { key: "filing", label: "Prepare and submit the draft filing", owner: "compliance_officer" },
+  { key: "signoff", label: "Review and sign the filing", owner: "compliance_head" },
+  { key: "file", label: "File with the regulator and record the reference", owner: "compliance_officer" },
+] as const satisfies readonly { key: string; label: string; owner: Role }[];
+export type StepKey = (typeof STEPS)[number]["key"];
+
+/** The firm's deadline rule and holiday set. */
+export async function getCalendar(firmId: string): Promise<{ rule: DeadlineRule; holidays: Set<string> }> {
+  const db = getDb();
+  const [settings] = await db.select().from(calendarSettings).where(eq(calendarSettings.firmId, firmId));
+  const rows = await db.select({ date: holidays.date }).from(holidays).where(eq(holidays.firmId, firmId));
+  const rule: DeadlineRule =
+    settings?.deadlineRule === "fixed-day-next-month"
+      ? { kind: "fixed-day-next-month", day: settings.deadlineValue }
+      : { kind: "business-days-after", days: settings?.deadlineValue ?? 15 };
+  return { rule, holidays: new Set(rows.map((r) => r.date)) };
+}
+
+/** Which steps of a period are done, from what is stored. */
+async function stepStatus(firmId: string, periodId: string, periodState: string): Promise<Record<StepKey, boolean>> {
+  const db = getDb();
+  const confirmed = await db
+    .select({ id: uploads.id })
+    .from(uploads)
+    .where(and(eq(uploads.firmId, firmId), eq(uploads.periodId, periodId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")))
+    .limit(1);
+  const approved = await db
+    .select({ id: methodStatements.id })
+    .from(methodStatements)
+    .where(and(eq(methodStatements.firmId, firmId), eq(methodStatements.status, "approved")))
+    .limit(1);
+  const completed = await db
+    .select({ id: runs.id })
+    .from(runs)
+    .where(and(eq(runs.firmId, firmId), eq(runs.periodId, periodId), eq(runs.status, "completed")))
+    .limit(1);
+  const periodFilings = await db
+    .select({ status: filings.status })
+    .from(filings)
+    .where(and(eq(filings.firmId, firmId), eq(filings.periodId, periodId)));
+  const statuses = new Set(periodFilings.map((f) => f.status));
+  const signed = statuses.has("signed") || statuses.has("filed") || periodState === "signed" || periodState === "filed";
+  return {
+    positions: confirmed.length > 0,
+    method: approved.length > 0,
+    run: completed.length > 0,
+    filing: statuses.has("in_review") || signed,
+    signoff: signed,
+    file: periodState === "filed" || statuses.has("filed"),
+  };
+}
+
+export interface PeriodSummary {
+  id: string;
+  periodEnd: string;
+  deadline: string;
+  state: string;
+  businessDaysLeft: number;
+  overdue: boolean;
+  steps: { key: StepKey; label: string; owner: Role; done: boolean }[];
+  nextStep: { key: StepKey; label: string; owner: Role } | null;
+  filingReference: string | null;
+}
+
+async function summarise(firmId: string, period: typeof reportingPeriods.$inferSelect, holidaySet: Set<string>): Promise<PeriodSummary> {
+  const done = await stepStatus(firmId, period.id, period.state);
+  const steps = STEPS.map((s) => ({ ...s, done: done[s.key] }));
+  const next = steps.find((s) => !s.done) ?? null;
+  const left = businessDaysBetween(today(), period.deadline, holidaySet);
+  return {
+    id: period.id,
+    periodEnd: period.periodEnd,
+    deadline: period.deadline,
+    state: period.state,
+    businessDaysLeft: left,
+    overdue: next !== null && today() > period.deadline,
+    steps,
+    nextStep: next ? { key: next.key, label: next.label, owner: next.owner } : null,
+    filingReference: period.filingReference,
+  };
+}
+
+/** Every period of the firm, newest first, with its progress. */
+export async function listPeriods(actor: Actor): Promise<PeriodSummary[]> {
+  const rows = await getDb()
+    .select()
+    .from(reportingPeriods)
+    .where(eq(reportingPeriods.firmId, actor.firmId))
+    .orderBy(desc(reportingPeriods.periodEnd));
+  const { holidays: holidaySet } = await getCalendar(actor.firmId);
+  return Promise.all(rows.map((row) => summarise(actor.firmId, row, holidaySet)));
+}
+
+/** One period of the actor's firm; another firm's period looks absent. */
+export async function getPeriod(actor: Actor, periodId: string): Promise<PeriodSummary> {
+  const [row] = await getDb()
+    .select()
+    .from(reportingPeriods)
+    .where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
+  if (!row) throw new AppError("not_found:period", "No such reporting period.");
+  const { holidays: holidaySet } = await getCalendar(actor.firmId);
+  return summarise(actor.firmId, row, holidaySet);
+}
+
+/** Open the reporting period for a month, with its deadline under the firm's rule. */
+export async function openPeriod(actor: Actor, month: string): Promise<PeriodSummary> {
+  const periodEnd = periodEndOf(month);
+  if (periodEnd > periodEndOf(today().slice(0, 7))) {
+    throw new AppError("unprocessable:period", "A period can be opened from its own month onwards, not before.", { month: "That month has not started yet." });
+  }
+  const { rule, holidays: holidaySet } = await getCalendar(actor.firmId);
+  const deadline = deadlineFor(periodEnd, rule, holidaySet);
+  const id = await getDb().transaction(async (tx) => {
+    const [existing] = await tx
+      .select({ id: reportingPeriods.id })
+      .from(reportingPeriods)
+      .where(and(eq(reportingPeriods.firmId, actor.firmId), eq(reportingPeriods.periodEnd, periodEnd)));
+    if (existing) throw new AppError("conflict:period", `The period ending ${periodEnd} is already open.`, { month: "Already open." });
+    const [row] = await tx
+      .insert(reportingPeriods)
+      .values({ firmId: actor.firmId, periodEnd, deadline, openedBy: actor.userId })
+      .returning({ id: reportingPeriods.id });
+    await recordAudit(tx, actor, {
+      action: "period.open",
+      entityType: "reporting_period",
+      entityId: row.id,
+      summary: `Opened the period ending ${periodEnd} (deadline ${deadline})`,
+      detail: { periodEnd, deadline, rule },
+    });
+    return row.id;
+  });
+  return getPeriod(actor, id);
+}

@@ -1,0 +1,4 @@
+/** The app's version, from package.json. */
+import pkg from "../package.json";
+
+export const APP_VERSION: string = pkg.version;

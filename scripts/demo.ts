@@ -1,0 +1,57 @@
+/**
+ * `npm run demo`: settings on first run, a fresh demo database (migrated and seeded), a production build when
+ * the sources changed, then the app on http://localhost:3000 (PORT to change it). Ctrl-C stops everything.
+ */
+import { spawn, spawnSync } from "node:child_process";
+import { existsSync, statSync, readdirSync } from "node:fs";
+import path from "node:path";
+import { ensureLocalEnv } from "./local-env";
+import { DEMO_USERS, SECOND_FIRM_USERS, DEMO_PASSWORD } from "../db/seed";
+
+const root = process.cwd();
+const nextBin = path.join(root, "node_modules", "next", "dist", "bin", "next");
+
+function run(args: string[], label: string): void {
+  const result = spawnSync(process.execPath, args, { stdio: "inherit", env: process.env });
+  if (result.status !== 0) {
+    console.error(`demo: ${label} failed (exit ${result.status}).`);
+    process.exit(result.status ?? 1);
+  }
+}
+
+/** Newest modification time under the folders a build depends on. */
+function newestSource(): number {
+  let newest = 0;
+  const walk = (dir: string) => {
+    if (!existsSync(dir)) return;
+    for (const entry of readdirSync(dir, { withFileTypes: true })) {
+      const full = path.join(dir, entry.name);
+      if (entry.isDirectory()) walk(full);
+      else newest = Math.max(newest, statSync(full).mtimeMs);
+    }
+  };
+  for (const dir of ["app", "lib", "db", "reports", "templates"]) walk(path.join(root, dir));
+  for (const file of ["package.json", "next.config.ts", "tailwind.config.ts", "proxy.ts"]) {
+    if (existsSync(file)) newest = Math.max(newest, statSync(file).mtimeMs);
+  }
+  return newest;
+}
+
+ensureLocalEnv();
+run(["--import", "tsx", "db/seed.ts"], "seeding the demo database");
+
+const buildId = path.join(root, ".next", "BUILD_ID");
+if (!existsSync(buildId) || statSync(buildId).mtimeMs < newestSource()) {
+  console.log("Building the app (about a minute the first time)…");
+  run([nextBin, "build"], "the production build");
+}
+
+const port = process.env.PORT ?? "3000";
+console.log(`
+Ballast demo on http://localhost:${port}
+Every demo user's password: ${DEMO_PASSWORD}   (demo only)
+${[...DEMO_USERS, ...SECOND_FIRM_USERS].map((u) => `  ${u.email.padEnd(34)} ${u.roles.join(" + ")}`).join("\n")}
+`);
+const server = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env: process.env });
+for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
+server.on("exit", (code) => process.exit(code ?? 0));
