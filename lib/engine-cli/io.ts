@@ -62,3 +62,32 @@ export function parseOptions(argv: readonly string[], known: readonly string[], 
 export function printJson(value: unknown): void {
   process.stdout.write(JSON.stringify(value, (_k, v) => (v instanceof Float64Array ? Array.from(v) : v), 2) + "\n");
 }
+
+/** One numeric column of a CSV table, with each value's file row number (header = row 1). */
+export interface NumericColumn {
+  name: string;
+  values: number[];
+  fileRows: number[];
+}
+
+/**
+ * Pick a numeric column: the named one, or else the only or the last column whose first data cell is a number.
+ * Every cell must parse; the error names the row and the column.
+ */
+export function readNumericColumn(table: CsvTable, column?: string): NumericColumn {
+  let index: number;
+  if (column !== undefined) {
+    index = table.header.indexOf(column);
+    if (index < 0) throw new CliError(`--column: no column "${column}" (columns: ${table.header.join(", ")})`);
+  } else {
+    const numeric = table.header.map((_, i) => i).filter((i) => {
+      const cell = (table.rows[0][i] ?? "").trim();
+      return cell !== "" && Number.isFinite(Number(cell));
+    });
+    if (numeric.length === 0) throw new CliError(`no numeric column (columns: ${table.header.join(", ")}); row 2 has no number`);
+    index = numeric[numeric.length - 1];
+  }
+  const name = table.header[index];
+  const values = table.rows.map((row, r) => parseNumber(row[index], r, name));
+  return { name, values, fileRows: table.rows.map((_, r) => r + 2) };
+}

@@ -67,7 +67,7 @@ export function archForecast(omega: number, alphas: readonly number[], recentSqu
 export function forecastVariance(fit: VolatilityFit, horizonDays: number): Float64Array {
   if (fit.kind === "garch") return garchTermStructure(fit, horizonDays);
   if (fit.kind === "arch") {
-    const m = Number(fit.params.order);
+    const m = Object.keys(fit.params).filter((key) => /^alpha\d+$/.test(key)).length;
     const alphas = Array.from({ length: m }, (_, i) => fit.params[`alpha${i + 1}`]);
     return archForecast(fit.params.omega, alphas, fit.recentSquaredResiduals ?? [], horizonDays);
   }

@@ -21,3 +21,8 @@ export { LIMITATIONS } from "./limitations";
 export { minimizeBfgs } from "./optimize/minimize-bfgs";
 export { minimizeMultiStart } from "./optimize/multi-start";
 export { mulberry32, normalSampler, studentTSampler, simulateGarch11 } from "./random";
+export { fitMovingAverage } from "./estimators/moving-average";
+export { fitArch, archLogLikelihood, ARCH_MAX_ORDER } from "./estimators/arch";
+export type { FitArchOptions } from "./estimators/arch";
+export { compareEstimators } from "./compare";
+export type { CompareOptions, CompareResult, EstimatorScore } from "./compare";

@@ -1,4 +1,8 @@
 import type { VariancePath } from "./garch11-variance";
+import { standardisedMoments, kurtosisWarning } from "../fit-diagnostics";
+import { LIMITATIONS } from "../limitations";
+import { ENGINE_VERSION } from "../version";
+import type { EngineWarning, VolatilityFit } from "../types";
 
 /** Options of the equal-weight moving average. */
 export interface MovingAverageOptions {
@@ -46,4 +50,38 @@ export function movingAverageVariance(returns: ArrayLike<number>, options: Movin
     }
   }
   return { variance, currentVariance: value() };
+}
+
+/**
+ * The equal-weight moving average as a VolatilityFit (flat forecast, no likelihood: nothing is estimated).
+ * @throws {RangeError} as movingAverageVariance
+ */
+export function fitMovingAverage(returns: ArrayLike<number>, options: Partial<MovingAverageOptions> = {}): VolatilityFit {
+  const opts: MovingAverageOptions = { window: options.window ?? 20, divisor: options.divisor ?? "m", mean: options.mean ?? "zero" };
+  for (let i = 0; i < returns.length; i++) if (!Number.isFinite(returns[i])) throw new Error(`fitMovingAverage requires finite returns: return ${i} is ${returns[i]}`);
+  const path = movingAverageVariance(returns, opts);
+  const residuals = opts.mean === "zero" ? returns : Float64Array.from(returns as ArrayLike<number>, (u, t) => (t >= opts.window ? u - windowMean(returns, t, opts.window) : u));
+  const moments = standardisedMoments(residuals, path.variance);
+  const warnings: EngineWarning[] = [];
+  const kurt = kurtosisWarning(moments.kurtosis, true);
+  if (kurt) warnings.push(kurt);
+  return {
+    kind: "ma",
+    params: { window: opts.window },
+    variance: path.variance,
+    currentVariance: path.currentVariance,
+    longRunVariance: null,
+    logLikelihood: null,
+    initialization: `none: the first value is for day ${opts.window + 1}, after a full window of ${opts.window} returns`,
+    diagnostics: { n: returns.length, window: opts.window, divisor: opts.divisor, mean: opts.mean, standardisedSkewness: moments.skewness, standardisedKurtosis: moments.kurtosis },
+    warnings,
+    limitations: [...LIMITATIONS.ma],
+    engineVersion: ENGINE_VERSION,
+  };
+}
+
+function windowMean(returns: ArrayLike<number>, t: number, m: number): number {
+  let s = 0;
+  for (let i = t - m; i < t; i++) s += returns[i];
+  return s / m;
 }
