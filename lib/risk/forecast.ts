@@ -90,3 +90,14 @@ export function annualisedVolatilityTermStructure(forecast: ArrayLike<number>, d
   for (let t = 0; t < forecast.length; t++) { s += forecast[t]; out[t] = Math.sqrt((daysPerYear * s) / (t + 1)); }
   return out;
 }
+
+/**
+ * Long-run variance of GARCH(1,1), V_L = ω/(1−α−β) = ω/γ, where γ = 1−α−β is the weight of V_L.
+ * @throws {RangeError} if α+β ≥ 1 (no long-run variance) or ω < 0
+ */
+export function garchLongRunVariance(params: { omega: number; alpha: number; beta: number }): number {
+  const gamma = 1 - params.alpha - params.beta;
+  if (!(gamma > 0)) throw new RangeError("garchLongRunVariance requires alpha + beta < 1");
+  if (!(params.omega >= 0)) throw new RangeError("garchLongRunVariance requires omega >= 0");
+  return params.omega / gamma;
+}

@@ -15,7 +15,7 @@ export { archVariance } from "./estimators/arch-variance";
 export type { ArchParams } from "./estimators/arch-variance";
 export { describeInit } from "./estimators/initial-variance";
 export type { InitRule } from "./estimators/initial-variance";
-export { garchTermStructure, flatForecast, archForecast, forecastVariance, averageVariance, annualisedVolatilityTermStructure } from "./forecast";
+export { garchTermStructure, garchLongRunVariance, flatForecast, archForecast, forecastVariance, averageVariance, annualisedVolatilityTermStructure } from "./forecast";
 export type { Garch11State } from "./forecast";
 export { LIMITATIONS } from "./limitations";
 export { minimizeBfgs } from "./optimize/minimize-bfgs";
