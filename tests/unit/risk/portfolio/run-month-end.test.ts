@@ -77,7 +77,7 @@ describe("runMonthEnd", () => {
     const cut = 880;
     const shorter: MonthEndInput = {
       ...base,
-      returns: { dates: book.returns.dates.slice(0, cut), factors: Object.fromEntries(Object.entries(book.returns.factors).map(([k, v]) => [k, v.slice(0, cut)])) },
+      returns: { dates: book.returns.dates.slice(0, cut), factors: Object.fromEntries(Object.entries(book.returns.factors).map(([k, v]) => [k, Array.from(v).slice(0, cut)])) },
       method: { methods: ["parametric"], covariance: "ewma", backtestDays: 100 },
     };
     const r = runMonthEnd(shorter);
