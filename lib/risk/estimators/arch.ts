@@ -96,7 +96,23 @@ export function fitArch(returns: ArrayLike<number>, options: FitArchOptions = {}
     for (let i = 1; i < k; i++) z[i] = Math.log((total * raw[i - 1]) / sum / (1 - total));
     return z;
   });
-  const best = minimizeMultiStart(objective, starts, { runs: 2, gradientTolerance: 1e-9, maxIterations: 500 });
+  const bfgsOptions = { gradientTolerance: 1e-9, maxIterations: 500 };
+  let best = minimizeMultiStart(objective, starts, { ...bfgsOptions, runs: 2 });
+  // a lag driven to zero in the unconstrained coordinates cannot come back (its gradient there vanishes):
+  // if the likelihood still wants it larger, restart with it moved off the bound (at most m times)
+  for (let round = 0; round < m; round++) {
+    toNatural(best.x, theta);
+    archLogLikelihood(xs, theta, b, gTheta);
+    let worst = -1;
+    for (let i = 1; i < k; i++) if (theta[i] < 1e-4 && gTheta[i] > 1e-3 * n && (worst < 0 || gTheta[i] > gTheta[worst])) worst = i;
+    if (worst < 0) break;
+    const z = Float64Array.from(best.x);
+    const rest = 1 - theta.subarray(1).reduce((s, v) => s + v, 0);
+    z[worst] = Math.log(Math.min(0.05, rest / 2) / rest);
+    const again = minimizeMultiStart(objective, [z], { ...bfgsOptions, runs: 1 });
+    if (again.value < best.value) best = { ...again, totalEvaluations: best.totalEvaluations + again.totalEvaluations };
+    else break;
+  }
   toNatural(best.x, theta);
   // Hessian by central differences of the analytic gradient, in the scaled units
   const hess = new Float64Array(k * k);

@@ -73,7 +73,9 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   let ss = 0;
   for (let i = 0; i < n; i++) { const e = returns[i] - (fitMean ? mean : 0); ss += e * e; }
   const scale = Math.sqrt(ss / n);
-  if (!(scale > 0)) throw new Error("fitGarch11 requires returns that are not all equal");
+  let largest = 0;
+  for (let i = 0; i < n; i++) largest = Math.max(largest, Math.abs(returns[i]));
+  if (!(scale > 1e-10 * largest)) throw new Error("fitGarch11 requires returns that are not all equal");
   const xs = new Float64Array(n);
   for (let i = 0; i < n; i++) xs[i] = returns[i] / scale;
   const problem: Garch11Problem = { x: xs, fitMean, studentT, targeting, init: likelihoodInit(init, n, scale * scale) };

@@ -144,7 +144,8 @@ export function minimizeBfgs(f: Objective, x0: ArrayLike<number>, options: BfgsO
     }
     if (!found) {
       if (!fresh) { identity(h, n); fresh = true; iterations--; continue; }
-      stop = "line-search";
+      // no decrease is possible along the steepest descent: at the optimum to working precision if the gradient is small
+      stop = maxAbs(g) < gtol * 1e3 ? "value" : "line-search";
       break;
     }
     const fxNew = fAccepted;
