@@ -26,3 +26,8 @@ export { fitArch, archLogLikelihood, ARCH_MAX_ORDER } from "./estimators/arch";
 export type { FitArchOptions } from "./estimators/arch";
 export { compareEstimators } from "./compare";
 export type { CompareOptions, CompareResult, EstimatorScore } from "./compare";
+// part 2: portfolio VaR and ES, stressed VaR, backtesting, capital
+export * from "./portfolio";
+export * from "./var";
+export * from "./backtest";
+export * from "./capital";
