@@ -191,7 +191,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   if (studentT && nu > 200) warnings.push({ code: "bound-hit", message: `ν is very large (${nu.toFixed(0)}): the Student-t errors are indistinguishable from normal ones.` });
   if (studentT && nu < 2.1) warnings.push({ code: "bound-hit", message: `ν is at its lower bound of 2 (ν = ${nu.toFixed(3)}): the variance of the errors is barely finite.` });
   const failed = !best.converged || !Number.isFinite(logLikelihood);
-  if (failed) warnings.push({ code: "not-converged", message: `The optimiser stopped without meeting its convergence test (${best.stop}, largest gradient ${gradientNorm.toExponential(2)}).` });
+  if (failed) warnings.push({ code: "not-converged", message: `The GARCH(1,1) fit failed: the optimiser stopped without meeting its convergence test (${best.stop}, largest gradient ${gradientNorm.toExponential(2)}). ${fallback === "ewma" ? "As the caller chose, EWMA (λ = 0.94) is used instead." : "The caller chose no fallback, so these numbers are the last estimates, not an optimum."}` });
   const nearIntegrated = persistence >= NEAR_INTEGRATED;
   if (nearIntegrated) {
     warnings.push({
