@@ -2,7 +2,13 @@ import { defineConfig } from "vitest/config";
 import path from "node:path";
 
 export default defineConfig({
-  resolve: { alias: { "@": path.resolve(__dirname) } },
+  resolve: {
+    alias: {
+      "@": path.resolve(__dirname),
+      // "server-only" throws outside React's server build; unit tests call server modules directly.
+      "server-only": path.resolve(__dirname, "tests/unit/server-only-stub.ts"),
+    },
+  },
   test: {
     include: ["tests/unit/**/*.test.ts", "tests/reference/**/*.test.ts"],
     environment: "node",

@@ -36,7 +36,7 @@ export const inputClass =
   "rounded-md border border-ink-line bg-paper-raised px-3 py-2 text-ink shadow-sm placeholder:text-ink-muted focus:border-brass focus:outline-none aria-[invalid=true]:border-alert";
 
 export const primaryButtonClass =
-  "inline-flex items-center justify-center rounded-md bg-brass px-4 py-2 font-medium text-white shadow-sm hover:bg-brass-dark disabled:cursor-not-allowed disabled:opacity-60";
+  "inline-flex items-center justify-center whitespace-nowrap rounded-md bg-brass px-4 py-2 font-medium text-white shadow-sm hover:bg-brass-dark disabled:cursor-not-allowed disabled:opacity-60";
 
 export const secondaryButtonClass =
-  "inline-flex items-center justify-center rounded-md border border-ink-line bg-paper-raised px-4 py-2 font-medium text-ink hover:bg-paper-sunk disabled:cursor-not-allowed disabled:opacity-60";
+  "inline-flex items-center justify-center whitespace-nowrap rounded-md border border-ink-line bg-paper-raised px-4 py-2 font-medium text-ink hover:bg-paper-sunk disabled:cursor-not-allowed disabled:opacity-60";

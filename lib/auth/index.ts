@@ -5,9 +5,9 @@
 import NextAuth, { CredentialsSignin, type DefaultSession } from "next-auth";
 import type {} from "next-auth/jwt";
 import Credentials from "next-auth/providers/credentials";
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { users } from "@/db/schema";
+import { memberships, users } from "@/db/schema";
 import { signInSchema } from "@/lib/validation/auth";
 import { verifyPassword, dummyHash } from "./password";
 import { isSignInBlocked, recordSignInAttempt } from "./rate-limit";
@@ -42,6 +42,13 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
   trustHost: true,
   session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_SECONDS, updateAge: 15 * 60 },
   pages: { signIn: "/sign-in", error: "/sign-in" },
+  // A refused sign-in is an expected answer, not a server fault: keep it out of the error log.
+  logger: {
+    error(error) {
+      if (error.name === "CredentialsSignin" || error.name === "RateLimited") return;
+      console.error("[auth]", error);
+    },
+  },
   providers: [
     Credentials({
       credentials: { email: {}, password: {} },
@@ -54,7 +61,11 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
         const [user] = await getDb().select().from(users).where(eq(users.email, email));
         // Compare against a dummy hash when there is no such user, so the answer takes as long either way.
         const ok = await verifyPassword(parsed.data.password, user?.passwordHash ?? (await dummyHash()));
-        const accepted = Boolean(user && ok && user.active);
+        // A person with no active membership in any firm has nothing to sign in to.
+        const member = user
+          ? await getDb().select({ id: memberships.id }).from(memberships).where(and(eq(memberships.userId, user.id), eq(memberships.active, true))).limit(1)
+          : [];
+        const accepted = Boolean(user && ok && user.active && member.length > 0);
         await recordSignInAttempt(email, address, accepted);
         if (!accepted || !user) return null;
         return { id: user.id, name: user.name, email: user.email, sessionVersion: user.sessionVersion } as never;

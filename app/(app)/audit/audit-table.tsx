@@ -55,6 +55,8 @@ export function AuditTable() {
     queryFn: () => apiFetch<AuditPage>(`/api/audit?${queryString}`),
     placeholderData: keepPreviousData,
   });
+  // TanStack Table returns fresh functions each render; this component does not memoise around them.
+  // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({ data: data?.events ?? [], columns, getCoreRowModel: getCoreRowModel(), manualPagination: true });
   const pages = data ? Math.max(1, Math.ceil(data.total / pageSize)) : 1;
 

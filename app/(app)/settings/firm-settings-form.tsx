@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import { useRouter } from "next/navigation";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { firmSettingsSchema, REPORTING_CURRENCIES, type FirmSettingsInput } from "@/lib/validation/firm";
 import { apiFetch, ApiError } from "@/app/_components/api";
@@ -15,7 +15,7 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
   const {
     register,
     handleSubmit,
-    watch,
+    control,
     setError,
     formState: { errors, isSubmitting, isDirty },
     reset,
@@ -31,7 +31,7 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
       deadlineValue: initial.deadlineValue,
     },
   });
-  const rule = watch("deadlineRule");
+  const rule = useWatch({ control, name: "deadlineRule" });
 
   const onSubmit = handleSubmit(async (values) => {
     setStatus(null);
@@ -72,7 +72,7 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
         <Field id="licenceLabel" label="Signer's reference is called" hint="Shown beside the signature, e.g. “Registration no.”" error={errors.licenceLabel?.message}>
           <input id="licenceLabel" className={inputClass} {...err("licenceLabel")} {...register("licenceLabel")} />
         </Field>
-        <div className="grid gap-4 sm:grid-cols-2">
+        <div className="grid gap-4 2xl:grid-cols-2">
           <Field id="deadlineRule" label="Filing deadline rule" error={errors.deadlineRule?.message}>
             <select id="deadlineRule" className={inputClass} {...err("deadlineRule")} {...register("deadlineRule")}>
               <option value="business-days-after">Business days after period end</option>

@@ -510,13 +510,7 @@ function stripMatrix(r: PsdRepair): Omit<PsdRepair, "matrix"> {
   return rest;
 }
 
-/**
- * The month-end run: every figure a filing needs, in one plain object.
- * @param input positions, aligned factor returns, reporting currency, method and capital rule profile
- * @param onProgress optional callback with a stage name and the fraction done
- * @throws {RangeError} on impossible input (misaligned returns, no usable position, bad options)
- */
-export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback): MonthEndResult {
+function varCore(input: MonthEndInput, onProgress?: ProgressCallback) {
   const prepared = prepareRun(input, onProgress);
   const { dates, factorIds, returns, exposures, loadings, positions, covariance, correlation, volatility, method } = prepared;
   const warnings = [...prepared.warnings];
@@ -655,7 +649,59 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
     methodFigures.push({ method: m, portfolioVolatility: ev.sigma, scaling: scalingFor(m), scalingStatement: describeScaling(scalingFor(m), H), scenarios: ev.scenarios, byConfidence });
     onProgress?.("var", (mi + 1) / method.methods.length);
   });
+  return { prepared, dates, factorIds, returns, exposures, loadings, positions, covariance, correlation, volatility, method, warnings, L, k, H, profile, confidences, paramOptions, pnl, W, scalingFor, windowScenarios, overlapScenarios, methodFigures };
+}
 
+/** The VaR and ES figures of a book without the stressed VaR, history, backtest and capital (the `var` command). */
+export interface PortfolioVarResult {
+  engineVersion: string;
+  asOf: string;
+  confidences: number[];
+  horizonDays: number;
+  methods: MethodFigures[];
+  covarianceCheck: MonthEndResult["covarianceCheck"];
+  factors: MonthEndResult["factors"];
+  excludedPositions: MonthEndResult["excludedPositions"];
+  sample: MonthEndResult["sample"];
+  choices: MonthEndResult["choices"];
+  warnings: EngineWarning[];
+  limitations: string[];
+}
+
+/**
+ * VaR and ES at one day and the horizon, per confidence and method, with the Euler decomposition; the same
+ * computation as runMonthEnd's first stage.
+ * @throws {RangeError} on impossible input
+ */
+export function portfolioVar(input: MonthEndInput): PortfolioVarResult {
+  const core = varCore(input);
+  const { method, L, H, W, dates } = core;
+  return {
+    engineVersion: ENGINE_VERSION,
+    asOf: dates[L - 1],
+    confidences: core.confidences,
+    horizonDays: H,
+    methods: core.methodFigures,
+    covarianceCheck: core.prepared.psd,
+    factors: { used: core.factorIds, excluded: core.prepared.excludedFactors },
+    excludedPositions: core.prepared.excludedPositions,
+    sample: { days: L, firstDate: dates[0], lastDate: dates[L - 1] },
+    choices: describeChoices(method, core.scalingFor, L, W, H, core.confidences),
+    warnings: core.warnings,
+    limitations: describeLimitations(method, core.scalingFor, L, W, H),
+  };
+}
+
+/**
+ * The month-end run: every figure a filing needs, in one plain object.
+ * @param input positions, aligned factor returns, reporting currency, method and capital rule profile
+ * @param onProgress optional callback with a stage name and the fraction done
+ * @throws {RangeError} on impossible input (misaligned returns, no usable position, bad options)
+ */
+export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback): MonthEndResult {
+  const core = varCore(input, onProgress);
+  const { prepared, dates, factorIds, returns, exposures, loadings, correlation, volatility, method, warnings, L, k, H, profile, confidences, paramOptions, pnl, W, scalingFor, windowScenarios, methodFigures } = core;
+  void loadings;
   // stressed VaR: the primary method on a stress window, chosen or searched
   const primary = method.primaryMethod;
   const S = Math.min(method.stressWindowDays, L);
@@ -838,37 +884,17 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
   const capital = capitalCharge({ varHistory: capVars, stressedVarHistory: new Array(capVars.length).fill(sVar), plusFactor }, profile);
   onProgress?.("capital", 1);
 
-  const limitations = [
-    "Every position is treated linearly through its exposure (its delta-equivalent where given): option convexity (gamma) and volatility (vega) risk are not captured.",
-    "Factor returns are applied to exposures as P&L = exposure × return; for log returns this is a first-order approximation.",
-    "Static book: the VaR history, backtest and stressed VaR apply today's positions to past days (hypothetical P&L); trading during the period is not reflected.",
-    "Exchange-rate risk is taken on each foreign position's market value; cross effects between price and exchange-rate moves are second order and left out.",
-  ];
-  if (method.methods.includes("parametric")) limitations.push(method.distribution === "normal" ? "Parametric VaR assumes normally distributed P&L and understates extreme losses when returns have fat tails." : `Parametric VaR assumes Student-t P&L with ν = ${method.nu}; skew is not captured.`);
-  if (method.methods.some((m) => m !== "parametric")) limitations.push(`Historical simulation sees only the ${W} days of its window; at 99 % only about ${(W * 0.01).toFixed(1)} observations lie beyond the VaR.`);
-  if (method.methods.some((m) => scalingFor(m) === "sqrt") && H > 1) limitations.push(`Ten-day figures use square-root-of-time where stated: ${SQRT_STATEMENT}.`);
-  if (method.covariance === "garch-ccc") limitations.push("GARCH-CCC: the correlation is constant; correlations that rise in a crisis are not modelled. GARCH parameters are fitted once on the whole sample and reused for the past days' forecasts, so the backtest is in-sample for those parameters.");
-  if (method.covariance === "ewma") limitations.push(`EWMA: λ = ${method.lambda} is chosen, not estimated; the forecast is flat over the horizon (no mean reversion).`);
-  if (method.covariance === "equal") limitations.push(`Equal weights over ${Math.min(method.covarianceWindow, L)} days: a large return moves VaR for exactly that long and then drops out abruptly.`);
-
+  const limitations = describeLimitations(method, scalingFor, L, W, H);
   const choices: MonthEndResult["choices"] = {
-    methods: method.methods,
+    ...describeChoices(method, scalingFor, L, W, H, confidences),
     primaryMethod: primary,
-    covariance: method.covariance === "garch-ccc" ? "GARCH(1,1) per factor (zero mean, normal, sample start-up; EWMA fallback), constant correlation of standardised residuals" : method.covariance === "ewma" ? `EWMA, λ = ${method.lambda}, zero mean, started from the equal-weight covariance of the first ${Math.min(method.startupDays, L)} days` : `equal weights over the last ${Math.min(method.covarianceWindow, L)} days, zero mean`,
-    filteringVolatility: method.methods.includes("filtered") ? (method.covariance === "garch-ccc" ? "GARCH(1,1) per factor" : `EWMA λ = ${method.lambda} per factor`) : "not used",
-    historicalWindowDays: W,
-    quantileConvention: HISTORICAL_QUANTILE_CONVENTION,
-    confidences,
-    horizonDays: H,
-    scaling: method.methods.map((m) => `${m}: ${describeScaling(scalingFor(m), H)}`),
-    distribution: method.distribution === "t" ? `Student-t, ν = ${method.nu}, scaled to unit variance` : "normal",
     stressWindow: chosenBy === "search" ? `searched: the ${S}-day window with the highest VaR` : "chosen by the analyst",
     historyDays: points.length,
     backtestDays: bt.days,
     varHistoryRule: "static book: today's exposures applied to each past day's inputs; one forecast per day using data up to the day before",
-    exposureRule: "exposure to the price factor = delta-equivalent exposure where given, otherwise market value; foreign positions add their market value as exposure to the exchange-rate factor",
     capitalProfile: `m_c = ${profile.multiplierBase} + plus factor, m_s = ${profile.stressedMultiplierBase}${profile.plusFactorOnStressed ? " + plus factor" : ""}, ${profile.averagingDays}-day averages, ${profile.confidence * 100} %, ${profile.horizonDays}-day`,
   };
+
 
   return {
     engineVersion: ENGINE_VERSION,
@@ -892,5 +918,39 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
     choices,
     warnings,
     limitations,
+  };
+}
+
+type Scaler = (m: VarMethod) => HorizonScaling;
+
+function describeLimitations(method: PreparedRun["method"], scalingFor: Scaler, L: number, W: number, H: number): string[] {
+  const limitations = [
+    "Every position is treated linearly through its exposure (its delta-equivalent where given): option convexity (gamma) and volatility (vega) risk are not captured.",
+    "Factor returns are applied to exposures as P&L = exposure × return; for log returns this is a first-order approximation.",
+    "Static book: the VaR history, backtest and stressed VaR apply today's positions to past days (hypothetical P&L); trading during the period is not reflected.",
+    "Exchange-rate risk is taken on each foreign position's market value; cross effects between price and exchange-rate moves are second order and left out.",
+  ];
+  if (method.methods.includes("parametric")) limitations.push(method.distribution === "normal" ? "Parametric VaR assumes normally distributed P&L and understates extreme losses when returns have fat tails." : `Parametric VaR assumes Student-t P&L with ν = ${method.nu}; skew is not captured.`);
+  if (method.methods.some((m) => m !== "parametric")) limitations.push(`Historical simulation sees only the ${W} days of its window; at 99 % only about ${(W * 0.01).toFixed(1)} observations lie beyond the VaR.`);
+  if (method.methods.some((m) => scalingFor(m) === "sqrt") && H > 1) limitations.push(`Ten-day figures use square-root-of-time where stated: ${SQRT_STATEMENT}.`);
+  if (method.covariance === "garch-ccc") limitations.push("GARCH-CCC: the correlation is constant; correlations that rise in a crisis are not modelled. GARCH parameters are fitted once on the whole sample and reused for the past days' forecasts, so the backtest is in-sample for those parameters.");
+  if (method.covariance === "ewma") limitations.push(`EWMA: λ = ${method.lambda} is chosen, not estimated; the forecast is flat over the horizon (no mean reversion).`);
+  if (method.covariance === "equal") limitations.push(`Equal weights over ${Math.min(method.covarianceWindow, L)} days: a large return moves VaR for exactly that long and then drops out abruptly.`);
+
+  return limitations;
+}
+
+function describeChoices(method: PreparedRun["method"], scalingFor: Scaler, L: number, W: number, H: number, confidences: number[]): MonthEndResult["choices"] {
+  return {
+    methods: method.methods,
+    covariance: method.covariance === "garch-ccc" ? "GARCH(1,1) per factor (zero mean, normal, sample start-up; EWMA fallback), constant correlation of standardised residuals" : method.covariance === "ewma" ? `EWMA, λ = ${method.lambda}, zero mean, started from the equal-weight covariance of the first ${Math.min(method.startupDays, L)} days` : `equal weights over the last ${Math.min(method.covarianceWindow, L)} days, zero mean`,
+    filteringVolatility: method.methods.includes("filtered") ? (method.covariance === "garch-ccc" ? "GARCH(1,1) per factor" : `EWMA λ = ${method.lambda} per factor`) : "not used",
+    historicalWindowDays: W,
+    quantileConvention: HISTORICAL_QUANTILE_CONVENTION,
+    confidences,
+    horizonDays: H,
+    scaling: method.methods.map((m) => `${m}: ${describeScaling(scalingFor(m), H)}`),
+    distribution: method.distribution === "t" ? `Student-t, ν = ${method.nu}, scaled to unit variance` : "normal",
+    exposureRule: "exposure to the price factor = delta-equivalent exposure where given, otherwise market value; foreign positions add their market value as exposure to the exchange-rate factor",
   };
 }

@@ -1,0 +1,55 @@
+import { defineConfig } from "@playwright/test";
+import { randomBytes } from "node:crypto";
+
+/**
+ * Browser tests against a production build (`next start`) on loopback, driving Debian's Chromium. The server gets
+ * its own database (data/e2e.db, seeded fresh) and a clock pinned to 2026-12-01 so that deadlines are stable.
+ */
+const PORT = Number(process.env.E2E_PORT ?? 3100);
+export const E2E_ENV = {
+  DATABASE_URL: "file:./data/e2e.db",
+  AUTH_SECRET: process.env.E2E_AUTH_SECRET ?? randomBytes(32).toString("base64url"),
+  AUTH_TRUST_HOST: "true",
+  BALLAST_CLOCK: "2026-12-01",
+  BALLAST_ALLOW_CLOCK: "1",
+  NEXT_TELEMETRY_DISABLED: "1",
+};
+process.env.E2E_AUTH_SECRET = E2E_ENV.AUTH_SECRET;
+
+export default defineConfig({
+  testDir: "tests/e2e",
+  outputDir: "test-results",
+  fullyParallel: false,
+  workers: 1,
+  retries: 0,
+  timeout: 60_000,
+  expect: { timeout: 10_000 },
+  reporter: [["list"], ["json", { outputFile: "test-results/e2e-results.json" }]],
+  use: {
+    baseURL: `http://localhost:${PORT}`,
+    screenshot: "only-on-failure",
+    trace: "retain-on-failure",
+    launchOptions: {
+      executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+      args: [
+        "--no-sandbox",
+        "--disable-gpu",
+        "--disable-dev-shm-usage",
+        "--disable-background-networking",
+        "--disable-component-update",
+        "--disable-sync",
+        "--no-first-run",
+        "--disable-quic",
+      ],
+    },
+  },
+  webServer: {
+    command: `node --import tsx db/seed.ts && node node_modules/next/dist/bin/next start -p ${PORT}`,
+    url: `http://localhost:${PORT}/api/health`,
+    env: E2E_ENV,
+    reuseExistingServer: false,
+    timeout: 120_000,
+    stdout: "ignore",
+    stderr: "pipe",
+  },
+});

@@ -1,0 +1,37 @@
+import { request as playwrightRequest, type APIRequestContext, type Page, expect } from "@playwright/test";
+import { DEMO_PASSWORD, DEMO_USERS, SECOND_FIRM_USERS } from "@/db/seed";
+
+export const BASE_URL = `http://localhost:${process.env.E2E_PORT ?? 3100}`;
+export { DEMO_PASSWORD, DEMO_USERS, SECOND_FIRM_USERS };
+
+/** Fill and send the sign-in form, as a person would (the answer may be a refusal). */
+export async function submitSignIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await page.goto("/sign-in");
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+}
+
+/** Sign in through the page and wait until the signed-in home is shown. */
+export async function signInThroughPage(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await submitSignIn(page, email, password);
+  await expect(page).toHaveURL(/\/home$/);
+}
+
+/** The sign-in form's own message (Next.js keeps an empty route announcer with the same role). */
+export const signInError = (page: Page) => page.locator("#sign-in-error");
+
+/** An API client signed in as `email` through Auth.js's credentials endpoint (CSRF token first). */
+export async function signedInApi(email: string | null, password = DEMO_PASSWORD): Promise<APIRequestContext> {
+  const api = await playwrightRequest.newContext({ baseURL: BASE_URL });
+  if (!email) return api;
+  const { csrfToken } = await (await api.get("/api/auth/csrf")).json();
+  const response = await api.post("/api/auth/callback/credentials", {
+    form: { csrfToken, email, password, callbackUrl: `${BASE_URL}/home` },
+    maxRedirects: 0,
+  });
+  expect([200, 302]).toContain(response.status());
+  const session = await (await api.get("/api/auth/session")).json();
+  expect(session?.user?.email, `signed in as ${email}`).toBe(email);
+  return api;
+}

@@ -1,0 +1,87 @@
+import { test, expect, type APIRequestContext } from "@playwright/test";
+import { ROUTES, type RouteCase } from "../permission-table";
+import { DEMO_USERS, SECOND_FIRM_USERS, signedInApi } from "./helpers";
+import type { Role } from "@/lib/auth/roles";
+
+/**
+ * Every route in the permission table × (signed out, each role, a member of another firm) → the status the table
+ * implies: 401 signed out, 403 without the role, 404 for another firm's record, and for an allowed role a 2xx read
+ * or a 422 on a deliberately invalid write (which proves the gate let it through without writing anything).
+ */
+const personas: { label: string; email: string | null; roles: readonly Role[]; otherFirm?: boolean }[] = [
+  { label: "signed out", email: null, roles: [] },
+  ...DEMO_USERS.filter((u) => u.roles.length === 1).map((u) => ({ label: u.roles[0], email: u.email, roles: u.roles })),
+  { label: "other firm (admin + compliance head)", email: SECOND_FIRM_USERS[0].email, roles: SECOND_FIRM_USERS[0].roles, otherFirm: true },
+];
+
+function isAllowed(route: RouteCase, roles: readonly Role[]): boolean {
+  if (route.allowed === "public") return true;
+  if (route.allowed === "member") return roles.length > 0;
+  return roles.some((r) => (route.allowed as readonly Role[]).includes(r));
+}
+
+test("every route answers each persona as the permission table says", async () => {
+  const admin = await signedInApi(DEMO_USERS[0].email);
+  const ids: Record<string, string> = {
+    periodId: (await (await admin.get("/api/periods")).json()).periods[0].id,
+    memberId: (await (await admin.get("/api/members")).json()).members.find((m: { email: string }) => m.email === DEMO_USERS[4].email).id,
+  };
+  await admin.dispose();
+
+  const failures: string[] = [];
+  for (const persona of personas) {
+    const api: APIRequestContext = await signedInApi(persona.email);
+    for (const route of ROUTES.filter((r) => !r.external)) {
+      const url = route.path.replace(/\[(\w+)\]/g, (_m, name: string) => ids[name]);
+      const allowed = isAllowed(route, persona.roles);
+      let expected: number[];
+      let data: unknown;
+      if (!persona.email) expected = route.allowed === "public" ? [200] : [401];
+      else if (!allowed) expected = [403];
+      else if (persona.otherFirm && route.scoped) {
+        expected = [404];
+        data = route.validBody;
+      } else if (route.method === "GET") expected = [200];
+      else {
+        expected = [422];
+        data = route.invalidBody;
+      }
+      if (route.method !== "GET" && data === undefined) data = route.invalidBody;
+      const response = await api.fetch(url, { method: route.method, data });
+      if (!expected.includes(response.status())) {
+        failures.push(`${persona.label}: ${route.method} ${route.path} → ${response.status()} (expected ${expected.join(" or ")})`);
+      }
+      if (response.status() >= 400) {
+        const body = await response.json();
+        if (typeof body?.error?.code !== "string" || typeof body?.error?.message !== "string") {
+          failures.push(`${persona.label}: ${route.method} ${route.path} error body lacks the shared shape`);
+        }
+      }
+    }
+    await api.dispose();
+  }
+  expect(failures).toEqual([]);
+});
+
+test("a malformed JSON body answers 400 in the shared shape and changes nothing", async () => {
+  const admin = await signedInApi(DEMO_USERS[0].email);
+  const before = await (await admin.get("/api/firm")).json();
+  const response = await admin.fetch("/api/firm", { method: "PATCH", headers: { "content-type": "application/json" }, data: Buffer.from("{not json") });
+  expect(response.status()).toBe(400);
+  expect((await response.json()).error.code).toBe("bad_request:body");
+  expect(await (await admin.get("/api/firm")).json()).toEqual(before);
+  const badQuery = await admin.get("/api/audit?page=0");
+  expect(badQuery.status()).toBe(400);
+  expect((await badQuery.json()).error.message).toContain("page");
+  await admin.dispose();
+});
+
+test("health answers without sign-in with the version and the database state", async () => {
+  const api = await signedInApi(null);
+  const response = await api.get("/api/health");
+  expect(response.status()).toBe(200);
+  const body = await response.json();
+  expect(body).toMatchObject({ status: "ok", database: "ok" });
+  expect(body.version).toMatch(/^\d+\.\d+\.\d+/);
+  await api.dispose();
+});

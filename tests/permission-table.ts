@@ -1,0 +1,45 @@
+/**
+ * The permission table every route handler must appear in: for each method and path, who may use it.
+ * `tests/unit/permission-table-coverage.test.ts` fails when a route exists without an entry here;
+ * `tests/e2e/permissions.spec.ts` calls every entry as each persona and checks the status.
+ *
+ * allowed: "public" (no sign-in), "member" (any role of the firm), or the roles that may.
+ * invalidBody / validBody: for writes, a body that fails validation (an allowed role then gets 422, proving it
+ * passed the gate without writing) and one that would pass (used only for the other firm, which must get 404).
+ */
+import type { Role } from "@/lib/auth/roles";
+
+export interface RouteCase {
+  method: "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
+  /** path with :params, as in the app/api folder names */
+  path: string;
+  allowed: "public" | "member" | readonly Role[];
+  /** whether the route names a record of the firm (the other firm then gets 404) */
+  scoped?: boolean;
+  invalidBody?: unknown;
+  validBody?: unknown;
+  /** a route Auth.js owns (sign-in, session); exercised by the sign-in tests, not the table */
+  external?: boolean;
+}
+
+export const ROUTES: readonly RouteCase[] = [
+  { method: "GET", path: "/api/auth/[...nextauth]", allowed: "public", external: true },
+  { method: "POST", path: "/api/auth/[...nextauth]", allowed: "public", external: true },
+  { method: "GET", path: "/api/health", allowed: "public" },
+  { method: "GET", path: "/api/audit", allowed: ["admin", "auditor"] },
+  { method: "GET", path: "/api/firm", allowed: "member" },
+  { method: "PATCH", path: "/api/firm", allowed: ["admin"], invalidBody: { name: "" } },
+  { method: "GET", path: "/api/members", allowed: ["admin"] },
+  { method: "POST", path: "/api/members", allowed: ["admin"], invalidBody: { email: "not-an-address" } },
+  {
+    method: "PATCH",
+    path: "/api/members/[memberId]",
+    allowed: ["admin"],
+    scoped: true,
+    invalidBody: { roles: [] },
+    validBody: { active: true },
+  },
+  { method: "GET", path: "/api/periods", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"] },
+  { method: "POST", path: "/api/periods", allowed: ["compliance_officer", "admin"], invalidBody: { month: "2026-13" } },
+  { method: "GET", path: "/api/periods/[periodId]", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+];
