@@ -24,7 +24,7 @@ export default defineConfig({
   retries: 0,
   timeout: 60_000,
   expect: { timeout: 10_000 },
-  reporter: [["list"], ["json", { outputFile: "test-results/e2e-results.json" }]],
+  reporter: [["list"], ["json", { outputFile: ".test-output/e2e.json" }]],
   use: {
     baseURL: `http://localhost:${PORT}`,
     screenshot: "only-on-failure",

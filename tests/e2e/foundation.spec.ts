@@ -85,3 +85,14 @@ test.describe("tenants", () => {
     await pellam.dispose();
   });
 });
+
+test("repeated failures for one account are refused with a clear wait message", async ({ page }) => {
+  const email = SECOND_FIRM_USERS[1].email;
+  for (let i = 0; i < 5; i++) {
+    await submitSignIn(page, email, `wrong-password-${i}`);
+    await expect(signInError(page)).toHaveText("That e-mail and password do not match an active account.");
+  }
+  // Even the right password is refused while the account is cooling down.
+  await submitSignIn(page, email);
+  await expect(signInError(page)).toHaveText("Too many sign-in attempts. Wait 15 minutes and try again.");
+});

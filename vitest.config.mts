@@ -1,5 +1,8 @@
 import { defineConfig } from "vitest/config";
 import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+const __dirname = path.dirname(fileURLToPath(import.meta.url));
 
 export default defineConfig({
   resolve: {
@@ -14,5 +17,6 @@ export default defineConfig({
     environment: "node",
     testTimeout: 30_000,
     pool: "forks",
+    reporters: ["default", ["json", { outputFile: ".test-output/vitest.json" }]],
   },
 });

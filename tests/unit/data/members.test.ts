@@ -1,0 +1,82 @@
+import { beforeAll, describe, expect, it } from "vitest";
+import { actorFor, freshDatabase, snapshot } from "../helpers/db";
+import { addMember, listMembers, updateMember } from "@/lib/data/members";
+import { updateFirmSettings, getFirmSettings } from "@/lib/data/firm";
+import { getPeriod, listPeriods, openPeriod } from "@/lib/data/periods";
+import { listAuditEvents } from "@/lib/data/audit";
+import { AppError } from "@/lib/errors";
+import type { Database } from "@/db/client";
+import type { Actor } from "@/lib/auth/actor";
+
+let db: Database;
+let admin: Actor;
+let otherAdmin: Actor;
+let officer: Actor;
+
+beforeAll(async () => {
+  process.env.BALLAST_CLOCK = "2026-12-01";
+  db = await freshDatabase();
+  admin = await actorFor("ada.quayle@northmoor.example");
+  otherAdmin = await actorFor("rafe.pellam@pellam.example");
+  officer = await actorFor("tomas.reyne@northmoor.example");
+});
+
+describe("members", () => {
+  it("adds a person and records it in the audit trail", async () => {
+    const member = await addMember(admin, { name: "Ivo Brandt", email: "ivo.brandt@northmoor.example", roles: ["risk_analyst"], password: "long-enough-and-rare-77" });
+    expect(member.roles).toEqual(["risk_analyst"]);
+    const audit = await listAuditEvents(admin, { page: 1, pageSize: 10 });
+    expect(audit.events[0]).toMatchObject({ action: "member.add", entityId: member.id });
+  });
+
+  it("refuses a duplicate member and a common password, writing nothing", async () => {
+    const before = await snapshot(db);
+    await expect(addMember(admin, { name: "Ivo Brandt", email: "ivo.brandt@northmoor.example", roles: ["auditor"], password: "another-long-password-9" })).rejects.toMatchObject({ kind: "conflict" });
+    await expect(addMember(admin, { name: "Lena Holt", email: "lena.holt@northmoor.example", roles: ["auditor"], password: "passwordpassword" })).rejects.toMatchObject({ kind: "unprocessable" });
+    expect(await snapshot(db)).toEqual(before);
+  });
+
+  it("keeps one active administrator", async () => {
+    const self = (await listMembers(admin)).find((m) => m.userId === admin.userId)!;
+    await expect(updateMember(admin, self.id, { active: false })).rejects.toMatchObject({ kind: "conflict" });
+  });
+
+  it("answers not-found for another firm's member", async () => {
+    const northmoorMember = (await listMembers(admin))[0];
+    const error = await updateMember(otherAdmin, northmoorMember.id, { active: false }).catch((e) => e);
+    expect(error).toBeInstanceOf(AppError);
+    expect(error.kind).toBe("not_found");
+  });
+});
+
+describe("firm settings", () => {
+  it("saves and audits in one transaction", async () => {
+    const before = await getFirmSettings(admin);
+    const after = await updateFirmSettings(admin, { ...before, reportingCurrency: "GBP", deadlineRule: "fixed-day-next-month", deadlineValue: 20 });
+    expect(after).toMatchObject({ reportingCurrency: "GBP", deadlineRule: "fixed-day-next-month", deadlineValue: 20 });
+    const audit = await listAuditEvents(admin, { page: 1, pageSize: 1 });
+    expect(audit.events[0].summary).toContain("reportingCurrency");
+  });
+});
+
+describe("periods", () => {
+  it("opens a period with its deadline and refuses a second one for the same month", async () => {
+    const period = await openPeriod(officer, "2026-10");
+    expect(period.periodEnd).toBe("2026-10-31");
+    // The firm's rule was set above to the 20th of the next month; 20 Nov 2026 is a Friday.
+    expect(period.deadline).toBe("2026-11-20");
+    expect(period.overdue).toBe(true);
+    await expect(openPeriod(officer, "2026-10")).rejects.toMatchObject({ kind: "conflict" });
+  });
+
+  it("refuses a month that has not started", async () => {
+    await expect(openPeriod(officer, "2027-01")).rejects.toMatchObject({ kind: "unprocessable" });
+  });
+
+  it("keeps each firm's periods to itself", async () => {
+    const northmoor = await listPeriods(admin);
+    const pellam = await listPeriods(otherAdmin);
+    expect(pellam.map((p) => p.id)).not.toEqual(expect.arrayContaining([northmoor[0].id]));
+    await expect(getPeriod(otherAdmin, northmoor[0].id)).rejects.toMatchObject({ kind: "not_found" });
+  });
+});
