@@ -64,7 +64,7 @@ export function runBacktest(
   if (T !== 250) {
     warnings.push({ code: "backtest-window", message: `The backtest covers ${T} days, not the 250 of the supervisory table; zones follow the binomial rule.` });
   }
-  const p = 1 - confidence;
+  const p = Math.round((1 - confidence) * 1e12) / 1e12; // 1 − 0.99 is 0.010000000000000009 in floating point
   const light = trafficLight(T, exceptionList.length, p);
   return {
     days: T,

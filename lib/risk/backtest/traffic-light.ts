@@ -68,7 +68,7 @@ export function trafficLight(days: number, exceptions: number, expectedRate = 0.
     cumulativeProbability >= rule.redFrom - 1e-12 ? "red" : cumulativeProbability >= rule.yellowFrom - 1e-12 ? "yellow" : "green";
   let plusFactor: number;
   let plusFactorRule: string;
-  if (days === 250 && expectedRate === 0.01) {
+  if (days === 250 && Math.abs(expectedRate - 0.01) < 1e-12) {
     plusFactor = BASEL_PLUS_FACTORS_250[Math.min(exceptions, 10)];
     plusFactorRule = "Basel Committee (1996) backtesting framework, Table 2 (250 days, 99 %)";
   } else {

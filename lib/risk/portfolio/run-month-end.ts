@@ -381,7 +381,7 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
       message: `${excludedFactors.length} factor(s) are left out for lack of history: ${excludedFactors.slice(0, 10).map((f) => `${f.factor} (${f.reason})`).join("; ")}${excludedFactors.length > 10 ? "; …" : ""}.`,
     });
   }
-  if (ex.factors.length === 0) throw new RangeError("runMonthEnd: no position has usable price history");
+  if (ex.factors.length === 0) throw new RangeError(`runMonthEnd: no position has usable price history${excludedFactors.length ? ` (${excludedFactors[0].factor}: ${excludedFactors[0].reason})` : ""}`);
   let L = T;
   let shortest = "";
   for (const id of ex.factors) {
@@ -418,6 +418,7 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
     const paramsOut: Record<string, number>[] = [];
     const fellBack: string[] = [];
     const failed: string[] = [];
+    const fitWarnings = new Map<string, string[]>();
     for (let i = 0; i < k; i++) {
       try {
         const fit = fitGarch11(returns[i], { mean: "zero", fallback: "ewma" });
@@ -433,6 +434,11 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
           fellBack.push(ex.factors[i]);
         }
         paramsOut.push({ ...fit.params });
+        for (const w of fit.warnings) {
+          const list = fitWarnings.get(w.code) ?? [];
+          list.push(ex.factors[i]);
+          fitWarnings.set(w.code, list);
+        }
       } catch (error) {
         let s = 0;
         for (let t = 0; t < startup; t++) s += returns[i][t] ** 2;
@@ -448,6 +454,10 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
     }
     if (fellBack.length) warnings.push({ code: "garch-fallback", message: `GARCH(1,1) failed or was near-integrated for ${fellBack.length} factor(s); EWMA (λ = 0.94) is used for them instead: ${fellBack.slice(0, 10).join(", ")}${fellBack.length > 10 ? ", …" : ""}.` });
     if (failed.length) warnings.push({ code: "garch-failed", message: `GARCH(1,1) could not be fitted for ${failed.length} factor(s); EWMA is used: ${failed.slice(0, 5).join("; ")}${failed.length > 5 ? "; …" : ""}.` });
+    for (const [code, list] of fitWarnings) {
+      if (code === "near-integrated" || code === "not-converged") continue; // reported as garch-fallback above
+      warnings.push({ code: `garch-${code}`, message: `GARCH(1,1) fit warning "${code}" for ${list.length} factor(s): ${list.slice(0, 10).join(", ")}${list.length > 10 ? ", …" : ""}.` });
+    }
     volatility = { variance, current, params, labels, paramsOut };
   } else if (method.methods.includes("filtered")) {
     volatility = ewmaModel();
@@ -945,8 +955,8 @@ function describeChoices(method: PreparedRun["method"], scalingFor: Scaler, L: n
     methods: method.methods,
     covariance: method.covariance === "garch-ccc" ? "GARCH(1,1) per factor (zero mean, normal, sample start-up; EWMA fallback), constant correlation of standardised residuals" : method.covariance === "ewma" ? `EWMA, λ = ${method.lambda}, zero mean, started from the equal-weight covariance of the first ${Math.min(method.startupDays, L)} days` : `equal weights over the last ${Math.min(method.covarianceWindow, L)} days, zero mean`,
     filteringVolatility: method.methods.includes("filtered") ? (method.covariance === "garch-ccc" ? "GARCH(1,1) per factor" : `EWMA λ = ${method.lambda} per factor`) : "not used",
-    historicalWindowDays: W,
-    quantileConvention: HISTORICAL_QUANTILE_CONVENTION,
+    historicalWindowDays: method.methods.some((m) => m !== "parametric") ? W : "not used",
+    quantileConvention: method.methods.some((m) => m !== "parametric") ? HISTORICAL_QUANTILE_CONVENTION : "not used",
     confidences,
     horizonDays: H,
     scaling: method.methods.map((m) => `${m}: ${describeScaling(scalingFor(m), H)}`),

@@ -27,3 +27,11 @@ describe("runBacktest", () => {
     expect(() => runBacktest(dates, [1], [1])).toThrow(/equal length/);
   });
 });
+
+describe("floating-point confidence", () => {
+  it("1 − 0.99 still uses Table 2 directly", async () => {
+    const { trafficLight } = await import("@/lib/risk/backtest/traffic-light");
+    expect(trafficLight(250, 6, 1 - 0.99).plusFactorRule).toMatch(/Table 2/);
+    expect(trafficLight(250, 6, 1 - 0.99).plusFactor).toBe(0.5);
+  });
+});
