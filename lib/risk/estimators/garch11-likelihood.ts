@@ -94,8 +94,9 @@ export function garch11LogLikelihood(p: Garch11Problem, theta: ArrayLike<number>
       const q = e2 / (c * h);
       // ln h and ln(1+q) are summed as logs of running products (one Math.log per block, see below)
       prodH *= h; prodQ *= 1 + q;
-      if (scores) { const l1q = Math.log1p(q); lt = kNu - 0.5 * Math.log(h) - half * l1q; ln = dkNu - 0.5 * l1q + (half * q) / ((1 + q) * c); }
-      else { lt = 0; ln = (half * q) / ((1 + q) * c); }
+      lt = 0;
+      // the per-observation ν score needs ln(1+q) itself; the sum of ν scores gets the bulk terms below
+      ln = scores ? -0.5 * Math.log1p(q) + (half * q) / ((1 + q) * c) : (half * q) / ((1 + q) * c);
       lh = (-0.5 + (half * q) / (1 + q)) / h;
       le = (-2 * half * e) / (c * h * (1 + q));
     } else {
@@ -103,7 +104,6 @@ export function garch11LogLikelihood(p: Garch11Problem, theta: ArrayLike<number>
       const r = e2 * inv;
       prodH *= h;
       lt = -0.5 * r;
-      if (scores) lt -= 0.5 * (LN_2PI + Math.log(h));
       lh = 0.5 * (r - 1) * inv;
       le = -e * inv;
     }
@@ -121,7 +121,7 @@ export function garch11LogLikelihood(p: Garch11Problem, theta: ArrayLike<number>
         if (!p.targeting) scores[i++] = sOm;
         scores[i++] = p.targeting ? sAl - sOm * targetV : sAl;
         scores[i++] = p.targeting ? sBe - sOm * targetV : sBe;
-        if (p.studentT) scores[i++] = ln;
+        if (p.studentT) scores[i++] = ln + dkNu;
       }
       dhMu = -2 * alpha * e + beta * dhMu;
       dhOm = 1 + beta * dhOm;
@@ -131,11 +131,9 @@ export function garch11LogLikelihood(p: Garch11Problem, theta: ArrayLike<number>
     h = omega + alpha * e2 + beta * h;
   }
   sumLogH += Math.log(prodH); sumLogQ += Math.log(prodQ);
-  if (!scores) {
-    // the per-observation terms left out above, added in bulk
-    ll += p.studentT ? n * kNu - 0.5 * sumLogH - half * sumLogQ : -0.5 * (n * LN_2PI + sumLogH);
-    if (p.studentT) gNu += n * dkNu - 0.5 * sumLogQ;
-  }
+  // the per-observation terms left out above, added in bulk
+  ll += p.studentT ? n * kNu - 0.5 * sumLogH - half * sumLogQ : -0.5 * (n * LN_2PI + sumLogH);
+  if (p.studentT) gNu += scores ? n * dkNu : n * dkNu - 0.5 * sumLogQ;
   if (!Number.isFinite(ll)) return -Infinity;
   if (gradient) {
     let i = 0;

@@ -119,23 +119,45 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   const mu0 = fitMean ? mean / scale : 0;
   const starts: Float64Array[] = [];
   for (const p of [0.97, 0.9, 0.99]) for (const a of [0.08, 0.15, 0.04]) starts.push(toFree(mu0, 1 - p, a, p - a, 8));
-  const best = minimizeMultiStart(objective, starts, { runs: options.starts ?? 2, gradientTolerance: 1e-9, maxIterations: 300 });
+  // each run starts from the outer product of the scores (BHHH) as its Hessian, carried into the z coordinates
+  const scoreRows = new Float64Array(n * k);
+  const bhhh = (z: Float64Array): Float64Array | null => {
+    toNatural(z, theta);
+    if (!Number.isFinite(garch11LogLikelihood(problem, theta, gTheta, scoreRows))) return null;
+    const jac = new Float64Array(k); // diagonal part of dθ/dz; the (α, β) block is filled below
+    if (iMu >= 0) jac[iMu] = 1;
+    if (iOm >= 0) jac[iOm] = theta[iOm];
+    if (iNu >= 0) jac[iNu] = theta[iNu] - NU_FLOOR;
+    const a = theta[iAl], b = theta[iBe];
+    const hz = new Float64Array(k * k);
+    const row = new Float64Array(k);
+    for (let t = 0; t < n; t++) {
+      const o = t * k;
+      for (let i = 0; i < k; i++) row[i] = scoreRows[o + i] * jac[i];
+      const sa = scoreRows[o + iAl], sb = scoreRows[o + iBe];
+      row[iAl] = sa * a * (1 - a) - sb * a * b;
+      row[iBe] = -sa * a * b + sb * b * (1 - b);
+      for (let i = 0; i < k; i++) { const ri = row[i]; for (let j = 0; j < k; j++) hz[i * k + j] += ri * row[j]; }
+    }
+    for (let i = 0; i < k * k; i++) hz[i] /= n;
+    return invertMatrix(hz, k);
+  };
+  const best = minimizeMultiStart(objective, starts, { runs: options.starts ?? 2, gradientTolerance: 1e-9, maxIterations: 300, initialInverseHessian: bhhh });
   toNatural(best.x, theta);
 
   // standard errors from the Hessian of the log-likelihood (central differences of the analytic gradient)
   const hess = new Float64Array(k * k);
-  const gp = new Float64Array(k), gm = new Float64Array(k), tp = new Float64Array(k);
+  // forward differences from the gradient at the optimum (one pass per parameter; the error is of the order of the step, 1e−6 relative)
+  const gp = new Float64Array(k), g0 = new Float64Array(k), tp = new Float64Array(k);
+  garch11LogLikelihood(problem, theta, g0, scoreRows);
   for (let i = 0; i < k; i++) {
-    const step = 1e-5 * Math.max(Math.abs(theta[i]), 0.1);
+    const step = 1e-6 * Math.max(Math.abs(theta[i]), 0.1);
     tp.set(theta); tp[i] = theta[i] + step; garch11LogLikelihood(problem, tp, gp);
-    tp[i] = theta[i] - step; garch11LogLikelihood(problem, tp, gm);
-    for (let j = 0; j < k; j++) hess[i * k + j] = (gp[j] - gm[j]) / (2 * step);
+    for (let j = 0; j < k; j++) hess[i * k + j] = (gp[j] - g0[j]) / step;
   }
   for (let i = 0; i < k; i++) for (let j = 0; j < i; j++) { const v = 0.5 * (hess[i * k + j] + hess[j * k + i]); hess[i * k + j] = v; hess[j * k + i] = v; }
   const information = hess.map((v) => -v);
   const cov = invertMatrix(information, k);
-  const scoreRows = new Float64Array(n * k);
-  garch11LogLikelihood(problem, theta, new Float64Array(k), scoreRows);
   const opg = new Float64Array(k * k);
   for (let t = 0; t < n; t++) for (let i = 0; i < k; i++) { const si = scoreRows[t * k + i]; for (let j = 0; j < k; j++) opg[i * k + j] += si * scoreRows[t * k + j]; }
   const robust = cov ? multiplyMatrices(multiplyMatrices(cov, opg, k), cov, k) : null;

@@ -16,6 +16,8 @@ export interface BfgsOptions {
   maxIterations?: number;
   /** called after each iteration; returning true abandons the run (used to cut short a poor start) */
   abandon?: (iteration: number, value: number) => boolean;
+  /** a starting approximation of the inverse Hessian at x0 (row-major n×n), e.g. from outer products of scores; identity when absent */
+  initialInverseHessian?: Float64Array | null;
 }
 
 /** Why the minimiser stopped. */
@@ -72,6 +74,10 @@ export function minimizeBfgs(f: Objective, x0: ArrayLike<number>, options: BfgsO
   const h = new Float64Array(n * n);
   identity(h, n);
   let fresh = true; // h is the (scaled) identity
+  if (options.initialInverseHessian && options.initialInverseHessian.length === n * n && options.initialInverseHessian.every(Number.isFinite)) {
+    h.set(options.initialInverseHessian);
+    fresh = false;
+  }
   const d = new Float64Array(n);
   const xt = new Float64Array(n);
   const gt = new Float64Array(n);
@@ -100,6 +106,8 @@ export function minimizeBfgs(f: Objective, x0: ArrayLike<number>, options: BfgsO
       for (let i = 0; i < n; i++) d[i] = -g[i];
       dphi0 = dot(g, d);
     }
+    // the quasi-Newton step promises a decrease below the rounding of f: we are at the optimum to working precision
+    if (!fresh && -dphi0 <= 4e-15 * Math.max(1, Math.abs(fx)) && maxAbs(g) < gtol * 1e3) { stop = "value"; break; }
     const phi0 = fx;
     let a = iterations === 0 && fresh ? Math.min(1, 1 / maxAbs(g)) : 1;
     // strong-Wolfe line search (bracketing, then zoom with safeguarded quadratic interpolation)

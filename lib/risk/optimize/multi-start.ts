@@ -6,11 +6,15 @@
 import { minimizeBfgs, type BfgsOptions, type BfgsResult, type Objective } from "./minimize-bfgs";
 
 /** Options of minimizeMultiStart. */
-export interface MultiStartOptions extends Omit<BfgsOptions, "abandon"> {
+export interface MultiStartOptions extends Omit<BfgsOptions, "abandon" | "initialInverseHessian"> {
+  /** a starting inverse Hessian for a run from x (null for the identity) */
+  initialInverseHessian?: (x: Float64Array) => Float64Array | null;
   /** how many starts to run BFGS from (default 2) */
   runs?: number;
   /** a later run is cut short when, after a few iterations, its value exceeds the best by more than this (default 1e-3) */
   abandonMargin?: number;
+  /** a later run that comes within this relative distance of the best value has confirmed it and stops (default 1e-9) */
+  confirmTolerance?: number;
 }
 
 /** The best run, and a summary of all of them. */
@@ -32,6 +36,7 @@ export interface MultiStartResult extends BfgsResult {
 export function minimizeMultiStart(f: Objective, starts: readonly ArrayLike<number>[], options: MultiStartOptions = {}): MultiStartResult {
   const runs = Math.max(1, options.runs ?? 2);
   const margin = options.abandonMargin ?? 1e-3;
+  const confirm = options.confirmTolerance ?? 1e-9;
   const grad = new Float64Array(starts[0]?.length ?? 0);
   let evaluations = 0;
   const ranked = starts
@@ -46,15 +51,16 @@ export function minimizeMultiStart(f: Objective, starts: readonly ArrayLike<numb
     const incumbent = best;
     const result = minimizeBfgs(f, start.x, {
       ...options,
+      initialInverseHessian: options.initialInverseHessian?.(Float64Array.from(start.x)) ?? null,
       abandon: incumbent
-        ? (iteration, value) => (iteration >= 5 && value > incumbent.value + margin) || (iteration >= 2 && Math.abs(value - incumbent.value) <= 1e-11 * Math.max(1, Math.abs(incumbent.value)))
+        ? (iteration, value) => (iteration >= 5 && value > incumbent.value + margin) || (iteration >= 2 && Math.abs(value - incumbent.value) <= confirm * Math.max(1, Math.abs(incumbent.value)))
         : undefined,
     });
     made++;
     evaluations += result.evaluations;
     runValues.push(result.value);
-    if (!best || result.value < best.value - 1e-11 * Math.max(1, Math.abs(best.value)) || (!best.converged && result.converged && result.value <= best.value)) {
-      best = result.stop === "abandoned" ? minimizeBfgs(f, result.x, options) : result;
+    if (!best || result.value < best.value - confirm * Math.max(1, Math.abs(best.value)) || (!best.converged && result.converged && result.value <= best.value)) {
+      best = result.stop === "abandoned" ? minimizeBfgs(f, result.x, { ...options, initialInverseHessian: null }) : result;
       if (result.stop === "abandoned") evaluations += best.evaluations;
     }
   }
