@@ -22,6 +22,13 @@ describe("minimizeBfgs", () => {
     expect(r.x[1]).toBeCloseTo(-1, 9);
     expect(r.inverseHessian[3]).toBeCloseTo(1 / 2000, 6);
   });
+  it("with the exact inverse Hessian as its start, takes one Newton step on a quadratic", () => {
+    const f = (x: Float64Array, g: Float64Array) => { g[0] = 2 * (x[0] - 3); g[1] = 2000 * (x[1] + 1); return (x[0] - 3) ** 2 + 1000 * (x[1] + 1) ** 2; };
+    const r = minimizeBfgs(f, [0, 0], { initialInverseHessian: Float64Array.from([0.5, 0, 0, 0.0005]) });
+    expect(r.x[0]).toBeCloseTo(3, 12);
+    expect(r.x[1]).toBeCloseTo(-1, 12);
+    expect(r.iterations).toBeLessThanOrEqual(2);
+  });
   it("treats a non-finite value as outside the domain and backs off", () => {
     const f = (x: Float64Array, g: Float64Array) => { if (x[0] <= 0) return NaN; g[0] = 1 - 1 / x[0]; return x[0] - Math.log(x[0]); };
     const r = minimizeBfgs(f, [5]);
