@@ -177,7 +177,7 @@ function varCommand(argv: string[]): void {
     confidence,
     horizonDays: horizon,
     method,
-    covariance: cov,
+    covariance: method === "historical" ? "not used" : cov,
     scaling: long ? figures.scalingStatement : "one-day figures, no scaling",
     portfolioVolatility: figures.portfolioVolatility,
     asOf: result.asOf,
