@@ -244,6 +244,7 @@ function backtestCommand(argv: string[]): void {
       : null,
     exceptionRule: r.exceptionRule,
     warnings: r.warnings,
+    limitations: r.limitations,
     engineVersion: ENGINE_VERSION,
   });
 }

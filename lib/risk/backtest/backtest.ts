@@ -6,6 +6,7 @@ import type { EngineWarning } from "../types";
 import { christoffersenTest, type ChristoffersenResult } from "./christoffersen";
 import { kupiecTest, type KupiecResult } from "./kupiec";
 import { trafficLight, type TrafficLightResult } from "./traffic-light";
+import { ENGINE_VERSION } from "../version";
 
 export interface BacktestException {
   date: string;
@@ -28,6 +29,8 @@ export interface BacktestResult {
   /** the rule used: a loss strictly greater than the VaR is an exception */
   exceptionRule: string;
   warnings: EngineWarning[];
+  limitations: string[];
+  engineVersion: string;
 }
 
 /**
@@ -78,5 +81,11 @@ export function runBacktest(
     christoffersen: T >= 2 ? christoffersenTest(hits, p) : null,
     exceptionRule: "an exception is a day whose loss (−P&L) is strictly greater than that day's VaR",
     warnings,
+    limitations: [
+      `With ${T} days at ${(confidence * 100).toFixed(1)} % only about ${(T * p).toFixed(1)} exceptions are expected, so the coverage tests have little power: a wrong model often passes (common practice, no source).`,
+      "The χ² distributions of the likelihood-ratio statistics are large-sample approximations.",
+      "Christoffersen's independence test looks only at consecutive days (first-order dependence).",
+    ],
+    engineVersion: ENGINE_VERSION,
   };
 }

@@ -5,6 +5,7 @@
  * with m_c = 3 + the backtest plus factor. Every parameter is the firm's to set.
  */
 import { trafficLight } from "../backtest/traffic-light";
+import { ENGINE_VERSION } from "../version";
 
 /** The firm's capital rule profile. */
 export interface CapitalProfile {
@@ -66,6 +67,7 @@ export interface CapitalResult {
   averagingDays: number;
   formula: string;
   profile: CapitalProfile;
+  engineVersion: string;
 }
 
 function meanOfLast(values: ArrayLike<number>, count: number): number {
@@ -125,5 +127,6 @@ export function capitalCharge(input: CapitalInput, profile: CapitalProfile = BAS
       ? `max(VaR(t−1), m_c × mean VaR of ${days} days) + max(sVaR(t−1), m_s × mean sVaR of ${days} days)`
       : `max(VaR(t−1), m_c × mean VaR of ${days} days)`,
     profile,
+    engineVersion: ENGINE_VERSION,
   };
 }
