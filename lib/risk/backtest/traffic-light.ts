@@ -16,6 +16,7 @@ export interface ZoneRule {
   redFrom: number;
 }
 
+/** The 1996 framework's zone boundaries: yellow from a cumulative probability of 95 %, red from 99.99 %. */
 export const BASEL_ZONE_RULE: ZoneRule = { yellowFrom: 0.95, redFrom: 0.9999 };
 
 export interface TrafficLightResult {

@@ -388,7 +388,7 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
     const r = runs.get(id) as number;
     if (r < L) { L = r; shortest = id; }
   }
-  if (L < T) warnings.push({ code: "short-history", message: `The working sample is the last ${L} of ${T} days: factor ${shortest} has no returns before that.` });
+  if (L < T) warnings.push({ code: "short-history", message: `The working sample is the last ${L} of ${T} days: factor ${shortest} has no return on the day before (it starts there or has a gap); every figure uses these ${L} days.` });
   const dates = input.returns.dates.slice(T - L);
   const returns = ex.factors.map((id) => Float64Array.from(Array.prototype.slice.call(input.returns.factors[id], T - L) as number[]));
   const k = ex.factors.length;
