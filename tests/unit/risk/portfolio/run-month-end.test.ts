@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { runMonthEnd, prepareRun, type MonthEndInput } from "@/lib/risk/portfolio/run-month-end";
 import { ENGINE_VERSION } from "@/lib/risk/version";
+import { varMultiplier } from "@/lib/risk/var/parametric";
 import { syntheticBook } from "./synthetic-book";
 
 const book = syntheticBook(12, 900, 40, 11);
@@ -124,6 +125,28 @@ describe("runMonthEnd", () => {
     const r = runMonthEnd({ ...base, method: { methods: ["historical"], scaling: "overlap", historicalWindow: 250 } });
     expect(r.methods[0].scalingStatement).toMatch(/overlapping/);
     expect(r.varHistory.points.at(-1)!.var10d[0]).toBeCloseTo(r.methods[0].byConfidence[0].tenDay.var, 6);
+  });
+
+  it("a factor that starts late shortens the working sample and says so; one too short is excluded and listed", () => {
+    const late = Array.from(book.returns.factors.INST0001, (x, t) => (t < 100 ? NaN : x));
+    const tooShort = Array.from(book.returns.factors.INST0002, (x, t) => (t < 850 ? NaN : x));
+    const r = runMonthEnd({
+      ...base,
+      returns: { dates: book.returns.dates, factors: { ...book.returns.factors, INST0001: late, INST0002: tooShort } },
+      method: { methods: ["parametric"], covariance: "equal" },
+    });
+    expect(r.sample.days).toBe(800);
+    expect(r.warnings.find((w) => w.code === "short-history")?.message).toMatch(/INST0001/);
+    expect(r.factors.excluded).toEqual([{ factor: "INST0002", reason: "only 50 days of returns up to the last date; the method needs 250" }]);
+    expect(r.excludedPositions.every((p) => p.instrument === "INST0002")).toBe(true);
+    expect(r.excludedPositions.length).toBeGreaterThan(0);
+  });
+
+  it("Student-t parametric VaR scales the normal figure by the ratio of the multipliers", () => {
+    const n = runMonthEnd({ ...base, method: { methods: ["parametric"] } }).methods[0].byConfidence[0];
+    const t = runMonthEnd({ ...base, method: { methods: ["parametric"], distribution: "t", nu: 5 } }).methods[0].byConfidence[0];
+    expect(t.oneDay.var / n.oneDay.var).toBeCloseTo(varMultiplier(0.99, { distribution: "t", nu: 5 }) / varMultiplier(0.99), 10);
+    expect(t.oneDay.es).toBeGreaterThan(n.oneDay.es);
   });
 
   it("refuses impossible input with a clear message", () => {
