@@ -14,6 +14,14 @@ export const uploads = sqliteTable(
     fileKey: text("file_key").notNull(),
     sha256: text("sha256").notNull(),
     sizeBytes: integer("size_bytes").notNull(),
+    /** where the upload service serves the stored bytes */
+    fileUrl: text("file_url").notNull().default(""),
+    /** how to read the file: number format, header mapping (JSON) */
+    options: text("options", { mode: "json" }).$type<Record<string, unknown>>(),
+    rowCount: integer("row_count").notNull().default(0),
+    errorCount: integer("error_count").notNull().default(0),
+    warningCount: integer("warning_count").notNull().default(0),
+    cancelledAt: text("cancelled_at"),
     /** pending → confirmed | cancelled; confirmed → superseded */
     status: text("status").notNull().default("pending"),
     summary: text("summary", { mode: "json" }).$type<Record<string, unknown>>(),

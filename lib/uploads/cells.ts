@@ -1,0 +1,90 @@
+/** Reading single cells: numbers in the chosen format, dates (ISO or Excel serials), header names. */
+import { excelSerialToIso } from "./read-table";
+import type { NumberFormat } from "./types";
+
+/** Header names compared without case, spaces, underscores, hyphens, dots or slashes. */
+export function normaliseHeader(name: string): string {
+  return name.toLowerCase().replace(/[\s_\-./()]+/g, "");
+}
+
+/** A numeric cell in the chosen format, or an explanation of why it is not a number. */
+export function readNumber(cell: unknown, format: NumberFormat): { value: number } | { error: string } {
+  if (typeof cell === "number") return Number.isFinite(cell) ? { value: cell } : { error: "is not a finite number" };
+  const text = cell === undefined || cell === null ? "" : String(cell).trim();
+  if (text === "") return { error: "is empty" };
+  let normalised = text.replace(/\s/g, "");
+  if (format === "comma-thousands") {
+    if (!/^[-+]?\d{1,3}(,\d{3})*(\.\d+)?$|^[-+]?\d+(\.\d+)?$/.test(normalised)) return { error: `"${text}" is not a number written as 1,234.56` };
+    normalised = normalised.replace(/,/g, "");
+  } else if (format === "dot-thousands") {
+    if (!/^[-+]?\d{1,3}(\.\d{3})*(,\d+)?$|^[-+]?\d+(,\d+)?$/.test(normalised)) return { error: `"${text}" is not a number written as 1.234,56` };
+    normalised = normalised.replace(/\./g, "").replace(",", ".");
+  } else if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(normalised)) {
+    return {
+      error: /[,]/.test(normalised)
+        ? `"${text}" is not a plain number (it has a comma: choose the number format that matches the file)`
+        : `"${text}" is not a number`,
+    };
+  }
+  const value = Number(normalised);
+  return Number.isFinite(value) ? { value } : { error: `"${text}" is not a number` };
+}
+
+const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+/** A date cell as yyyy-mm-dd: ISO text, an Excel serial (number, or digits in a CSV), or a workbook date. */
+export function readDate(cell: unknown): { value: string } | { error: string } {
+  if (cell instanceof Date) return Number.isNaN(cell.getTime()) ? { error: "is not a date" } : { value: cell.toISOString().slice(0, 10) };
+  if (typeof cell === "number") {
+    const iso = excelSerialToIso(cell);
+    return iso ? { value: iso } : { error: `${cell} is not a date serial` };
+  }
+  const text = cell === undefined || cell === null ? "" : String(cell).trim();
+  if (text === "") return { error: "is empty" };
+  if (/^\d{5}(\.\d+)?$/.test(text)) {
+    const iso = excelSerialToIso(Number(text));
+    if (iso) return { value: iso };
+  }
+  const match = ISO_DATE.exec(text.slice(0, 10));
+  if (!match || (text.length > 10 && !/^[T ]/.test(text.slice(10)))) return { error: `"${text}" is not a date as yyyy-mm-dd` };
+  const [, y, m, d] = match.map(Number);
+  const date = new Date(Date.UTC(y, m - 1, d));
+  if (date.getUTCFullYear() !== y || date.getUTCMonth() !== m - 1 || date.getUTCDate() !== d) return { error: `${text.slice(0, 10)} does not exist` };
+  return { value: text.slice(0, 10) };
+}
+
+/** A text cell, trimmed; never evaluated, whatever it starts with. */
+export function readText(cell: unknown): string {
+  if (cell === undefined || cell === null) return "";
+  if (cell instanceof Date) return cell.toISOString().slice(0, 10);
+  return String(cell).trim();
+}
+
+let isoCurrencies: Set<string> | undefined;
+/** Whether a code is an ISO 4217 currency the runtime knows (Intl.supportedValuesOf). */
+export function isIsoCurrency(code: string): boolean {
+  isoCurrencies ??= new Set(Intl.supportedValuesOf("currency"));
+  return isoCurrencies.has(code);
+}
+
+/** Match required fields to header columns by their aliases, then by a person's explicit mapping. */
+export function matchColumns<F extends string>(
+  header: readonly string[],
+  aliases: Record<F, readonly string[]>,
+  mapping: Record<string, string> | undefined,
+): { index: Partial<Record<F, number>>; unmatchedHeaders: string[] } {
+  const normalised = header.map(normaliseHeader);
+  const index: Partial<Record<F, number>> = {};
+  for (const field of Object.keys(aliases) as F[]) {
+    const explicit = mapping?.[field];
+    if (explicit !== undefined && explicit !== "") {
+      const at = header.indexOf(explicit);
+      if (at >= 0) index[field] = at;
+      continue;
+    }
+    const at = normalised.findIndex((h) => aliases[field].includes(h));
+    if (at >= 0) index[field] = at;
+  }
+  const used = new Set(Object.values(index) as number[]);
+  return { index, unmatchedHeaders: header.filter((h, i) => h !== "" && !used.has(i)) };
+}

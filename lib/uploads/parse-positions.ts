@@ -1,0 +1,230 @@
+/**
+ * Month-end positions: from a raw table to typed rows and every problem found (never only the first).
+ * Pure: no database, no clock (today is passed in).
+ */
+import { z } from "zod";
+import { isIsoCurrency, matchColumns, readDate, readNumber, readText } from "./cells";
+import { ASSET_CLASSES, parseAssetClass } from "./asset-classes";
+import type { Problem, RawTable, ReadOptions } from "./types";
+
+export const POSITION_FIELDS = {
+  asOf: { label: "as-of date", required: true, aliases: ["asof", "asofdate", "date", "positiondate", "valuationdate"] },
+  book: { label: "book / account", required: true, aliases: ["book", "account", "bookaccount", "portfolio"] },
+  instrumentId: { label: "instrument id", required: true, aliases: ["instrumentid", "instrument", "instrumentcode", "isin", "ticker", "code", "id"] },
+  instrumentName: { label: "instrument name", required: true, aliases: ["instrumentname", "name", "description"] },
+  assetClass: { label: "asset class", required: true, aliases: ["assetclass", "class", "assettype"] },
+  currency: { label: "currency", required: true, aliases: ["currency", "ccy", "curr"] },
+  quantity: { label: "quantity", required: true, aliases: ["quantity", "qty", "units", "nominal", "holding"] },
+  price: { label: "price", required: true, aliases: ["price", "close", "lastprice", "unitprice"] },
+  marketValue: { label: "market value", required: false, aliases: ["marketvalue", "mv", "value", "marketvaluereporting"] },
+  deltaExposure: { label: "delta-equivalent exposure", required: false, aliases: ["deltaequivalentexposure", "deltaexposure", "delta", "deltaequivalent"] },
+} as const;
+export type PositionField = keyof typeof POSITION_FIELDS;
+export const REQUIRED_POSITION_FIELDS = (Object.keys(POSITION_FIELDS) as PositionField[]).filter((f) => POSITION_FIELDS[f].required);
+
+/** The most rows one positions file may hold. */
+export const MAX_POSITION_ROWS = 250_000;
+
+/** One position as validated. */
+export const positionRowSchema = z.object({
+  row: z.number().int(),
+  asOf: z.string().regex(/^\d{4}-\d{2}-\d{2}$/),
+  book: z.string().min(1, "is empty").max(120, "is longer than 120 characters"),
+  instrumentId: z.string().min(1, "is empty").max(64, "is longer than 64 characters"),
+  instrumentName: z.string().min(1, "is empty").max(200, "is longer than 200 characters"),
+  assetClass: z.enum(ASSET_CLASSES),
+  currency: z.string().refine(isIsoCurrency, "is not an ISO 4217 currency code"),
+  quantity: z.number().finite(),
+  price: z.number().positive("must be above zero"),
+  marketValue: z.number().finite(),
+  marketValueGiven: z.boolean(),
+  deltaExposure: z.number().finite().nullable(),
+});
+export type PositionRow = z.infer<typeof positionRowSchema>;
+
+export interface PositionTotals {
+  positions: number;
+  grossMarketValue: number;
+  netMarketValue: number;
+  byAssetClass: { key: string; count: number; gross: number; net: number }[];
+  byCurrency: { key: string; count: number; gross: number; net: number }[];
+}
+
+export interface PositionsParse {
+  source: string;
+  header: string[];
+  /** required fields the header did not supply (a mapping step can fix these) */
+  missingColumns: PositionField[];
+  unmatchedHeaders: string[];
+  rows: PositionRow[];
+  problems: Problem[];
+  totals: PositionTotals;
+}
+
+export interface PositionParseContext {
+  /** yyyy-mm-dd: no as-of date may be after it */
+  today: string;
+  reportingCurrency: string;
+  /** the period end the file is for; as-of dates elsewhere are warned about */
+  periodEnd?: string;
+  /** units of reporting currency per unit of the row's currency, for the market value cross-check */
+  fxToReporting?: Record<string, number>;
+  /** relative tolerance of the quantity × price cross-check */
+  tolerance?: number;
+}
+
+/** Totals by asset class and by currency. */
+export function positionTotals(rows: readonly PositionRow[]): PositionTotals {
+  const group = (key: (r: PositionRow) => string) => {
+    const map = new Map<string, { key: string; count: number; gross: number; net: number }>();
+    for (const r of rows) {
+      const k = key(r);
+      const g = map.get(k) ?? { key: k, count: 0, gross: 0, net: 0 };
+      g.count++;
+      g.gross += Math.abs(r.marketValue);
+      g.net += r.marketValue;
+      map.set(k, g);
+    }
+    return [...map.values()].sort((a, b) => b.gross - a.gross);
+  };
+  return {
+    positions: rows.length,
+    grossMarketValue: rows.reduce((s, r) => s + Math.abs(r.marketValue), 0),
+    netMarketValue: rows.reduce((s, r) => s + r.marketValue, 0),
+    byAssetClass: group((r) => r.assetClass),
+    byCurrency: group((r) => r.currency),
+  };
+}
+
+/** Pick the table (CSV, or the workbook sheet) whose header matches the most required fields. */
+export function chooseTable(tables: readonly RawTable[], fields: Record<string, { aliases: readonly string[]; required: boolean }>, mapping?: Record<string, string>): RawTable | null {
+  let best: RawTable | null = null;
+  let bestScore = -1;
+  for (const table of tables) {
+    const { index } = matchColumns(table.header, Object.fromEntries(Object.entries(fields).map(([k, v]) => [k, v.aliases])), mapping);
+    const score = Object.keys(fields).filter((f) => fields[f].required && index[f as never] !== undefined).length;
+    if (score > bestScore) {
+      best = table;
+      bestScore = score;
+    }
+  }
+  return bestScore > 0 ? best : null;
+}
+
+/** Parse and validate a positions table. */
+export function parsePositions(table: RawTable, options: ReadOptions, context: PositionParseContext): PositionsParse {
+  const aliases = Object.fromEntries(Object.entries(POSITION_FIELDS).map(([k, v]) => [k, v.aliases])) as unknown as Record<PositionField, readonly string[]>;
+  const { index, unmatchedHeaders } = matchColumns(table.header, aliases, options.mapping);
+  const missingColumns = REQUIRED_POSITION_FIELDS.filter((f) => index[f] === undefined);
+  const problems: Problem[] = [];
+  const rows: PositionRow[] = [];
+  const empty = { source: table.source, header: table.header, unmatchedHeaders, rows, problems, totals: positionTotals([]) };
+
+  if (missingColumns.length > 0) {
+    problems.push({
+      row: 1,
+      field: null,
+      severity: "error",
+      message: `Missing required column${missingColumns.length > 1 ? "s" : ""}: ${missingColumns.map((f) => POSITION_FIELDS[f].label).join(", ")}. Map them to the file's columns, or fix the header.`,
+    });
+    return { ...empty, missingColumns };
+  }
+  if (table.rows.length === 0) {
+    problems.push({ row: null, field: null, severity: "error", message: "The file has a header but no position rows." });
+    return { ...empty, missingColumns };
+  }
+  if (table.rows.length > MAX_POSITION_ROWS) {
+    problems.push({ row: null, field: null, severity: "error", message: `The file has ${table.rows.length.toLocaleString("en")} rows; a positions file may hold at most ${MAX_POSITION_ROWS.toLocaleString("en")}.` });
+    return { ...empty, missingColumns };
+  }
+
+  const tolerance = context.tolerance ?? 0.005;
+  const seen = new Map<string, number>();
+  const cell = (raw: unknown[], field: PositionField) => (index[field] === undefined ? undefined : raw[index[field]!]);
+
+  table.rows.forEach((raw, i) => {
+    const row = i + 2;
+    const rowProblems: Problem[] = [];
+    const fail = (field: PositionField, message: string) => rowProblems.push({ row, field: POSITION_FIELDS[field].label, message, severity: "error" });
+
+    const asOf = readDate(cell(raw, "asOf"));
+    if ("error" in asOf) fail("asOf", `as-of date ${asOf.error}`);
+    else if (asOf.value > context.today) fail("asOf", `as-of date ${asOf.value} is in the future`);
+    else if (context.periodEnd && asOf.value !== context.periodEnd) {
+      rowProblems.push({ row, field: POSITION_FIELDS.asOf.label, severity: "warning", message: `as-of date ${asOf.value} is not the period end ${context.periodEnd}` });
+    }
+
+    const assetText = readText(cell(raw, "assetClass"));
+    const assetClass = parseAssetClass(assetText);
+    if (!assetClass) fail("assetClass", assetText ? `"${assetText}" is not an asset class Ballast knows (${ASSET_CLASSES.join(", ")})` : "asset class is empty");
+
+    const currency = readText(cell(raw, "currency")).toUpperCase();
+    const numbers: Partial<Record<"quantity" | "price" | "marketValue" | "deltaExposure", number | null>> = {};
+    for (const field of ["quantity", "price", "marketValue", "deltaExposure"] as const) {
+      const value = cell(raw, field);
+      const optional = !POSITION_FIELDS[field].required;
+      if (optional && (value === undefined || value === null || String(value).trim() === "")) {
+        numbers[field] = null;
+        continue;
+      }
+      const parsed = readNumber(value, options.numberFormat);
+      if ("error" in parsed) fail(field, `${POSITION_FIELDS[field].label} ${parsed.error}`);
+      else numbers[field] = parsed.value;
+    }
+
+    const fx = currency === context.reportingCurrency ? 1 : context.fxToReporting?.[currency];
+    const computed = numbers.quantity != null && numbers.price != null && fx !== undefined ? numbers.quantity * numbers.price * fx : null;
+    const candidate = {
+      row,
+      asOf: "value" in asOf ? asOf.value : "",
+      book: readText(cell(raw, "book")),
+      instrumentId: readText(cell(raw, "instrumentId")),
+      instrumentName: readText(cell(raw, "instrumentName")),
+      assetClass: assetClass ?? "other",
+      currency,
+      quantity: numbers.quantity ?? 0,
+      price: numbers.price ?? 0,
+      marketValue: numbers.marketValue ?? computed ?? 0,
+      marketValueGiven: numbers.marketValue != null,
+      deltaExposure: numbers.deltaExposure ?? null,
+    };
+    if (numbers.marketValue == null && computed == null && numbers.quantity != null && numbers.price != null) {
+      fail("marketValue", `market value is needed: there is no ${currency}/${context.reportingCurrency} rate to compute it from quantity × price`);
+    }
+
+    const checked = positionRowSchema.safeParse(candidate);
+    if (!checked.success) {
+      for (const issue of checked.error.issues) {
+        const field = issue.path[0] as PositionField;
+        if (rowProblems.some((p) => p.field === POSITION_FIELDS[field]?.label)) continue; // already explained
+        const label = POSITION_FIELDS[field]?.label ?? String(field);
+        const shown = field === "currency" ? `"${currency}" ` : "";
+        fail(field, `${label} ${shown}${issue.message}`.replace(/\s+/g, " "));
+      }
+    }
+
+    if (checked.success) {
+      const key = `${candidate.book}\u0000${candidate.instrumentId}`;
+      const first = seen.get(key);
+      if (first !== undefined) {
+        fail("instrumentId", `duplicate position: book "${candidate.book}" and instrument "${candidate.instrumentId}" already appear on row ${first}`);
+      } else seen.set(key, row);
+      if (numbers.marketValue != null && computed !== null) {
+        const gap = Math.abs(numbers.marketValue - computed);
+        if (gap > Math.max(1, tolerance * Math.abs(computed))) {
+          rowProblems.push({
+            row,
+            field: POSITION_FIELDS.marketValue.label,
+            severity: "warning",
+            message: `market value ${numbers.marketValue} differs from quantity × price${fx !== 1 ? " × rate" : ""} = ${computed.toFixed(2)} by more than ${(tolerance * 100).toFixed(1)} %`,
+          });
+        }
+      }
+    }
+
+    problems.push(...rowProblems);
+    if (checked.success && !rowProblems.some((p) => p.severity === "error")) rows.push(checked.data);
+  });
+
+  return { ...empty, missingColumns, rows, problems, totals: positionTotals(rows) };
+}

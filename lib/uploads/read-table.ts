@@ -1,0 +1,84 @@
+/**
+ * Read an uploaded file into a raw table: CSV (UTF-8 with or without BOM, comma or semicolon, quoted fields) with
+ * papaparse, or a workbook with xlsx-populate (formulas read as their stored values). The type is decided from
+ * the bytes, not the file name.
+ */
+import Papa from "papaparse";
+import XlsxPopulate from "xlsx-populate";
+import { FileRejected, type RawTable } from "./types";
+import { checkZipProportions } from "./zip-guard";
+
+export type SniffedType = "csv" | "xlsx";
+
+/** Decide what the bytes are; refuse what is neither a text table nor a workbook. */
+export function sniffType(bytes: Uint8Array): SniffedType {
+  if (bytes.length === 0) throw new FileRejected("The file is empty.");
+  const head = bytes.subarray(0, 8);
+  if (head[0] === 0x50 && head[1] === 0x4b && head[2] === 0x03 && head[3] === 0x04) return "xlsx";
+  if (head[0] === 0x25 && head[1] === 0x50 && head[2] === 0x44 && head[3] === 0x46) {
+    throw new FileRejected("This is a PDF document, not a CSV or XLSX file.");
+  }
+  if (head[0] === 0xd0 && head[1] === 0xcf && head[2] === 0x11 && head[3] === 0xe0) {
+    throw new FileRejected("This is an old-format (.xls) workbook; save it as .xlsx or CSV and upload again.");
+  }
+  const sample = bytes.subarray(0, Math.min(bytes.length, 8192));
+  if (sample.includes(0)) throw new FileRejected("This file is binary, not a CSV or XLSX file.");
+  return "csv";
+}
+
+/** Parse CSV text: delimiter detected among comma and semicolon; blank lines skipped. */
+export function readCsvText(text: string): RawTable {
+  const clean = text.replace(/^\uFEFF/, "");
+  if (clean.trim() === "") throw new FileRejected("The file is empty.");
+  const firstLine = clean.slice(0, clean.search(/\r?\n|$/));
+  const delimiter = (firstLine.match(/;/g)?.length ?? 0) > (firstLine.match(/,/g)?.length ?? 0) ? ";" : ",";
+  const parsed = Papa.parse<string[]>(clean, { delimiter, skipEmptyLines: "greedy" });
+  const [header, ...rows] = parsed.data;
+  if (!header) throw new FileRejected("The file is empty.");
+  return { header: header.map((h) => String(h).trim()), rows, source: "csv" };
+}
+
+/** Excel's day count: serial 1 is 1900-01-01, with the 1900 leap-year quirk (serial 60); serial 25569 is 1970-01-01. */
+export function excelSerialToIso(serial: number): string | null {
+  if (!Number.isFinite(serial) || serial < 1 || serial > 2_958_465) return null;
+  const ms = Math.round((serial - 25569) * 86_400_000);
+  return new Date(ms).toISOString().slice(0, 10);
+}
+
+/** Read every sheet of a workbook as raw tables (first row as header), after the zip proportions check. */
+export async function readWorkbook(bytes: Uint8Array): Promise<RawTable[]> {
+  checkZipProportions(bytes);
+  let workbook: Awaited<ReturnType<typeof XlsxPopulate.fromDataAsync>>;
+  try {
+    workbook = await XlsxPopulate.fromDataAsync(Buffer.from(bytes));
+  } catch {
+    throw new FileRejected("The workbook could not be opened; it may be damaged or password-protected.");
+  }
+  const tables: RawTable[] = [];
+  for (const sheet of workbook.sheets()) {
+    const used = sheet.usedRange();
+    if (!used) continue;
+    const values = used.value() as unknown[][];
+    const [header, ...rows] = values;
+    if (!header) continue;
+    tables.push({
+      header: header.map((h) => (h === undefined || h === null ? "" : String(h).trim())),
+      rows: rows.filter((r) => r.some((c) => c !== undefined && c !== null && String(c).trim() !== "")),
+      source: `sheet "${sheet.name()}"`,
+    });
+  }
+  return tables;
+}
+
+/** Read the uploaded bytes into candidate tables (one for CSV, one per sheet for a workbook). */
+export async function readTables(bytes: Uint8Array): Promise<RawTable[]> {
+  const type = sniffType(bytes);
+  if (type === "xlsx") return readWorkbook(bytes);
+  let text: string;
+  try {
+    text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);
+  } catch {
+    throw new FileRejected("The file is not UTF-8 text; save it as CSV UTF-8 and upload again.");
+  }
+  return [readCsvText(text)];
+}
