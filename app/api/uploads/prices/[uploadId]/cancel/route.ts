@@ -1,0 +1,4 @@
+import { uploadActionRoutes } from "@/lib/uploads/routes";
+
+/** Cancel a pending prices upload; nothing of it is stored. */
+export const POST = uploadActionRoutes("prices").cancel;
