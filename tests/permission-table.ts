@@ -18,7 +18,10 @@ export interface RouteCase {
   scoped?: boolean;
   invalidBody?: unknown;
   validBody?: unknown;
-  /** a route Auth.js owns (sign-in, session); exercised by the sign-in tests, not the table */
+  /**
+   * a route Auth.js owns (sign-in, session), or one that checks its own secret instead of a session (the reminder
+   * scheduler: 401 for everyone without it); exercised by its own tests (sign-in, reminders), not the table
+   */
   external?: boolean;
 }
 
@@ -42,4 +45,17 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "GET", path: "/api/periods", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"] },
   { method: "POST", path: "/api/periods", allowed: ["compliance_officer", "admin"], invalidBody: { month: "2026-13" } },
   { method: "GET", path: "/api/periods/[periodId]", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+  { method: "GET", path: "/api/calendar", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"] },
+  { method: "GET", path: "/api/calendar/ics", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"] },
+  { method: "GET", path: "/api/calendar/settings", allowed: ["admin"] },
+  { method: "PUT", path: "/api/calendar/settings", allowed: ["admin"], invalidBody: { reminderOffsets: [61], remindOverdue: true, autoOpenPeriods: true } },
+  { method: "GET", path: "/api/calendar/preferences", allowed: "member" },
+  { method: "PUT", path: "/api/calendar/preferences", allowed: "member", invalidBody: { remindersEnabled: "sometimes" } },
+  { method: "GET", path: "/api/calendar/reminders", allowed: ["admin"] },
+  { method: "GET", path: "/api/holidays", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"] },
+  { method: "PUT", path: "/api/holidays", allowed: ["admin"], invalidBody: { holidays: [{ date: "2026-02-30", name: "" }] } },
+  { method: "POST", path: "/api/holidays/import", allowed: ["admin"], invalidBody: { csv: "" } },
+  // Checks its own secret (REMINDERS_SECRET), not a session: tests/e2e/reminders.spec.ts calls it as every persona.
+  { method: "POST", path: "/api/cron/reminders", allowed: "public", external: true },
+  { method: "GET", path: "/api/mail/messages", allowed: ["admin"] },
 ];

@@ -14,6 +14,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   const items: NavItem[] = [
     { href: "/home", label: "This month" },
     { href: "/periods", label: "Periods" },
+    { href: "/calendar", label: "Calendar" },
     { href: "/settings", label: "Settings" },
   ];
   if (can(actor, "audit.read")) items.push({ href: "/audit", label: "Audit trail" });

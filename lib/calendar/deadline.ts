@@ -50,3 +50,33 @@ export function deadlineFor(periodEnd: string, rule: DeadlineRule, holidays: Rea
 export function monthEnd(date: string): string {
   return format(endOfMonth(parseISO(date)), "yyyy-MM-dd");
 }
+
+/** The business day `n` business days before `date` (n ≥ 1): the day on which `businessDaysBetween(day, date)` is n. */
+export function subtractBusinessDays(date: string, n: number, holidays: ReadonlySet<string>): string {
+  let current = parseISO(date);
+  let remaining = n;
+  while (remaining > 0) {
+    current = addDays(current, -1);
+    if (isBusinessDay(format(current, "yyyy-MM-dd"), holidays)) remaining--;
+  }
+  return format(current, "yyyy-MM-dd");
+}
+
+/** The latest month end on or before `date` (the date itself when it is a month end). */
+export function latestMonthEnd(date: string): string {
+  const end = monthEnd(date);
+  if (end === date) return date;
+  return format(endOfMonth(addMonths(startOfMonth(parseISO(date)), -1)), "yyyy-MM-dd");
+}
+
+/** The next `count` month ends strictly after `date`. */
+export function nextMonthEnds(date: string, count: number): string[] {
+  const result: string[] = [];
+  let cursor = startOfMonth(parseISO(date));
+  if (monthEnd(date) === date) cursor = addMonths(cursor, 1);
+  while (result.length < count) {
+    result.push(format(endOfMonth(cursor), "yyyy-MM-dd"));
+    cursor = addMonths(cursor, 1);
+  }
+  return result;
+}

@@ -6,6 +6,7 @@ import { getFirmSettings } from "@/lib/data/firm";
 import { listMembers } from "@/lib/data/members";
 import { FirmSettingsForm } from "./firm-settings-form";
 import { MembersPanel } from "./members-panel";
+import { CalendarSettingsSection } from "./calendar-settings-section";
 
 export const metadata: Metadata = { title: "Settings" };
 
@@ -36,6 +37,7 @@ export default async function SettingsPage() {
           </section>
         ) : null}
       </div>
+      {can(actor, "calendar.manage") ? <CalendarSettingsSection actor={actor} /> : null}
     </>
   );
 }
