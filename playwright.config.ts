@@ -6,7 +6,17 @@ import { randomBytes } from "node:crypto";
  * its own database (data/e2e.db, seeded fresh) and a clock pinned to 2026-12-01 so that deadlines are stable.
  */
 const PORT = Number(process.env.E2E_PORT ?? 3100);
+const UPLOAD_PORT = Number(process.env.E2E_UPLOAD_PORT ?? 4110);
+const uploadToken =
+  process.env.E2E_UPLOADTHING_TOKEN ??
+  Buffer.from(JSON.stringify({ apiKey: `sk_e2e_${randomBytes(12).toString("hex")}`, appId: "ballast-e2e", regions: ["local"] })).toString("base64");
+process.env.E2E_UPLOADTHING_TOKEN = uploadToken;
 export const E2E_ENV = {
+  UPLOADTHING_TOKEN: uploadToken,
+  UPLOADTHING_INGEST_URL: `http://127.0.0.1:${UPLOAD_PORT}`,
+  UPLOADTHING_API_URL: `http://127.0.0.1:${UPLOAD_PORT}`,
+  UPLOAD_STANDIN_PORT: String(UPLOAD_PORT),
+  UPLOAD_STANDIN_DIR: "data/e2e-uploads",
   DATABASE_URL: "file:./data/e2e.db",
   AUTH_SECRET: process.env.E2E_AUTH_SECRET ?? randomBytes(32).toString("base64url"),
   AUTH_TRUST_HOST: "true",
@@ -43,13 +53,25 @@ export default defineConfig({
       ],
     },
   },
-  webServer: {
-    command: `node --import tsx db/seed.ts && node node_modules/next/dist/bin/next start -p ${PORT}`,
-    url: `http://localhost:${PORT}/api/health`,
-    env: E2E_ENV,
-    reuseExistingServer: false,
-    timeout: 120_000,
-    stdout: "ignore",
-    stderr: "pipe",
-  },
+  webServer: [
+    {
+      // The upload service's loopback stand-in (scripts/upload-standin.ts), with its own folder for the run.
+      command: "rm -rf data/e2e-uploads && node --import tsx scripts/upload-standin.ts",
+      url: `http://127.0.0.1:${UPLOAD_PORT}/health`,
+      env: E2E_ENV,
+      reuseExistingServer: false,
+      timeout: 30_000,
+      stdout: "ignore",
+      stderr: "pipe",
+    },
+    {
+      command: `node --conditions=react-server --import tsx db/seed.ts && node node_modules/next/dist/bin/next start -p ${PORT}`,
+      url: `http://localhost:${PORT}/api/health`,
+      env: E2E_ENV,
+      reuseExistingServer: false,
+      timeout: 120_000,
+      stdout: "ignore",
+      stderr: "pipe",
+    },
+  ],
 });

@@ -15,5 +15,5 @@ export const proxy = auth((request) => {
 });
 
 export const config = {
-  matcher: ["/home/:path*", "/periods/:path*", "/settings/:path*", "/audit/:path*", "/method/:path*", "/runs/:path*", "/calendar/:path*"],
+  matcher: ["/home/:path*", "/data/:path*", "/periods/:path*", "/settings/:path*", "/audit/:path*", "/method/:path*", "/runs/:path*", "/calendar/:path*"],
 };

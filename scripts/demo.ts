@@ -6,6 +6,7 @@ import { spawn, spawnSync } from "node:child_process";
 import { existsSync, statSync, readdirSync } from "node:fs";
 import path from "node:path";
 import { ensureLocalEnv } from "./local-env";
+import { startLocalUploadService } from "./local-services";
 import { DEMO_USERS, SECOND_FIRM_USERS, DEMO_PASSWORD } from "../db/seed";
 
 const root = process.cwd();
@@ -52,6 +53,8 @@ Ballast demo on http://localhost:${port}
 Every demo user's password: ${DEMO_PASSWORD}   (demo only)
 ${[...DEMO_USERS, ...SECOND_FIRM_USERS].map((u) => `  ${u.email.padEnd(34)} ${u.roles.join(" + ")}`).join("\n")}
 `);
-const server = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env: process.env });
-for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
-server.on("exit", (code) => process.exit(code ?? 0));
+void startLocalUploadService().then(() => {
+  const server = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env: process.env });
+  for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
+  server.on("exit", (code) => process.exit(code ?? 0));
+});

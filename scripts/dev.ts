@@ -2,13 +2,16 @@
 import { spawn, spawnSync } from "node:child_process";
 import path from "node:path";
 import { ensureLocalEnv } from "./local-env";
+import { startLocalUploadService } from "./local-services";
 
 ensureLocalEnv();
 const migrated = spawnSync(process.execPath, ["--import", "tsx", "db/migrate.ts"], { stdio: "inherit", env: process.env });
 if (migrated.status !== 0) process.exit(migrated.status ?? 1);
-const server = spawn(process.execPath, [path.join("node_modules", "next", "dist", "bin", "next"), "dev", "-p", process.env.PORT ?? "3000"], {
-  stdio: "inherit",
-  env: process.env,
+void startLocalUploadService().then(() => {
+  const server = spawn(process.execPath, [path.join("node_modules", "next", "dist", "bin", "next"), "dev", "-p", process.env.PORT ?? "3000"], {
+    stdio: "inherit",
+    env: process.env,
+  });
+  for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
+  server.on("exit", (code) => process.exit(code ?? 0));
 });
-for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
-server.on("exit", (code) => process.exit(code ?? 0));

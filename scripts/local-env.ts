@@ -19,6 +19,23 @@ export function ensureLocalEnv(): void {
     writeFileSync(ENV_FILE, lines.filter((l, i) => l !== "" || i < lines.length - 1).join("\n") + "\n", { mode: 0o600 });
     console.log("Created .env.local with a fresh AUTH_SECRET.");
   }
+  if (!lines.some((l) => l.startsWith("UPLOADTHING_TOKEN="))) {
+    // The upload service runs as a loopback stand-in locally; production sets these to the real service.
+    const port = process.env.UPLOAD_STANDIN_PORT ?? "4010";
+    lines.push(
+      "# Local upload service stand-in (scripts/upload-standin.ts). Replace with the real service's token in production.",
+      `UPLOADTHING_TOKEN=${localUploadToken()}`,
+      `UPLOADTHING_INGEST_URL=http://127.0.0.1:${port}`,
+      `UPLOADTHING_API_URL=http://127.0.0.1:${port}`,
+      "UPLOAD_STANDIN=1",
+    );
+    writeFileSync(ENV_FILE, lines.join("\n") + "\n", { mode: 0o600 });
+  }
   process.loadEnvFile(ENV_FILE);
   process.env.AUTH_TRUST_HOST ??= "true";
+}
+
+/** A token for the local upload stand-in: any values work as long as the key starts with sk_. */
+export function localUploadToken(): string {
+  return Buffer.from(JSON.stringify({ apiKey: `sk_local_${randomBytes(16).toString("hex")}`, appId: "ballast-local", regions: ["local"] })).toString("base64");
 }

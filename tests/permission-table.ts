@@ -23,6 +23,8 @@ export interface RouteCase {
    * scheduler: 401 for everyone without it); exercised by its own tests (sign-in, reminders), not the table
    */
   external?: boolean;
+  /** the status an allowed persona gets when it differs from 200 / 422 (stated beside the entry) */
+  probe?: number;
 }
 
 export const ROUTES: readonly RouteCase[] = [
@@ -58,4 +60,19 @@ export const ROUTES: readonly RouteCase[] = [
   // Checks its own secret (REMINDERS_SECRET), not a session: tests/e2e/reminders.spec.ts calls it as every persona.
   { method: "POST", path: "/api/cron/reminders", allowed: "public", external: true },
   { method: "GET", path: "/api/mail/messages", allowed: ["admin"] },
+  { method: "GET", path: "/api/uploads", allowed: "member" },
+  { method: "GET", path: "/api/uploads/[uploadId]", allowed: "member", scoped: true },
+  // The seeded upload is confirmed; parsed rows are served only while an upload waits for confirmation.
+  { method: "GET", path: "/api/uploads/[uploadId]/rows", allowed: "member", scoped: true, probe: 409 },
+  { method: "POST", path: "/api/uploads/positions/[uploadId]/confirm", allowed: ["compliance_officer"], scoped: true, invalidBody: { acknowledgeWarnings: "yes" }, validBody: { acknowledgeWarnings: true } },
+  { method: "POST", path: "/api/uploads/positions/[uploadId]/cancel", allowed: ["compliance_officer"], scoped: true, invalidBody: { reason: 1 }, validBody: {} },
+  { method: "PUT", path: "/api/uploads/positions/[uploadId]/options", allowed: ["compliance_officer"], scoped: true, invalidBody: { numberFormat: "roman" }, validBody: { numberFormat: "plain" } },
+  { method: "POST", path: "/api/uploads/prices/[uploadId]/confirm", allowed: ["risk_analyst"], scoped: true, invalidBody: { acknowledgeWarnings: "yes" }, validBody: { acknowledgeWarnings: true } },
+  { method: "POST", path: "/api/uploads/prices/[uploadId]/cancel", allowed: ["risk_analyst"], scoped: true, invalidBody: { reason: 1 }, validBody: {} },
+  { method: "PUT", path: "/api/uploads/prices/[uploadId]/options", allowed: ["risk_analyst"], scoped: true, invalidBody: { numberFormat: "roman" }, validBody: { numberFormat: "plain" } },
+  // The upload service's endpoints: its middleware runs the gate per upload route; exercised by tests/e2e/uploads.spec.ts.
+  { method: "GET", path: "/api/uploadthing", allowed: "public", external: true },
+  { method: "POST", path: "/api/uploadthing", allowed: "public", external: true },
+  { method: "GET", path: "/api/templates/[template]", allowed: "member", probe: 200 },
+  { method: "GET", path: "/api/periods/[periodId]/data-quality", allowed: "member", scoped: true },
 ];

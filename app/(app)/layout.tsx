@@ -13,6 +13,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   if (!actor) redirect("/sign-in");
   const items: NavItem[] = [
     { href: "/home", label: "This month" },
+    { href: "/data", label: "Data" },
     { href: "/periods", label: "Periods" },
     { href: "/calendar", label: "Calendar" },
     { href: "/settings", label: "Settings" },

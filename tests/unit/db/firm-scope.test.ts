@@ -6,7 +6,7 @@ import * as schema from "@/db/schema";
 const GLOBAL_TABLES = new Set(["firms", "users", "sign_in_attempts"]);
 
 describe("tenant scope in the schema", () => {
-  const tables = Object.values(schema).filter((value): value is SQLiteTable => value instanceof SQLiteTable);
+  const tables = (Object.values(schema) as unknown[]).filter((value): value is SQLiteTable => value instanceof SQLiteTable);
 
   it("finds the tables", () => {
     expect(tables.length).toBeGreaterThanOrEqual(18);

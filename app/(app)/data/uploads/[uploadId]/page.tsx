@@ -1,0 +1,30 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { QueryProvider } from "@/app/_components/query-provider";
+import { pageActor } from "@/lib/auth/page";
+import { UploadPreview } from "./upload-preview";
+
+export const metadata: Metadata = { title: "Upload preview" };
+
+export default async function UploadPage({ params, searchParams }: { params: Promise<{ uploadId: string }>; searchParams: Promise<{ duplicate?: string }> }) {
+  const { uploadId } = await params;
+  const { duplicate } = await searchParams;
+  await pageActor();
+  return (
+    <>
+      <p className="mb-2 text-sm">
+        <Link href="/data" className="underline">
+          ← Data
+        </Link>
+      </p>
+      {duplicate ? (
+        <p role="status" className="mb-4 rounded-md border border-ink-line bg-paper-sunk px-3 py-2 text-sm">
+          This exact file (same SHA-256) was uploaded before, so it was not stored again. This is that upload.
+        </p>
+      ) : null}
+      <QueryProvider>
+        <UploadPreview uploadId={uploadId} />
+      </QueryProvider>
+    </>
+  );
+}

@@ -1,0 +1,360 @@
+"use client";
+
+import { useMemo, useState } from "react";
+import { useRouter } from "next/navigation";
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { apiFetch } from "@/app/_components/api";
+import { PageHeader } from "@/app/_components/page-header";
+import { UploadStatus } from "@/app/_components/upload-status";
+import { StatusBadge } from "@/app/_components/status-badge";
+import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { NUMBER_FORMAT_LABELS, type NumberFormat, type Problem } from "@/lib/uploads/types";
+
+interface Group {
+  key: string;
+  count: number;
+  gross: number;
+  net: number;
+}
+interface Preview {
+  upload: {
+    id: string;
+    kind: "positions" | "prices";
+    fileName: string;
+    status: string;
+    rowCount: number;
+    errorCount: number;
+    warningCount: number;
+    sha256: string;
+    sizeBytes: number;
+    options: { numberFormat: NumberFormat; mapping?: Record<string, string> } | null;
+    summary: Record<string, unknown> | null;
+  };
+  canConfirm: boolean;
+  problems: Problem[];
+  header: string[];
+  missingColumns: string[];
+  fields: { key: string; label: string; required: boolean }[];
+  summary: Record<string, unknown> | null;
+}
+
+const money = (n: number) => n.toLocaleString("en", { maximumFractionDigits: 0 });
+
+function Totals({ summary, kind }: { summary: Record<string, unknown> | null; kind: "positions" | "prices" }) {
+  if (!summary) return null;
+  if (kind === "positions") {
+    const totals = summary.totals as { positions: number; grossMarketValue: number; netMarketValue: number; byAssetClass: Group[]; byCurrency: Group[] } | undefined;
+    if (!totals || totals.positions === 0) return null;
+    const table = (title: string, groups: Group[]) => (
+      <table className="w-full text-sm">
+        <caption className="mb-1 text-left font-medium">{title}</caption>
+        <thead className="text-left text-ink-soft">
+          <tr>
+            <th scope="col" className="py-1 font-medium"></th>
+            <th scope="col" className="py-1 text-right font-medium">Positions</th>
+            <th scope="col" className="py-1 text-right font-medium">Gross</th>
+            <th scope="col" className="py-1 text-right font-medium">Net</th>
+          </tr>
+        </thead>
+        <tbody>
+          {groups.map((g) => (
+            <tr key={g.key} className="border-t border-ink-line">
+              <th scope="row" className="py-1 text-left font-normal">{g.key}</th>
+              <td className="figure py-1 text-right">{g.count}</td>
+              <td className="figure py-1 text-right">{money(g.gross)}</td>
+              <td className="figure py-1 text-right">{money(g.net)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    );
+    return (
+      <section aria-label="Totals" className="grid gap-6 rounded-lg border border-ink-line bg-paper-raised p-4 md:grid-cols-3">
+        <dl className="grid grid-cols-2 content-start gap-y-1 text-sm">
+          <dt className="text-ink-soft">Positions</dt>
+          <dd className="figure text-right" data-testid="total-positions">{totals.positions}</dd>
+          <dt className="text-ink-soft">Gross market value</dt>
+          <dd className="figure text-right">{money(totals.grossMarketValue)}</dd>
+          <dt className="text-ink-soft">Net market value</dt>
+          <dd className="figure text-right">{money(totals.netMarketValue)}</dd>
+          <dd className="col-span-2 text-xs text-ink-muted">Values in the reporting currency.</dd>
+        </dl>
+        {table("By asset class", totals.byAssetClass)}
+        {table("By currency", totals.byCurrency)}
+      </section>
+    );
+  }
+  const s = summary as { points?: number; instruments?: number; firstDate?: string; lastDate?: string; layout?: string; added?: number; corrected?: number; unchanged?: number };
+  return (
+    <section aria-label="Totals" className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm">
+      <p>
+        <span className="figure" data-testid="total-points">{(s.points ?? 0).toLocaleString("en")}</span> closes for {s.instruments ?? 0} instruments, {s.firstDate ?? "—"} to {s.lastDate ?? "—"} ({s.layout ?? "—"} layout).
+      </p>
+      {s.added !== undefined ? (
+        <p className="mt-1">
+          Stored: {s.added} new, <span data-testid="corrected-count">{s.corrected}</span> corrected (old prices kept), {s.unchanged} unchanged.
+        </p>
+      ) : null}
+    </section>
+  );
+}
+
+export function UploadPreview({ uploadId }: { uploadId: string }) {
+  const router = useRouter();
+  const queryClient = useQueryClient();
+  const [page, setPage] = useState(1);
+  const [severity, setSeverity] = useState<"all" | "error" | "warning">("all");
+  const [acknowledged, setAcknowledged] = useState(false);
+  const [mapping, setMapping] = useState<Record<string, string>>({});
+  const [message, setMessage] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
+
+  const preview = useQuery({ queryKey: ["upload", uploadId], queryFn: () => apiFetch<Preview>(`/api/uploads/${uploadId}`) });
+  const pending = preview.data?.upload.status === "pending";
+  const rows = useQuery({
+    queryKey: ["upload-rows", uploadId, page],
+    queryFn: () => apiFetch<{ total: number; rows: Record<string, unknown>[] }>(`/api/uploads/${uploadId}/rows?page=${page}&pageSize=25`),
+    enabled: pending,
+    placeholderData: keepPreviousData,
+  });
+
+  const kind = preview.data?.upload.kind ?? "positions";
+  const act = useMutation({
+    mutationFn: (input: { path: string; method: string; body: unknown }) => apiFetch<Record<string, unknown>>(`/api/uploads/${kind}/${uploadId}/${input.path}`, { method: input.method, body: input.body }),
+    onSuccess: (data, input) => {
+      if (input.path === "confirm") setMessage({ tone: "ok", text: kind === "positions" ? `Confirmed: ${data.stored} positions stored in the period.` : `Confirmed: ${data.added} new closes, ${data.corrected} corrections.` });
+      if (input.path === "cancel") setMessage({ tone: "ok", text: "Cancelled. Nothing from this file was stored." });
+      if (input.path === "options") setMessage({ tone: "ok", text: "Re-read with the new settings." });
+      setPage(1);
+      void queryClient.invalidateQueries({ queryKey: ["upload", uploadId] });
+      void queryClient.invalidateQueries({ queryKey: ["upload-rows", uploadId] });
+      router.refresh();
+    },
+    onError: (error) => setMessage({ tone: "alert", text: error instanceof Error ? error.message : "That did not work." }),
+  });
+
+  const problems = useMemo(() => (preview.data?.problems ?? []).filter((p) => severity === "all" || p.severity === severity), [preview.data, severity]);
+
+  if (preview.isLoading) return <p className="text-ink-muted">Reading the file…</p>;
+  if (preview.error || !preview.data) {
+    return (
+      <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-3 text-alert">
+        {preview.error instanceof Error ? preview.error.message : "This upload could not be loaded."}
+      </p>
+    );
+  }
+  const { upload, problems: allProblems, header, missingColumns, fields, summary, canConfirm } = preview.data;
+  const errors = allProblems.filter((p) => p.severity === "error").length;
+  const warnings = allProblems.length - errors;
+  const columns = rows.data?.rows[0] ? Object.keys(rows.data.rows[0]).filter((c) => c !== "marketValueGiven") : [];
+  const pages = rows.data ? Math.max(1, Math.ceil(rows.data.total / 25)) : 1;
+
+  return (
+    <>
+      <PageHeader
+        title={upload.fileName}
+        lead={
+          <>
+            {upload.kind === "positions" ? "Positions" : "Price history"} · {(upload.sizeBytes / 1024).toFixed(1)} KB · SHA-256{" "}
+            <code className="text-xs">{upload.sha256.slice(0, 16)}…</code>
+          </>
+        }
+        actions={<UploadStatus status={upload.status} />}
+      />
+      {message ? (
+        <p role="status" data-testid="preview-message" className={`mb-4 rounded-md border px-3 py-2 text-sm ${message.tone === "ok" ? "border-ok/30 bg-ok-bg text-ok" : "border-alert/30 bg-alert-bg text-alert"}`}>
+          {message.text}
+        </p>
+      ) : null}
+
+      <div className="flex flex-col gap-6">
+        <Totals summary={summary} kind={upload.kind} />
+
+        <section aria-labelledby="problems-heading">
+          <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
+            <h2 id="problems-heading" className="text-lg font-semibold">
+              Problems{" "}
+              {errors ? <StatusBadge tone="alert">{errors} error{errors === 1 ? "" : "s"}</StatusBadge> : <StatusBadge tone="ok">No errors</StatusBadge>}{" "}
+              {warnings ? <StatusBadge tone="caution">{warnings} warning{warnings === 1 ? "" : "s"}</StatusBadge> : null}
+            </h2>
+            <label className="flex items-center gap-2 text-sm">
+              Show
+              <select className={inputClass} value={severity} onChange={(e) => setSeverity(e.target.value as typeof severity)}>
+                <option value="all">all</option>
+                <option value="error">errors</option>
+                <option value="warning">warnings</option>
+              </select>
+            </label>
+          </div>
+          {problems.length === 0 ? (
+            <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">Every row passed the checks.</p>
+          ) : (
+            <div className="max-h-80 overflow-auto rounded-lg border border-ink-line bg-paper-raised">
+              <table className="w-full text-sm" data-testid="problems-table">
+                <caption className="sr-only">Problems found in the file</caption>
+                <thead className="sticky top-0 bg-paper-sunk text-left text-ink-soft">
+                  <tr>
+                    <th scope="col" className="px-3 py-2 font-medium">Row</th>
+                    <th scope="col" className="px-3 py-2 font-medium">Column</th>
+                    <th scope="col" className="px-3 py-2 font-medium">Problem</th>
+                    <th scope="col" className="px-3 py-2 font-medium">Severity</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {problems.slice(0, 1000).map((p, i) => (
+                    <tr key={i} className="border-t border-ink-line">
+                      <td className="figure px-3 py-1.5">{p.row ?? "—"}</td>
+                      <td className="px-3 py-1.5">{p.field ?? "—"}</td>
+                      <td className="px-3 py-1.5">{p.message}</td>
+                      <td className="px-3 py-1.5">{p.severity === "error" ? <StatusBadge tone="alert">Error</StatusBadge> : <StatusBadge tone="caution">Warning</StatusBadge>}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+              {problems.length > 1000 ? <p className="p-2 text-sm text-ink-muted">Showing the first 1,000 of {problems.length.toLocaleString("en")}.</p> : null}
+            </div>
+          )}
+        </section>
+
+        {pending && canConfirm ? (
+          <section aria-labelledby="reading-heading" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+            <h2 id="reading-heading" className="font-semibold">
+              How the file is read
+            </h2>
+            <form
+              className="mt-3 flex flex-col gap-3"
+              onSubmit={(e) => {
+                e.preventDefault();
+                const form = new FormData(e.currentTarget);
+                act.mutate({ path: "options", method: "PUT", body: { numberFormat: form.get("numberFormat"), mapping: { ...(upload.options?.mapping ?? {}), ...mapping } } });
+              }}
+            >
+              <label className="flex max-w-xs flex-col gap-1 text-sm">
+                Numbers in the file
+                <select name="numberFormat" className={inputClass} defaultValue={upload.options?.numberFormat ?? "plain"}>
+                  {Object.entries(NUMBER_FORMAT_LABELS).map(([value, label]) => (
+                    <option key={value} value={value}>
+                      {label}
+                    </option>
+                  ))}
+                </select>
+              </label>
+              {missingColumns.length > 0 && header.length > 0 ? (
+                <fieldset className="flex flex-col gap-2" data-testid="column-mapping">
+                  <legend className="text-sm font-medium">Match the file&apos;s columns to the fields Ballast needs</legend>
+                  {fields
+                    .filter((f) => missingColumns.includes(f.key) || mapping[f.key])
+                    .map((f) => (
+                      <label key={f.key} className="flex flex-wrap items-center gap-2 text-sm">
+                        <span className="w-48">{f.label}</span>
+                        <select className={inputClass} aria-label={`Column for ${f.label}`} value={mapping[f.key] ?? ""} onChange={(e) => setMapping((m) => ({ ...m, [f.key]: e.target.value }))}>
+                          <option value="">— choose a column —</option>
+                          {header.map((h) => (
+                            <option key={h} value={h}>
+                              {h}
+                            </option>
+                          ))}
+                        </select>
+                      </label>
+                    ))}
+                </fieldset>
+              ) : null}
+              <div>
+                <button type="submit" className={secondaryButtonClass} disabled={act.isPending}>
+                  Re-read the file
+                </button>
+              </div>
+            </form>
+          </section>
+        ) : null}
+
+        {pending ? (
+          <section aria-labelledby="rows-heading">
+            <h2 id="rows-heading" className="mb-2 text-lg font-semibold">
+              Rows that passed <span className="text-sm font-normal text-ink-muted">({(rows.data?.total ?? 0).toLocaleString("en")})</span>
+            </h2>
+            {columns.length === 0 ? (
+              <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">{rows.isLoading ? "Loading rows…" : "No row passed the checks."}</p>
+            ) : (
+              <>
+                <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+                  <table className="w-full text-sm" data-testid="rows-table">
+                    <caption className="sr-only">Parsed rows, page {page}</caption>
+                    <thead className="bg-paper-sunk text-left text-ink-soft">
+                      <tr>
+                        {columns.map((c) => (
+                          <th key={c} scope="col" className="px-3 py-2 font-medium">
+                            {c}
+                          </th>
+                        ))}
+                      </tr>
+                    </thead>
+                    <tbody>
+                      {rows.data?.rows.map((r, i) => (
+                        <tr key={i} className="border-t border-ink-line">
+                          {columns.map((c) => (
+                            <td key={c} className={`px-3 py-1.5 ${typeof r[c] === "number" ? "figure text-right" : ""}`}>
+                              {r[c] === null || r[c] === undefined ? "—" : String(r[c])}
+                            </td>
+                          ))}
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                </div>
+                <div className="mt-2 flex items-center justify-between text-sm">
+                  <span>
+                    Page {page} of {pages}
+                  </span>
+                  <div className="flex gap-2">
+                    <button type="button" className={secondaryButtonClass} disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
+                      Previous
+                    </button>
+                    <button type="button" className={secondaryButtonClass} disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>
+                      Next
+                    </button>
+                  </div>
+                </div>
+              </>
+            )}
+          </section>
+        ) : null}
+
+        {pending && canConfirm ? (
+          <section aria-labelledby="decide-heading" className="rounded-lg border border-brass bg-paper-raised p-4">
+            <h2 id="decide-heading" className="font-semibold">
+              Confirm or cancel
+            </h2>
+            {errors > 0 ? (
+              <p className="mt-2 text-sm text-alert">This file has errors and cannot be confirmed. Fix the file and upload it again, or re-read it with other settings.</p>
+            ) : (
+              <p className="mt-2 text-sm text-ink-soft">
+                {upload.kind === "positions"
+                  ? "Confirming stores these positions in the period; an earlier confirmed file for the period is kept but marked superseded."
+                  : "Confirming adds these closes to the firm's price history; a changed price is stored as a correction and the old one kept."}
+              </p>
+            )}
+            {warnings > 0 && errors === 0 ? (
+              <label className="mt-3 flex items-start gap-2 text-sm">
+                <input type="checkbox" className="mt-1" checked={acknowledged} onChange={(e) => setAcknowledged(e.target.checked)} />
+                <span>I have read the {warnings} warning{warnings === 1 ? "" : "s"} above and accept the file as it is.</span>
+              </label>
+            ) : null}
+            <div className="mt-3 flex gap-2">
+              <button
+                type="button"
+                className={primaryButtonClass}
+                disabled={errors > 0 || (warnings > 0 && !acknowledged) || act.isPending}
+                onClick={() => act.mutate({ path: "confirm", method: "POST", body: { acknowledgeWarnings: acknowledged } })}
+              >
+                {act.isPending && act.variables?.path === "confirm" ? "Confirming…" : "Confirm"}
+              </button>
+              <button type="button" className={secondaryButtonClass} disabled={act.isPending} onClick={() => act.mutate({ path: "cancel", method: "POST", body: {} })}>
+                Cancel upload
+              </button>
+            </div>
+          </section>
+        ) : null}
+      </div>
+    </>
+  );
+}
