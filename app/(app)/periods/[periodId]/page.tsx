@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
 import { DeadlineBadge } from "@/app/_components/deadline-badge";
@@ -44,6 +45,14 @@ export default async function PeriodPage({ params }: { params: Promise<{ periodI
           </li>
         ))}
       </ol>
+      <div className="mt-6 flex flex-wrap gap-4 text-sm">
+        <Link href={`/periods/${period.id}/data-quality`} className="font-medium underline">
+          Data-quality report
+        </Link>
+        <Link href="/data" className="font-medium underline">
+          Positions and price history
+        </Link>
+      </div>
       {period.filingReference ? <p className="mt-4 text-sm">Regulator&apos;s reference: {period.filingReference}</p> : null}
     </>
   );

@@ -1,0 +1,35 @@
+/** The data-quality report of a period, from its confirmed positions and the firm's price history. */
+import "server-only";
+import { and, eq } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { positions, uploads } from "@/db/schema";
+import type { Actor } from "@/lib/auth/actor";
+import { dataQualityReport, type QualityReport } from "@/lib/uploads/data-quality";
+import { getCalendar, getPeriod } from "./periods";
+import { priceSeries } from "./prices";
+
+/** The period's confirmed positions upload, if any. */
+export async function confirmedPositionsUpload(actor: Actor, periodId: string) {
+  const [row] = await getDb()
+    .select()
+    .from(uploads)
+    .where(and(eq(uploads.firmId, actor.firmId), eq(uploads.periodId, periodId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")));
+  return row ?? null;
+}
+
+/** The report for a period; an empty report (with a note) when no positions are confirmed yet. */
+export async function getDataQuality(actor: Actor, periodId: string): Promise<{ periodEnd: string; uploadId: string | null; fileName: string | null; positions: number; report: QualityReport }> {
+  const period = await getPeriod(actor, periodId);
+  const upload = await confirmedPositionsUpload(actor, periodId);
+  const rows = upload
+    ? await getDb().select().from(positions).where(and(eq(positions.firmId, actor.firmId), eq(positions.uploadId, upload.id)))
+    : [];
+  const series = await priceSeries(actor.firmId, period.periodEnd);
+  const { holidays } = await getCalendar(actor.firmId);
+  const report = dataQualityReport(
+    rows.map((r) => ({ instrumentId: r.instrumentCode, currency: r.currency, quantity: r.quantity, price: r.price, marketValue: r.marketValue })),
+    series,
+    { reportingCurrency: actor.reportingCurrency, periodEnd: period.periodEnd, holidays },
+  );
+  return { periodEnd: period.periodEnd, uploadId: upload?.id ?? null, fileName: upload?.fileName ?? null, positions: rows.length, report };
+}
