@@ -29,7 +29,7 @@ export interface Mailer {
 }
 
 /** The mail settings in force, or null when no SMTP_HOST is set (nothing can be sent). */
-export function mailConfigFromEnv(env: NodeJS.ProcessEnv = process.env): MailConfig | null {
+export function mailConfigFromEnv(env: Record<string, string | undefined> = process.env): MailConfig | null {
   const host = env.SMTP_HOST?.trim();
   if (!host) return null;
   const port = Number(env.SMTP_PORT ?? 587);
@@ -83,10 +83,12 @@ export function getMailer(): Mailer | null {
 /** A short, plain account of a send failure ("could not reach the mail server at …"). */
 export function describeMailError(error: unknown, where: string): string {
   const e = error as { code?: string; responseCode?: number; response?: string; message?: string };
-  if (e?.code === "ECONNREFUSED") return `Could not reach the mail server at ${where} (connection refused).`;
-  if (e?.code === "ETIMEDOUT" || e?.code === "ETIMEDOUT_GREETING") return `The mail server at ${where} did not answer in time.`;
-  if (e?.code === "ENOTFOUND" || e?.code === "EDNS") return `The mail server name in SMTP_HOST (${where}) could not be found.`;
-  if (e?.code === "EAUTH") return `The mail server at ${where} refused the SMTP_USER / SMTP_PASS sign-in.`;
+  // nodemailer reports socket failures as ESOCKET with the system's code in the message.
+  const code = e?.code === "ESOCKET" || e?.code === "ECONNECTION" ? (/\b(E[A-Z]{3,})\b/.exec(e.message ?? "")?.[1] ?? e.code) : e?.code;
+  if (code === "ECONNREFUSED") return `Could not reach the mail server at ${where} (connection refused).`;
+  if (code === "ETIMEDOUT" || code === "ETIMEDOUT_GREETING") return `The mail server at ${where} did not answer in time.`;
+  if (code === "ENOTFOUND" || code === "EDNS" || code === "EAI_AGAIN") return `The mail server name in SMTP_HOST (${where}) could not be found.`;
+  if (code === "EAUTH") return `The mail server at ${where} refused the SMTP_USER / SMTP_PASS sign-in.`;
   if (e?.responseCode) return `The mail server at ${where} refused the message: ${e.responseCode} ${(e.response ?? "").slice(0, 160)}`;
   return `Sending through ${where} failed: ${(e?.message ?? String(error)).slice(0, 200)}`;
 }

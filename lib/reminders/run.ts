@@ -101,13 +101,12 @@ export async function runReminders(options: RunOptions = {}): Promise<RunResult>
   const url = options.appUrl ?? defaultAppUrl();
   let serverDown = false;
 
+  // 1. Record what is due, for every firm, before anything is sent (a second run's inserts do nothing).
+  const contexts = [];
   for (const firm of await db.select().from(firms)) {
-    if (serverDown) break;
     const scope = firmScope(firm);
     const [schedule, { holidays }, people, periods] = await Promise.all([firmSchedule(firm.id), getCalendar(firm.id), firmPeople(firm.id), listPeriods(scope)]);
     const open = new Map<string, PeriodSummary>(periods.filter((p) => p.nextStep).map((p) => [p.id, p]));
-
-    // 1. Record what is due (a second run's inserts do nothing).
     for (const period of open.values()) {
       const planned = planReminders({ period, asOf, holidays, schedule, people });
       result.due += planned.length;
@@ -120,7 +119,11 @@ export async function runReminders(options: RunOptions = {}): Promise<RunResult>
         result.recorded += inserted.length;
       }
     }
+    contexts.push({ firm, schedule, holidays, people, open });
+  }
 
+  for (const { firm, schedule, holidays, people, open } of contexts) {
+    if (serverDown) break;
     // 2–4. Send what waits: new rows, and earlier failures whose retry time has come.
     const waiting = await db
       .select()
