@@ -11,6 +11,9 @@ const uploadToken =
   process.env.E2E_UPLOADTHING_TOKEN ??
   Buffer.from(JSON.stringify({ apiKey: `sk_e2e_${randomBytes(12).toString("hex")}`, appId: "ballast-e2e", regions: ["local"] })).toString("base64");
 process.env.E2E_UPLOADTHING_TOKEN = uploadToken;
+const MAIL_SMTP_PORT = Number(process.env.E2E_MAIL_SMTP_PORT ?? 4125);
+const MAIL_HTTP_PORT = Number(process.env.E2E_MAIL_HTTP_PORT ?? 4126);
+process.env.E2E_REMINDERS_SECRET ??= randomBytes(24).toString("base64url");
 export const E2E_ENV = {
   UPLOADTHING_TOKEN: uploadToken,
   UPLOADTHING_INGEST_URL: `http://127.0.0.1:${UPLOAD_PORT}`,
@@ -23,6 +26,15 @@ export const E2E_ENV = {
   BALLAST_CLOCK: "2026-12-01",
   BALLAST_ALLOW_CLOCK: "1",
   NEXT_TELEMETRY_DISABLED: "1",
+  // E-mail goes to the local listener (scripts/mail-listener.ts), which the app's "Mail received" page reads.
+  SMTP_HOST: "127.0.0.1",
+  SMTP_PORT: String(MAIL_SMTP_PORT),
+  SMTP_FROM: "Ballast reminders <reminders@ballast.example>",
+  MAIL_LISTENER_SMTP_PORT: String(MAIL_SMTP_PORT),
+  MAIL_LISTENER_HTTP_PORT: String(MAIL_HTTP_PORT),
+  MAIL_LISTENER_URL: `http://127.0.0.1:${MAIL_HTTP_PORT}`,
+  REMINDERS_SECRET: process.env.E2E_REMINDERS_SECRET,
+  BALLAST_URL: `http://localhost:${PORT}`,
 };
 process.env.E2E_AUTH_SECRET = E2E_ENV.AUTH_SECRET;
 
@@ -58,6 +70,16 @@ export default defineConfig({
       // The upload service's loopback stand-in (scripts/upload-standin.ts), with its own folder for the run.
       command: "rm -rf data/e2e-uploads && node --import tsx scripts/upload-standin.ts",
       url: `http://127.0.0.1:${UPLOAD_PORT}/health`,
+      env: E2E_ENV,
+      reuseExistingServer: false,
+      timeout: 30_000,
+      stdout: "ignore",
+      stderr: "pipe",
+    },
+    {
+      // The local SMTP listener; tests read and clear it at E2E_ENV.MAIL_LISTENER_URL.
+      command: "node --import tsx scripts/mail-listener.ts",
+      url: `http://127.0.0.1:${MAIL_HTTP_PORT}/health`,
       env: E2E_ENV,
       reuseExistingServer: false,
       timeout: 30_000,

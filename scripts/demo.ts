@@ -7,6 +7,8 @@ import { existsSync, statSync, readdirSync } from "node:fs";
 import path from "node:path";
 import { ensureLocalEnv } from "./local-env";
 import { startLocalUploadService } from "./local-services";
+import { startLocalMail } from "./mail-listener";
+import { startDemoReminderLoop } from "./reminders";
 import { DEMO_USERS, SECOND_FIRM_USERS, DEMO_PASSWORD } from "../db/seed";
 
 const root = process.cwd();
@@ -53,8 +55,9 @@ Ballast demo on http://localhost:${port}
 Every demo user's password: ${DEMO_PASSWORD}   (demo only)
 ${[...DEMO_USERS, ...SECOND_FIRM_USERS].map((u) => `  ${u.email.padEnd(34)} ${u.roles.join(" + ")}`).join("\n")}
 `);
-void startLocalUploadService().then(() => {
+void Promise.all([startLocalUploadService(), startLocalMail()]).then(() => {
   const server = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env: process.env });
+  startDemoReminderLoop(`http://localhost:${port}`);
   for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
   server.on("exit", (code) => process.exit(code ?? 0));
 });

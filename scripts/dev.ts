@@ -3,11 +3,12 @@ import { spawn, spawnSync } from "node:child_process";
 import path from "node:path";
 import { ensureLocalEnv } from "./local-env";
 import { startLocalUploadService } from "./local-services";
+import { startLocalMail } from "./mail-listener";
 
 ensureLocalEnv();
 const migrated = spawnSync(process.execPath, ["--import", "tsx", "db/migrate.ts"], { stdio: "inherit", env: process.env });
 if (migrated.status !== 0) process.exit(migrated.status ?? 1);
-void startLocalUploadService().then(() => {
+void Promise.all([startLocalUploadService(), startLocalMail()]).then(() => {
   const server = spawn(process.execPath, [path.join("node_modules", "next", "dist", "bin", "next"), "dev", "-p", process.env.PORT ?? "3000"], {
     stdio: "inherit",
     env: process.env,

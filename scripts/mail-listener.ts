@@ -1,23 +1,47 @@
 /**
  * The local SMTP listener for the demo, development and browser tests: SMTP on MAIL_LISTENER_SMTP_PORT (2525) and
- * what it received as JSON on MAIL_LISTENER_HTTP_PORT (2526), both on 127.0.0.1 only. Point the app at it with
- * SMTP_HOST=127.0.0.1 SMTP_PORT=2525 MAIL_LISTENER_URL=http://127.0.0.1:2526.
+ * what it received as JSON on MAIL_LISTENER_HTTP_PORT (2526), both on 127.0.0.1 only.
+ *
+ *   npm run mail-listener        run it on its own (the browser tests do)
+ *   startLocalMail()             start it inside the demo or dev process and point the app at it
  */
+import path from "node:path";
+import { randomBytes } from "node:crypto";
 import { startMailListener } from "../lib/mail/listener";
 
-const smtpPort = Number(process.env.MAIL_LISTENER_SMTP_PORT ?? 2525);
-const httpPort = Number(process.env.MAIL_LISTENER_HTTP_PORT ?? 2526);
+const smtpPort = () => Number(process.env.MAIL_LISTENER_SMTP_PORT ?? 2525);
+const httpPort = () => Number(process.env.MAIL_LISTENER_HTTP_PORT ?? 2526);
 
-startMailListener({ smtpPort, httpPort })
-  .then((listener) => {
-    console.log(`mail listener: SMTP on 127.0.0.1:${listener.smtpPort}, messages at http://127.0.0.1:${listener.httpPort}/messages`);
-    for (const signal of ["SIGINT", "SIGTERM"] as const) {
-      process.on(signal, () => {
-        listener.close().finally(() => process.exit(0));
-      });
-    }
-  })
-  .catch((error: Error) => {
-    console.error(`mail listener could not start: ${error.message}`);
-    process.exit(1);
-  });
+/**
+ * For the demo and development: unless SMTP_HOST names a real mail server, start the listener in this process and
+ * set SMTP_HOST/SMTP_PORT/MAIL_LISTENER_URL for the app it spawns. Also makes sure the scheduler has a secret.
+ */
+export async function startLocalMail(): Promise<void> {
+  process.env.REMINDERS_SECRET ||= randomBytes(24).toString("base64url");
+  if (process.env.SMTP_HOST && !process.env.MAIL_LISTENER_URL) {
+    console.log(`Mail goes to ${process.env.SMTP_HOST}:${process.env.SMTP_PORT ?? 587} (SMTP_HOST is set); no local listener.`);
+    return;
+  }
+  const listener = await startMailListener({ smtpPort: smtpPort(), httpPort: httpPort() });
+  process.env.SMTP_HOST = "127.0.0.1";
+  process.env.SMTP_PORT = String(listener.smtpPort);
+  process.env.MAIL_LISTENER_URL = `http://127.0.0.1:${listener.httpPort}`;
+  process.env.SMTP_FROM ||= "Ballast reminders <reminders@ballast.example>";
+  console.log(`Local mail listener: SMTP on 127.0.0.1:${listener.smtpPort}; an administrator sees what it received under Settings → Mail received.`);
+}
+
+if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename)) {
+  startMailListener({ smtpPort: smtpPort(), httpPort: httpPort() })
+    .then((listener) => {
+      console.log(`mail listener: SMTP on 127.0.0.1:${listener.smtpPort}, messages at http://127.0.0.1:${listener.httpPort}/messages`);
+      for (const signal of ["SIGINT", "SIGTERM"] as const) {
+        process.on(signal, () => {
+          listener.close().finally(() => process.exit(0));
+        });
+      }
+    })
+    .catch((error: Error) => {
+      console.error(`mail listener could not start: ${error.message}`);
+      process.exit(1);
+    });
+}
