@@ -107,8 +107,16 @@ function summaryOf(parsed: ParsedUpload): Record<string, unknown> {
  * with its problems. The same file (by SHA-256) for the same purpose is not stored twice.
  */
 export async function receiveUpload(context: UploadContext, file: { key: string; name: string; size: number; ufsUrl: string }): Promise<{ uploadId: string; duplicate: boolean }> {
+  return receiveUploadBytes(context, file, await fetchStoredFile(file.ufsUrl));
+}
+
+/** The same, for bytes already in hand (the demo seed and the benchmark store files without a browser). */
+export async function receiveUploadBytes(
+  context: UploadContext,
+  file: { key: string; name: string; ufsUrl: string },
+  bytes: Uint8Array,
+): Promise<{ uploadId: string; duplicate: boolean }> {
   const db = getDb();
-  const bytes = await fetchStoredFile(file.ufsUrl);
   const hash = sha256(bytes);
   const sameFile = await db
     .select({ id: uploads.id, status: uploads.status })
