@@ -68,7 +68,7 @@ export default defineConfig({
   webServer: [
     {
       // The upload service's loopback stand-in (scripts/upload-standin.ts), with its own folder for the run.
-      command: "rm -rf data/e2e-uploads && node --import tsx scripts/upload-standin.ts",
+      command: "node --import tsx scripts/upload-standin.ts",
       url: `http://127.0.0.1:${UPLOAD_PORT}/health`,
       env: E2E_ENV,
       reuseExistingServer: false,

@@ -103,8 +103,12 @@ if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename
     }
     await migrateDatabase();
     const db = openDatabase();
+    const { seedDemoUploads, resetLocalFileStore } = await import("./seed-uploads");
+    resetLocalFileStore();
     const pinned = process.env.BALLAST_CLOCK;
-    await seedDemo(db, pinned ? new Date(pinned.length === 10 ? `${pinned}T09:00:00Z` : pinned) : new Date());
+    const today = pinned ? new Date(pinned.length === 10 ? `${pinned}T09:00:00Z` : pinned) : new Date();
+    await seedDemo(db, today);
+    await seedDemoUploads(db, format(endOfMonth(subMonths(today, 1)), "yyyy-MM-dd"));
     db.$client.close();
     console.log(`seeded the demo firms into ${databaseUrl()}`);
   })().catch((error) => {

@@ -41,7 +41,11 @@ function newestSource(): number {
 }
 
 ensureLocalEnv();
-run(["--import", "tsx", "db/seed.ts"], "seeding the demo database");
+// The demo firm's data is fixed to the November 2026 month end, so the demo's "today" is the day after it. Set
+// BALLAST_CLOCK yourself to walk it on another day.
+process.env.BALLAST_CLOCK ??= "2026-12-01";
+process.env.BALLAST_ALLOW_CLOCK ??= "1";
+run(["--conditions=react-server", "--import", "tsx", "db/seed.ts"], "seeding the demo database");
 
 const buildId = path.join(root, ".next", "BUILD_ID");
 if (!existsSync(buildId) || statSync(buildId).mtimeMs < newestSource()) {

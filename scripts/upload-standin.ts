@@ -33,6 +33,14 @@ interface StoredFile {
   uploadedAt: number;
 }
 
+/** Put a file straight into a stand-in folder, as if it had been uploaded (the demo seed uses this). */
+export function storeFileInStandIn(dir: string, key: string, name: string, bytes: Uint8Array, type = "text/csv"): void {
+  mkdirSync(dir, { recursive: true });
+  writeFileSync(path.join(dir, key), bytes);
+  const stored: StoredFile = { key, name, size: bytes.length, type, customId: null, fileHash: createHash("md5").update(bytes).digest("hex"), uploadedAt: 0 };
+  writeFileSync(path.join(dir, `${key}.json`), JSON.stringify(stored));
+}
+
 export interface StandIn {
   url: string;
   close(): Promise<void>;

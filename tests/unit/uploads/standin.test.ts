@@ -30,9 +30,9 @@ function signedUrl(key: string, name: string, expires = Date.now() + 60_000): st
   return url.href;
 }
 
-function multipart(content: string, name: string): { body: Buffer; type: string } {
+function multipart(content: string, name: string): { body: Blob; type: string } {
   const boundary = "----ballast-test";
-  const body = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${name}"\r\nContent-Type: text/csv\r\n\r\n${content}\r\n--${boundary}--\r\n`);
+  const body = new Blob([`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${name}"\r\nContent-Type: text/csv\r\n\r\n${content}\r\n--${boundary}--\r\n`]);
   return { body, type: `multipart/form-data; boundary=${boundary}` };
 }
 

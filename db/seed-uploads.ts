@@ -1,0 +1,76 @@
+/**
+ * The demo firms' data, loaded the way a person would load it: each file is stored with the upload service (the
+ * local stand-in's folder), received, checked and confirmed through lib/data/uploads. Files come from
+ * templates/demo (made by scripts/generate-demo-data.ts).
+ */
+import { readFileSync, rmSync } from "node:fs";
+import path from "node:path";
+import { randomBytes } from "node:crypto";
+import { and, eq } from "drizzle-orm";
+import type { Database } from "./client";
+import { firms, memberships, reportingPeriods, users } from "./schema";
+import { receiveUploadBytes, confirmUpload } from "../lib/data/uploads";
+import { parseRoles } from "../lib/auth/roles";
+import type { Actor } from "../lib/auth/actor";
+import { storeFileInStandIn } from "../scripts/upload-standin";
+
+const DEMO_DIR = path.join(__dirname, "..", "templates", "demo");
+
+async function actorFor(db: Database, email: string): Promise<Actor> {
+  const [row] = await db
+    .select({ user: users, membership: memberships, firm: firms })
+    .from(users)
+    .innerJoin(memberships, eq(memberships.userId, users.id))
+    .innerJoin(firms, eq(firms.id, memberships.firmId))
+    .where(eq(users.email, email));
+  return {
+    userId: row.user.id,
+    name: row.user.name,
+    email: row.user.email,
+    firmId: row.firm.id,
+    firmName: row.firm.name,
+    reportingCurrency: row.firm.reportingCurrency,
+    roles: parseRoles(row.membership.roles),
+    firms: [{ id: row.firm.id, name: row.firm.name }],
+  };
+}
+
+/** Where the stand-in keeps files, and the URL it serves them from. */
+function storeSettings() {
+  return {
+    dir: process.env.UPLOAD_STANDIN_DIR ?? path.join("data", "uploads"),
+    base: process.env.UPLOADTHING_INGEST_URL ?? "http://127.0.0.1:4010",
+  };
+}
+
+/** Empty the local stand-in's folder (the demo starts from fresh files as from a fresh database). */
+export function resetLocalFileStore(): void {
+  const { dir } = storeSettings();
+  if (path.resolve(dir).startsWith(path.resolve("data"))) rmSync(dir, { recursive: true, force: true });
+}
+
+async function load(db: Database, email: string, kind: "positions" | "prices", fileName: string, periodEnd?: string): Promise<string> {
+  const actor = await actorFor(db, email);
+  const bytes = new Uint8Array(readFileSync(path.join(DEMO_DIR, fileName)));
+  const { dir, base } = storeSettings();
+  const key = randomBytes(12).toString("hex");
+  storeFileInStandIn(dir, key, fileName, bytes);
+  const [period] = periodEnd
+    ? await db.select().from(reportingPeriods).where(and(eq(reportingPeriods.firmId, actor.firmId), eq(reportingPeriods.periodEnd, periodEnd)))
+    : [];
+  const { uploadId } = await receiveUploadBytes(
+    { firmId: actor.firmId, userId: actor.userId, userName: actor.name, periodId: period?.id ?? null, kind, numberFormat: "plain" },
+    { key, name: fileName, ufsUrl: `${base}/f/${key}` },
+    bytes,
+  );
+  await confirmUpload(actor, uploadId, { acknowledgeWarnings: true });
+  return uploadId;
+}
+
+/** Load the demo firms' price history and this month's positions. */
+export async function seedDemoUploads(db: Database, periodEnd: string): Promise<void> {
+  await load(db, "priya.castell@northmoor.example", "prices", "northmoor-prices.csv");
+  await load(db, "tomas.reyne@northmoor.example", "positions", "northmoor-positions-2026-11.csv", periodEnd);
+  await load(db, "june.okafor@pellam.example", "prices", "pellam-prices.csv");
+  await load(db, "june.okafor@pellam.example", "positions", "pellam-positions-2026-11.csv", periodEnd);
+}

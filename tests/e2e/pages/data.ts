@@ -1,0 +1,31 @@
+import { expect, type Page } from "@playwright/test";
+
+/** The Data page and the upload preview. */
+export class DataPage {
+  constructor(private readonly page: Page) {}
+
+  async open() {
+    await this.page.goto("/data");
+    await expect(this.page.getByRole("heading", { name: "Data", exact: true })).toBeVisible();
+  }
+
+  /** Upload a file through the upload service's real button and wait for the preview page. */
+  async upload(kind: "positions" | "prices", file: { name: string; mimeType: string; buffer: Buffer }) {
+    const area = this.page.getByTestId(`${kind}-upload-button`);
+    await expect(area.locator("[data-state='ready']").first()).toBeVisible({ timeout: 20_000 });
+    await area.locator("input[type=file]").setInputFiles(file);
+    await this.page.waitForURL(/\/data\/uploads\/[0-9a-f-]{36}/, { timeout: 60_000 });
+    await expect(this.page.getByRole("heading", { name: "Problems" })).toBeVisible();
+  }
+
+  problems() {
+    return this.page.getByTestId("problems-table");
+  }
+
+  async confirm() {
+    const acknowledge = this.page.getByLabel(/I have read the \d+ warnings?/);
+    if (await acknowledge.count()) await acknowledge.check();
+    await this.page.getByRole("button", { name: "Confirm", exact: true }).click();
+    await expect(this.page.getByTestId("preview-message")).toContainText("Confirmed");
+  }
+}
