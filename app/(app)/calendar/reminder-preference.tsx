@@ -10,6 +10,8 @@ export function ReminderPreference({ initial }: { initial: boolean }) {
   const [busy, setBusy] = useState(false);
 
   async function change(next: boolean) {
+    // Show the choice at once; put it back if the server refuses it.
+    setEnabled(next);
     setBusy(true);
     setStatus(null);
     try {
@@ -17,6 +19,7 @@ export function ReminderPreference({ initial }: { initial: boolean }) {
       setEnabled(saved.remindersEnabled);
       setStatus({ tone: "ok", text: saved.remindersEnabled ? "You will receive reminders." : "Reminders are off for you; overdue notices still arrive." });
     } catch (error) {
+      setEnabled(!next);
       setStatus({ tone: "alert", text: error instanceof Error ? error.message : "Could not save." });
     } finally {
       setBusy(false);
