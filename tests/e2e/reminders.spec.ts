@@ -168,7 +168,7 @@ test("holiday CSV with bad dates is refused row by row and stores nothing; the s
   await expect(list.locator("li")).toHaveCount(before + 1);
   await expect(list).toContainText("2 Apr 2027");
 
-  await page.getByLabel("Remind at these business days before the deadline").fill("10, 61");
+  await page.getByLabel("Reminders before the deadline").fill("10, 61");
   await page.getByRole("button", { name: "Save reminder schedule" }).click();
   await expect(page.getByText("Item 2: Between 1 and 60.")).toBeVisible();
   const api = await signedInApi(ada.email);

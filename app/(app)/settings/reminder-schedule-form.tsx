@@ -46,8 +46,8 @@ export function ReminderScheduleForm({ initial }: { initial: ReminderSettings })
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4 rounded-lg border border-ink-line bg-paper-raised p-5">
       <Field
         id="reminderOffsets"
-        label="Remind at these business days before the deadline"
-        hint="Whole numbers from 1 to 60, separated by commas, e.g. 10, 5, 2, 1. Leave empty for none."
+        label="Reminders before the deadline"
+        hint="Business days before it, whole numbers from 1 to 60 separated by commas, e.g. 10, 5, 2, 1. Leave empty for none."
         error={error ?? undefined}
       >
         <input
