@@ -13,7 +13,8 @@ import { can } from "@/lib/auth/permissions";
 import { today } from "@/lib/clock";
 import { readTables } from "@/lib/uploads/read-table";
 import { chooseTable, parsePositions, POSITION_FIELDS, type PositionsParse } from "@/lib/uploads/parse-positions";
-import { parsePrices, PRICE_FIELDS, type PricesParse } from "@/lib/uploads/parse-prices";
+import { parsePrices, PRICE_FIELDS, type PricePoint, type PricesParse } from "@/lib/uploads/parse-prices";
+import { bulkInsert, orderedId } from "@/db/bulk-insert";
 import { FileRejected, type NumberFormat, type Problem, type ReadOptions } from "@/lib/uploads/types";
 import { fetchStoredFile, deleteStoredFiles, sha256 } from "@/lib/uploads/file-store";
 
@@ -300,8 +301,14 @@ async function upsertInstruments(tx: Tx, firmId: string, wanted: Map<string, { n
       }
     }
   }
-  const fresh = codes.filter((c) => !ids.has(c)).map((code) => ({ id: crypto.randomUUID(), firmId, code, ...wanted.get(code)! }));
-  for (let i = 0; i < fresh.length; i += 500) await tx.insert(instruments).values(fresh.slice(i, i + 500));
+  const fresh = codes.filter((c) => !ids.has(c)).map((code) => ({ id: crypto.randomUUID(), code, ...wanted.get(code)! }));
+  const createdAt = new Date().toISOString();
+  await bulkInsert(
+    tx,
+    "instruments",
+    ["id", "firm_id", "code", "name", "asset_class", "currency", "created_at"],
+    fresh.map((f) => [f.id, firmId, f.code, f.name, f.assetClass, f.currency, createdAt]),
+  );
   for (const f of fresh) ids.set(f.code, f.id);
   return ids;
 }
@@ -344,29 +351,19 @@ export async function confirmUpload(actor: Actor, uploadId: string, input: { ack
         .returning({ id: uploads.id });
       const wanted = new Map(parsed.rows.map((r) => [r.instrumentId, { name: r.instrumentName, assetClass: r.assetClass, currency: r.currency }]));
       await upsertInstruments(tx, actor.firmId, wanted);
-      const values = parsed.rows.map((r) => ({
-        firmId: actor.firmId,
-        periodId: row.periodId!,
-        uploadId,
-        rowNumber: r.row,
-        asOf: r.asOf,
-        book: r.book,
-        instrumentCode: r.instrumentId,
-        instrumentName: r.instrumentName,
-        assetClass: r.assetClass,
-        currency: r.currency,
-        quantity: r.quantity,
-        price: r.price,
-        marketValue: r.marketValue,
-        deltaExposure: r.deltaExposure,
-      }));
-      for (let i = 0; i < values.length; i += 1000) await tx.insert(positions).values(values.slice(i, i + 1000));
-      const result = { stored: values.length, superseded: superseded.map((s) => s.id) };
+      const periodId = row.periodId;
+      const stored = await bulkInsert(
+        tx,
+        "positions",
+        ["id", "firm_id", "period_id", "upload_id", "row_number", "as_of", "book", "instrument_code", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure"],
+        parsed.rows.map((r) => [orderedId(), actor.firmId, periodId, uploadId, r.row, r.asOf, r.book, r.instrumentId, r.instrumentName, r.assetClass, r.currency, r.quantity, r.price, r.marketValue, r.deltaExposure]),
+      );
+      const result = { stored, superseded: superseded.map((s) => s.id) };
       await recordAudit(tx, actor, {
         action: "upload.confirm",
         entityType: "upload",
         entityId: uploadId,
-        summary: `Confirmed ${values.length} positions from "${row.fileName}"${superseded.length ? ` (supersedes ${superseded.length} earlier upload)` : ""}`,
+        summary: `Confirmed ${stored} positions from "${row.fileName}"${superseded.length ? ` (supersedes ${superseded.length} earlier upload)` : ""}`,
         detail: { ...result, warningsAcknowledged: warnings, sha256: row.sha256 },
       });
       return result;
@@ -388,10 +385,11 @@ export async function confirmUpload(actor: Actor, uploadId: string, input: { ack
           .where(and(eq(pricePoints.firmId, actor.firmId), eq(pricePoints.current, true), inArray(pricePoints.instrumentId, instrumentIds.slice(i, i + 200))));
         for (const e of existing) current.set(`${e.instrumentId}\u0000${e.date}`, { id: e.id, close: e.close });
       }
-      const inserts: (typeof pricePoints.$inferInsert)[] = [];
       const corrected: string[] = [];
       const corrections: { instrument: string; date: string; from: number; to: number }[] = [];
       let unchanged = 0;
+      // Mark corrected points first, then add the new ones, all inside this transaction.
+      const fresh: PricePoint[] = [];
       for (const p of parsed.points) {
         const instrumentId = ids.get(p.instrument)!;
         const before = current.get(`${instrumentId}\u0000${p.date}`);
@@ -403,13 +401,20 @@ export async function confirmUpload(actor: Actor, uploadId: string, input: { ack
           corrected.push(before.id);
           if (corrections.length < 200) corrections.push({ instrument: p.instrument, date: p.date, from: before.close, to: p.close });
         }
-        inserts.push({ id: crypto.randomUUID(), firmId: actor.firmId, instrumentId, date: p.date, close: p.close, uploadId, current: true, createdAt: confirmedAt });
+        fresh.push(p);
       }
       for (let i = 0; i < corrected.length; i += 500) {
         await tx.update(pricePoints).set({ current: false, replacedByUpload: uploadId }).where(and(eq(pricePoints.firmId, actor.firmId), inArray(pricePoints.id, corrected.slice(i, i + 500))));
       }
-      for (let i = 0; i < inserts.length; i += 2000) await tx.insert(pricePoints).values(inserts.slice(i, i + 2000));
-      const result = { added: inserts.length - corrected.length, corrected: corrected.length, unchanged, corrections };
+      const inserted = await bulkInsert(
+        tx,
+        "price_points",
+        ["id", "firm_id", "instrument_id", "date", "close", "upload_id", "current", "created_at"],
+        (function* () {
+          for (const p of fresh) yield [orderedId(), actor.firmId, ids.get(p.instrument)!, p.date, p.close, uploadId, true, confirmedAt];
+        })(),
+      );
+      const result = { added: inserted - corrected.length, corrected: corrected.length, unchanged, corrections };
       await tx.update(uploads).set({ summary: { ...(row.summary ?? {}), ...result } }).where(eq(uploads.id, uploadId));
       await recordAudit(tx, actor, {
         action: "upload.confirm",

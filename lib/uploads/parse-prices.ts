@@ -79,9 +79,16 @@ export function parsePrices(table: RawTable, options: ReadOptions, context: { to
   const dateIndex = index.date!;
   const seen = new Map<string, number>();
 
+  // Dates repeat on every row of a long file: read each distinct date cell once.
+  const dateCache = new Map<unknown, ReturnType<typeof readDate>>();
+  const dateOf = (cell: unknown) => {
+    let value = dateCache.get(cell);
+    if (!value) dateCache.set(cell, (value = readDate(cell)));
+    return value;
+  };
   const accept = (row: number, dateCell: unknown, instrument: string, closeCell: unknown, field: string) => {
     if ((closeCell === undefined || closeCell === null || String(closeCell).trim() === "") && layout === "wide") return; // no price that day
-    const date = readDate(dateCell);
+    const date = dateOf(dateCell);
     const close = readNumber(closeCell, options.numberFormat);
     let bad = false;
     if ("error" in date) {

@@ -15,7 +15,7 @@ const suites = readdirSync(dir)
   .sort();
 let failed = 0;
 for (const file of suites) {
-  const result = spawnSync(process.execPath, ["--import", "tsx", "--expose-gc", path.join(dir, file)], {
+  const result = spawnSync(process.execPath, ["--conditions=react-server", "--import", "tsx", "--expose-gc", path.join(dir, file)], {
     stdio: ["ignore", "inherit", "inherit"],
   });
   if (result.status !== 0) {
