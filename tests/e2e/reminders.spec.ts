@@ -4,6 +4,7 @@ import ICAL from "ical.js";
 import { E2E_ENV } from "../../playwright.config";
 import { DEMO_USERS, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
 import { CalendarPage, MailPage } from "./pages/calendar";
+import { ROLE_LABELS, type Role } from "@/lib/auth/roles";
 
 /**
  * Deadlines and reminders. The server's clock is pinned to 2026-12-01 (BALLAST_CLOCK); the demo period ends
@@ -105,6 +106,9 @@ test("the mail page is for administrators only", async ({ page }) => {
 });
 
 test("the calendar lists deadlines, days left and owners, and downloads an .ics file that parses", async ({ page }) => {
+  const api = await signedInApi(tomas.email);
+  const [period] = (await (await api.get("/api/periods")).json()).periods;
+  await api.dispose();
   await signInThroughPage(page, tomas.email);
   const calendar = new CalendarPage(page);
   await calendar.open();
@@ -112,7 +116,8 @@ test("the calendar lists deadlines, days left and owners, and downloads an .ics 
   await expect(row).toContainText("21 Dec 2026");
   // (1 Dec, 21 Dec]: 14 business days.
   await expect(row).toContainText("14 business days left");
-  await expect(row).toContainText("Compliance officer");
+  await expect(row).toContainText(period.nextStep.label);
+  await expect(row).toContainText(ROLE_LABELS[period.nextStep.owner as Role]);
   // December 2026 ends on Thursday 31 Dec; with the demo holidays (31 Dec, 1 Jan) 15 business days later is 22 Jan.
   await expect(calendar.comingDeadlines()).toContainText("December 2026");
   await expect(calendar.comingDeadlines()).toContainText("22 Jan 2027");
