@@ -14,7 +14,7 @@ function discoverRoutes(): string[] {
         const source = readFileSync(full, "utf8");
         const methods = new Set<string>();
         for (const m of source.matchAll(/export (?:const|async function|function) (GET|POST|PATCH|PUT|DELETE)\b/g)) methods.add(m[1]);
-        for (const m of source.matchAll(/export \{([^}]*)\}/g)) {
+        for (const m of source.matchAll(/export (?:const )?\{([^}]*)\}/g)) {
           for (const name of m[1].split(",").map((s) => s.trim())) if (/^(GET|POST|PATCH|PUT|DELETE)$/.test(name)) methods.add(name);
         }
         const routePath = "/" + path.relative(path.resolve("app"), path.dirname(full)).split(path.sep).join("/");
