@@ -1,8 +1,5 @@
 // xlsx-populate publishes no types; this covers the part Ballast uses.
 declare module "xlsx-populate" {
-  interface Style {
-    [key: string]: unknown;
-  }
   interface Cell {
     value(): unknown;
     value(value: unknown): Cell;

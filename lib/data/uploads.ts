@@ -5,7 +5,7 @@
 import "server-only";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import { getDb, type Tx } from "@/db/client";
-import { firms, instruments, positions, pricePoints, reportingPeriods, uploads } from "@/db/schema";
+import { firms, instruments, pricePoints, reportingPeriods, uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
