@@ -1,4 +1,5 @@
-import { sqliteTable, text, integer, real, index } from "drizzle-orm/sqlite-core";
+import { sql } from "drizzle-orm";
+import { sqliteTable, text, integer, real, index, uniqueIndex, blob } from "drizzle-orm/sqlite-core";
 import { id, createdAt, firmColumns } from "../columns";
 
 /** A run computes every figure of a period from stated inputs; it is never edited. */
@@ -24,6 +25,30 @@ export const runs = sqliteTable(
     startedBy: text("started_by").notNull(),
     startedAt: createdAt(),
     finishedAt: text("finished_at"),
+    /** wall-clock time of the last progress report; a queued/running run silent for too long was interrupted */
+    heartbeatAt: text("heartbeat_at"),
   },
-  (t) => [index("runs_firm_period").on(t.firmId, t.periodId)],
+  (t) => [
+    index("runs_firm_period").on(t.firmId, t.periodId),
+    /** one run at a time per period */
+    uniqueIndex("runs_one_active_per_period").on(t.firmId, t.periodId).where(sql`status in ('queued', 'running')`),
+    /** one filing run per period */
+    uniqueIndex("runs_one_filing_run_per_period").on(t.firmId, t.periodId).where(sql`is_filing_run = 1`),
+  ],
 );
+export type Run = typeof runs.$inferSelect;
+
+/**
+ * The exact inputs of a run (positions rows, aligned closes per factor, method content, capital profile), as
+ * gzip-compressed canonical JSON, written once with the run and never changed: reproducing a run reads these,
+ * never today's data.
+ */
+export const runInputs = sqliteTable("run_inputs", {
+  runId: text("run_id").primaryKey(),
+  ...firmColumns,
+  /** gzip of the canonical JSON of RunInputs (lib/runs/types.ts) */
+  data: blob("data", { mode: "buffer" }).notNull(),
+  /** uncompressed size in bytes */
+  bytes: integer("bytes").notNull(),
+  createdAt: createdAt(),
+});
