@@ -42,7 +42,7 @@ export function FileUpload({ kind, periods = [] }: Props) {
       router.push(`/data/uploads/${result.uploadId}${result.duplicate ? "?duplicate=1" : ""}`);
     },
     appearance: {
-      button: "bg-brass hover:bg-brass-dark text-white font-medium px-4 ut-ready:bg-brass ut-uploading:bg-brass-dark ut-uploading:cursor-not-allowed",
+      button: "w-auto whitespace-nowrap bg-brass hover:bg-brass-dark text-white font-medium px-4 ut-ready:bg-brass ut-uploading:bg-brass-dark ut-uploading:cursor-not-allowed",
       allowedContent: "text-ink-muted text-xs",
     },
     content: {

@@ -38,6 +38,30 @@ interface Preview {
   summary: Record<string, unknown> | null;
 }
 
+const COLUMN_LABELS: Record<string, string> = {
+  row: "Row",
+  asOf: "As of",
+  book: "Book",
+  instrumentId: "Instrument",
+  instrumentName: "Name",
+  assetClass: "Asset class",
+  currency: "Ccy",
+  quantity: "Quantity",
+  price: "Price",
+  marketValue: "Market value",
+  deltaExposure: "Delta exposure",
+  date: "Date",
+  instrument: "Instrument",
+  close: "Close",
+};
+
+/** A cell of the preview: numbers grouped, with their decimals kept. */
+function cellText(value: unknown, column: string): string {
+  if (value === null || value === undefined) return "—";
+  if (typeof value === "number" && column !== "row") return value.toLocaleString("en", { maximumFractionDigits: 6 });
+  return String(value);
+}
+
 const money = (n: number) => n.toLocaleString("en", { maximumFractionDigits: 0 });
 
 function Totals({ summary, kind }: { summary: Record<string, unknown> | null; kind: "positions" | "prices" }) {
@@ -282,8 +306,8 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
                     <thead className="bg-paper-sunk text-left text-ink-soft">
                       <tr>
                         {columns.map((c) => (
-                          <th key={c} scope="col" className="px-3 py-2 font-medium">
-                            {c}
+                          <th key={c} scope="col" className={`whitespace-nowrap px-3 py-2 font-medium ${typeof rows.data?.rows[0]?.[c] === "number" ? "text-right" : ""}`}>
+                            {COLUMN_LABELS[c] ?? c}
                           </th>
                         ))}
                       </tr>
@@ -292,8 +316,8 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
                       {rows.data?.rows.map((r, i) => (
                         <tr key={i} className="border-t border-ink-line">
                           {columns.map((c) => (
-                            <td key={c} className={`px-3 py-1.5 ${typeof r[c] === "number" ? "figure text-right" : ""}`}>
-                              {r[c] === null || r[c] === undefined ? "—" : String(r[c])}
+                            <td key={c} className={`px-3 py-1.5 ${typeof r[c] === "number" ? "figure whitespace-nowrap text-right" : c === "asOf" || c === "date" || c === "instrumentId" ? "whitespace-nowrap" : ""}`}>
+                              {cellText(r[c], c)}
                             </td>
                           ))}
                         </tr>
