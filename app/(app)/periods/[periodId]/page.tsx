@@ -4,7 +4,9 @@ import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
 import { DeadlineBadge } from "@/app/_components/deadline-badge";
 import { StatusBadge } from "@/app/_components/status-badge";
-import { formatDate, formatMonth } from "@/app/_components/format";
+import { formatDate, formatMonth, formatTimestamp } from "@/app/_components/format";
+import { UploadStatus } from "@/app/_components/upload-status";
+import { listUploads } from "@/lib/data/uploads";
 import { pageActor } from "@/lib/auth/page";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { getPeriod } from "@/lib/data/periods";
@@ -19,6 +21,7 @@ export default async function PeriodPage({ params }: { params: Promise<{ periodI
     if (error instanceof AppError && error.kind === "not_found") notFound();
     throw error;
   });
+  const uploads = await listUploads(actor, { periodId: period.id, kind: "positions" });
   return (
     <>
       <PageHeader
@@ -45,6 +48,28 @@ export default async function PeriodPage({ params }: { params: Promise<{ periodI
           </li>
         ))}
       </ol>
+      <section aria-labelledby="period-uploads" className="mt-8">
+        <h2 id="period-uploads" className="mb-2 text-lg font-semibold">
+          Positions files of this period
+        </h2>
+        {uploads.length === 0 ? (
+          <p className="text-sm text-ink-soft">No positions file yet.</p>
+        ) : (
+          <ul className="divide-y divide-ink-line rounded-lg border border-ink-line bg-paper-raised">
+            {uploads.map((u) => (
+              <li key={u.id} className="flex flex-wrap items-center justify-between gap-2 px-4 py-2 text-sm">
+                <Link href={`/data/uploads/${u.id}`} className="font-medium hover:underline">
+                  {u.fileName}
+                </Link>
+                <span className="flex items-center gap-3">
+                  <span className="figure text-ink-muted">{u.rowCount} rows · {formatTimestamp(u.createdAt)}</span>
+                  <UploadStatus status={u.status} />
+                </span>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
       <div className="mt-6 flex flex-wrap gap-4 text-sm">
         <Link href={`/periods/${period.id}/data-quality`} className="font-medium underline">
           Data-quality report
