@@ -109,6 +109,7 @@ if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename
     const today = pinned ? new Date(pinned.length === 10 ? `${pinned}T09:00:00Z` : pinned) : new Date();
     await seedDemo(db, today);
     await seedDemoUploads(db, format(endOfMonth(subMonths(today, 1)), "yyyy-MM-dd"));
+    await (await import("./seed-method")).seedDemoMethod(db);
     db.$client.close();
     console.log(`seeded the demo firms into ${databaseUrl()}`);
   })().catch((error) => {

@@ -1,0 +1,85 @@
+/**
+ * The demo firms' first method statement, written and approved the way the risk analyst would: a draft from the
+ * defaults, the firm's choices and rationale saved, the estimator evidence computed from the seeded price history,
+ * then approved — each step through lib/data/method with its audit record. Runs need an approved version.
+ */
+import { eq } from "drizzle-orm";
+import type { Database } from "./client";
+import { firms, memberships, users } from "./schema";
+import { approveMethod, attachEvidence, createMethodDraft, updateMethodDraft } from "../lib/data/method";
+import { parseRoles } from "../lib/auth/roles";
+import type { Actor } from "../lib/auth/actor";
+import { DEFAULT_METHOD_CONTENT, type MethodDraft } from "../lib/validation/method";
+
+async function actorFor(db: Database, email: string): Promise<Actor> {
+  const [row] = await db
+    .select({ user: users, membership: memberships, firm: firms })
+    .from(users)
+    .innerJoin(memberships, eq(memberships.userId, users.id))
+    .innerJoin(firms, eq(firms.id, memberships.firmId))
+    .where(eq(users.email, email));
+  if (!row) throw new Error(`no seeded person ${email}`);
+  return {
+    userId: row.user.id,
+    name: row.user.name,
+    email: row.user.email,
+    firmId: row.firm.id,
+    firmName: row.firm.name,
+    reportingCurrency: row.firm.reportingCurrency,
+    roles: parseRoles(row.membership.roles),
+    firms: [{ id: row.firm.id, name: row.firm.name }],
+  };
+}
+
+/** Northmoor: EWMA 0.94 by default, GARCH(1,1) Student-t with an EWMA fallback for its equities. */
+export const NORTHMOOR_METHOD: MethodDraft = {
+  content: {
+    ...DEFAULT_METHOD_CONTENT,
+    defaultEstimator: { kind: "ewma", lambdaMode: "fixed", lambda: 0.94 },
+    byAssetClass: { equity: { kind: "garch", distribution: "t", mean: "zero", targeting: false, fallback: "ewma" } },
+    covariance: "ewma",
+    covarianceLambda: 0.94,
+    varMethod: "parametric",
+    distribution: "normal",
+    confidences: [0.99, 0.975],
+    horizonDays: 10,
+    scaling: "sqrt",
+    stressWindow: { mode: "search" },
+  },
+  rationale:
+    "Northmoor's book is mostly listed European equities with a smaller sleeve of government bonds, ETFs and commodity futures. " +
+    "For most factors an EWMA with λ = 0.94 reacts quickly to a change in market conditions and needs no fitting, which keeps the monthly draft stable and easy to explain. " +
+    "Single equities show clustered volatility and fat tails in our own history, so they use GARCH(1,1) with Student-t errors; where the fit fails or is near-integrated, the EWMA figure is used instead and the run says so. " +
+    "On the equal-weight equity series the candidates score within a few hundredths of each other by QLIKE, so the evidence does not contradict this choice, and we review it each month against the attached comparison. " +
+    "VaR is parametric at 99 % and 97.5 %, scaled to ten days by the square root of time; the stressed window is searched over the stored history rather than fixed by hand.",
+  analystLimitations: [
+    "Square-root-of-time scaling ignores volatility mean reversion and autocorrelation over the ten days.",
+    "Futures are treated through their delta; roll effects between contracts are not modelled.",
+  ],
+  reason: "",
+};
+
+/** Pellam: the same defaults everywhere; a smaller book with a shorter record of its own. */
+export const PELLAM_METHOD: MethodDraft = {
+  content: { ...NORTHMOOR_METHOD.content },
+  rationale:
+    "Pellam holds a small book of UK and US equities, two ETFs and two gilts. " +
+    "EWMA with λ = 0.94 is the firm-wide choice because it needs no fitting and behaves predictably on a short list of instruments; equities use GARCH(1,1) with Student-t errors, falling back to EWMA when the fit is unreliable. " +
+    "Parametric VaR at 99 % and 97.5 % over ten days by square-root scaling keeps the draft comparable month to month; the stressed window is searched over the stored history.",
+  analystLimitations: ["Exchange-rate risk on US holdings is taken from one USD/GBP series; cross-rates are not modelled."],
+  reason: "",
+};
+
+/** Write, evidence and approve version 1 for both demo firms (their price history must already be loaded). */
+export async function seedDemoMethod(db: Database): Promise<void> {
+  for (const [email, draft] of [
+    ["priya.castell@northmoor.example", NORTHMOOR_METHOD],
+    ["june.okafor@pellam.example", PELLAM_METHOD],
+  ] as const) {
+    const analyst = await actorFor(db, email);
+    const created = await createMethodDraft(analyst, { reason: "" });
+    await updateMethodDraft(analyst, created.id, draft);
+    await attachEvidence(analyst, created.id);
+    await approveMethod(analyst, created.id, { note: "First version for the demo." });
+  }
+}

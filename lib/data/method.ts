@@ -1,0 +1,497 @@
+/**
+ * The firm's method statement: versions, drafts, evidence, approval (with the firm's optional co-approval by a
+ * compliance head), discarding, and the differences between two versions. Approved versions never change (SQLite
+ * triggers in db/migrations/0003_method_immutable.sql); a change is a new draft pointing at the approved one, with
+ * a reason.
+ */
+import "server-only";
+import { and, desc, eq, inArray, max } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { firms, instruments, methodStatements, positions, reportingPeriods, uploads, users } from "@/db/schema";
+import { AppError } from "@/lib/errors";
+import { recordAudit } from "@/lib/audit/record";
+import type { Actor } from "@/lib/auth/actor";
+import { now, today } from "@/lib/clock";
+import { DEFAULT_METHOD_CONTENT, methodDraftSchema, type MethodContent, type MethodDraft } from "@/lib/validation/method";
+import { combineLimitations, diffContent, splitLimitations, type FieldChange } from "@/lib/method/describe";
+import { buildEvidence, type MethodEvidence } from "@/lib/method/evidence";
+import { priceSeries } from "./prices";
+
+export type MethodStatus = "draft" | "approved" | "superseded" | "discarded";
+
+export interface PersonRef {
+  id: string;
+  name: string;
+}
+
+/** A version as pages and routes show it. */
+export interface MethodVersion {
+  id: string;
+  version: number;
+  status: MethodStatus;
+  /** approved by the analyst, waiting for a compliance head (firms that require co-approval) */
+  awaitingCoApproval: boolean;
+  content: MethodContent;
+  rationale: string;
+  /** every stored limitation, the engine's first */
+  limitations: string[];
+  engineLimitations: string[];
+  analystLimitations: string[];
+  evidence: MethodEvidence | null;
+  reason: string;
+  previousId: string | null;
+  previousVersion: number | null;
+  createdBy: PersonRef;
+  approvedBy: PersonRef | null;
+  coApprovedBy: PersonRef | null;
+  approvedAt: string | null;
+  createdAt: string;
+}
+
+/** A version in the history list. */
+export interface MethodVersionSummary {
+  id: string;
+  version: number;
+  status: MethodStatus;
+  awaitingCoApproval: boolean;
+  reason: string;
+  createdBy: PersonRef;
+  approvedBy: PersonRef | null;
+  coApprovedBy: PersonRef | null;
+  approvedAt: string | null;
+  createdAt: string;
+  hasEvidence: boolean;
+}
+
+type Row = typeof methodStatements.$inferSelect;
+
+async function names(ids: (string | null)[]): Promise<Map<string, string>> {
+  const wanted = [...new Set(ids.filter((x): x is string => !!x))];
+  if (wanted.length === 0) return new Map();
+  const rows = await getDb().select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, wanted));
+  return new Map(rows.map((r) => [r.id, r.name]));
+}
+
+const ref = (id: string | null, byId: Map<string, string>): PersonRef | null => (id ? { id, name: byId.get(id) ?? "Former member" } : null);
+
+function summarise(row: Row, byId: Map<string, string>): MethodVersionSummary {
+  return {
+    id: row.id,
+    version: row.version,
+    status: row.status as MethodStatus,
+    awaitingCoApproval: row.status === "draft" && row.approvedBy !== null,
+    reason: row.reason,
+    createdBy: ref(row.createdBy, byId)!,
+    approvedBy: ref(row.approvedBy, byId),
+    coApprovedBy: ref(row.coApprovedBy, byId),
+    approvedAt: row.approvedAt,
+    createdAt: row.createdAt,
+    hasEvidence: row.evidence !== null,
+  };
+}
+
+async function present(row: Row): Promise<MethodVersion> {
+  const byId = await names([row.createdBy, row.approvedBy, row.coApprovedBy]);
+  const content = row.content as unknown as MethodContent;
+  const { engine, analyst } = splitLimitations(content, row.limitations);
+  let previousVersion: number | null = null;
+  if (row.previousId) {
+    const [prev] = await getDb()
+      .select({ version: methodStatements.version })
+      .from(methodStatements)
+      .where(and(eq(methodStatements.id, row.previousId), eq(methodStatements.firmId, row.firmId)));
+    previousVersion = prev?.version ?? null;
+  }
+  const summary = summarise(row, byId);
+  return {
+    ...summary,
+    content,
+    rationale: row.rationale,
+    limitations: row.limitations,
+    engineLimitations: engine,
+    analystLimitations: analyst,
+    evidence: (row.evidence as unknown as MethodEvidence | null) ?? null,
+    previousId: row.previousId,
+    previousVersion,
+  };
+}
+
+async function findRow(actor: Actor, methodId: string): Promise<Row> {
+  const [row] = await getDb()
+    .select()
+    .from(methodStatements)
+    .where(and(eq(methodStatements.id, methodId), eq(methodStatements.firmId, actor.firmId)));
+  if (!row) throw new AppError("not_found:method", "No such method statement version.");
+  return row;
+}
+
+async function approvedRow(actor: Actor): Promise<Row | null> {
+  const [row] = await getDb()
+    .select()
+    .from(methodStatements)
+    .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "approved")))
+    .orderBy(desc(methodStatements.version))
+    .limit(1);
+  return row ?? null;
+}
+
+/** The firm's approved version (the one runs use), or null when none is approved yet. */
+export async function currentMethod(actor: Actor): Promise<MethodVersion | null> {
+  const row = await approvedRow(actor);
+  return row ? present(row) : null;
+}
+
+/** Every version of the firm, newest first. */
+export async function listMethodVersions(actor: Actor): Promise<MethodVersionSummary[]> {
+  const rows = await getDb().select().from(methodStatements).where(eq(methodStatements.firmId, actor.firmId)).orderBy(desc(methodStatements.version));
+  const byId = await names(rows.flatMap((r) => [r.createdBy, r.approvedBy, r.coApprovedBy]));
+  return rows.map((r) => summarise(r, byId));
+}
+
+/** One version of the firm; another firm's version is not found. */
+export async function getMethodVersion(actor: Actor, methodId: string): Promise<MethodVersion> {
+  return present(await findRow(actor, methodId));
+}
+
+/** Whether the firm requires a compliance head to co-approve method statements. */
+export async function coApprovalRequired(actor: Actor): Promise<boolean> {
+  const [firm] = await getDb().select({ required: firms.methodCoApproval }).from(firms).where(eq(firms.id, actor.firmId));
+  return firm?.required ?? false;
+}
+
+/**
+ * Open a new draft: a copy of the approved version (a reason is then required), or the defaults when the firm has
+ * none. Only one draft is open at a time.
+ */
+export async function createMethodDraft(actor: Actor, input: { reason?: string }): Promise<MethodVersion> {
+  const reason = (input.reason ?? "").trim();
+  const id = await getDb().transaction(async (tx) => {
+    const [open] = await tx
+      .select({ id: methodStatements.id, version: methodStatements.version })
+      .from(methodStatements)
+      .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")));
+    if (open) throw new AppError("conflict:method_draft", `Version ${open.version} is already a draft: finish or discard it first.`);
+    const [approved] = await tx
+      .select()
+      .from(methodStatements)
+      .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "approved")))
+      .orderBy(desc(methodStatements.version))
+      .limit(1);
+    if (approved && reason.length < 5) {
+      throw new AppError("unprocessable:method_reason", `Say why version ${approved.version} needs to change.`, { reason: "Give the reason for the change (at least 5 characters)." });
+    }
+    const [{ top }] = await tx.select({ top: max(methodStatements.version) }).from(methodStatements).where(eq(methodStatements.firmId, actor.firmId));
+    const version = (top ?? 0) + 1;
+    const content: MethodContent = approved ? (approved.content as unknown as MethodContent) : DEFAULT_METHOD_CONTENT;
+    const analyst = approved ? splitLimitations(content, approved.limitations).analyst : [];
+    const [row] = await tx
+      .insert(methodStatements)
+      .values({
+        firmId: actor.firmId,
+        version,
+        status: "draft",
+        content: content as unknown as Record<string, unknown>,
+        rationale: approved?.rationale ?? "",
+        limitations: combineLimitations(content, analyst),
+        evidence: null,
+        reason,
+        previousId: approved?.id ?? null,
+        createdBy: actor.userId,
+      })
+      .returning({ id: methodStatements.id });
+    await recordAudit(tx, actor, {
+      action: "method.draft",
+      entityType: "method_statement",
+      entityId: row.id,
+      summary: approved ? `Started method statement version ${version} from version ${approved.version}: ${reason}` : `Started method statement version ${version} from the defaults`,
+      detail: { version, previousId: approved?.id ?? null, reason },
+    });
+    return row.id;
+  });
+  return getMethodVersion(actor, id);
+}
+
+function refuseUnlessDraft(row: Row, doing: string): void {
+  if (row.status !== "draft") throw new AppError("conflict:method_status", `Version ${row.version} is ${row.status}; only a draft can be ${doing}.`);
+}
+
+/** Field errors from a zod error: "path.to.field" → first message (as the route wrapper reports them). */
+function fieldErrors(error: { issues: { path: PropertyKey[]; message: string }[] }): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of error.issues) fields[issue.path.map(String).join(".") || "_"] ??= issue.message;
+  return fields;
+}
+
+/** Check a draft again on the server; refusals are field by field and nothing is stored. */
+function checkDraft(input: unknown, previousId: string | null): MethodDraft {
+  const parsed = methodDraftSchema.safeParse(input);
+  if (!parsed.success) {
+    const fields = fieldErrors(parsed.error);
+    const first = Object.entries(fields)[0];
+    throw new AppError("unprocessable:method", `Some values are not valid: ${first ? `${first[0]}: ${first[1]}` : "check the form"}.`, fields);
+  }
+  if (previousId && parsed.data.reason.length < 5) {
+    throw new AppError("unprocessable:method", "Give the reason for the change.", { reason: "Give the reason for the change (at least 5 characters)." });
+  }
+  return parsed.data;
+}
+
+/** Save a draft's content, rationale, the analyst's limitations and the reason. An analyst's pending approval is withdrawn. */
+export async function updateMethodDraft(actor: Actor, methodId: string, input: unknown): Promise<MethodVersion> {
+  const row = await findRow(actor, methodId);
+  refuseUnlessDraft(row, "edited");
+  const draft = checkDraft(input, row.previousId);
+  const limitations = combineLimitations(draft.content, draft.analystLimitations);
+  await getDb().transaction(async (tx) => {
+    const updated = await tx
+      .update(methodStatements)
+      .set({ content: draft.content as unknown as Record<string, unknown>, rationale: draft.rationale, limitations, reason: draft.reason, approvedBy: null })
+      .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
+      .returning({ id: methodStatements.id });
+    if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+    await recordAudit(tx, actor, {
+      action: "method.update",
+      entityType: "method_statement",
+      entityId: row.id,
+      summary: `Saved draft method statement version ${row.version}${row.approvedBy ? " (the pending approval was withdrawn)" : ""}`,
+      detail: { version: row.version, changes: diffContent(row.content as unknown as MethodContent, draft.content), withdrewApproval: row.approvedBy !== null },
+    });
+  });
+  return getMethodVersion(actor, row.id);
+}
+
+/** The period whose positions name the asset classes: the given one, else the latest with confirmed positions, else the latest. */
+async function evidencePeriod(actor: Actor, periodId?: string) {
+  const db = getDb();
+  if (periodId) {
+    const [p] = await db.select().from(reportingPeriods).where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
+    if (!p) throw new AppError("not_found:period", "No such reporting period.");
+    return p;
+  }
+  const [withPositions] = await db
+    .select({ period: reportingPeriods })
+    .from(reportingPeriods)
+    .innerJoin(uploads, and(eq(uploads.periodId, reportingPeriods.id), eq(uploads.firmId, actor.firmId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")))
+    .where(eq(reportingPeriods.firmId, actor.firmId))
+    .orderBy(desc(reportingPeriods.periodEnd))
+    .limit(1);
+  if (withPositions) return withPositions.period;
+  const [latest] = await db.select().from(reportingPeriods).where(eq(reportingPeriods.firmId, actor.firmId)).orderBy(desc(reportingPeriods.periodEnd)).limit(1);
+  return latest ?? null;
+}
+
+/**
+ * Compute the evidence: for each asset class of the period's confirmed positions (or of the firm's instruments when
+ * none are confirmed), the equal-weight daily log returns of that class's instruments with enough stored history,
+ * compared across estimators by the engine.
+ */
+export async function computeEvidence(actor: Actor, options: { periodId?: string; minHistory?: number } = {}): Promise<MethodEvidence> {
+  const db = getDb();
+  const period = await evidencePeriod(actor, options.periodId);
+  const asOf = period && period.periodEnd < today() ? period.periodEnd : today();
+  const classes = new Map<string, string[]>();
+  let source: MethodEvidence["source"] = "instruments";
+  if (period) {
+    const [upload] = await db
+      .select({ id: uploads.id })
+      .from(uploads)
+      .where(and(eq(uploads.firmId, actor.firmId), eq(uploads.periodId, period.id), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")));
+    if (upload) {
+      source = "positions";
+      const rows = await db
+        .select({ code: positions.instrumentCode, assetClass: positions.assetClass })
+        .from(positions)
+        .where(and(eq(positions.firmId, actor.firmId), eq(positions.uploadId, upload.id)));
+      for (const r of rows) classes.set(r.assetClass, [...(classes.get(r.assetClass) ?? []), r.code]);
+    }
+  }
+  if (source === "instruments") {
+    const rows = await db.select({ code: instruments.code, assetClass: instruments.assetClass }).from(instruments).where(eq(instruments.firmId, actor.firmId));
+    for (const r of rows) if (r.assetClass !== "unknown") classes.set(r.assetClass, [...(classes.get(r.assetClass) ?? []), r.code]);
+  }
+  const series = await priceSeries(actor.firmId, asOf);
+  return buildEvidence({
+    series,
+    classes,
+    minReturns: options.minHistory ?? DEFAULT_METHOD_CONTENT.minHistory,
+    computedAt: now().toISOString(),
+    asOf,
+    periodId: period?.id ?? null,
+    periodEnd: period?.periodEnd ?? null,
+    source,
+  });
+}
+
+/** Recompute the evidence and attach it to a draft. An analyst's pending approval is withdrawn. */
+export async function attachEvidence(actor: Actor, methodId: string, options: { periodId?: string } = {}): Promise<MethodVersion> {
+  const row = await findRow(actor, methodId);
+  refuseUnlessDraft(row, "given new evidence");
+  const content = row.content as unknown as MethodContent;
+  const evidence = await computeEvidence(actor, { periodId: options.periodId, minHistory: content.minHistory });
+  await getDb().transaction(async (tx) => {
+    const updated = await tx
+      .update(methodStatements)
+      .set({ evidence: evidence as unknown as Record<string, unknown>, approvedBy: null })
+      .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
+      .returning({ id: methodStatements.id });
+    if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+    await recordAudit(tx, actor, {
+      action: "method.evidence",
+      entityType: "method_statement",
+      entityId: row.id,
+      summary: `Attached estimator evidence to method statement version ${row.version} (prices to ${evidence.asOf}, ${evidence.classes.length} asset classes)`,
+      detail: {
+        version: row.version,
+        asOf: evidence.asOf,
+        classes: evidence.classes.map((c) => ({ assetClass: c.assetClass, instruments: c.instruments.length, from: c.from, to: c.to, best: c.comparison?.ranking[0]?.id ?? null })),
+      },
+    });
+  });
+  return getMethodVersion(actor, row.id);
+}
+
+/** What approval needs before it may proceed: valid content, the reason, the evidence. */
+function checkApprovable(row: Row): void {
+  const draft = checkDraft(
+    { content: row.content, rationale: row.rationale, analystLimitations: splitLimitations(row.content as unknown as MethodContent, row.limitations).analyst, reason: row.reason },
+    row.previousId,
+  );
+  void draft;
+  if (!row.evidence) throw new AppError("unprocessable:method_evidence", "Attach the evidence before approving.", { evidence: "Attach the evidence before approving." });
+}
+
+/**
+ * Approve a draft. The risk analyst approves; where the firm requires co-approval the version waits for a compliance
+ * head — a different person — and becomes approved when they co-approve. The previously approved version becomes
+ * superseded in the same transaction, with the audit record.
+ */
+export async function approveMethod(actor: Actor, methodId: string, input: { note?: string } = {}): Promise<MethodVersion> {
+  const row = await findRow(actor, methodId);
+  refuseUnlessDraft(row, "approved");
+  const required = await coApprovalRequired(actor);
+  const note = (input.note ?? "").trim();
+  const isAnalyst = actor.roles.includes("risk_analyst");
+  const isHead = actor.roles.includes("compliance_head");
+
+  let step: "approve" | "approve-final" | "co-approve";
+  if (row.approvedBy === null) {
+    if (!isAnalyst) throw new AppError("conflict:method_approval", "The risk analyst approves first; a compliance head then co-approves.");
+    step = required ? "approve" : "approve-final";
+  } else if (!required) {
+    if (!isAnalyst) throw new AppError("conflict:method_approval", "The firm does not require co-approval; the risk analyst approves.");
+    step = "approve-final";
+  } else {
+    if (!isHead) throw new AppError("conflict:method_approval", `Version ${row.version} is approved by the risk analyst and waits for a compliance head to co-approve.`);
+    if (actor.userId === row.approvedBy || actor.userId === row.createdBy) {
+      throw new AppError("forbidden:method_coapproval", "A different person co-approves: you drafted or approved this version yourself.");
+    }
+    step = "co-approve";
+  }
+  checkApprovable(row);
+
+  const at = now().toISOString();
+  await getDb().transaction(async (tx) => {
+    if (step === "approve") {
+      const updated = await tx
+        .update(methodStatements)
+        .set({ approvedBy: actor.userId })
+        .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
+        .returning({ id: methodStatements.id });
+      if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+      await recordAudit(tx, actor, {
+        action: "method.approve",
+        entityType: "method_statement",
+        entityId: row.id,
+        summary: `Approved method statement version ${row.version}; waiting for a compliance head to co-approve`,
+        detail: { version: row.version, note, awaitingCoApproval: true },
+      });
+      return;
+    }
+    const previous = await tx
+      .update(methodStatements)
+      .set({ status: "superseded" })
+      .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "approved")))
+      .returning({ id: methodStatements.id, version: methodStatements.version });
+    const updated = await tx
+      .update(methodStatements)
+      .set(
+        step === "co-approve"
+          ? { status: "approved", coApprovedBy: actor.userId, approvedAt: at }
+          : { status: "approved", approvedBy: actor.userId, approvedAt: at },
+      )
+      .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
+      .returning({ id: methodStatements.id });
+    if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+    const superseded = previous.map((p) => p.version);
+    await recordAudit(tx, actor, {
+      action: step === "co-approve" ? "method.co_approve" : "method.approve",
+      entityType: "method_statement",
+      entityId: row.id,
+      summary:
+        `${step === "co-approve" ? "Co-approved" : "Approved"} method statement version ${row.version}` +
+        (superseded.length ? `; version ${superseded.join(", ")} is superseded` : ""),
+      detail: { version: row.version, note, superseded: previous.map((p) => p.id), approvedAt: at },
+    });
+  });
+  return getMethodVersion(actor, row.id);
+}
+
+/** Discard a draft. The row is kept, marked discarded, so that the version number and the audit trail stay meaningful. */
+export async function discardMethodDraft(actor: Actor, methodId: string, input: { reason?: string } = {}): Promise<MethodVersion> {
+  const row = await findRow(actor, methodId);
+  refuseUnlessDraft(row, "discarded");
+  const reason = (input.reason ?? "").trim();
+  await getDb().transaction(async (tx) => {
+    const updated = await tx
+      .update(methodStatements)
+      .set({ status: "discarded" })
+      .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
+      .returning({ id: methodStatements.id });
+    if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+    await recordAudit(tx, actor, {
+      action: "method.discard",
+      entityType: "method_statement",
+      entityId: row.id,
+      summary: `Discarded draft method statement version ${row.version}${reason ? `: ${reason}` : ""}`,
+      detail: { version: row.version, reason },
+    });
+  });
+  return getMethodVersion(actor, row.id);
+}
+
+/** The differences between two versions. */
+export interface MethodDiff {
+  from: { id: string; version: number; status: MethodStatus } | null;
+  to: { id: string; version: number; status: MethodStatus; reason: string };
+  content: FieldChange[];
+  rationale: { changed: boolean; from: string | null; to: string };
+  limitations: { added: string[]; removed: string[]; kept: number };
+  evidence: { from: string | null; to: string | null };
+}
+
+/**
+ * Field-by-field differences between two versions of the firm. Without `to`, the newest version; without `from`,
+ * the version `to` was drawn from (none for a first version).
+ */
+export async function diffMethodVersions(actor: Actor, fromId?: string, toId?: string): Promise<MethodDiff | null> {
+  let to: Row | null = toId ? await findRow(actor, toId) : null;
+  if (!to) {
+    const [latest] = await getDb().select().from(methodStatements).where(eq(methodStatements.firmId, actor.firmId)).orderBy(desc(methodStatements.version)).limit(1);
+    if (!latest) return null;
+    to = latest;
+  }
+  const from: Row | null = fromId ? await findRow(actor, fromId) : to.previousId ? await findRow(actor, to.previousId) : null;
+  const toContent = to.content as unknown as MethodContent;
+  const fromContent = from ? (from.content as unknown as MethodContent) : null;
+  const evidenceDate = (r: Row | null) => (r?.evidence ? String((r.evidence as unknown as MethodEvidence).computedAt) : null);
+  return {
+    from: from ? { id: from.id, version: from.version, status: from.status as MethodStatus } : null,
+    to: { id: to.id, version: to.version, status: to.status as MethodStatus, reason: to.reason },
+    content: fromContent ? diffContent(fromContent, toContent) : [],
+    rationale: { changed: !!from && from.rationale !== to.rationale, from: from?.rationale ?? null, to: to.rationale },
+    limitations: from
+      ? { added: to.limitations.filter((t) => !from.limitations.includes(t)), removed: from.limitations.filter((t) => !to.limitations.includes(t)), kept: to.limitations.filter((t) => from.limitations.includes(t)).length }
+      : { added: [], removed: [], kept: to.limitations.length },
+    evidence: { from: evidenceDate(from), to: evidenceDate(to) },
+  };
+}
