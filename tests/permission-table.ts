@@ -75,4 +75,20 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "POST", path: "/api/uploadthing", allowed: "public", external: true },
   { method: "GET", path: "/api/templates/[template]", allowed: "member", probe: 200 },
   { method: "GET", path: "/api/periods/[periodId]/data-quality", allowed: "member", scoped: true },
+  { method: "GET", path: "/api/method", allowed: "member" },
+  { method: "POST", path: "/api/method", allowed: ["risk_analyst"], invalidBody: { reason: 5 } },
+  // Without from/to: the newest version against the one it was drawn from.
+  { method: "GET", path: "/api/method/diff", allowed: "member" },
+  { method: "GET", path: "/api/method/[methodId]", allowed: "member", scoped: true },
+  {
+    method: "PUT",
+    path: "/api/method/[methodId]",
+    allowed: ["risk_analyst"],
+    scoped: true,
+    invalidBody: { content: { defaultEstimator: { kind: "ewma", lambdaMode: "fixed", lambda: 1.2 } }, rationale: "", analystLimitations: [] },
+    validBody: { content: { defaultEstimator: { kind: "ewma", lambdaMode: "fixed", lambda: 0.94 }, covariance: "ewma", covarianceLambda: 0.94, covarianceWindow: 250, varMethod: "parametric", distribution: "normal", confidences: [0.99], horizonDays: 10, scaling: "sqrt", historicalWindow: 500, stressWindow: { mode: "search" }, minHistory: 250 }, rationale: "A rationale of more than twenty characters.", analystLimitations: [], reason: "" },
+  },
+  { method: "POST", path: "/api/method/[methodId]/approve", allowed: ["risk_analyst", "compliance_head"], scoped: true, invalidBody: { note: 5 }, validBody: {} },
+  { method: "POST", path: "/api/method/[methodId]/evidence", allowed: ["risk_analyst"], scoped: true, invalidBody: { periodId: 5 }, validBody: {} },
+  { method: "POST", path: "/api/method/[methodId]/discard", allowed: ["risk_analyst"], scoped: true, invalidBody: { reason: 5 }, validBody: {} },
 ];

@@ -121,3 +121,29 @@ export const methodDraftSchema = z.object({
   reason: z.string().trim().max(2000, "At most 2,000 characters.").default(""),
 });
 export type MethodDraft = z.infer<typeof methodDraftSchema>;
+
+/** POST /api/method: open a new draft (the reason is required once an approved version exists). */
+export const newMethodDraftSchema = z.object({
+  reason: z.string({ message: "The reason is text." }).trim().max(2000, "At most 2,000 characters.").default(""),
+});
+
+/** POST /api/method/[methodId]/approve: approve or co-approve, with an optional note for the audit trail. */
+export const approveMethodSchema = z.object({
+  note: z.string({ message: "The note is text." }).trim().max(2000, "At most 2,000 characters.").default(""),
+});
+
+/** POST /api/method/[methodId]/evidence: recompute the evidence, for the latest period or a chosen one. */
+export const methodEvidenceSchema = z.object({
+  periodId: z.string({ message: "A period id." }).uuid("A period id.").optional(),
+});
+
+/** POST /api/method/[methodId]/discard */
+export const discardMethodSchema = z.object({
+  reason: z.string({ message: "The reason is text." }).trim().max(2000, "At most 2,000 characters.").default(""),
+});
+
+/** GET /api/method/diff?from=&to= (both optional: the newest version against the one it was drawn from) */
+export const methodDiffQuerySchema = z.object({
+  from: z.string().uuid("A version id.").optional(),
+  to: z.string().uuid("A version id.").optional(),
+});

@@ -27,8 +27,10 @@ test("every route answers each persona as the permission table says", async () =
     memberId: (await (await admin.get("/api/members")).json()).members.find((m: { email: string }) => m.email === DEMO_USERS[4].email).id,
     uploadId: (await (await admin.get("/api/uploads")).json()).uploads[0]?.id,
     template: "positions.csv",
+    methodId: (await (await admin.get("/api/method")).json()).versions[0]?.id,
   };
   expect(ids.uploadId, "the demo seed holds at least one upload").toBeTruthy();
+  expect(ids.methodId, "the demo seed holds an approved method statement").toBeTruthy();
   await admin.dispose();
 
   const failures: string[] = [];
