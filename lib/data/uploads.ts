@@ -71,7 +71,7 @@ export async function parseUploadBytes(
   try {
     const tables = await readTables(bytes);
     const fields = kind === "positions" ? POSITION_FIELDS : PRICE_FIELDS;
-    const table = chooseTable(tables, fields, options.mapping) ?? (tables.length === 1 ? tables[0] : null);
+    const table = chooseTable(tables, fields, options.mapping) ?? (tables.length === 1 && tables[0].source === "csv" ? tables[0] : null);
     if (!table) {
       const names = tables.map((t) => t.source).join(", ") || "none";
       const message = `No sheet of the workbook has the ${kind === "positions" ? "positions" : "price"} columns (sheets: ${names}).`;

@@ -1,0 +1,83 @@
+import { beforeAll, describe, expect, it } from "vitest";
+import { readFileSync } from "node:fs";
+import path from "node:path";
+import XlsxPopulate from "xlsx-populate";
+import { actorFor, freshDatabase, snapshot } from "./helpers/db";
+import { receiveUploadBytes, confirmUpload, getUploadPreview } from "@/lib/data/uploads";
+import { listPeriods } from "@/lib/data/periods";
+import type { Database } from "@/db/client";
+import type { Actor } from "@/lib/auth/actor";
+
+/**
+ * The malformed-file corpus (tests/fixtures/bad-input/files.json): each file, received as an upload, must produce
+ * its stated problem, must not be confirmable, and must leave the period's positions, the price history and the
+ * instruments exactly as they were (the upload itself is recorded as received, with its problems, so a person
+ * can see why it was refused).
+ */
+const dir = path.join(__dirname, "..", "fixtures", "bad-input");
+const corpus = JSON.parse(readFileSync(path.join(dir, "files.json"), "utf8")) as {
+  cases: { file?: string; generated?: string; kind: "positions" | "prices"; expect: string; row?: number }[];
+};
+
+async function generated(name: string): Promise<Uint8Array> {
+  if (name === "workbook-without-positions-sheet") {
+    const wb = await XlsxPopulate.fromBlankAsync();
+    wb.sheet(0)!.name("Summary");
+    wb.sheet(0)!.cell("A1").value([["Quarter", "Result"], ["Q3", 5]] as never);
+    return new Uint8Array((await wb.outputAsync()) as Buffer);
+  }
+  // A zip whose central directory declares one entry of 1 GB inside a tiny archive.
+  const entry = new Uint8Array(47);
+  const dv = new DataView(entry.buffer);
+  dv.setUint32(0, 0x02014b50, true);
+  dv.setUint32(24, 1_000_000_000, true);
+  dv.setUint16(28, 1, true);
+  const eocd = new Uint8Array(22);
+  const ev = new DataView(eocd.buffer);
+  ev.setUint32(0, 0x06054b50, true);
+  ev.setUint16(10, 1, true);
+  ev.setUint32(16, 4, true);
+  return new Uint8Array([0x50, 0x4b, 0x03, 0x04, ...entry, ...eocd]);
+}
+
+let db: Database;
+let officer: Actor;
+let analyst: Actor;
+let periodId: string;
+
+beforeAll(async () => {
+  process.env.BALLAST_CLOCK = "2026-12-01";
+  db = await freshDatabase();
+  officer = await actorFor("tomas.reyne@northmoor.example");
+  analyst = await actorFor("priya.castell@northmoor.example");
+  periodId = (await listPeriods(officer))[0].id;
+});
+
+const DATA_TABLES = ["positions", "price_points", "instruments"];
+
+describe("malformed upload files", () => {
+  it("holds at least 30 cases", () => {
+    expect(corpus.cases.length).toBeGreaterThanOrEqual(30);
+  });
+
+  for (const [index, c] of corpus.cases.entries()) {
+    it(`${c.file ?? c.generated}: ${c.expect}`, async () => {
+      const bytes = c.file ? new Uint8Array(readFileSync(path.join(dir, "files", c.file))) : await generated(c.generated!);
+      const actor = c.kind === "positions" ? officer : analyst;
+      const before = await snapshot(db);
+      const { uploadId } = await receiveUploadBytes(
+        { firmId: actor.firmId, userId: actor.userId, userName: actor.name, periodId: c.kind === "positions" ? periodId : null, kind: c.kind, numberFormat: "plain" },
+        { key: `bad-${index}`, name: c.file ?? `${c.generated}.xlsx`, ufsUrl: `http://127.0.0.1:9/f/bad-${index}` },
+        bytes,
+      );
+      const preview = await getUploadPreview(actor, uploadId);
+      const match = preview.problems.find((p) => p.message.includes(c.expect));
+      expect(match, JSON.stringify(preview.problems.slice(0, 3))).toBeDefined();
+      expect(match!.severity).toBe("error");
+      if (c.row) expect(match!.row).toBe(c.row);
+      await expect(confirmUpload(actor, uploadId, { acknowledgeWarnings: true })).rejects.toMatchObject({ kind: "unprocessable" });
+      const after = await snapshot(db);
+      for (const table of DATA_TABLES) expect(after[table], table).toEqual(before[table]);
+    });
+  }
+});
