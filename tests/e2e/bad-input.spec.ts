@@ -1,0 +1,58 @@
+import { test, expect } from "@playwright/test";
+import { readFileSync } from "node:fs";
+import { createClient } from "@libsql/client";
+import { DEMO_USERS, signedInApi } from "./helpers";
+
+/**
+ * The malformed-request corpus (tests/fixtures/bad-input/requests.json): each payload gets its status, the
+ * shared error shape and a message naming the field, and the database is unchanged after each — compared table by
+ * table (sign-in attempts aside: signing the test's personas in writes them before the corpus starts).
+ */
+const corpus = JSON.parse(readFileSync("tests/fixtures/bad-input/requests.json", "utf8")) as {
+  cases: { as: "admin" | "officer"; method: string; path: string; body?: unknown; raw?: string; status: number; expect?: string; field?: string }[];
+};
+
+async function snapshot(): Promise<string> {
+  const client = createClient({ url: "file:./data/e2e.db" });
+  try {
+    const tables = await client.execute("SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE '__drizzle%' AND name <> 'sign_in_attempts' ORDER BY name");
+    const out: Record<string, unknown[]> = {};
+    for (const { name } of tables.rows) out[String(name)] = (await client.execute(`SELECT * FROM "${String(name)}" ORDER BY rowid`)).rows.map((r) => ({ ...r }));
+    return JSON.stringify(out);
+  } finally {
+    client.close();
+  }
+}
+
+test("every malformed request is refused plainly and changes nothing", async () => {
+  expect(corpus.cases.length).toBeGreaterThanOrEqual(40);
+  const apis = { admin: await signedInApi(DEMO_USERS[0].email), officer: await signedInApi(DEMO_USERS[1].email) };
+  const { members } = await (await apis.admin.get("/api/members")).json();
+  const { uploads } = await (await apis.officer.get("/api/uploads?kind=positions")).json();
+  const ids: Record<string, string> = {
+    memberId: members.find((m: { email: string }) => m.email === DEMO_USERS[4].email).id,
+    selfMemberId: members.find((m: { email: string }) => m.email === DEMO_USERS[0].email).id,
+    uploadId: uploads.find((u: { status: string }) => u.status === "confirmed").id,
+  };
+  const failures: string[] = [];
+  for (const c of corpus.cases) {
+    const before = await snapshot();
+    const url = c.path.replace(/\{(\w+)\}/g, (_m, name: string) => ids[name]);
+    const response = await apis[c.as].fetch(url, {
+      method: c.method,
+      headers: c.raw !== undefined || c.body !== undefined ? { "content-type": "application/json" } : undefined,
+      data: c.raw !== undefined ? Buffer.from(c.raw) : c.body,
+    });
+    const body = await response.json().catch(() => null);
+    const label = `${c.method} ${c.path} ${JSON.stringify(c.body ?? c.raw ?? "").slice(0, 60)}`;
+    if (response.status() !== c.status) failures.push(`${label}: status ${response.status()} (expected ${c.status}) ${JSON.stringify(body).slice(0, 160)}`);
+    if (typeof body?.error?.code !== "string" || typeof body?.error?.message !== "string") failures.push(`${label}: no shared error shape`);
+    const text = JSON.stringify(body?.error ?? {});
+    if (c.expect && !text.includes(c.expect)) failures.push(`${label}: message lacks "${c.expect}": ${text.slice(0, 200)}`);
+    if (c.field && !(body?.error?.fields && c.field in body.error.fields)) failures.push(`${label}: no message for field ${c.field}: ${text.slice(0, 200)}`);
+    if ((await snapshot()) !== before) failures.push(`${label}: the database changed`);
+  }
+  await apis.admin.dispose();
+  await apis.officer.dispose();
+  expect(failures).toEqual([]);
+});
