@@ -15,6 +15,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
     { href: "/home", label: "This month" },
     { href: "/data", label: "Data" },
     { href: "/periods", label: "Periods" },
+    { href: "/method", label: "Method" },
     { href: "/calendar", label: "Calendar" },
     { href: "/settings", label: "Settings" },
   ];

@@ -1,0 +1,418 @@
+"use client";
+
+/**
+ * The draft form of a method statement version (react-hook-form + the same zod schema the server checks again),
+ * its evidence with the "Attach evidence" action, and approval or discarding.
+ */
+import { useState } from "react";
+import { useRouter } from "next/navigation";
+import { useForm, useWatch, type FieldErrors, type UseFormRegister } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { apiFetch, ApiError } from "@/app/_components/api";
+import { Field, inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { ASSET_CLASSES, ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
+import { ESTIMATOR_LABELS, methodDraftSchema, type EstimatorChoice, type MethodDraft } from "@/lib/validation/method";
+import { COVARIANCE_LABELS, SCALING_LABELS, VAR_METHOD_LABELS, engineLimitations } from "@/lib/method/describe";
+import type { MethodVersion } from "@/lib/data/method";
+import { EvidenceView } from "../_components/evidence-view";
+import { ApprovalPanel } from "./approval-panel";
+
+const ESTIMATOR_DEFAULTS: Record<EstimatorChoice["kind"], EstimatorChoice> = {
+  ma: { kind: "ma", window: 250, divisor: "m", mean: "zero" },
+  ewma: { kind: "ewma", lambdaMode: "fixed", lambda: 0.94 },
+  arch: { kind: "arch", order: 5 },
+  garch: { kind: "garch", distribution: "t", mean: "zero", targeting: false, fallback: "ewma" },
+};
+
+/** The message at a dotted path of the form's errors. */
+function errorAt(errors: FieldErrors<MethodDraft>, path: string): string | undefined {
+  let node: unknown = errors;
+  for (const key of path.split(".")) {
+    if (node === null || typeof node !== "object") return undefined;
+    node = (node as Record<string, unknown>)[key];
+  }
+  const message = (node as { message?: unknown } | undefined)?.message;
+  return typeof message === "string" ? message : undefined;
+}
+
+function a11y(errors: FieldErrors<MethodDraft>, path: string, hint = false) {
+  const error = errorAt(errors, path);
+  return { id: path, "aria-invalid": Boolean(error), "aria-describedby": error ? `${path}-error` : hint ? `${path}-hint` : undefined };
+}
+
+type Register = UseFormRegister<MethodDraft>;
+type Path = Parameters<Register>[0];
+
+function EstimatorFields({ prefix, estimator, register, errors }: { prefix: string; estimator: EstimatorChoice; register: Register; errors: FieldErrors<MethodDraft> }) {
+  const p = (k: string) => `${prefix}.${k}` as Path;
+  const input = (k: string, label: string, hint?: string) => (
+    <Field id={p(k)} label={label} hint={hint} error={errorAt(errors, p(k))}>
+      <input type="text" inputMode="decimal" className={`${inputClass} w-32`} {...a11y(errors, p(k), !!hint)} {...register(p(k))} />
+    </Field>
+  );
+  const select = (k: string, label: string, options: [string, string][]) => (
+    <Field id={p(k)} label={label} error={errorAt(errors, p(k))}>
+      <select className={inputClass} {...a11y(errors, p(k))} {...register(p(k))}>
+        {options.map(([v, l]) => (
+          <option key={v} value={v}>
+            {l}
+          </option>
+        ))}
+      </select>
+    </Field>
+  );
+  switch (estimator.kind) {
+    case "ma":
+      return (
+        <>
+          {input("window", "Window (days)", "Not longer than the minimum history.")}
+          {select("divisor", "Divisor", [["m", "M"], ["m-1", "M−1"]])}
+          {select("mean", "Mean", [["zero", "Zero"], ["sample", "Sample mean"]])}
+        </>
+      );
+    case "ewma":
+      return (
+        <>
+          {select("lambdaMode", "λ", [["fixed", "Fixed"], ["fit", "Fitted to the history"]])}
+          {input("lambda", estimator.lambdaMode === "fit" ? "λ starting value" : "λ value", "Between 0 and 1, e.g. 0.94.")}
+        </>
+      );
+    case "arch":
+      return input("order", "Order m", "1 to 10; needs a minimum history of 10 × m.");
+    case "garch":
+      return (
+        <>
+          {select("distribution", "Errors", [["t", "Student-t"], ["normal", "Normal"]])}
+          {select("mean", "Mean", [["zero", "Zero"], ["fit", "Fitted"]])}
+          {select("fallback", "When the fit fails", [["ewma", "Fall back to EWMA"], ["none", "No fallback: leave the factor out"]])}
+          <label className="flex items-center gap-2 self-end pb-2 text-sm">
+            <input type="checkbox" {...register(p("targeting"))} /> Variance targeting
+          </label>
+        </>
+      );
+  }
+}
+
+function Group({ legend, children, hint }: { legend: string; children: React.ReactNode; hint?: string }) {
+  return (
+    <fieldset className="rounded-lg border border-ink-line bg-paper-raised p-5">
+      <legend className="px-1 text-lg font-semibold">{legend}</legend>
+      {hint ? <p className="mb-3 text-sm text-ink-muted">{hint}</p> : null}
+      {children}
+    </fieldset>
+  );
+}
+
+export function DraftEditor({ version, coApprovalRequired, canApprove }: { version: MethodVersion; coApprovalRequired: boolean; canApprove: boolean }) {
+  const router = useRouter();
+  const [saved, setSaved] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
+  const [evidencePending, setEvidencePending] = useState(false);
+  const [evidenceError, setEvidenceError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    control,
+    setValue,
+    setError,
+    reset,
+    formState: { errors, isSubmitting, isDirty },
+  } = useForm<MethodDraft>({
+    resolver: zodResolver(methodDraftSchema) as never,
+    defaultValues: { content: version.content, rationale: version.rationale, analystLimitations: version.analystLimitations, reason: version.reason },
+  });
+  const content = useWatch({ control, name: "content" }) as MethodDraft["content"];
+  const analystLimitations = (useWatch({ control, name: "analystLimitations" }) ?? []) as string[];
+
+  const setKind = (path: "content.defaultEstimator" | `content.byAssetClass.${string}`, kind: string) => {
+    if (path === "content.defaultEstimator") {
+      setValue("content.defaultEstimator", ESTIMATOR_DEFAULTS[kind as EstimatorChoice["kind"]], { shouldDirty: true });
+      return;
+    }
+    const assetClass = path.split(".")[2] as (typeof ASSET_CLASSES)[number];
+    const next = { ...content.byAssetClass };
+    if (kind === "") delete next[assetClass];
+    else next[assetClass] = ESTIMATOR_DEFAULTS[kind as EstimatorChoice["kind"]];
+    setValue("content.byAssetClass", next, { shouldDirty: true });
+  };
+
+  const onSubmit = handleSubmit(async (values) => {
+    setSaved(null);
+    try {
+      const { version: next } = await apiFetch<{ version: MethodVersion }>(`/api/method/${version.id}`, { method: "PUT", body: values });
+      reset({ content: next.content, rationale: next.rationale, analystLimitations: next.analystLimitations, reason: next.reason });
+      setSaved({ tone: "ok", text: next.approvedBy === null && version.approvedBy !== null ? "Draft saved. The earlier approval was withdrawn: approve again." : "Draft saved." });
+      router.refresh();
+    } catch (error) {
+      if (error instanceof ApiError && error.fields) {
+        for (const [field, message] of Object.entries(error.fields)) setError(field as Path, { message });
+      }
+      setSaved({ tone: "alert", text: error instanceof Error ? error.message : "Could not save." });
+    }
+  }, () => setSaved({ tone: "alert", text: "Some values are not valid: see the fields marked below." }));
+
+  async function attachEvidence() {
+    setEvidencePending(true);
+    setEvidenceError(null);
+    try {
+      await apiFetch(`/api/method/${version.id}/evidence`, { method: "POST", body: {} });
+      router.refresh();
+    } catch (error) {
+      setEvidenceError(error instanceof Error ? error.message : "Could not compute the evidence.");
+    } finally {
+      setEvidencePending(false);
+    }
+  }
+
+  const engine = engineLimitations(content);
+  const hasErrors = Object.keys(errors).length > 0;
+
+  return (
+    <div className="flex flex-col gap-6">
+      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6" aria-label={`Draft version ${version.version}`}>
+        {hasErrors ? (
+          <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
+            Some values are not valid: see the fields marked below.
+          </p>
+        ) : null}
+        <Group legend="Volatility estimators" hint="The firm-wide default applies to every asset class without its own choice.">
+          <div className="flex flex-col gap-4">
+            <fieldset className="flex flex-col gap-2 border-b border-ink-line pb-4">
+              <legend className="mb-2 font-medium">Firm-wide default</legend>
+              <div className="flex flex-wrap items-start gap-4">
+                <Field id="content.defaultEstimator.kind" label="Estimator">
+                  <select id="content.defaultEstimator.kind" className={inputClass} value={content.defaultEstimator.kind} onChange={(e) => setKind("content.defaultEstimator", e.target.value)}>
+                    {Object.entries(ESTIMATOR_LABELS).map(([k, l]) => (
+                      <option key={k} value={k}>
+                        {l}
+                      </option>
+                    ))}
+                  </select>
+                </Field>
+                <EstimatorFields key={content.defaultEstimator.kind} prefix="content.defaultEstimator" estimator={content.defaultEstimator} register={register} errors={errors} />
+              </div>
+            </fieldset>
+            {ASSET_CLASSES.map((c) => {
+              const e = content.byAssetClass[c];
+              const path = `content.byAssetClass.${c}` as const;
+              return (
+                <fieldset key={c} className="flex flex-col gap-2 border-b border-ink-line/60 pb-4 last:border-0">
+                  <legend className="mb-2 font-medium">{ASSET_CLASS_LABELS[c]}</legend>
+                  <div className="flex flex-wrap items-start gap-4">
+                    <Field id={`${path}.kind`} label="Estimator">
+                      <select id={`${path}.kind`} className={inputClass} value={e?.kind ?? ""} onChange={(ev) => setKind(path, ev.target.value)}>
+                        <option value="">Firm-wide default</option>
+                        {Object.entries(ESTIMATOR_LABELS).map(([k, l]) => (
+                          <option key={k} value={k}>
+                            {l}
+                          </option>
+                        ))}
+                      </select>
+                    </Field>
+                    {e ? <EstimatorFields key={e.kind} prefix={path} estimator={e} register={register} errors={errors} /> : null}
+                  </div>
+                </fieldset>
+              );
+            })}
+          </div>
+        </Group>
+
+        <Group legend="Covariance and VaR">
+          <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+            <Field id="content.covariance" label="Covariance" error={errorAt(errors, "content.covariance")}>
+              <select className={inputClass} {...a11y(errors, "content.covariance")} {...register("content.covariance")}>
+                {Object.entries(COVARIANCE_LABELS).map(([k, l]) => (
+                  <option key={k} value={k}>
+                    {l}
+                  </option>
+                ))}
+              </select>
+            </Field>
+            <Field id="content.covarianceLambda" label="Covariance λ" hint="Between 0 and 1." error={errorAt(errors, "content.covarianceLambda")}>
+              <input type="text" inputMode="decimal" className={inputClass} {...a11y(errors, "content.covarianceLambda", true)} {...register("content.covarianceLambda")} />
+            </Field>
+            <Field id="content.covarianceWindow" label="Covariance window (days)" error={errorAt(errors, "content.covarianceWindow")}>
+              <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.covarianceWindow")} {...register("content.covarianceWindow")} />
+            </Field>
+            <Field id="content.varMethod" label="VaR method" error={errorAt(errors, "content.varMethod")}>
+              <select className={inputClass} {...a11y(errors, "content.varMethod")} {...register("content.varMethod")}>
+                {Object.entries(VAR_METHOD_LABELS).map(([k, l]) => (
+                  <option key={k} value={k}>
+                    {l}
+                  </option>
+                ))}
+              </select>
+            </Field>
+            <Field id="content.distribution" label="Return distribution" error={errorAt(errors, "content.distribution")}>
+              <select className={inputClass} {...a11y(errors, "content.distribution")} {...register("content.distribution")}>
+                <option value="normal">Normal</option>
+                <option value="t">Student-t</option>
+              </select>
+            </Field>
+          </div>
+          <fieldset className="mt-4">
+            <legend className="text-sm font-medium">Confidence levels</legend>
+            <p id="confidences-hint" className="text-xs text-ink-muted">
+              As fractions between 0 and 1, e.g. 0.99 for 99 %.
+            </p>
+            <div className="mt-2 flex flex-wrap items-start gap-3">
+              {content.confidences.map((_, i) => (
+                <div key={i} className="flex items-start gap-1">
+                  <Field id={`content.confidences.${i}`} label={`Level ${i + 1}`} error={errorAt(errors, `content.confidences.${i}`)}>
+                    <input type="text" inputMode="decimal" className={`${inputClass} w-28`} {...a11y(errors, `content.confidences.${i}`)} {...register(`content.confidences.${i}` as Path)} />
+                  </Field>
+                  {content.confidences.length > 1 ? (
+                    <button
+                      type="button"
+                      className="mt-7 rounded px-2 py-1 text-sm text-ink-soft underline"
+                      onClick={() => setValue("content.confidences", content.confidences.filter((__, j) => j !== i), { shouldDirty: true })}
+                      aria-label={`Remove confidence level ${i + 1}`}
+                    >
+                      Remove
+                    </button>
+                  ) : null}
+                </div>
+              ))}
+              {content.confidences.length < 4 ? (
+                <button type="button" className={`${secondaryButtonClass} mt-6`} onClick={() => setValue("content.confidences", [...content.confidences, 0.95], { shouldDirty: true })}>
+                  Add a level
+                </button>
+              ) : null}
+            </div>
+            {errorAt(errors, "content.confidences") ? (
+              <p role="alert" className="mt-1 text-sm text-alert">
+                {errorAt(errors, "content.confidences")}
+              </p>
+            ) : null}
+          </fieldset>
+        </Group>
+
+        <Group legend="Horizon and windows">
+          <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+            <Field id="content.horizonDays" label="Horizon (days)" error={errorAt(errors, "content.horizonDays")}>
+              <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.horizonDays")} {...register("content.horizonDays")} />
+            </Field>
+            <Field id="content.scaling" label="Horizon scaling" error={errorAt(errors, "content.scaling")}>
+              <select className={inputClass} {...a11y(errors, "content.scaling")} {...register("content.scaling")}>
+                {Object.entries(SCALING_LABELS).map(([k, l]) => (
+                  <option key={k} value={k}>
+                    {l}
+                  </option>
+                ))}
+              </select>
+            </Field>
+            <Field id="content.historicalWindow" label="Historical window (days)" error={errorAt(errors, "content.historicalWindow")}>
+              <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.historicalWindow")} {...register("content.historicalWindow")} />
+            </Field>
+            <Field id="content.minHistory" label="Minimum history (returns)" hint="Factors with fewer returns are left out of a run and listed." error={errorAt(errors, "content.minHistory")}>
+              <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.minHistory", true)} {...register("content.minHistory")} />
+            </Field>
+            <Field id="content.stressWindow.mode" label="Stress window">
+              <select
+                id="content.stressWindow.mode"
+                className={inputClass}
+                value={content.stressWindow.mode}
+                onChange={(e) => setValue("content.stressWindow", e.target.value === "search" ? { mode: "search" } : { mode: "chosen", start: "", end: "" }, { shouldDirty: true })}
+              >
+                <option value="search">Searched over the stored history</option>
+                <option value="chosen">Chosen dates</option>
+              </select>
+            </Field>
+            {content.stressWindow.mode === "chosen" ? (
+              <>
+                <Field id="content.stressWindow.start" label="Stress window starts" error={errorAt(errors, "content.stressWindow.start")}>
+                  <input type="date" className={inputClass} {...a11y(errors, "content.stressWindow.start")} {...register("content.stressWindow.start" as Path)} />
+                </Field>
+                <Field id="content.stressWindow.end" label="Stress window ends" error={errorAt(errors, "content.stressWindow.end")}>
+                  <input type="date" className={inputClass} {...a11y(errors, "content.stressWindow.end")} {...register("content.stressWindow.end" as Path)} />
+                </Field>
+              </>
+            ) : null}
+          </div>
+        </Group>
+
+        <Group legend="Rationale">
+          <Field id="rationale" label="Why this method suits the firm, in your words" error={errorAt(errors, "rationale")}>
+            <textarea rows={7} className={inputClass} {...a11y(errors, "rationale")} {...register("rationale")} />
+          </Field>
+        </Group>
+
+        <Group legend="Limitations" hint="The engine's limitations of each chosen estimator are filled in and cannot be removed; add your own below.">
+          <ul className="mb-4 space-y-2 text-sm" aria-label="The engine's limitations">
+            {engine.map((t) => (
+              <li key={t} className="flex gap-2">
+                <span className="mt-0.5 shrink-0 rounded border border-ink-line bg-paper-sunk px-1.5 text-xs text-ink-soft">Engine</span>
+                <span>{t}</span>
+              </li>
+            ))}
+          </ul>
+          <div className="flex flex-col gap-3">
+            {analystLimitations.map((_, i) => (
+              <div key={i} className="flex items-start gap-2">
+                <div className="flex-1">
+                  <Field id={`analystLimitations.${i}`} label={`Your limitation ${i + 1}`} error={errorAt(errors, `analystLimitations.${i}`)}>
+                    <textarea rows={2} className={`${inputClass} w-full`} {...a11y(errors, `analystLimitations.${i}`)} {...register(`analystLimitations.${i}` as Path)} />
+                  </Field>
+                </div>
+                <button
+                  type="button"
+                  className="mt-7 rounded px-2 py-1 text-sm text-ink-soft underline"
+                  onClick={() => setValue("analystLimitations", analystLimitations.filter((__, j) => j !== i), { shouldDirty: true })}
+                  aria-label={`Remove your limitation ${i + 1}`}
+                >
+                  Remove
+                </button>
+              </div>
+            ))}
+            <div>
+              <button type="button" className={secondaryButtonClass} onClick={() => setValue("analystLimitations", [...analystLimitations, ""], { shouldDirty: true })}>
+                Add a limitation
+              </button>
+            </div>
+          </div>
+        </Group>
+
+        {version.previousId ? (
+          <Group legend="Reason for the change">
+            <Field id="reason" label={`Why version ${version.previousVersion} needs to change`} error={errorAt(errors, "reason")}>
+              <textarea rows={3} className={inputClass} {...a11y(errors, "reason")} {...register("reason")} />
+            </Field>
+          </Group>
+        ) : null}
+
+        <div className="sticky bottom-0 flex flex-wrap items-center gap-3 border-t border-ink-line bg-paper/95 py-3">
+          <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
+            {isSubmitting ? "Saving…" : "Save draft"}
+          </button>
+          {isDirty ? <span className="text-sm text-ink-muted">Unsaved changes</span> : null}
+          {saved ? (
+            <p role={saved.tone === "alert" ? "alert" : "status"} className={`text-sm ${saved.tone === "alert" ? "text-alert" : "text-ok"}`}>
+              {saved.text}
+            </p>
+          ) : null}
+        </div>
+      </form>
+
+      <section aria-labelledby="evidence" className="rounded-lg border border-ink-line bg-paper-raised p-5">
+        <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
+          <h2 id="evidence" className="text-lg font-semibold">
+            Evidence: estimators compared on the firm&apos;s history
+          </h2>
+          <button type="button" className={version.evidence ? secondaryButtonClass : primaryButtonClass} onClick={attachEvidence} disabled={evidencePending}>
+            {evidencePending ? "Computing…" : version.evidence ? "Recompute evidence" : "Attach evidence"}
+          </button>
+        </div>
+        <p role="status" aria-live="polite" className="text-sm text-ink-muted">
+          {evidencePending ? "Fitting every estimator on each asset class's history; this takes a few seconds." : ""}
+        </p>
+        {evidenceError ? (
+          <p role="alert" className="mb-2 text-sm text-alert">
+            {evidenceError}
+          </p>
+        ) : null}
+        <EvidenceView evidence={version.evidence} pending={evidencePending} />
+      </section>
+
+      <ApprovalPanel version={version} coApprovalRequired={coApprovalRequired} canApprove={canApprove} canDiscard unsaved={isDirty} />
+    </div>
+  );
+}

@@ -1,0 +1,124 @@
+"use client";
+
+/** The estimator comparison per asset class: a titled bar chart of QLIKE and the table behind it. */
+import { Bar, BarChart, CartesianGrid, Cell, LabelList, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { DraftCaution } from "@/app/_components/draft-caution";
+import { formatDate, formatTimestamp } from "@/app/_components/format";
+import type { ClassEvidence, MethodEvidence } from "@/lib/method/evidence";
+
+const num = (v: number | null, digits: number) => (v === null ? "—" : v.toLocaleString("en-GB", { minimumFractionDigits: digits, maximumFractionDigits: digits }));
+const sci = (v: number) => v.toExponential(3).replace("e", " × 10^").replace("^-", "^−");
+
+function QlikeChart({ c, titleId }: { c: ClassEvidence; titleId: string }) {
+  const ranking = c.comparison!.ranking;
+  const best = ranking[0].qlike;
+  const data = ranking.map((r) => ({ label: r.label, above: Number((r.qlike - best).toFixed(4)), id: r.id }));
+  return (
+    <figure aria-labelledby={titleId} className="flex flex-col gap-2">
+      <figcaption id={titleId} className="text-sm font-medium">
+        {c.label}: QLIKE of each estimator above the best ({ranking[0].label}), one-day forecasts over {c.comparison!.evaluationDays} days — shorter is better
+      </figcaption>
+      <div className="h-64 w-full" aria-hidden="true">
+        <ResponsiveContainer width="100%" height="100%">
+          <BarChart data={data} layout="vertical" margin={{ top: 4, right: 48, bottom: 16, left: 8 }}>
+            <CartesianGrid horizontal={false} stroke="#d8d3c7" />
+            <XAxis type="number" tick={{ fontSize: 12, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: "QLIKE above the best", position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
+            <YAxis type="category" dataKey="label" width={190} tick={{ fontSize: 12, fill: "#1c2733" }} stroke="#6b7682" />
+            <Tooltip formatter={(v) => [Number(v).toFixed(4), "QLIKE above the best"]} />
+            <Bar dataKey="above" isAnimationActive={false}>
+              {data.map((d, i) => (
+                <Cell key={d.id} fill={i === 0 ? "#2f6b3f" : "#3d4a57"} />
+              ))}
+              <LabelList dataKey="above" position="right" formatter={(v) => Number(v).toFixed(3)} style={{ fontSize: 11, fill: "#1c2733" }} />
+            </Bar>
+          </BarChart>
+        </ResponsiveContainer>
+      </div>
+    </figure>
+  );
+}
+
+function RankingTable({ c }: { c: ClassEvidence }) {
+  const cmp = c.comparison!;
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full min-w-[720px] text-sm">
+        <caption className="mb-1 text-left text-xs text-ink-muted">
+          {c.label}: ranked by QLIKE (lower is better). Mean squared error compares σ² with r²; log-likelihood out of sample, higher is better; AIC and BIC in sample where a likelihood is defined;
+          exceptions of the normal 99 % one-day VaR against {num(cmp.expectedExceptions, 1)} expected.
+        </caption>
+        <thead>
+          <tr className="border-b border-ink-line text-right text-ink-muted">
+            <th scope="col" className="py-1.5 pr-2 text-left font-medium">Rank</th>
+            <th scope="col" className="py-1.5 pr-2 text-left font-medium">Estimator</th>
+            <th scope="col" className="py-1.5 pr-2 font-medium">QLIKE</th>
+            <th scope="col" className="py-1.5 pr-2 font-medium">MSE</th>
+            <th scope="col" className="py-1.5 pr-2 font-medium">Log-likelihood (out of sample)</th>
+            <th scope="col" className="py-1.5 pr-2 font-medium">AIC</th>
+            <th scope="col" className="py-1.5 pr-2 font-medium">BIC</th>
+            <th scope="col" className="py-1.5 font-medium">VaR exceptions</th>
+          </tr>
+        </thead>
+        <tbody className="figure">
+          {cmp.ranking.map((r, i) => (
+            <tr key={r.id} className="border-b border-ink-line/60 text-right">
+              <td className="py-1.5 pr-2 text-left">{i + 1}</td>
+              <th scope="row" className="py-1.5 pr-2 text-left font-normal">
+                {r.label}
+                {r.warnings.length ? <span className="sr-only">. {r.warnings.join(" ")}</span> : null}
+              </th>
+              <td className="py-1.5 pr-2">{num(r.qlike, 4)}</td>
+              <td className="py-1.5 pr-2">{sci(r.mse)}</td>
+              <td className="py-1.5 pr-2">{num(r.outOfSampleLogLikelihood, 1)}</td>
+              <td className="py-1.5 pr-2">{num(r.aic, 1)}</td>
+              <td className="py-1.5 pr-2">{num(r.bic, 1)}</td>
+              <td className="py-1.5">{r.varExceptions}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {cmp.failed.length ? (
+        <p className="mt-1 text-xs text-ink-muted">Could not be fitted: {cmp.failed.map((f) => `${f.label} (${f.error})`).join("; ")}</p>
+      ) : null}
+    </div>
+  );
+}
+
+export function EvidenceView({ evidence, pending = false }: { evidence: MethodEvidence | null; pending?: boolean }) {
+  if (!evidence) {
+    return <p className="text-sm text-ink-muted">{pending ? "Computing…" : "No evidence attached yet."}</p>;
+  }
+  return (
+    <div className={`flex flex-col gap-6 ${pending ? "opacity-50" : ""}`} aria-busy={pending}>
+      <p className="text-sm text-ink-soft" data-testid="evidence-summary">
+        Computed {formatTimestamp(evidence.computedAt)} from the firm&apos;s stored prices up to {formatDate(evidence.asOf)}; asset classes from{" "}
+        {evidence.source === "positions" ? `the confirmed positions of the period ending ${formatDate(evidence.periodEnd!)}` : "the firm's instruments (no confirmed positions)"}. Each class is the
+        equal-weight average of the daily log returns of its instruments with at least {evidence.minReturns} returns, on the dates all of them have a close. Engine {evidence.engineVersion}.
+      </p>
+      <DraftCaution />
+      {evidence.classes.map((c) => (
+        <article key={c.assetClass} aria-labelledby={`ev-${c.assetClass}`} className="flex flex-col gap-3 border-t border-ink-line pt-4">
+          <h3 id={`ev-${c.assetClass}`} className="font-semibold">
+            {c.label}
+          </h3>
+          <p className="text-sm text-ink-soft">
+            {c.instruments.length} {c.instruments.length === 1 ? "instrument" : "instruments"}
+            {c.from && c.to ? `, prices ${formatDate(c.from)} to ${formatDate(c.to)}, ${c.returns.toLocaleString("en-GB")} daily returns` : ""}
+            {c.excluded.length ? `; left out: ${c.excluded.map((e) => `${e.code} (${e.reason})`).join(", ")}` : ""}.
+          </p>
+          {c.comparison ? (
+            <>
+              <p className="rounded-md bg-paper-sunk px-3 py-2 text-sm">{c.comparison.reading}</p>
+              <QlikeChart c={c} titleId={`chart-${c.assetClass}`} />
+              <RankingTable c={c} />
+            </>
+          ) : (
+            <p role="status" className="text-sm text-alert">
+              {c.error}
+            </p>
+          )}
+        </article>
+      ))}
+    </div>
+  );
+}
