@@ -78,9 +78,11 @@ export function serialiseWrites(client: Client, queue = new WriteQueue()): Clien
   return new Proxy(client, {
     get(target, property, receiver) {
       if (property === "execute") {
-        return (statement: Parameters<Client["execute"]>[0], args?: never) => {
+        const execute = target.execute.bind(target) as (...args: unknown[]) => Promise<unknown>;
+        return (...args: unknown[]) => {
+          const statement = args[0] as string | { sql: string };
           const sql = typeof statement === "string" ? statement : statement.sql;
-          return READ_ONLY.test(sql) ? target.execute(statement as never, args) : queue.run(() => target.execute(statement as never, args));
+          return READ_ONLY.test(sql) ? execute(...args) : queue.run(() => execute(...args));
         };
       }
       if (property === "batch" || property === "executeMultiple" || property === "migrate") {
@@ -88,7 +90,7 @@ export function serialiseWrites(client: Client, queue = new WriteQueue()): Clien
         return (...args: unknown[]) => queue.run(() => method.apply(target, args));
       }
       if (property === "transaction") {
-        return async (mode?: Parameters<Client["transaction"]>[0]) => {
+        return async (mode?: "write" | "read" | "deferred") => {
           if (mode === "read") return target.transaction(mode);
           const release = await queue.acquire();
           try {
