@@ -1,4 +1,5 @@
-import { sqliteTable, text, integer, index } from "drizzle-orm/sqlite-core";
+import { sql } from "drizzle-orm";
+import { sqliteTable, text, integer, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { id, createdAt, firmColumns } from "../columns";
 
 /** A draft filing assembled from a run. Signed versions are locked; a change is a new version pointing back. */
@@ -22,32 +23,52 @@ export const filings = sqliteTable(
     filingReference: text("filing_reference"),
     createdAt: createdAt(),
   },
-  (t) => [index("filings_firm_period").on(t.firmId, t.periodId)],
+  (t) => [
+    index("filings_firm_period").on(t.firmId, t.periodId),
+    /** versions of a period's filing are numbered 1, 2, … once each */
+    uniqueIndex("filings_firm_period_version").on(t.firmId, t.periodId, t.version),
+    /** one current (not superseded) version per period */
+    uniqueIndex("filings_one_current_per_period").on(t.firmId, t.periodId).where(sql`status <> 'superseded'`),
+  ],
 );
 
 /** A review comment on one section of a filing. */
-export const reviewComments = sqliteTable("review_comments", {
-  id: id(),
-  ...firmColumns,
-  filingId: text("filing_id").notNull(),
-  section: text("section").notNull(),
-  body: text("body").notNull(),
-  kind: text("kind").notNull().default("comment"), // comment | changes_requested | reply
-  authorId: text("author_id").notNull(),
-  createdAt: createdAt(),
-});
+export const reviewComments = sqliteTable(
+  "review_comments",
+  {
+    id: id(),
+    ...firmColumns,
+    filingId: text("filing_id").notNull(),
+    section: text("section").notNull(),
+    body: text("body").notNull(),
+    kind: text("kind").notNull().default("comment"), // comment | changes_requested | reply
+    authorId: text("author_id").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("review_comments_firm_filing").on(t.firmId, t.filingId)],
+);
 
 /** A signature over the SHA-256 of a filing's canonical content. */
-export const signatures = sqliteTable("signatures", {
-  id: id(),
-  ...firmColumns,
-  filingId: text("filing_id").notNull(),
-  signerId: text("signer_id").notNull(),
-  signerName: text("signer_name").notNull(),
-  licenceReference: text("licence_reference").notNull(),
-  contentHash: text("content_hash").notNull(),
-  signedAt: text("signed_at").notNull(),
-  supersededAt: text("superseded_at"),
-  supersededReason: text("superseded_reason"),
-  createdAt: createdAt(),
-});
+export const signatures = sqliteTable(
+  "signatures",
+  {
+    id: id(),
+    ...firmColumns,
+    filingId: text("filing_id").notNull(),
+    signerId: text("signer_id").notNull(),
+    signerName: text("signer_name").notNull(),
+    licenceReference: text("licence_reference").notNull(),
+    contentHash: text("content_hash").notNull(),
+    signedAt: text("signed_at").notNull(),
+    /** the statement the signer ticked, word for word */
+    attestation: text("attestation").notNull().default(""),
+    supersededAt: text("superseded_at"),
+    supersededReason: text("superseded_reason"),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index("signatures_firm_filing").on(t.firmId, t.filingId),
+    /** one signature in force per filing version */
+    uniqueIndex("signatures_one_current_per_filing").on(t.filingId).where(sql`superseded_at is null`),
+  ],
+);
