@@ -91,4 +91,14 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "POST", path: "/api/method/[methodId]/approve", allowed: ["risk_analyst", "compliance_head"], scoped: true, invalidBody: { note: 5 }, validBody: {} },
   { method: "POST", path: "/api/method/[methodId]/evidence", allowed: ["risk_analyst"], scoped: true, invalidBody: { periodId: 5 }, validBody: {} },
   { method: "POST", path: "/api/method/[methodId]/discard", allowed: ["risk_analyst"], scoped: true, invalidBody: { reason: 5 }, validBody: {} },
+  // Runs: read by everyone who reads periods; started, reproduced and chosen for the filing by risk analysts.
+  // The [runId] is a completed run the permissions spec starts for the demo period before walking the table.
+  { method: "GET", path: "/api/periods/[periodId]/runs", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+  { method: "POST", path: "/api/periods/[periodId]/runs", allowed: ["risk_analyst"], scoped: true, invalidBody: { excludeShortHistory: "yes" }, validBody: { excludeShortHistory: true } },
+  { method: "GET", path: "/api/runs/[runId]", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+  { method: "GET", path: "/api/runs/[runId]/factors", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+  { method: "GET", path: "/api/runs/[runId]/volatility", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+  { method: "GET", path: "/api/runs/[runId]/change", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+  { method: "POST", path: "/api/runs/[runId]/reproduce", allowed: ["risk_analyst"], scoped: true, invalidBody: { note: 5 }, validBody: {} },
+  { method: "POST", path: "/api/runs/[runId]/use-for-filing", allowed: ["risk_analyst"], scoped: true, invalidBody: { confirm: "no" }, validBody: { confirm: true } },
 ];

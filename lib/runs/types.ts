@@ -208,6 +208,12 @@ export interface RunInputs {
   capitalProfile: RunCapitalProfile;
   periodEnd: string;
   reportingCurrency: string;
+  /** what the run describes but does not compute from: the period, the positions file, the data-quality report at start */
+  context: {
+    periodId: string;
+    upload: { uploadId: string; fileName: string };
+    dataQuality: RunResults["dataQuality"];
+  };
 }
 
 export interface StoredPosition {

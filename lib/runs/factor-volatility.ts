@@ -1,0 +1,118 @@
+/**
+ * Each factor's volatility under every estimator (moving average, EWMA, ARCH(m), GARCH(1,1)) and the one the method
+ * statement chooses for the factor's asset class. The chosen estimator's settings are used for its own family; the
+ * other families use the settings stated in `otherSettings`. Pure.
+ */
+import { fitArch, fitEwma, fitGarch11, fitMovingAverage } from "@/lib/risk";
+import type { EstimatorKind, VolatilityFit } from "@/lib/risk/types";
+import type { EstimatorChoice, MethodContent } from "@/lib/validation/method";
+import { estimatorFor } from "./method-map";
+import type { FactorEstimate, FactorVolatility } from "./types";
+
+const ANNUAL = Math.sqrt(252);
+
+/** The settings of a family the factor's asset class does not choose (stated with the run). */
+export function otherSettings(content: MethodContent): Record<EstimatorKind, EstimatorChoice> {
+  return {
+    ma: { kind: "ma", window: 20, divisor: "m", mean: "zero" },
+    ewma: { kind: "ewma", lambdaMode: "fixed", lambda: content.covarianceLambda },
+    arch: { kind: "arch", order: 1 },
+    garch: { kind: "garch", distribution: "normal", mean: "zero", targeting: false, fallback: "none" },
+  };
+}
+
+export const OTHER_SETTINGS_STATEMENT =
+  "Families the asset class does not choose are shown with: a 20-day moving average (zero mean, divisor M), EWMA with the covariance λ, ARCH(1), and GARCH(1,1) with normal errors and zero mean.";
+
+export function labelOf(choice: EstimatorChoice, fit?: VolatilityFit | null): string {
+  switch (choice.kind) {
+    case "ma":
+      return `Moving average, ${choice.window} days`;
+    case "ewma":
+      return choice.lambdaMode === "fit" ? `EWMA, λ fitted${fit?.params.lambda !== undefined ? ` = ${fit.params.lambda.toFixed(4)}` : ""}` : `EWMA, λ = ${choice.lambda}`;
+    case "arch":
+      return `ARCH(${choice.order})`;
+    case "garch":
+      return `GARCH(1,1)${choice.distribution === "t" ? ", Student-t" : ""}${choice.mean === "fit" ? ", fitted mean" : ""}${choice.targeting ? ", variance targeting" : ""}`;
+  }
+}
+
+/** Fit one estimator choice; null fit and the reason when it cannot be fitted on these returns. */
+export function fitChoice(returns: Float64Array, choice: EstimatorChoice): { fit: VolatilityFit | null; error: string | null } {
+  try {
+    switch (choice.kind) {
+      case "ma":
+        return { fit: fitMovingAverage(returns, { window: choice.window, divisor: choice.divisor, mean: choice.mean }), error: null };
+      case "ewma":
+        return { fit: fitEwma(returns, { lambda: choice.lambdaMode === "fit" ? "fit" : choice.lambda }), error: null };
+      case "arch":
+        return { fit: fitArch(returns, { order: choice.order }), error: null };
+      case "garch":
+        return { fit: fitGarch11(returns, { distribution: choice.distribution, mean: choice.mean, targeting: choice.targeting, fallback: choice.fallback }), error: null };
+    }
+  } catch (error) {
+    return { fit: null, error: error instanceof Error ? error.message : String(error) };
+  }
+}
+
+/** The choices fitted for a factor, in family order, and which family is the chosen one. */
+export function choicesFor(content: MethodContent, assetClass: string): { choices: EstimatorChoice[]; chosen: EstimatorChoice; from: "asset-class" | "default" } {
+  const { choice, from } = estimatorFor(content, assetClass);
+  const others = otherSettings(content);
+  const choices = (["ma", "ewma", "arch", "garch"] as const).map((k) => (k === choice.kind ? choice : others[k]));
+  return { choices, chosen: choice, from };
+}
+
+function finite(x: number | null | undefined): number | null {
+  return x !== null && x !== undefined && Number.isFinite(x) ? x : null;
+}
+
+export function estimateOf(choice: EstimatorChoice, fit: VolatilityFit | null, error: string | null): FactorEstimate {
+  const vol = fit ? finite(Math.sqrt(fit.currentVariance)) : null;
+  return {
+    estimator: choice.kind,
+    label: labelOf(choice, fit),
+    params: fit ? Object.fromEntries(Object.entries(fit.params).filter(([, v]) => Number.isFinite(v))) : {},
+    currentVolatility: vol,
+    annualisedVolatility: vol === null ? null : vol * ANNUAL,
+    longRunVolatility: fit && fit.longRunVariance !== null ? finite(Math.sqrt(fit.longRunVariance)) : null,
+    logLikelihood: fit ? finite(fit.logLikelihood) : null,
+    warnings: fit ? fit.warnings : [],
+    error,
+    fallbackFrom: fit?.fallbackFrom ? { kind: fit.fallbackFrom.kind, reason: fit.fallbackFrom.reason } : null,
+  };
+}
+
+/** Every estimator's view of one factor. */
+export function factorVolatility(
+  factor: string,
+  meta: { assetClass: string; currency: string },
+  series: { dates: string[]; returns: Float64Array },
+  content: MethodContent,
+  excluded: string | null,
+): FactorVolatility {
+  const { choices, chosen, from } = choicesFor(content, meta.assetClass);
+  const estimates = choices.map((c) => {
+    const { fit, error } = series.returns.length > 1 ? fitChoice(series.returns, c) : { fit: null, error: "no returns" };
+    return estimateOf(c, fit, error);
+  });
+  const mine = estimates[choices.indexOf(chosen)];
+  const warnings = [...mine.warnings];
+  if (mine.error) warnings.push({ code: "fit-failed", message: `The chosen estimator (${mine.label}) could not be fitted: ${mine.error}.` });
+  return {
+    factor,
+    assetClass: meta.assetClass,
+    currency: meta.currency,
+    returns: series.returns.length,
+    firstDate: series.dates[0] ?? null,
+    lastDate: series.dates[series.dates.length - 1] ?? null,
+    estimates,
+    chosen,
+    chosenFrom: from,
+    chosenVolatility: mine.currentVolatility,
+    chosenAnnualisedVolatility: mine.annualisedVolatility,
+    chosenParams: mine.params,
+    warnings,
+    excluded,
+  };
+}
