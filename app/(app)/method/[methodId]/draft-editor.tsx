@@ -148,7 +148,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
       }
       setSaved({ tone: "alert", text: error instanceof Error ? error.message : "Could not save." });
     }
-  }, () => setSaved({ tone: "alert", text: "Some values are not valid: see the fields marked below." }));
+  }, () => setSaved({ tone: "alert", text: "Some values are not valid: see the fields marked in red." }));
 
   async function attachEvidence() {
     setEvidencePending(true);
@@ -164,20 +164,16 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
   }
 
   const engine = engineLimitations(content);
-  const hasErrors = Object.keys(errors).length > 0;
 
   return (
     <div className="flex flex-col gap-6">
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6" aria-label={`Draft version ${version.version}`}>
-        {hasErrors ? (
-          <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
-            Some values are not valid: see the fields marked below.
-          </p>
-        ) : null}
         <Group legend="Volatility estimators" hint="The firm-wide default applies to every asset class without its own choice.">
           <div className="flex flex-col gap-4">
-            <fieldset className="flex flex-col gap-2 border-b border-ink-line pb-4">
-              <legend className="mb-2 font-medium">Firm-wide default</legend>
+            <div role="group" aria-labelledby="estimator-default" className="grid items-start gap-2 border-b border-ink-line pb-4 md:grid-cols-[11rem_1fr]">
+              <p id="estimator-default" className="pt-7 font-semibold">
+                Firm-wide default
+              </p>
               <div className="flex flex-wrap items-start gap-4">
                 <Field id="content.defaultEstimator.kind" label="Estimator">
                   <select id="content.defaultEstimator.kind" className={inputClass} value={content.defaultEstimator.kind} onChange={(e) => setKind("content.defaultEstimator", e.target.value)}>
@@ -190,13 +186,15 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
                 </Field>
                 <EstimatorFields key={content.defaultEstimator.kind} prefix="content.defaultEstimator" estimator={content.defaultEstimator} register={register} errors={errors} />
               </div>
-            </fieldset>
+            </div>
             {ASSET_CLASSES.map((c) => {
               const e = content.byAssetClass[c];
               const path = `content.byAssetClass.${c}` as const;
               return (
-                <fieldset key={c} className="flex flex-col gap-2 border-b border-ink-line/60 pb-4 last:border-0">
-                  <legend className="mb-2 font-medium">{ASSET_CLASS_LABELS[c]}</legend>
+                <div key={c} role="group" aria-labelledby={`estimator-${c}`} className="grid items-start gap-2 border-b border-ink-line/60 pb-3 last:border-0 md:grid-cols-[11rem_1fr]">
+                  <p id={`estimator-${c}`} className="pt-7 font-medium">
+                    {ASSET_CLASS_LABELS[c]}
+                  </p>
                   <div className="flex flex-wrap items-start gap-4">
                     <Field id={`${path}.kind`} label="Estimator">
                       <select id={`${path}.kind`} className={inputClass} value={e?.kind ?? ""} onChange={(ev) => setKind(path, ev.target.value)}>
@@ -210,7 +208,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
                     </Field>
                     {e ? <EstimatorFields key={e.kind} prefix={path} estimator={e} register={register} errors={errors} /> : null}
                   </div>
-                </fieldset>
+                </div>
               );
             })}
           </div>

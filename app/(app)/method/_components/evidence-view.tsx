@@ -7,7 +7,12 @@ import { formatDate, formatTimestamp } from "@/app/_components/format";
 import type { ClassEvidence, MethodEvidence } from "@/lib/method/evidence";
 
 const num = (v: number | null, digits: number) => (v === null ? "—" : v.toLocaleString("en-GB", { minimumFractionDigits: digits, maximumFractionDigits: digits }));
-const sci = (v: number) => v.toExponential(3).replace("e", " × 10^").replace("^-", "^−");
+const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "+": "", 0: "⁰", 1: "¹", 2: "²", 3: "³", 4: "⁴", 5: "⁵", 6: "⁶", 7: "⁷", 8: "⁸", 9: "⁹" };
+/** 1.644e-7 as "1.644 × 10⁻⁷". */
+const sci = (v: number) => {
+  const [mantissa, exponent] = v.toExponential(3).split("e");
+  return `${mantissa} × 10${[...exponent].map((ch) => SUPERSCRIPT[ch] ?? ch).join("")}`;
+};
 
 function QlikeChart({ c, titleId }: { c: ClassEvidence; titleId: string }) {
   const ranking = c.comparison!.ranking;
@@ -29,7 +34,7 @@ function QlikeChart({ c, titleId }: { c: ClassEvidence; titleId: string }) {
               {data.map((d, i) => (
                 <Cell key={d.id} fill={i === 0 ? "#2f6b3f" : "#3d4a57"} />
               ))}
-              <LabelList dataKey="above" position="right" formatter={(v) => Number(v).toFixed(3)} style={{ fontSize: 11, fill: "#1c2733" }} />
+              <LabelList dataKey="above" position="right" formatter={(v) => (Number(v) === 0 ? "best" : Number(v).toFixed(3))} style={{ fontSize: 11, fill: "#1c2733" }} />
             </Bar>
           </BarChart>
         </ResponsiveContainer>
