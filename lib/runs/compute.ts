@@ -4,10 +4,10 @@
  * factors. Pure apart from yielding between steps so that a server can report progress; the same inputs give the
  * same results, bit for bit.
  */
-import { capitalCharge, ENGINE_VERSION, runMonthEnd, type MonthEndInput, type Position } from "@/lib/risk";
+import { capitalCharge, ENGINE_VERSION, prepareRun, runMonthEnd, type MonthEndInput, type MonthEndResult, type Position } from "@/lib/risk";
 import { alignReturns, usableSeries, type Alignment } from "./align";
 import { factorVolatility, OTHER_SETTINGS_STATEMENT } from "./factor-volatility";
-import { engineMethodOf, firmPlusFactor, mappingStatements } from "./method-map";
+import { engineMethodOf, firmPlusFactor, mappingStatements, storedHistoryDays } from "./method-map";
 import type { FactorVolatility, PositionsSummary, RunInputs, RunResults, StoredPosition } from "./types";
 
 export type RunProgress = (stage: string, fraction: number) => void | Promise<void>;
@@ -122,6 +122,32 @@ export interface ComputeContext {
   fromStoredInputsOf: string | null;
 }
 
+/**
+ * The backtest day by day: the static book's P&L on each backtest day (exposures × that day's factor returns, as the
+ * engine computes it) against the one-day VaR forecast made with data up to the day before (the VaR history point
+ * dated the day before). The exceptions marked here are the engine's rule: a loss strictly greater than the VaR.
+ */
+export function backtestSeriesOf(input: MonthEndInput, monthEnd: MonthEndResult): RunResults["backtestSeries"] {
+  const prepared = prepareRun(input);
+  const { dates, returns, exposures } = prepared;
+  const L = dates.length;
+  const pnl = new Float64Array(L);
+  for (let i = 0; i < exposures.length; i++) for (let t = 0; t < L; t++) pnl[t] += exposures[i] * returns[i][t];
+  const ci = monthEnd.confidences.indexOf(monthEnd.backtest.confidence);
+  const forecastFor = new Map<string, number>();
+  for (const p of monthEnd.varHistory.points) forecastFor.set(p.asOf, p.var1d[ci]);
+  const out: RunResults["backtestSeries"] = { confidence: monthEnd.backtest.confidence, method: monthEnd.backtest.method, dates: [], pnl: [], var: [], exception: [] };
+  for (let s = L - monthEnd.backtest.days; s < L; s++) {
+    const v = forecastFor.get(dates[s - 1]);
+    if (v === undefined) continue;
+    out.dates.push(dates[s]);
+    out.pnl.push(pnl[s]);
+    out.var.push(v);
+    out.exception.push(-pnl[s] > v);
+  }
+  return out;
+}
+
 const yieldNow = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /** Every figure of a run from its inputs. */
@@ -151,6 +177,10 @@ export async function computeRun(inputs: RunInputs, context: ComputeContext = { 
     stages.push([stage, fraction]);
   });
   for (const [stage, fraction] of stages.filter(([, f]) => f === 1)) await onProgress?.(stage, fraction);
+  const backtestSeries = backtestSeriesOf(input, monthEnd);
+  const keep = storedHistoryDays(inputs.capitalProfile);
+  monthEnd.varHistory = { ...monthEnd.varHistory, points: monthEnd.varHistory.points.slice(-keep) };
+  monthEnd.choices = { ...monthEnd.choices, historyDays: monthEnd.varHistory.points.length };
 
   // the firm's plus factors, where they differ from the engine's table
   const notes = [...mappingStatements(content), OTHER_SETTINGS_STATEMENT];
@@ -177,6 +207,7 @@ export async function computeRun(inputs: RunInputs, context: ComputeContext = { 
   return {
     monthEnd,
     engineMethod: input.method!,
+    backtestSeries,
     factorVolatility: {
       factors,
       statement:

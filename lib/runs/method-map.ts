@@ -58,9 +58,16 @@ export function engineMethodOf(content: MethodContent, capital: RunCapitalProfil
     distribution: content.distribution,
     ...(content.distribution === "t" ? { nu: DEFAULT_T_NU } : {}),
     stressWindow: content.stressWindow.mode === "chosen" ? { start: content.stressWindow.start, end: content.stressWindow.end } : "search",
-    historyDays: Math.max(60, capital.profile.averagingDays),
+    // one forecast for each backtest day and today, so the backtest chart can show every day's VaR (the stored
+    // VaR history keeps the last max(60, averaging days) of them; the figures do not depend on this length)
+    historyDays: Math.max(60, capital.profile.averagingDays, capital.backtestDays + 1),
     backtestDays: capital.backtestDays,
   };
+}
+
+/** Days of VaR history a run keeps in its results: 60, or the capital profile's averaging days when longer. */
+export function storedHistoryDays(capital: RunCapitalProfile): number {
+  return Math.max(60, capital.profile.averagingDays);
 }
 
 /** The estimator the method statement chooses for an asset class (exchange-rate series are "fx"), or the default. */

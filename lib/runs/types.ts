@@ -157,6 +157,8 @@ export interface RunResults {
   monthEnd: MonthEndResult;
   /** the method mapped onto the engine */
   engineMethod: MonthEndMethod;
+  /** the backtest day by day: the static book's P&L against the one-day VaR forecast from the day before */
+  backtestSeries: { confidence: number; method: string; dates: string[]; pnl: number[]; var: number[]; exception: boolean[] };
   factorVolatility: {
     factors: FactorVolatility[];
     /** which estimator drives what: the covariance follows the method's covariance choice; the per-asset-class estimator gives the reported factor volatility */

@@ -1,7 +1,7 @@
 /** Method statement → engine input, the capital profile, the plus-factor table, alignment and canonical hashing. Pure. */
 import { describe, expect, it } from "vitest";
 import { DEFAULT_METHOD_CONTENT, methodContentSchema, type MethodContent } from "@/lib/validation/method";
-import { capitalProfileOf, engineMethodOf, estimatorFor, firmPlusFactor, DEFAULT_T_NU } from "@/lib/runs/method-map";
+import { capitalProfileOf, engineMethodOf, estimatorFor, firmPlusFactor, storedHistoryDays, DEFAULT_T_NU } from "@/lib/runs/method-map";
 import { alignReturns, usableSeries } from "@/lib/runs/align";
 import { canonicalJson, hashOf, sha256Hex } from "@/lib/runs/canonical";
 import { choicesFor } from "@/lib/runs/factor-volatility";
@@ -44,12 +44,14 @@ describe("method statement → engine method", () => {
     expect(engineMethodOf(content({ stressWindow: { mode: "chosen", start: "2024-03-01", end: "2024-05-31" } }), capital).stressWindow).toEqual({ start: "2024-03-01", end: "2024-05-31" });
   });
 
-  it("takes backtest days from the capital profile and keeps at least the averaging days of VaR history", () => {
+  it("takes backtest days from the capital profile and asks for a VaR forecast on every backtest day", () => {
     const long = capitalProfileOf({ ...row, averagingDays: 90, backtestDays: 500 });
     const m = engineMethodOf(content({}), long);
     expect(m.backtestDays).toBe(500);
-    expect(m.historyDays).toBe(90);
-    expect(engineMethodOf(content({}), capital).historyDays).toBe(60);
+    expect(m.historyDays).toBe(501);
+    expect(engineMethodOf(content({}), capital).historyDays).toBe(251);
+    expect(storedHistoryDays(long)).toBe(90);
+    expect(storedHistoryDays(capital)).toBe(60);
   });
 });
 

@@ -125,6 +125,23 @@ describe("a run of the demo period", () => {
     expect(c99.tenDay.var / c99.oneDay.var).toBeCloseTo(Math.sqrt(10), 10);
   });
 
+  it("keeps 60 days of VaR history and the backtest day by day, with the engine's exceptions", () => {
+    const r = run.results!;
+    expect(r.monthEnd.varHistory.points).toHaveLength(60);
+    expect(r.monthEnd.choices.historyDays).toBe(60);
+    const s = r.backtestSeries;
+    expect(s.dates).toHaveLength(250);
+    expect(s.dates.at(-1)).toBe(r.monthEnd.asOf);
+    expect(s.exception.filter(Boolean).length).toBe(r.monthEnd.backtest.exceptions);
+    expect(s.dates.filter((_d, i) => s.exception[i])).toEqual(r.monthEnd.backtest.exceptionList.map((e) => e.date));
+    // the last VaR history point is today's figure: the one-day VaR reported for the primary method. The history
+    // runs the EWMA recursion on the book's P&L, the figure the EWMA covariance's quadratic form: algebraically the
+    // same, so they agree to rounding (relative 1e-12: double precision, common practice, no source)
+    const last = r.monthEnd.varHistory.points.at(-1)!.var1d[0];
+    const today = r.monthEnd.methods[0].byConfidence[0].oneDay.var;
+    expect(Math.abs(last - today) / today).toBeLessThan(1e-12);
+  });
+
   it("fits every factor under every estimator and reports the chosen one by asset class", () => {
     const { factors } = run.results!.factorVolatility;
     const alder = factors.find((f) => f.factor === "NMB-EQ-ALDER")!;
