@@ -1,0 +1,109 @@
+import { test, expect } from "@playwright/test";
+import { DEMO_USERS, signInThroughPage, signedInApi } from "./helpers";
+
+const ANALYST = DEMO_USERS.find((u) => u.email === "priya.castell@northmoor.example")!.email;
+const OFFICER = DEMO_USERS.find((u) => u.email === "tomas.reyne@northmoor.example")!.email;
+const AUDITOR = DEMO_USERS.find((u) => u.email === "oskar.lind@northmoor.example")!.email;
+
+test.describe.configure({ mode: "serial" });
+
+test.describe("method statement", () => {
+  let draftId = "";
+
+  test("the risk analyst reads the approved version, starts a new one, is refused λ = 1.2, fixes it, attaches evidence and approves", async ({ page }) => {
+    await signInThroughPage(page, ANALYST);
+    await page.getByRole("navigation", { name: "Month end" }).getByRole("link", { name: "Method" }).click();
+    await expect(page.getByRole("heading", { name: "Method statement", level: 1 })).toBeVisible();
+    await expect(page.getByRole("heading", { name: "Approved version 1" })).toBeVisible();
+    await expect(page.getByRole("cell", { name: /GARCH\(1,1\), Student-t errors, zero mean, falls back to EWMA/ })).toBeVisible();
+    await expect(page.getByText("99 %, 97.5 %")).toBeVisible();
+    await expect(page.getByTestId("evidence-summary")).toContainText("prices up to 30 Nov 2026");
+    await expect(page.getByText(/Equities: QLIKE of each estimator above the best/)).toBeVisible();
+    await expect(page.getByTestId("version-1").getByText("Approved")).toBeVisible();
+    await page.screenshot({ path: "test-results/screens/method-page.png", fullPage: true });
+
+    await page.getByRole("button", { name: "Start a new version" }).click();
+    await page.getByLabel("Why does version 1 need to change?").fill("Slower EWMA decay after the quarterly review.");
+    await page.getByRole("button", { name: "Start the draft" }).click();
+    await expect(page).toHaveURL(/\/method\/[0-9a-f-]{36}$/);
+    draftId = page.url().split("/").pop()!;
+    await expect(page.getByRole("heading", { name: "Method statement · draft version 2" })).toBeVisible();
+
+    const defaults = page.getByRole("group", { name: "Firm-wide default" });
+    await defaults.getByLabel("λ value").fill("1.2");
+    await page.getByRole("button", { name: "Save draft" }).click();
+    await expect(defaults.getByText("λ must be below 1.")).toBeVisible();
+    await expect(defaults.getByLabel("λ value")).toHaveAttribute("aria-invalid", "true");
+    await page.screenshot({ path: "test-results/screens/method-draft-error.png", fullPage: true });
+
+    // The server checks the same schema again: the same value sent directly is refused field by field, nothing stored.
+    const api = await signedInApi(ANALYST);
+    const stored = (await (await api.get(`/api/method/${draftId}`)).json()).version;
+    const refused = await api.put(`/api/method/${draftId}`, {
+      data: { content: { ...stored.content, defaultEstimator: { kind: "ewma", lambdaMode: "fixed", lambda: 1.2 } }, rationale: stored.rationale, analystLimitations: stored.analystLimitations, reason: stored.reason },
+    });
+    expect(refused.status()).toBe(422);
+    expect((await refused.json()).error.fields["content.defaultEstimator.lambda"]).toBe("λ must be below 1.");
+    expect((await (await api.get(`/api/method/${draftId}`)).json()).version.content.defaultEstimator.lambda).toBe(0.94);
+    await api.dispose();
+
+    await defaults.getByLabel("λ value").fill("0.97");
+    await page.getByRole("button", { name: "Save draft" }).click();
+    await expect(page.getByRole("status").filter({ hasText: "Draft saved." })).toBeVisible();
+    await expect(defaults.getByText("λ must be below 1.")).toHaveCount(0);
+
+    await expect(page.getByRole("button", { name: "Approve version 2" })).toBeDisabled();
+    await page.getByRole("button", { name: "Attach evidence" }).click();
+    await expect(page.getByTestId("evidence-summary")).toContainText("Computed 2026-12-01");
+    await expect(page.getByRole("button", { name: "Recompute evidence" })).toBeEnabled();
+    await expect(page.getByText(/Government bonds: QLIKE of each estimator above the best/)).toBeVisible();
+    await page.screenshot({ path: "test-results/screens/method-draft-evidence.png", fullPage: true });
+
+    await page.getByRole("button", { name: "Approve version 2" }).click();
+    await expect(page.getByRole("heading", { name: "Method statement · version 2" })).toBeVisible();
+    await expect(page.getByRole("button", { name: "Save draft" })).toHaveCount(0);
+    await page.goto("/method");
+    await expect(page.getByRole("heading", { name: "Approved version 2" })).toBeVisible();
+    await expect(page.getByTestId("version-1").getByText("Superseded")).toBeVisible();
+    await expect(page.getByText("EWMA, λ 0.97 (fixed)")).toBeVisible();
+  });
+
+  test("the differences between the two versions, field by field", async ({ page }) => {
+    await signInThroughPage(page, ANALYST);
+    await page.goto("/method");
+    await page.getByTestId("version-2").getByRole("link", { name: "Changes" }).click();
+    await expect(page.getByRole("heading", { name: "Compare method statement versions" })).toBeVisible();
+    const row = page.getByRole("row", { name: /Firm-wide default · λ value/ });
+    await expect(row.getByRole("cell").nth(0)).toHaveText("0.94");
+    await expect(row.getByRole("cell").nth(1)).toHaveText("0.97");
+    await expect(page.getByText("reason for version 2: Slower EWMA decay after the quarterly review.")).toBeVisible();
+    await expect(page.getByRole("heading", { name: "Rationale" })).toBeVisible();
+    await page.screenshot({ path: "test-results/screens/method-diff.png", fullPage: true });
+  });
+
+  for (const [who, email] of [
+    ["compliance officer", OFFICER],
+    ["auditor", AUDITOR],
+  ] as const) {
+    test(`the ${who} reads the method statement but cannot change it`, async ({ page }) => {
+      await signInThroughPage(page, email);
+      await page.goto("/method");
+      await expect(page.getByRole("heading", { name: "Approved version 2" })).toBeVisible();
+      await expect(page.getByRole("button", { name: "Start a new version" })).toHaveCount(0);
+      await page.getByTestId("version-2").getByRole("link", { name: "Version 2" }).click();
+      await expect(page.getByRole("heading", { name: "Method statement · version 2" })).toBeVisible();
+      await expect(page.getByRole("textbox")).toHaveCount(0);
+      await expect(page.getByRole("button", { name: /Save|Approve|Discard|evidence/ })).toHaveCount(0);
+      if (who === "auditor") await page.screenshot({ path: "test-results/screens/method-read-only.png", fullPage: true });
+
+      const api = await signedInApi(email);
+      expect((await api.post("/api/method", { data: { reason: "An attempt." } })).status()).toBe(403);
+      expect((await api.put(`/api/method/${draftId}`, { data: {} })).status()).toBe(403);
+      expect((await api.post(`/api/method/${draftId}/approve`, { data: {} })).status()).toBe(403);
+      expect((await api.post(`/api/method/${draftId}/evidence`, { data: {} })).status()).toBe(403);
+      expect((await api.post(`/api/method/${draftId}/discard`, { data: {} })).status()).toBe(403);
+      expect((await api.get("/api/method")).status()).toBe(200);
+      await api.dispose();
+    });
+  }
+});
