@@ -30,7 +30,7 @@ function QlikeChart({ c, titleId }: { c: ClassEvidence; titleId: string }) {
             <XAxis type="number" tick={{ fontSize: 12, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: "QLIKE above the best", position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
             <YAxis type="category" dataKey="label" width={190} tick={{ fontSize: 12, fill: "#1c2733" }} stroke="#6b7682" />
             <Tooltip formatter={(v) => [Number(v).toFixed(4), "QLIKE above the best"]} />
-            <Bar dataKey="above" isAnimationActive={false}>
+            <Bar dataKey="above" isAnimationActive={false} minPointSize={3}>
               {data.map((d, i) => (
                 <Cell key={d.id} fill={i === 0 ? "#2f6b3f" : "#3d4a57"} />
               ))}
