@@ -6,6 +6,7 @@ import { StatusBadge } from "@/app/_components/status-badge";
 import { formatDate, formatMonth } from "@/app/_components/format";
 import { pageActor } from "@/lib/auth/page";
 import { listPeriods } from "@/lib/data/periods";
+import { homeItems } from "@/lib/data/home";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { can } from "@/lib/auth/permissions";
 
@@ -17,19 +18,63 @@ export default async function HomePage() {
   const periods = await listPeriods(actor);
   const open = periods.filter((p) => p.nextStep !== null);
   const mine = open.filter((p) => p.nextStep && actor.roles.includes(p.nextStep.owner));
+  const { items, newFirm } = await homeItems(actor, open);
+  const actions = items.filter((i) => i.tone === "action");
 
   return (
     <>
       <PageHeader
         title={`Good day, ${actor.name.split(" ")[0]}`}
         lead={
-          mine.length > 0
+          actions.length > 0
+            ? `${actions.length} thing${actions.length === 1 ? "" : "s"} for you this month end.`
+            : mine.length > 0
             ? `${mine.length} open period${mine.length === 1 ? " needs" : "s need"} something from you.`
             : open.length > 0
               ? "Nothing is waiting on you right now; others own the next steps below."
               : "No reporting period is open."
         }
       />
+      {newFirm ? (
+        <section aria-labelledby="first-steps" className="mb-6 rounded-lg border border-brass bg-paper-raised p-6">
+          <h2 id="first-steps" className="text-lg font-semibold">
+            Getting started
+          </h2>
+          <ol className="mt-3 list-decimal space-y-2 pl-5 text-ink-soft">
+            <li>
+              The risk analyst uploads the firm&apos;s price history (daily closes, and exchange rates named like USD{actor.reportingCurrency}) on{" "}
+              <Link href="/data" className="underline">Data</Link>. Blank templates:{" "}
+              <a href="/api/templates/prices-long.csv" className="underline">prices-long.csv</a>,{" "}
+              <a href="/api/templates/prices-wide.csv" className="underline">prices-wide.csv</a>.
+            </li>
+            <li>
+              The compliance officer uploads the month-end positions for the open period (template:{" "}
+              <a href="/api/templates/positions.csv" className="underline">positions.csv</a>).
+            </li>
+            <li>The risk analyst writes and approves the method statement, then starts the month&apos;s run.</li>
+            <li>The compliance officer prepares the draft filing; the compliance head reviews and signs it.</li>
+          </ol>
+        </section>
+      ) : null}
+      {items.length > 0 ? (
+        <section aria-labelledby="for-you" className="mb-6">
+          <h2 id="for-you" className="sr-only">
+            For you now
+          </h2>
+          <ul className="flex flex-col gap-2" data-testid="home-items">
+            {items.map((item, i) => (
+              <li key={i} className={`flex items-center justify-between gap-3 rounded-lg border bg-paper-raised px-4 py-3 ${item.tone === "action" ? "border-brass" : "border-ink-line"}`}>
+                <span>
+                  {item.tone === "action" ? <StatusBadge tone="caution">To do</StatusBadge> : <StatusBadge tone="neutral">Note</StatusBadge>} <span className="ml-1">{item.text}</span>
+                </span>
+                <Link href={item.href} className="shrink-0 text-sm font-medium text-brass underline">
+                  Open
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
       {open.length === 0 ? (
         <div className="rounded-lg border border-dashed border-ink-line bg-paper-raised p-8 text-center">
           <h2 className="text-lg font-semibold">No open reporting period</h2>
