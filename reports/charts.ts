@@ -1,0 +1,202 @@
+/**
+ * The Word pack's charts: SVG drawn here from the view model, rendered to PNG by @resvg/resvg-js (a native renderer
+ * shipped inside its npm package) with the DejaVu Sans font from the dejavu-fonts-ttf package, so the picture is
+ * the same on every machine whatever fonts it has. Each chart is titled with what it shows; the pack puts the
+ * table with the same figures beside it.
+ */
+import { createRequire } from "node:module";
+import path from "node:path";
+import { existsSync } from "node:fs";
+import type { FilingViewModel } from "./view-model";
+import { formatAmount, formatConfidence, formatDate, formatNumber } from "./format";
+
+export const CHART_COLOURS = {
+  ink: "#1c2733",
+  soft: "#3d4a57",
+  muted: "#6b7682",
+  line: "#d8d3c7",
+  paper: "#ffffff",
+  brass: "#a8671c",
+  alert: "#a2332b",
+  series: ["#9aa5b1", "#a8671c", "#2f5d8a", "#2f6b3f", "#6b4c8a"],
+};
+
+const FONT = "DejaVu Sans";
+
+function esc(text: string): string {
+  return text.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+}
+
+/** About five round tick values covering [lo, hi]. */
+export function niceTicks(lo: number, hi: number, count = 5): number[] {
+  if (!(hi > lo)) return [lo];
+  const raw = (hi - lo) / count;
+  const mag = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 2.5, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
+  const out: number[] = [];
+  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
+  return out;
+}
+
+export interface Chart {
+  title: string;
+  /** SVG text */
+  svg: string;
+  width: number;
+  height: number;
+  /** alternative text for the image */
+  description: string;
+}
+
+/** Grouped bars: each factor's one-day volatility under each estimator, the chosen estimator outlined. */
+export function volatilityChart(vm: FilingViewModel): Chart | null {
+  const factors = vm.figures.riskFactors.filter((f) => f.estimates.some((e) => e.volatility !== null));
+  if (!factors.length) return null;
+  const estimators: { id: string; label: string }[] = [];
+  for (const f of factors) for (const e of f.estimates) if (!estimators.some((x) => x.id === e.estimator)) estimators.push({ id: e.estimator, label: e.label });
+  const W = 1600;
+  const H = 760;
+  const m = { left: 120, right: 40, top: 110, bottom: 120 };
+  const plotW = W - m.left - m.right;
+  const plotH = H - m.top - m.bottom;
+  let max = 0;
+  for (const f of factors) for (const e of f.estimates) if (e.volatility !== null) max = Math.max(max, e.volatility * 100);
+  const ticks = niceTicks(0, max * 1.08);
+  const top = ticks[ticks.length - 1] || 1;
+  const y = (v: number) => m.top + plotH - (v / top) * plotH;
+  const groupW = plotW / factors.length;
+  const barW = Math.min(44, (groupW * 0.8) / estimators.length);
+  const title = "One-day volatility of each risk factor by estimator (%)";
+  const parts: string[] = [
+    `<rect width="${W}" height="${H}" fill="${CHART_COLOURS.paper}"/>`,
+    `<text x="${m.left}" y="48" font-size="34" font-weight="bold" fill="${CHART_COLOURS.ink}">${esc(title)}</text>`,
+  ];
+  for (const t of ticks) {
+    parts.push(`<line x1="${m.left}" x2="${W - m.right}" y1="${y(t)}" y2="${y(t)}" stroke="${CHART_COLOURS.line}" stroke-width="2"/>`);
+    parts.push(`<text x="${m.left - 14}" y="${y(t) + 9}" font-size="24" text-anchor="end" fill="${CHART_COLOURS.muted}">${formatNumber(t, t < 1 ? 2 : 1)}</text>`);
+  }
+  factors.forEach((f, i) => {
+    const x0 = m.left + i * groupW + (groupW - barW * estimators.length) / 2;
+    estimators.forEach((est, k) => {
+      const e = f.estimates.find((x) => x.estimator === est.id);
+      if (!e || e.volatility === null) return;
+      const v = e.volatility * 100;
+      const chosen = f.chosen === est.id;
+      parts.push(
+        `<rect x="${x0 + k * barW + 2}" y="${y(v)}" width="${barW - 4}" height="${y(0) - y(v)}" fill="${CHART_COLOURS.series[k % CHART_COLOURS.series.length]}"${chosen ? ` stroke="${CHART_COLOURS.ink}" stroke-width="4"` : ""}/>`,
+      );
+    });
+    parts.push(`<text x="${m.left + i * groupW + groupW / 2}" y="${m.top + plotH + 36}" font-size="24" text-anchor="middle" fill="${CHART_COLOURS.soft}">${esc(f.factor)}</text>`);
+  });
+  parts.push(`<line x1="${m.left}" x2="${W - m.right}" y1="${y(0)}" y2="${y(0)}" stroke="${CHART_COLOURS.soft}" stroke-width="2"/>`);
+  // legend
+  let lx = m.left;
+  const ly = H - 40;
+  estimators.forEach((est, k) => {
+    parts.push(`<rect x="${lx}" y="${ly - 20}" width="26" height="26" fill="${CHART_COLOURS.series[k % CHART_COLOURS.series.length]}"/>`);
+    parts.push(`<text x="${lx + 36}" y="${ly}" font-size="24" fill="${CHART_COLOURS.soft}">${esc(est.label)}</text>`);
+    lx += 70 + est.label.length * 14;
+  });
+  parts.push(`<rect x="${lx}" y="${ly - 20}" width="26" height="26" fill="none" stroke="${CHART_COLOURS.ink}" stroke-width="4"/>`);
+  parts.push(`<text x="${lx + 36}" y="${ly}" font-size="24" fill="${CHART_COLOURS.soft}">outlined: the chosen estimator</text>`);
+  return {
+    title,
+    width: W,
+    height: H,
+    description: `${title}. ${factors.length} factors; the risk factors table gives every value.`,
+    svg: `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="${FONT}">${parts.join("")}</svg>`,
+  };
+}
+
+/** Daily P&L as bars against the one-day VaR as a loss line, exceptions in red. */
+export function varPnlChart(vm: FilingViewModel): Chart | null {
+  const s = vm.figures.backtest.pnlVsVar;
+  if (s.length < 2) return null;
+  const ccy = vm.figures.currency;
+  const W = 1600;
+  const H = 760;
+  const m = { left: 190, right: 40, top: 110, bottom: 130 };
+  const plotW = W - m.left - m.right;
+  const plotH = H - m.top - m.bottom;
+  let lo = 0;
+  let hi = 0;
+  for (const p of s) {
+    lo = Math.min(lo, p.pnl, -p.var);
+    hi = Math.max(hi, p.pnl);
+  }
+  const pad = (hi - lo) * 0.06;
+  const ticks = niceTicks(lo - pad, hi + pad);
+  const bottom = Math.min(ticks[0], lo);
+  const top = Math.max(ticks[ticks.length - 1], hi);
+  const y = (v: number) => m.top + plotH - ((v - bottom) / (top - bottom)) * plotH;
+  const step = plotW / s.length;
+  const title = `Daily P&L against the one-day VaR at ${formatConfidence(vm.figures.backtest.confidence)} (${ccy})`;
+  const parts: string[] = [
+    `<rect width="${W}" height="${H}" fill="${CHART_COLOURS.paper}"/>`,
+    `<text x="${m.left}" y="48" font-size="34" font-weight="bold" fill="${CHART_COLOURS.ink}">${esc(title)}</text>`,
+  ];
+  for (const t of ticks) {
+    if (t < bottom || t > top) continue;
+    parts.push(`<line x1="${m.left}" x2="${W - m.right}" y1="${y(t)}" y2="${y(t)}" stroke="${CHART_COLOURS.line}" stroke-width="2"/>`);
+    parts.push(`<text x="${m.left - 14}" y="${y(t) + 9}" font-size="24" text-anchor="end" fill="${CHART_COLOURS.muted}">${formatAmount(t)}</text>`);
+  }
+  s.forEach((p, i) => {
+    const x = m.left + i * step + step * 0.15;
+    const y0 = y(0);
+    const y1 = y(p.pnl);
+    parts.push(`<rect x="${x}" y="${Math.min(y0, y1)}" width="${step * 0.7}" height="${Math.max(1, Math.abs(y1 - y0))}" fill="${p.exception ? CHART_COLOURS.alert : CHART_COLOURS.series[0]}"/>`);
+  });
+  const line = s.map((p, i) => `${i === 0 ? "M" : "L"}${(m.left + i * step + step / 2).toFixed(1)},${y(-p.var).toFixed(1)}`).join(" ");
+  parts.push(`<path d="${line}" fill="none" stroke="${CHART_COLOURS.brass}" stroke-width="5"/>`);
+  parts.push(`<line x1="${m.left}" x2="${W - m.right}" y1="${y(0)}" y2="${y(0)}" stroke="${CHART_COLOURS.soft}" stroke-width="2"/>`);
+  const every = Math.max(1, Math.ceil(s.length / 6));
+  for (let i = 0; i < s.length; i += every) {
+    parts.push(`<text x="${m.left + i * step + step / 2}" y="${m.top + plotH + 36}" font-size="24" text-anchor="middle" fill="${CHART_COLOURS.soft}">${esc(formatDate(s[i].date))}</text>`);
+  }
+  const ly = H - 40;
+  parts.push(`<rect x="${m.left}" y="${ly - 20}" width="26" height="26" fill="${CHART_COLOURS.series[0]}"/>`);
+  parts.push(`<text x="${m.left + 36}" y="${ly}" font-size="24" fill="${CHART_COLOURS.soft}">P&amp;L of the day</text>`);
+  parts.push(`<rect x="${m.left + 290}" y="${ly - 20}" width="26" height="26" fill="${CHART_COLOURS.alert}"/>`);
+  parts.push(`<text x="${m.left + 326}" y="${ly}" font-size="24" fill="${CHART_COLOURS.soft}">exception (loss beyond VaR)</text>`);
+  parts.push(`<line x1="${m.left + 700}" x2="${m.left + 750}" y1="${ly - 8}" y2="${ly - 8}" stroke="${CHART_COLOURS.brass}" stroke-width="5"/>`);
+  parts.push(`<text x="${m.left + 762}" y="${ly}" font-size="24" fill="${CHART_COLOURS.soft}">VaR forecast for the day, as a loss</text>`);
+  const exceptions = s.filter((p) => p.exception).length;
+  return {
+    title,
+    width: W,
+    height: H,
+    description: `${title}, ${s.length} days from ${formatDate(s[0].date)} to ${formatDate(s[s.length - 1].date)}, ${exceptions} exception(s) in this span; the VaR history table gives every value.`,
+    svg: `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="${FONT}">${parts.join("")}</svg>`,
+  };
+}
+
+function fontFiles(): string[] {
+  const names = ["DejaVuSans.ttf", "DejaVuSans-Bold.ttf"];
+  const candidates: string[] = [];
+  try {
+    const req = createRequire(path.join(process.cwd(), "package.json"));
+    candidates.push(path.join(path.dirname(req.resolve("dejavu-fonts-ttf/package.json")), "ttf"));
+  } catch {
+    // resolved below from the working directory
+  }
+  candidates.push(path.join(process.cwd(), "node_modules", "dejavu-fonts-ttf", "ttf"));
+  for (const dir of candidates) {
+    const files = names.map((n) => path.join(dir, n));
+    if (files.every((f) => existsSync(f))) return files;
+  }
+  throw new Error("The chart font (dejavu-fonts-ttf) is not installed; run npm install.");
+}
+
+/**
+ * Render a chart's SVG to PNG at its own pixel size.
+ * @throws when the renderer or the font package is missing (the Word pack then leaves the chart out and says so)
+ */
+export async function renderPng(chart: Chart): Promise<Buffer> {
+  const { Resvg } = await import("@resvg/resvg-js");
+  const resvg = new Resvg(chart.svg, {
+    fitTo: { mode: "width", value: chart.width },
+    font: { loadSystemFonts: false, fontFiles: fontFiles(), defaultFontFamily: FONT },
+    background: "#ffffff",
+  });
+  return Buffer.from(resvg.render().asPng());
+}

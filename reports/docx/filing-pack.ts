@@ -1,0 +1,455 @@
+/**
+ * The Word filing pack: every section of the filing from the view model, styled once (./styles), tables with their
+ * units, the charts as PNG images, a header with the DRAFT marking on every page until the filing is signed (then
+ * the signer and the content hash), and a footer with the firm, the period, the draft caution and the page number.
+ * Pure apart from reading the text templates: `buildWordPack(vm)` → the .docx bytes.
+ */
+import {
+  AlignmentType,
+  BorderStyle,
+  Document,
+  Footer,
+  Header,
+  ImageRun,
+  LineRuleType,
+  Packer,
+  PageNumber,
+  Paragraph,
+  ShadingType,
+  Table,
+  TableCell,
+  TableLayoutType,
+  TableRow,
+  TabStopType,
+  TextRun,
+  WidthType,
+  type ParagraphChild,
+} from "docx";
+import { contentHash, FILING_STATUS_LABELS, VAR_METHOD_LABELS, type FilingViewModel } from "../view-model";
+import { filingSections, statusMarking, type Block, type Section } from "../sections";
+import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatPercent, formatTimestamp } from "../format";
+import { neutralise } from "../neutralise";
+import { renderPng, varPnlChart, volatilityChart, type Chart } from "../charts";
+import { COLOURS, filingStyles, STYLE } from "./styles";
+
+/** A4 portrait with 2 cm margins: the body is 17 cm wide. */
+const PAGE = { width: 11906, height: 16838, margin: 1134 };
+const BODY_TWIPS = PAGE.width - 2 * PAGE.margin;
+/** Pixels (96 to the inch) across the body, for images. */
+const BODY_PX = Math.floor((BODY_TWIPS / 1440) * 96);
+/** Above this many factors the correlation matrix is left to the workbook. */
+export const CORRELATION_WORD_MAX = 14;
+
+export interface WordPackOptions {
+  /** draw the charts (default true); without them the tables carry the same figures */
+  charts?: boolean;
+}
+
+interface Column {
+  header: string;
+  numeric?: boolean;
+  /** relative width */
+  weight?: number;
+}
+
+type FileChild = Paragraph | Table;
+
+const thin = { style: BorderStyle.SINGLE, size: 4, color: COLOURS.line };
+const none = { style: BorderStyle.NONE, size: 0, color: "FFFFFF" };
+
+function cellParagraph(text: string, style: string, bold = false): Paragraph {
+  return new Paragraph({ style, children: [new TextRun({ text, bold: bold || undefined })] });
+}
+
+/** A table with a repeated header row, light rules, numbers right-aligned; `totalRows` are shaded and bold. */
+function table(columns: Column[], rows: string[][], options: { totalRows?: number[]; caption?: string } = {}): FileChild[] {
+  const weights = columns.map((c) => c.weight ?? 1);
+  const sum = weights.reduce((a, b) => a + b, 0);
+  const widths = weights.map((w) => Math.floor((w / sum) * BODY_TWIPS));
+  const header = new TableRow({
+    tableHeader: true,
+    cantSplit: true,
+    children: columns.map(
+      (c, i) =>
+        new TableCell({
+          width: { size: widths[i], type: WidthType.DXA },
+          shading: { type: ShadingType.CLEAR, color: "auto", fill: COLOURS.headerFill },
+          children: [cellParagraph(c.header, c.numeric ? STYLE.tableHeaderNumber : STYLE.tableHeader)],
+        }),
+    ),
+  });
+  const body = rows.map((row, r) => {
+    const total = options.totalRows?.includes(r) ?? false;
+    return new TableRow({
+      cantSplit: true,
+      children: row.map(
+        (text, i) =>
+          new TableCell({
+            width: { size: widths[i], type: WidthType.DXA },
+            shading: total ? { type: ShadingType.CLEAR, color: "auto", fill: COLOURS.totalFill } : undefined,
+            children: [cellParagraph(text, columns[i]?.numeric ? STYLE.tableNumber : STYLE.tableText, total)],
+          }),
+      ),
+    });
+  });
+  const out: FileChild[] = [];
+  if (options.caption) out.push(new Paragraph({ style: STYLE.caption, text: options.caption }));
+  out.push(
+    new Table({
+      rows: [header, ...body],
+      width: { size: BODY_TWIPS, type: WidthType.DXA },
+      columnWidths: widths,
+      layout: TableLayoutType.FIXED,
+      borders: { top: thin, bottom: thin, left: none, right: none, insideHorizontal: thin, insideVertical: none },
+      margins: { top: 30, bottom: 30, left: 70, right: 70 },
+    }),
+  );
+  out.push(new Paragraph({ text: "", spacing: { after: 80 } }));
+  return out;
+}
+
+function blockParagraph(b: Exclude<Block, { kind: "table" | "chart" }>, section: Section, first: boolean, beforeFigure: boolean): Paragraph {
+  // a paragraph that introduces a table or chart stays on its page
+  const keepNext = beforeFigure || undefined;
+  switch (b.kind) {
+    case "h1":
+      return new Paragraph({ heading: "Heading1", text: b.text, pageBreakBefore: first && (section.appendix ? section.id === "positions" : section.id !== "cover") ? true : undefined });
+    case "h2":
+      return new Paragraph({ heading: "Heading2", text: b.text });
+    case "bullet":
+      return new Paragraph({ text: b.text, bullet: { level: 0 }, keepNext });
+    case "note":
+      return new Paragraph({ style: STYLE.note, text: b.text, keepNext });
+    case "p":
+      return new Paragraph({ text: b.text, keepNext });
+  }
+}
+
+/** Every table the templates name, by slot name. */
+function tables(vm: FilingViewModel): Record<string, () => FileChild[]> {
+  const f = vm.figures;
+  const ccy = f.currency;
+  const H = f.horizonDays;
+  const a = formatAmount;
+  const t = (s: string) => neutralise(s);
+  const capConf = f.capitalConfidence;
+  return {
+    cover: () =>
+      table(
+        [{ header: "Item", weight: 1 }, { header: "Value", weight: 2.2 }],
+        [
+          ["Firm", vm.firm.name],
+          ["Reporting period", `${vm.period.label}, ending ${formatDate(vm.period.end)}`],
+          ["Reporting currency", vm.firm.reportingCurrency],
+          ["Regulator", vm.firm.regulator || "Not set in the firm's profile"],
+          ["Filing deadline", vm.period.deadline ? formatDate(vm.period.deadline) : "Not set"],
+          ["Filing version", String(vm.filing.version)],
+          ["Status", FILING_STATUS_LABELS[vm.filing.status]],
+          ["Prepared by", vm.filing.preparedBy],
+          ["Submitted for review by", vm.filing.submittedBy ?? "Not yet submitted"],
+          ["Figures as of", formatDate(f.asOf)],
+          ["Run", `${vm.engine.runId}, started by ${vm.engine.startedBy}`],
+          ["Method statement", `Version ${vm.method.version}`],
+          ...(vm.filing.filedAt ? [["Filed", `${formatDate(vm.filing.filedAt)}${vm.filing.filingReference ? `, regulator's reference ${vm.filing.filingReference}` : ""}`]] : []),
+        ],
+      ),
+    capital: () => {
+      const c = f.capital;
+      const rows: string[][] = [
+        ["Latest VaR, VaR(t−1)", a(c.varLast), ccy],
+        [`Average VaR over ${c.averagingDays} days`, a(c.varAverage), ccy],
+        ["Multiplier m_c = base + plus factor", `${formatNumber(c.multiplierBase, 2)} + ${formatNumber(c.plusFactor, 2)} = ${formatNumber(c.multiplier, 2)}`, "—"],
+        ["VaR term = max(VaR(t−1), m_c × average)", a(c.varTerm), ccy],
+      ];
+      if (c.includesStressed && c.stressedVarLast !== null && c.stressedVarAverage !== null && c.stressedMultiplier !== null) {
+        rows.push(
+          ["Latest stressed VaR, sVaR(t−1)", a(c.stressedVarLast), ccy],
+          [`Average stressed VaR over ${c.averagingDays} days`, a(c.stressedVarAverage), ccy],
+          ["Multiplier m_s", formatNumber(c.stressedMultiplier, 2), "—"],
+          ["Stressed term = max(sVaR(t−1), m_s × average)", a(c.stressedVarTerm), ccy],
+        );
+      }
+      rows.push(["Capital", a(c.capital), ccy]);
+      return table([{ header: "Term", weight: 3 }, { header: "Value", numeric: true, weight: 1.6 }, { header: "Unit", weight: 0.6 }], rows, { totalRows: [rows.length - 1] });
+    },
+    totals: () =>
+      table(
+        [
+          { header: "Method", weight: 2.2 },
+          { header: "Confidence", numeric: true, weight: 1 },
+          { header: `VaR, 1 day (${ccy})`, numeric: true, weight: 1.3 },
+          { header: `ES, 1 day (${ccy})`, numeric: true, weight: 1.3 },
+          { header: `VaR, ${H} days (${ccy})`, numeric: true, weight: 1.3 },
+          { header: `ES, ${H} days (${ccy})`, numeric: true, weight: 1.3 },
+        ],
+        f.totals.flatMap((m) => m.byConfidence.map((c) => [`${m.label}${m.primary ? " (primary)" : ""}`, formatConfidence(c.confidence), a(c.oneDay.var), a(c.oneDay.es), a(c.horizon.var), a(c.horizon.es)])),
+      ),
+    "asset-classes": () =>
+      f.byAssetClass.flatMap((set) => {
+        const total = f.totals.find((m) => m.primary)!.byConfidence.find((c) => c.confidence === set.confidence)!;
+        const rows = set.rows.map((r) => [r.label, a(r.componentVar1d), a(r.componentEs1d), a(r.componentVarHorizon), a(r.componentEsHorizon), a(r.standAloneVar1d), a(r.standAloneVarHorizon)]);
+        rows.push(["Book total", a(total.oneDay.var), a(total.oneDay.es), a(total.horizon.var), a(total.horizon.es), a(set.rows.reduce((s, r) => s + r.standAloneVar1d, 0)), a(set.rows.reduce((s, r) => s + r.standAloneVarHorizon, 0))]);
+        rows.push(["Diversification benefit", "", "", "", "", a(total.diversificationBenefit1d), a(total.diversificationBenefitHorizon)]);
+        return table(
+          [
+            { header: "Asset class", weight: 2 },
+            { header: `Component VaR, 1 day (${ccy})`, numeric: true },
+            { header: `Component ES, 1 day (${ccy})`, numeric: true },
+            { header: `Component VaR, ${H} days (${ccy})`, numeric: true },
+            { header: `Component ES, ${H} days (${ccy})`, numeric: true },
+            { header: `Stand-alone VaR, 1 day (${ccy})`, numeric: true },
+            { header: `Stand-alone VaR, ${H} days (${ccy})`, numeric: true },
+          ],
+          rows,
+          { caption: `At ${formatConfidence(set.confidence)} confidence, ${VAR_METHOD_LABELS[f.primaryMethod].toLowerCase()}`, totalRows: [rows.length - 2, rows.length - 1] },
+        );
+      }),
+    stressed: () =>
+      table(
+        [
+          { header: "Confidence", weight: 1 },
+          { header: `Stressed VaR, 1 day (${ccy})`, numeric: true, weight: 1.4 },
+          { header: `Stressed ES, 1 day (${ccy})`, numeric: true, weight: 1.4 },
+          { header: `Stressed VaR, ${H} days (${ccy})`, numeric: true, weight: 1.4 },
+          { header: `Stressed ES, ${H} days (${ccy})`, numeric: true, weight: 1.4 },
+        ],
+        f.stressed.byConfidence.map((c) => [formatConfidence(c.confidence), a(c.oneDay.var), a(c.oneDay.es), a(c.horizon.var), a(c.horizon.es)]),
+      ),
+    "backtest-tests": () => {
+      const b = f.backtest;
+      const rows = [
+        ["Days compared", String(b.days), ""],
+        ["Exceptions (expected)", `${b.exceptions} (${formatNumber(b.expectedExceptions, 1)})`, ""],
+        ["Zone and plus factor", `${b.zone}, ${formatNumber(b.plusFactor, 2)}`, `cumulative probability ${formatNumber(b.cumulativeProbability, 4)}`],
+        ["Kupiec, likelihood ratio", formatNumber(b.kupiec.lr, 3), `p-value ${formatPValue(b.kupiec.pValue)}`],
+      ];
+      if (b.christoffersen) {
+        rows.push(["Christoffersen, independence", formatNumber(b.christoffersen.lrInd, 3), `p-value ${formatPValue(b.christoffersen.pValueInd)}`]);
+        rows.push(["Christoffersen, conditional coverage", formatNumber(b.christoffersen.lrCc, 3), `p-value ${formatPValue(b.christoffersen.pValueCc)}`]);
+      }
+      return table([{ header: "Measure", weight: 2.2 }, { header: "Value", numeric: true, weight: 1.2 }, { header: "Note", weight: 2 }], rows);
+    },
+    exceptions: () =>
+      f.backtest.exceptionList.length
+        ? table(
+            [
+              { header: "Date", weight: 1.1 },
+              { header: `P&L (${ccy})`, numeric: true, weight: 1.1 },
+              { header: `VaR (${ccy})`, numeric: true, weight: 1.1 },
+              { header: `Loss beyond VaR (${ccy})`, numeric: true, weight: 1.1 },
+              { header: "Explanation", weight: 3.2 },
+            ],
+            f.backtest.exceptionList.map((e) => [formatDate(e.date), a(e.pnl), a(e.var), a(e.excess), e.explanation ? t(e.explanation) : "No explanation given."]),
+          )
+        : [],
+    "run-record": () =>
+      table(
+        [{ header: "Input", weight: 1 }, { header: "SHA-256", weight: 4 }],
+        [...vm.engine.inputHashes.map((h) => [h.name, h.hash]), ["engine version", vm.engine.version]],
+      ),
+    "data-quality": () =>
+      vm.dataQuality.items.length
+        ? table(
+            [{ header: "Severity", weight: 0.9 }, { header: "Check", weight: 1.8 }, { header: "Instrument", weight: 1.3 }, { header: "Finding", weight: 4 }],
+            vm.dataQuality.items.map((i) => [i.severity, i.label, t(i.instrument), t(i.message)]),
+          )
+        : [],
+    "sign-off": () =>
+      table(
+        [{ header: "Item", weight: 1.2 }, { header: "Value", weight: 3.6 }],
+        vm.signOff
+          ? [
+              ["Signed by", vm.signOff.signerName],
+              [vm.firm.licenceLabel, vm.signOff.licenceReference],
+              ["Signed at", formatTimestamp(vm.signOff.signedAt)],
+              ["Content hash (SHA-256)", vm.signOff.contentHash],
+            ]
+          : [
+              ["Signed by", "—"],
+              [vm.firm.licenceLabel, "—"],
+              ["Signed at", "—"],
+              ["Content hash (SHA-256)", "Filled in when the filing is signed"],
+            ],
+      ),
+    positions: () =>
+      table(
+        [
+          { header: "Instrument", weight: 1.5 },
+          { header: "Asset class", weight: 1.5 },
+          { header: "Currency", weight: 0.95 },
+          { header: `Market value (${ccy})`, numeric: true, weight: 1.3 },
+          { header: `Exposure (${ccy})`, numeric: true, weight: 1.3 },
+          { header: `VaR contribution, 1 day (${ccy})`, numeric: true, weight: 1.3 },
+          { header: "Note", weight: 1.6 },
+        ],
+        f.positions.map((p) => [t(p.instrument), p.assetClassLabel, p.currency, a(p.marketValue), p.exposure === null ? "—" : a(p.exposure), p.componentVar1d === null ? "—" : a(p.componentVar1d), p.included ? "" : `Left out: ${t(p.note)}`]),
+      ),
+    "risk-factors": () => {
+      const estimators: { id: string; label: string }[] = [];
+      for (const r of f.riskFactors) for (const e of r.estimates) if (!estimators.some((x) => x.id === e.estimator)) estimators.push({ id: e.estimator, label: e.label });
+      return table(
+        [
+          { header: "Factor", weight: 1.3 },
+          { header: "Kind", weight: 1.1 },
+          { header: `Exposure (${ccy})`, numeric: true, weight: 1.3 },
+          ...estimators.map((e) => ({ header: `${e.label}, 1 day (%)`, numeric: true, weight: 1.1 })),
+          { header: "Chosen", weight: 1.3 },
+        ],
+        f.riskFactors.map((r) => [
+          t(r.factor),
+          r.kind,
+          a(r.exposure),
+          ...estimators.map((e) => {
+            const v = r.estimates.find((x) => x.estimator === e.id)?.volatility;
+            return v === undefined || v === null ? "—" : formatPercent(v, 3).replace(" %", "");
+          }),
+          r.chosenLabel ?? "—",
+        ]),
+      );
+    },
+    correlation: () => {
+      const c = f.correlation;
+      if (!c) return [];
+      if (c.factors.length > CORRELATION_WORD_MAX) return [new Paragraph({ text: `The matrix has ${c.factors.length} factors; it is in the spreadsheet pack's Correlation sheet.` })];
+      return table(
+        [{ header: "", weight: 1.4 }, ...c.factors.map((x) => ({ header: t(x), numeric: true, weight: 1 }))],
+        c.matrix.map((row, i) => [t(c.factors[i]), ...row.map((v) => formatNumber(v, 2))]),
+      );
+    },
+    "contributions-currency": () => {
+      const set = f.contributions.find((c) => c.confidence === capConf)!;
+      const total = f.totals.find((m) => m.primary)!.byConfidence.find((c) => c.confidence === capConf)!;
+      const rows = set.byCurrency.map((g) => [g.currency, a(g.componentVar1d), a(g.componentEs1d), a(g.componentVarHorizon), a(g.componentEsHorizon), formatPercent(total.oneDay.var ? g.componentVar1d / total.oneDay.var : 0, 1)]);
+      rows.push(["Book total", a(total.oneDay.var), a(total.oneDay.es), a(total.horizon.var), a(total.horizon.es), "100.0 %"]);
+      return table(
+        [
+          { header: "Currency", weight: 1.2 },
+          { header: `Component VaR, 1 day (${ccy})`, numeric: true },
+          { header: `Component ES, 1 day (${ccy})`, numeric: true },
+          { header: `Component VaR, ${H} days (${ccy})`, numeric: true },
+          { header: `Component ES, ${H} days (${ccy})`, numeric: true },
+          { header: "Share of VaR", numeric: true, weight: 0.9 },
+        ],
+        rows,
+        { caption: `By currency, at ${formatConfidence(capConf)} confidence`, totalRows: [rows.length - 1] },
+      );
+    },
+    "var-history": () => {
+      const ci = f.confidences.indexOf(capConf);
+      return table(
+        [
+          { header: "Data to", weight: 1.2 },
+          ...f.confidences.map((c) => ({ header: `VaR ${formatConfidence(c)}, 1 day (${ccy})`, numeric: true })),
+          { header: `ES ${formatConfidence(capConf)}, 1 day (${ccy})`, numeric: true },
+          { header: `VaR ${formatConfidence(capConf)}, ${H} days (${ccy})`, numeric: true },
+          { header: `P&L of the next day (${ccy})`, numeric: true },
+        ],
+        f.varHistory.points.map((p) => [formatDate(p.asOf), ...p.var1d.map(a), a(p.es1d[ci]), a(p.varHorizon[ci]), p.pnlNext === null ? "—" : a(p.pnlNext)]),
+      );
+    },
+  };
+}
+
+async function chartBlock(chart: Chart | null, draw: boolean): Promise<FileChild[]> {
+  if (!chart || !draw) return [];
+  let png: Buffer;
+  try {
+    png = await renderPng(chart);
+  } catch (error) {
+    return [new Paragraph({ style: STYLE.note, text: `The chart "${chart.title}" could not be drawn on this server (${error instanceof Error ? error.message : String(error)}); the table gives the same figures.` })];
+  }
+  const width = BODY_PX;
+  const height = Math.round((chart.height / chart.width) * width);
+  return [
+    new Paragraph({
+      keepNext: true,
+      spacing: { before: 120, after: 120, line: 240, lineRule: LineRuleType.AUTO },
+      children: [new ImageRun({ type: "png", data: png, transformation: { width, height }, altText: { name: chart.title, title: chart.title, description: chart.description } })],
+    }),
+  ];
+}
+
+function headerFor(vm: FilingViewModel): Header {
+  const marking = statusMarking(vm);
+  return new Header({
+    children: [
+      new Paragraph({
+        style: STYLE.marking,
+        tabStops: [{ type: TabStopType.RIGHT, position: BODY_TWIPS }],
+        children: [
+          new TextRun({ text: marking, color: vm.signOff ? COLOURS.ok : COLOURS.alert }),
+          new TextRun({ text: "\t" }),
+          new TextRun({ text: `${vm.firm.name} · ${vm.period.label}`, bold: false, color: COLOURS.muted }),
+        ],
+      }),
+      new Paragraph({ style: STYLE.headerText, border: { bottom: { style: BorderStyle.SINGLE, size: 4, color: COLOURS.line, space: 4 } }, text: `Filing pack, version ${vm.filing.version} · figures as of ${formatDate(vm.figures.asOf)} · ${vm.figures.currency}` }),
+    ],
+  });
+}
+
+function footerFor(vm: FilingViewModel): Footer {
+  const pageRun = new TextRun({ children: ["Page ", PageNumber.CURRENT, " of ", PageNumber.TOTAL_PAGES] });
+  const line: ParagraphChild[] = [new TextRun({ text: `${vm.firm.name} · reporting period ending ${formatDate(vm.period.end)} · version ${vm.filing.version}` }), new TextRun({ text: "\t" }), pageRun];
+  return new Footer({
+    children: [
+      new Paragraph({ style: STYLE.footerText, border: { top: { style: BorderStyle.SINGLE, size: 4, color: COLOURS.line, space: 4 } }, tabStops: [{ type: TabStopType.RIGHT, position: BODY_TWIPS }], children: line }),
+      new Paragraph({ style: STYLE.footerText, children: [new TextRun({ text: `Draft caution: ${vm.caution}` })] }),
+    ],
+  });
+}
+
+/**
+ * The Word pack of a filing.
+ * @throws when a signed filing's stored hash is not the hash of this content (the pack would misstate what was
+ * signed), or a template lacks a value
+ */
+export async function buildWordPack(vm: FilingViewModel, options: WordPackOptions = {}): Promise<Buffer> {
+  if (vm.signOff && vm.signOff.contentHash !== contentHash(vm)) {
+    throw new Error("The signature's content hash does not match this filing's content: the pack is not built for content that differs from what was signed.");
+  }
+  const draw = options.charts ?? true;
+  const sections = filingSections(vm);
+  const slots = tables(vm);
+  const charts: Record<string, Chart | null> = { volatility: volatilityChart(vm), "var-pnl": varPnlChart(vm) };
+  const children: FileChild[] = [];
+  children.push(new Paragraph({ style: STYLE.caution, children: [new TextRun({ text: "Draft · ", bold: true }), new TextRun({ text: vm.caution })] }));
+  for (const section of sections) {
+    let first = true;
+    for (const [index, b] of section.blocks.entries()) {
+      const next = section.blocks[index + 1];
+      const beforeFigure = next !== undefined && (next.kind === "table" || next.kind === "chart");
+      if (b.kind === "table") {
+        const make = slots[b.name];
+        if (!make) throw new Error(`templates/filing/${section.id}.md names a table "${b.name}" that the Word pack does not have.`);
+        children.push(...make());
+      } else if (b.kind === "chart") {
+        if (!(b.name in charts)) throw new Error(`templates/filing/${section.id}.md names a chart "${b.name}" that the Word pack does not have.`);
+        children.push(...(await chartBlock(charts[b.name], draw)));
+      } else if (section.id === "cover" && b.kind === "h1") {
+        children.push(new Paragraph({ style: STYLE.coverTitle, text: b.text }));
+      } else if (section.id === "cautions" && b.kind === "p" && b.text === vm.caution) {
+        children.push(new Paragraph({ style: STYLE.caution, text: b.text }));
+      } else if (section.id === "sign-off" && b.kind === "p" && vm.signOff && b.text.includes(vm.signOff.contentHash)) {
+        children.push(new Paragraph({ text: b.text }), new Paragraph({ style: STYLE.hash, text: vm.signOff.contentHash }));
+      } else {
+        children.push(blockParagraph(b as Exclude<Block, { kind: "table" | "chart" }>, section, first, beforeFigure));
+      }
+      first = false;
+    }
+  }
+  const doc = new Document({
+    creator: "Ballast",
+    title: `Filing pack, ${vm.firm.name}, ${vm.period.label}, version ${vm.filing.version}`,
+    description: vm.caution,
+    styles: filingStyles,
+    sections: [
+      {
+        properties: { page: { size: { width: PAGE.width, height: PAGE.height }, margin: { top: 1304, bottom: 1304, left: PAGE.margin, right: PAGE.margin, header: 567, footer: 454 } } },
+        headers: { default: headerFor(vm) },
+        footers: { default: footerFor(vm) },
+        children,
+      },
+    ],
+  });
+  return Packer.toBuffer(doc);
+}
