@@ -197,6 +197,8 @@ export function sectionValues(id: SectionId, vm: FilingViewModel): TemplateValue
         sampleDays: vm.engine.sample.days,
         sampleFirst: formatDate(vm.engine.sample.firstDate),
         sampleLast: formatDate(vm.engine.sample.lastDate),
+        runNotesIntro: vm.engine.notes.length ? fragment("run-notes-intro") : "",
+        runNotes: vm.engine.notes.join("\n"),
       };
     case "limitations":
       return {
@@ -250,7 +252,7 @@ export function sectionValues(id: SectionId, vm: FilingViewModel): TemplateValue
       };
     }
     case "risk-factors":
-      return { excludedSentence: f.excludedFactors.length ? fragment("factors-excluded", { factors: f.excludedFactors.map((x) => `${x.factor} (${x.reason})`).join("; ") }) : "" };
+      return { statement: f.riskFactorStatement, excludedSentence: f.excludedFactors.length ? fragment("factors-excluded", { factors: f.excludedFactors.map((x) => `${x.factor} (${x.reason})`).join("; ") }) : "" };
     case "correlation":
       return { basis: f.correlation ? `${f.correlation.basis}.` : fragment("correlation-missing") };
     case "contributions": {

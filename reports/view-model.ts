@@ -239,6 +239,8 @@ export interface FilingFigures {
   varHistory: { method: VarMethod; statement: string; points: VarHistoryRow[] };
   positions: PositionRow[];
   riskFactors: RiskFactorRow[];
+  /** what the factor volatilities are and how they relate to the portfolio figures ("" when not stated) */
+  riskFactorStatement: string;
   excludedFactors: { factor: string; reason: string }[];
   correlation: CorrelationView | null;
   contributions: ContributionSet[];
@@ -287,6 +289,8 @@ export interface FilingViewModel {
     sample: { days: number; firstDate: string; lastDate: string };
     choices: { name: string; value: string }[];
     warnings: { code: string; message: string }[];
+    /** statements the run adds beyond the engine's */
+    notes: string[];
   };
   caution: string;
 }
@@ -300,6 +304,8 @@ export interface FactorVolatilityInput {
   factor: string;
   estimates: { estimator: string; label: string; volatility: number | null }[];
   chosen: string;
+  /** the chosen estimator with its settings, e.g. "EWMA, λ = 0.94" (default: the estimate's label) */
+  chosenLabel?: string;
 }
 
 export interface FilingPackInput {
@@ -311,6 +317,12 @@ export interface FilingPackInput {
   correlation?: CorrelationView | null;
   /** the book's daily hypothetical P&L (static book), where the run stored it */
   pnlHistory?: { date: string; pnl: number }[] | null;
+  /** the backtest day by day (P&L against the VaR forecast for the day), where the run stored it */
+  backtestSeries?: { dates: string[]; pnl: number[]; var: number[]; exception: boolean[] } | null;
+  /** what the risk factors' volatilities are, in words */
+  riskFactorStatement?: string;
+  /** statements the run adds beyond the engine's */
+  runNotes?: string[];
   dataQuality: QualityReport | null;
   method: { version: number; content: MethodContent | null; rationale: string; limitations: string[]; approvedAt?: string | null };
   firm: { name: string; reportingCurrency: string; regulatorName: string; licenceLabel: string };
@@ -468,7 +480,7 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       const estimates = f ? f.estimates.map((e) => ({ estimator: e.estimator, label: e.label, volatility: e.volatility })) : [];
       const chosen = f ? (estimates.find((e) => e.estimator === f.chosen) ?? null) : null;
       if (f && !chosen) throw new RangeError(`Risk factor ${factor}: the chosen estimator "${f.chosen}" has no estimate.`);
-      return { factor, kind: kindOf(factor), exposure: exposureOf.get(factor) ?? 0, estimates, chosen: chosen?.estimator ?? null, chosenLabel: chosen?.label ?? null, chosenVolatility: chosen?.volatility ?? null };
+      return { factor, kind: kindOf(factor), exposure: exposureOf.get(factor) ?? 0, estimates, chosen: chosen?.estimator ?? null, chosenLabel: chosen ? (f?.chosenLabel ?? chosen.label) : null, chosenVolatility: chosen?.volatility ?? null };
     });
   } else if (r.volatilityModels) {
     riskFactors = r.volatilityModels.map((v) => ({
@@ -499,14 +511,24 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
   for (const date of Object.keys(explanations)) {
     if (!exceptionDates.has(date)) throw new RangeError(`There is an explanation for ${date}, which is not a backtest exception of this run.`);
   }
-  const pnl = input.pnlHistory ? [...input.pnlHistory].sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0)) : null;
+  const series = input.backtestSeries;
+  if (series && !(series.dates.length === series.pnl.length && series.dates.length === series.var.length && series.dates.length === series.exception.length)) {
+    throw new RangeError("The backtest series needs one P&L, VaR and exception flag per date.");
+  }
+  const pnl = input.pnlHistory
+    ? [...input.pnlHistory].sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0))
+    : series
+      ? series.dates.map((date, i) => ({ date, pnl: series.pnl[i] }))
+      : null;
   const pnlDates = pnl?.map((p) => p.date) ?? [];
   const points: VarHistoryRow[] = r.varHistory.points.map((p) => {
     const k = pnl ? firstAfter(pnlDates, p.asOf) : -1;
     return { asOf: p.asOf, var1d: [...p.var1d], es1d: [...p.es1d], varHorizon: [...p.var10d], esHorizon: [...p.es10d], pnlNext: k >= 0 && pnl ? pnl[k].pnl : null };
   });
   const pnlVsVar: BacktestFigures["pnlVsVar"] = [];
-  if (pnl) {
+  if (series) {
+    series.dates.forEach((date, i) => pnlVsVar.push({ date, pnl: series.pnl[i], var: series.var[i], exception: series.exception[i] }));
+  } else if (pnl) {
     for (const p of points) {
       const k = firstAfter(pnlDates, p.asOf);
       if (k < 0) continue;
@@ -619,6 +641,7 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       varHistory: { method: r.varHistory.method, statement: r.varHistory.statement, points },
       positions,
       riskFactors,
+      riskFactorStatement: input.riskFactorStatement ?? "",
       excludedFactors: r.factors.excluded.map((f) => ({ ...f })),
       correlation,
       contributions,
@@ -645,6 +668,7 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       sample: { ...r.sample },
       choices: Object.entries(r.choices).map(([name, value]) => ({ name, value: choiceText(value) })),
       warnings: r.warnings.map((w) => ({ code: w.code, message: w.message })),
+      notes: [...(input.runNotes ?? [])],
     },
     caution: DRAFT_CAUTION,
   };

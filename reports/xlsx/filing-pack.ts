@@ -295,6 +295,8 @@ export async function buildWorkbookPack(vm: FilingViewModel, options: WorkbookPa
   if (vm.filing.reason.trim()) methodRows.push([`Reason for version ${vm.filing.version}`, vm.filing.reason]);
   for (const c of vm.filing.changesSinceLast) methodRows.push(["Change since the last filing", c]);
   methodRows.push(["Run", `${vm.engine.runId}, started by ${vm.engine.startedBy}; ${vm.engine.sample.days} days of returns from ${formatDate(vm.engine.sample.firstDate)} to ${formatDate(vm.engine.sample.lastDate)}`]);
+  for (const n of vm.engine.notes) methodRows.push(["How the run applied it", n]);
+  if (f.riskFactorStatement) methodRows.push(["Factor volatilities", f.riskFactorStatement]);
   methodRows.push(["Engine version", vm.engine.version]);
   for (const h of vm.engine.inputHashes) methodRows.push([`Input hash: ${h.name}`, h.hash]);
   for (const c of vm.engine.choices) methodRows.push([`Choice: ${c.name}`, c.value]);

@@ -1,147 +1,133 @@
 /**
- * A fixed filing for the pack tests and the LibreOffice check: a real runMonthEnd on a small synthetic book (seeded,
- * so every figure is the engine's own), with the pieces a run stores beside its results computed the way a run
- * would (per-factor volatility by estimator, the correlation behind the parametric figures, the book's daily
- * P&L), a data-quality report from the real checks, and an invented firm and people. Formula-looking text is
- * planted in the cover note, an exception explanation, a position and a data-quality item.
+ * A fixed filing for the pack tests and the LibreOffice check, built the way the product builds one: stored run
+ * inputs (a small synthetic book, seeded, with closes made from its returns) go through the runs' own computeRun, so
+ * every figure is the engine's; the completed run goes through filingInputFromRun and buildFilingViewModel. The
+ * firm and the people are the invented demo ones. Formula-looking text is planted in a position's instrument (which
+ * has no prices and is left out), the cover note, the exception explanations and the method statement's limitations.
  */
-import { prepareRun, runMonthEnd, type MonthEndInput } from "@/lib/risk/portfolio/run-month-end";
-import type { Position } from "@/lib/risk/portfolio/exposures";
-import { fitEwma } from "@/lib/risk/estimators/ewma";
-import { fitMovingAverage } from "@/lib/risk/estimators/moving-average";
-import { fitGarch11 } from "@/lib/risk/estimators/garch11";
+import { BASEL_CAPITAL_PROFILE } from "@/lib/risk/capital/capital";
+import { computeRun } from "@/lib/runs/compute";
+import { inputHashesOf } from "@/lib/runs/compare";
+import type { RunInputs, RunRecord, StoredPosition } from "@/lib/runs/types";
 import { dataQualityReport, type QualityPosition } from "@/lib/uploads/data-quality";
 import { DEFAULT_METHOD_CONTENT } from "@/lib/validation/method";
-import { buildFilingViewModel, contentHash, type FactorVolatilityInput, type FilingPackInput, type FilingViewModel } from "@/reports/view-model";
+import { correlationFromRunInputs, filingInputFromRun } from "@/reports/run-adapter";
+import { buildFilingViewModel, contentHash, type FilingPackInput, type FilingViewModel } from "@/reports/view-model";
 import { syntheticBook } from "../risk/portfolio/synthetic-book";
 
 export const FORMULA_TEXT = '=HYPERLINK("x")';
 
 const CLASS_MAP: Record<string, string> = { equity: "equity", bond: "government_bond", fund: "etf" };
 
-/** The synthetic book re-labelled for a EUR firm: USD is the foreign currency, USDEUR its exchange-rate factor. */
-function bookForEurFirm(instruments: number, days: number, positionsCount: number, seed: number) {
-  const book = syntheticBook(instruments, days, positionsCount, seed);
-  const factors = { ...book.returns.factors } as Record<string, Float64Array>;
-  factors.USDEUR = factors.EURUSD;
-  delete factors.EURUSD;
-  const positions: Position[] = book.positions.map((p) => ({
-    ...p,
-    assetClass: CLASS_MAP[p.assetClass ?? "equity"],
-    currency: p.currency === "EUR" ? "USD" : "EUR",
-  }));
-  // a position whose instrument has no price history: left out of every figure, listed, and formula-looking
-  positions.push({ instrument: FORMULA_TEXT, marketValue: 25_000, assetClass: "other", currency: "EUR" });
-  return { positions, returns: { dates: book.returns.dates, factors } };
+/** Stored inputs of a EUR firm's run: the synthetic book with USD as the foreign currency (USDEUR its rate). */
+function fixtureInputs(): RunInputs {
+  const book = syntheticBook(8, 800, 20, 7);
+  const dates = book.returns.dates;
+  const periodEnd = dates[dates.length - 1];
+  const closesOf = (rets: ArrayLike<number>): number[] => {
+    const out: number[] = [];
+    let level = 100;
+    out.push(level);
+    for (let t = 1; t < rets.length; t++) {
+      level *= Math.exp(rets[t]);
+      out.push(level);
+    }
+    return out;
+  };
+  const factors: RunInputs["prices"]["factors"] = {};
+  for (const [id, rets] of Object.entries(book.returns.factors)) {
+    const name = id === "EURUSD" ? "USDEUR" : id;
+    const i = Number(id.slice(4));
+    factors[name] = name === "USDEUR" ? { assetClass: "fx", currency: "USD", closes: closesOf(rets) } : { assetClass: CLASS_MAP[["equity", "bond", "fund"][i % 3]], currency: i % 4 === 0 ? "USD" : "EUR", closes: closesOf(rets) };
+  }
+  const usdRate = factors.USDEUR.closes[dates.length - 1] as number;
+  const positions: StoredPosition[] = book.positions.map((p, j) => {
+    const f = factors[p.instrument];
+    const price = f.closes[dates.length - 1] as number;
+    const currency = p.currency === "EUR" ? "USD" : "EUR";
+    const rate = currency === "USD" ? usdRate : 1;
+    return { row: j + 2, book: "Main", instrument: p.instrument, name: `Instrument ${p.instrument.slice(4)}`, assetClass: f.assetClass, currency, quantity: p.marketValue / (price * rate), price, marketValue: p.marketValue, deltaExposure: null, asOf: periodEnd };
+  });
+  // a position whose instrument has no prices: left out of every figure and listed; its name looks like a formula
+  positions.push({ row: positions.length + 2, book: "Main", instrument: FORMULA_TEXT, name: "Unpriced note", assetClass: "other", currency: "EUR", quantity: 250, price: 100, marketValue: 25_000, deltaExposure: null, asOf: periodEnd });
+
+  // the data-quality report from the real checks, with two planted problems
+  const series = new Map<string, { dates: string[]; closes: number[] }>();
+  for (const [id, f] of Object.entries(factors)) series.set(id, { dates: [...dates], closes: f.closes.map((c) => Math.round((c as number) * 10_000) / 10_000) });
+  const stale = series.get("INST0003")!;
+  for (let t = stale.closes.length - 6; t < stale.closes.length; t++) stale.closes[t] = stale.closes[stale.closes.length - 7];
+  const qualityPositions: QualityPosition[] = positions.map((p, j) => ({ instrumentId: p.instrument, currency: p.currency, quantity: p.quantity, price: p.price, marketValue: j === 2 ? p.marketValue * 1.02 : p.marketValue }));
+  const report = dataQualityReport(qualityPositions, series, { reportingCurrency: "EUR", periodEnd, minReturns: 250 });
+
+  return {
+    positions,
+    prices: { dates: [...dates], factors },
+    method: { id: "met_fixture_3", version: 3, approvedAt: "2026-10-14T09:30:00.000Z", content: DEFAULT_METHOD_CONTENT },
+    capitalProfile: { id: null, name: "Default (Basel market-risk framework)", profile: BASEL_CAPITAL_PROFILE, plusFactors: { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 }, backtestDays: 250 },
+    periodEnd,
+    reportingCurrency: "EUR",
+    context: {
+      periodId: "per_fixture",
+      upload: { uploadId: "upl_fixture", fileName: "northmoor-positions.csv" },
+      dataQuality: { report, items: report.items.length, errors: report.counts.error, warnings: report.counts.warning },
+    },
+  };
 }
 
 export interface PackFixture {
+  runInputs: RunInputs;
+  run: RunRecord;
   input: FilingPackInput;
   vm: FilingViewModel;
-  /** the same filing, signed over its own content hash */
+  /** the same filing, signed over its own content hash, with an earlier signature superseded */
   signed: FilingViewModel;
 }
 
-let cached: PackFixture | null = null;
+let cached: Promise<PackFixture> | null = null;
 
-/** Builds once per test file (the run takes well under a second). */
-export function packFixture(): PackFixture {
-  if (cached) return cached;
-  const book = bookForEurFirm(8, 700, 20, 7);
-  const runInput: MonthEndInput = {
-    positions: book.positions,
-    returns: book.returns,
-    reportingCurrency: "EUR",
-    method: { methods: ["parametric", "historical"], covariance: "ewma", lambda: 0.94 },
+/** Builds once per test file. */
+export function packFixture(): Promise<PackFixture> {
+  cached ??= build();
+  return cached;
+}
+
+async function build(): Promise<PackFixture> {
+  const runInputs = fixtureInputs();
+  const results = await computeRun(runInputs);
+  const run: RunRecord = {
+    id: "run_fixture_0001",
+    periodId: "per_fixture",
+    status: "completed",
+    stage: "done",
+    progress: 1,
+    inputHashes: inputHashesOf(runInputs),
+    engineVersion: results.monthEnd.engineVersion,
+    results,
+    error: null,
+    isFilingRun: true,
+    reproducesRunId: null,
+    startedBy: "usr_priya",
+    startedByName: "Priya Castell",
+    startedAt: "2026-12-01T09:00:00.000Z",
+    finishedAt: "2026-12-01T09:00:04.000Z",
+    methodVersion: { id: "met_fixture_3", version: 3 },
   };
-  const results = runMonthEnd(runInput);
-  const prepared = prepareRun(runInput);
-
-  // the book's daily P&L (static book): exposure × return summed over the factors
-  const pnlHistory = prepared.dates.map((date, t) => {
-    let s = 0;
-    for (let i = 0; i < prepared.factorIds.length; i++) s += prepared.exposures[i] * prepared.returns[i][t];
-    return { date, pnl: s };
-  });
-
-  // each factor's one-day volatility under three estimators; the method statement chooses EWMA λ = 0.94
-  const riskFactors: FactorVolatilityInput[] = prepared.factorIds.map((factor, i) => {
-    const r = prepared.returns[i];
-    const ma = fitMovingAverage(r, { window: 250 });
-    const ewma = fitEwma(r, { lambda: 0.94 });
-    const garch = fitGarch11(r, { mean: "zero", fallback: "ewma" });
-    return {
-      factor,
-      estimates: [
-        { estimator: "ma-250", label: "250-day moving average", volatility: Math.sqrt(ma.currentVariance) },
-        { estimator: "ewma-0.94", label: "EWMA λ = 0.94", volatility: Math.sqrt(ewma.currentVariance) },
-        { estimator: "garch", label: garch.kind === "garch" ? "GARCH(1,1)" : "GARCH(1,1), EWMA fallback", volatility: Math.sqrt(garch.currentVariance) },
-      ],
-      chosen: "ewma-0.94",
-    };
-  });
-
-  // the correlation behind the parametric figures (from the EWMA covariance)
-  const n = prepared.covariance.size;
-  const v = prepared.covariance.values;
-  const matrix = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => v[i * n + j] / Math.sqrt(v[i * n + i] * v[j * n + j])));
-
-  // prices from the returns, then the real data-quality checks
-  const series = new Map<string, { dates: string[]; closes: number[] }>();
-  for (const [id, rets] of Object.entries(book.returns.factors)) {
-    const closes: number[] = [];
-    let level = 100;
-    for (let t = 0; t < rets.length; t++) {
-      level *= Math.exp(rets[t]);
-      closes.push(Math.round(level * 10_000) / 10_000);
-    }
-    series.set(id, { dates: [...book.returns.dates], closes });
-  }
-  // planted: a stale close for INST0003 over its last six days
-  const stale = series.get("INST0003")!;
-  for (let t = stale.closes.length - 6; t < stale.closes.length; t++) stale.closes[t] = stale.closes[stale.closes.length - 7];
-  const periodEnd = results.asOf;
-  const qualityPositions: QualityPosition[] = book.positions.map((p, j) => {
-    const s = series.get(p.instrument);
-    const price = s ? s.closes[s.closes.length - 1] : 1;
-    const rate = p.currency === "USD" ? series.get("USDEUR")!.closes.at(-1)! : 1;
-    const quantity = p.marketValue / (price * rate);
-    // planted: the third position's market value disagrees with quantity × price by 2 %
-    return { instrumentId: p.instrument, currency: p.currency ?? "EUR", quantity, price, marketValue: j === 2 ? p.marketValue * 1.02 : p.marketValue };
-  });
-  const dataQuality = dataQualityReport(qualityPositions, series, { reportingCurrency: "EUR", periodEnd, minReturns: 250 });
-
-  const exceptions = results.backtest.exceptionList;
+  const exceptions = results.monthEnd.backtest.exceptionList;
   const explanations: Record<string, string> = {};
   if (exceptions[0]) explanations[exceptions[0].date] = "+2.1 % gap in government bond prices after the rate announcement; no model change needed.";
   if (exceptions[1]) explanations[exceptions[1].date] = "-Loss concentrated in two equity positions; see the cover note.";
   if (exceptions[2]) explanations[exceptions[2].date] = "@desk: exchange-rate move on the USD book.";
 
-  const input: FilingPackInput = {
-    results,
-    run: {
-      id: "run_fixture_0001",
-      startedBy: "Priya Castell",
-      inputHashes: {
-        positions: "4b1f0c2d9e8a7b6c5d4e3f2a1b0c9d8e7f6a5b4c3d2e1f0a9b8c7d6e5f4a3b2c",
-        prices: "9f8e7d6c5b4a39281706f5e4d3c2b1a09f8e7d6c5b4a39281706f5e4d3c2b1a0",
-        method: "0a1b2c3d4e5f60718293a4b5c6d7e8f90a1b2c3d4e5f60718293a4b5c6d7e8f9",
-      },
-    },
-    riskFactors,
-    correlation: { factors: [...prepared.factorIds], matrix, basis: "EWMA covariance (λ = 0.94, zero mean) scaled to correlations" },
-    pnlHistory,
-    dataQuality,
+  const input = filingInputFromRun({
+    run,
+    correlation: correlationFromRunInputs(runInputs),
     method: {
-      version: 3,
-      approvedAt: "2026-10-14T09:30:00.000Z",
-      content: DEFAULT_METHOD_CONTENT,
       rationale:
-        "EWMA with λ = 0.94 tracks the book's volatility closely enough for a monthly draft, and parametric VaR keeps the figures explainable to the board. Historical simulation is shown beside it as a check.",
-      limitations: ["The book's few option positions are carried at delta; their gamma is not captured."],
+        "EWMA with λ = 0.94 tracks the book's volatility closely enough for a monthly draft, and parametric VaR keeps the figures explainable to the board.\nHistorical simulation is shown beside it as a check.",
+      limitations: ["The book's few option positions are carried at delta; their gamma is not captured.", "=SUM(A1:A9) is how the desk's own sheet totals the book; it is not used here."],
     },
     firm: { name: "Northmoor Brokerage Ltd", reportingCurrency: "EUR", regulatorName: "Financial Markets Authority (demo)", licenceLabel: "Registration no." },
-    period: { end: periodEnd, deadline: "2024-09-20" },
+    period: { end: runInputs.periodEnd, deadline: "2025-02-14" },
     filing: {
       id: "fil_fixture_0002",
       version: 2,
@@ -154,19 +140,15 @@ export function packFixture(): PackFixture {
       changesSinceLast: ["Exception explanations added for every backtest exception.", "Cover note rewritten."],
       exceptionExplanations: explanations,
     },
-    signature: null,
-    supersededSignatures: [],
-  };
+  });
   const vm = buildFilingViewModel(input);
-  const hash = contentHash(vm);
   const signed = buildFilingViewModel({
     ...input,
     filing: { ...input.filing, status: "signed" },
-    signature: { signerName: "Helen Marsh", licenceReference: "FMA-CO-20931", signedAt: "2024-09-12T15:42:00.000Z", contentHash: hash },
+    signature: { signerName: "Helen Marsh", licenceReference: "FMA-CO-20931", signedAt: "2026-12-03T15:42:00.000Z", contentHash: contentHash(vm) },
     supersededSignatures: [
-      { version: 1, signerName: "Helen Marsh", licenceReference: "FMA-CO-20931", signedAt: "2024-09-10T11:05:00.000Z", contentHash: "5".repeat(64), supersededAt: "2024-09-11T08:00:00.000Z", reason: "Explanations were missing." },
+      { version: 1, signerName: "Helen Marsh", licenceReference: "FMA-CO-20931", signedAt: "2026-12-02T11:05:00.000Z", contentHash: "5".repeat(64), supersededAt: "2026-12-02T16:00:00.000Z", reason: "Explanations were missing." },
     ],
   });
-  cached = { input, vm, signed };
-  return cached;
+  return { runInputs, run, input, vm, signed };
 }
