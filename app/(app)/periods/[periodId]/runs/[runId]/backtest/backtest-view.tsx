@@ -1,0 +1,200 @@
+"use client";
+
+import { useMemo } from "react";
+import { Bar, CartesianGrid, Cell, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
+import { DraftCaution } from "@/app/_components/draft-caution";
+import { formatDate } from "@/app/_components/format";
+import { StatusBadge } from "@/app/_components/status-badge";
+import type { RunResults } from "@/lib/runs/types";
+import { compactMoney, confidence, METHOD_WORDS, money, num, pct } from "../../_components/run-format";
+import { CompletedRun } from "../../_components/run-state";
+
+function Zone({ zone }: { zone: string }) {
+  if (zone === "green") return <StatusBadge tone="ok">Green zone</StatusBadge>;
+  if (zone === "yellow") return <StatusBadge tone="caution">Yellow zone</StatusBadge>;
+  return <StatusBadge tone="alert">Red zone</StatusBadge>;
+}
+
+function View({ results, currency }: { results: RunResults; currency: string }) {
+  const bt = results.monthEnd.backtest;
+  const s = results.backtestSeries;
+  const data = useMemo(() => s.dates.map((date, i) => ({ date, pnl: s.pnl[i], loss: -s.var[i], exception: s.exception[i] ? s.pnl[i] : null })), [s]);
+  const expected = bt.days * (1 - bt.confidence);
+  const k = bt.kupiec;
+  const ch = bt.christoffersen;
+  return (
+    <div className="flex flex-col gap-6">
+      <DraftCaution />
+      <section aria-labelledby="bt-result" className="grid gap-4 rounded-lg border border-ink-line bg-paper-raised p-4 md:grid-cols-3">
+        <h2 id="bt-result" className="sr-only">
+          Result
+        </h2>
+        <div>
+          <p className="text-sm text-ink-soft">Zone</p>
+          <p className="mt-1" data-testid="backtest-zone">
+            <Zone zone={bt.zone} />
+          </p>
+          <p className="mt-1 text-xs text-ink-muted">Plus factor {bt.plusFactor} on the capital multiplier.</p>
+        </div>
+        <div>
+          <p className="text-sm text-ink-soft">Exceptions</p>
+          <p className="figure text-2xl font-semibold" data-testid="backtest-exceptions">
+            {bt.exceptions} <span className="text-base font-normal text-ink-soft">of {bt.days} days</span>
+          </p>
+          <p className="text-xs text-ink-muted">
+            {num(expected, 1)} expected at {confidence(bt.confidence)}. {bt.exceptionRule}
+          </p>
+        </div>
+        <div>
+          <p className="text-sm text-ink-soft">Method</p>
+          <p className="text-sm">{METHOD_WORDS[bt.method]} one-day VaR forecast from the day before</p>
+        </div>
+        <p className="text-xs text-ink-muted md:col-span-3">{bt.statement}</p>
+      </section>
+
+      <section aria-labelledby="bt-chart" className="flex flex-col gap-3 rounded-lg border border-ink-line bg-paper-raised p-4">
+        <h2 id="bt-chart" className="font-semibold">
+          P&amp;L against VaR, day by day
+        </h2>
+        <figure aria-labelledby="chart-bt" className="flex flex-col gap-2">
+          <figcaption id="chart-bt" className="text-sm font-medium">
+            Daily P&amp;L of today&apos;s book ({currency}) from {formatDate(s.dates[0])} to {formatDate(s.dates[s.dates.length - 1])} against the negative one-day {confidence(s.confidence)} VaR; a loss below the
+            line is an exception (marked ●)
+          </figcaption>
+          <div className="h-80 w-full" aria-hidden="true">
+            <ResponsiveContainer width="100%" height="100%">
+              <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
+                <CartesianGrid stroke="#e6e1d6" vertical={false} />
+                <XAxis dataKey="date" tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" minTickGap={60} />
+                <YAxis tickFormatter={compactMoney} tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" width={64} />
+                <Tooltip formatter={(v, name) => [money(Number(v), currency), name]} />
+                <Legend wrapperStyle={{ fontSize: 12 }} />
+                <Bar dataKey="pnl" name="P&L" isAnimationActive={false}>
+                  {data.map((d) => (
+                    <Cell key={d.date} fill={d.exception !== null ? "#a2332b" : "#9aa4ae"} />
+                  ))}
+                </Bar>
+                <Line type="stepAfter" dataKey="loss" name="− VaR" stroke="#1c2733" strokeWidth={1.5} dot={false} isAnimationActive={false} />
+                <Scatter dataKey="exception" name="Exception" fill="#a2332b" shape="circle" isAnimationActive={false} />
+              </ComposedChart>
+            </ResponsiveContainer>
+          </div>
+        </figure>
+        <details className="text-sm">
+          <summary className="cursor-pointer text-ink-soft">Every day in a table</summary>
+          <div className="max-h-96 overflow-auto">
+            <table className="mt-2 w-full text-xs">
+              <caption className="sr-only">P&amp;L and VaR of each backtest day</caption>
+              <thead className="sticky top-0 bg-paper-raised">
+                <tr className="border-b border-ink-line text-right text-ink-muted">
+                  <th scope="col" className="py-1 pr-2 text-left font-medium">Date</th>
+                  <th scope="col" className="py-1 pr-2 font-medium">P&amp;L</th>
+                  <th scope="col" className="py-1 pr-2 font-medium">VaR</th>
+                  <th scope="col" className="py-1 font-medium">Exception</th>
+                </tr>
+              </thead>
+              <tbody className="figure">
+                {s.dates.map((d, i) => (
+                  <tr key={d} className="border-b border-ink-line/60 text-right">
+                    <th scope="row" className="py-1 pr-2 text-left font-normal">{d}</th>
+                    <td className="py-1 pr-2">{money(s.pnl[i], currency)}</td>
+                    <td className="py-1 pr-2">{money(s.var[i], currency)}</td>
+                    <td className="py-1">{s.exception[i] ? "yes" : ""}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </details>
+      </section>
+
+      <div className="grid gap-6 lg:grid-cols-2">
+        <section aria-labelledby="bt-tests" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+          <h2 id="bt-tests" className="mb-3 font-semibold">
+            Statistical tests
+          </h2>
+          <table className="w-full text-sm" data-testid="backtest-tests">
+            <caption className="mb-1 text-left text-xs text-ink-muted">Likelihood-ratio statistics with their χ² p-values; a small p-value speaks against the VaR model.</caption>
+            <thead>
+              <tr className="border-b border-ink-line text-right text-ink-muted">
+                <th scope="col" className="py-1.5 pr-2 text-left font-medium">Test</th>
+                <th scope="col" className="py-1.5 pr-2 font-medium">Statistic</th>
+                <th scope="col" className="py-1.5 font-medium">p-value</th>
+              </tr>
+            </thead>
+            <tbody className="figure">
+              <tr className="border-b border-ink-line/60 text-right">
+                <th scope="row" className="py-1.5 pr-2 text-left font-normal">
+                  Kupiec test (proportion of failures): observed rate {pct(k.observedRate)} against {pct(k.expectedRate)}
+                </th>
+                <td className="py-1.5 pr-2">{num(k.lr, 3)}</td>
+                <td className="py-1.5">{num(k.pValue, 3)}</td>
+              </tr>
+              {ch ? (
+                <>
+                  <tr className="border-b border-ink-line/60 text-right">
+                    <th scope="row" className="py-1.5 pr-2 text-left font-normal">Christoffersen test of independence</th>
+                    <td className="py-1.5 pr-2">{num(ch.lrInd, 3)}</td>
+                    <td className="py-1.5">{num(ch.pValueInd, 3)}</td>
+                  </tr>
+                  <tr className="text-right">
+                    <th scope="row" className="py-1.5 pr-2 text-left font-normal">Christoffersen test of conditional coverage</th>
+                    <td className="py-1.5 pr-2">{num(ch.lrCc, 3)}</td>
+                    <td className="py-1.5">{num(ch.pValueCc, 3)}</td>
+                  </tr>
+                </>
+              ) : (
+                <tr>
+                  <td colSpan={3} className="py-1.5 text-ink-muted">
+                    The Christoffersen tests need at least one exception and one day without.
+                  </td>
+                </tr>
+              )}
+            </tbody>
+          </table>
+        </section>
+        <section aria-labelledby="bt-exceptions" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+          <h2 id="bt-exceptions" className="mb-3 font-semibold">
+            Exceptions
+          </h2>
+          {bt.exceptionList.length ? (
+            <table className="w-full text-sm" data-testid="exception-table">
+              <caption className="sr-only">Days the loss exceeded the VaR</caption>
+              <thead>
+                <tr className="border-b border-ink-line text-right text-ink-muted">
+                  <th scope="col" className="py-1.5 pr-2 text-left font-medium">Date</th>
+                  <th scope="col" className="py-1.5 pr-2 font-medium">P&amp;L</th>
+                  <th scope="col" className="py-1.5 pr-2 font-medium">VaR</th>
+                  <th scope="col" className="py-1.5 font-medium">Beyond the VaR</th>
+                </tr>
+              </thead>
+              <tbody className="figure">
+                {bt.exceptionList.map((e) => (
+                  <tr key={e.date} className="border-b border-ink-line/60 text-right">
+                    <th scope="row" className="py-1.5 pr-2 text-left font-normal">{formatDate(e.date)}</th>
+                    <td className="py-1.5 pr-2">{money(e.pnl, currency)}</td>
+                    <td className="py-1.5 pr-2">{money(e.var, currency)}</td>
+                    <td className="py-1.5">{money(e.excess, currency)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          ) : (
+            <p className="text-sm text-ink-muted">No day&apos;s loss exceeded its VaR.</p>
+          )}
+          {bt.warnings.length ? (
+            <ul className="mt-3 list-disc pl-5 text-xs text-caution">
+              {bt.warnings.map((w) => (
+                <li key={w.code}>{w.message}</li>
+              ))}
+            </ul>
+          ) : null}
+        </section>
+      </div>
+    </div>
+  );
+}
+
+export function BacktestView({ runId }: { runId: string }) {
+  return <CompletedRun runId={runId}>{({ results, reportingCurrency }) => <View results={results} currency={reportingCurrency} />}</CompletedRun>;
+}

@@ -1,0 +1,45 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { PageHeader } from "@/app/_components/page-header";
+import { QueryProvider } from "@/app/_components/query-provider";
+import { formatMonth, formatTimestamp } from "@/app/_components/format";
+import { pageActor } from "@/lib/auth/page";
+import { getPeriod } from "@/lib/data/periods";
+import { listRuns } from "@/lib/data/runs";
+import { AppError } from "@/lib/errors";
+import { RunTabs } from "../_components/run-tabs";
+
+/** The frame of one run's pages: where it belongs, when it started, and the tabs. */
+export default async function RunLayout({ children, params }: { children: React.ReactNode; params: Promise<{ periodId: string; runId: string }> }) {
+  const { periodId, runId } = await params;
+  const { actor } = await pageActor("periods.read");
+  const notFoundIfAbsent = (error: unknown): never => {
+    if (error instanceof AppError && error.kind === "not_found") notFound();
+    throw error;
+  };
+  const period = await getPeriod(actor, periodId).catch(notFoundIfAbsent);
+  const run = (await listRuns(actor, periodId).catch(notFoundIfAbsent)).find((r) => r.id === runId);
+  if (!run) notFound();
+  const base = `/periods/${periodId}/runs/${runId}`;
+  return (
+    <>
+      <p className="mb-2 text-sm">
+        <Link href={`/periods/${periodId}/runs`} className="underline">
+          ← Runs of {formatMonth(period.periodEnd)}
+        </Link>
+      </p>
+      <PageHeader
+        title={`Run of ${formatTimestamp(run.startedAt)}`}
+        lead={
+          <>
+            {formatMonth(period.periodEnd)} · started by {run.startedByName}
+            {run.methodVersion ? ` · method statement version ${run.methodVersion.version}` : ""}
+            {run.reproducesRunId ? " · a reproduction of an earlier run from its stored inputs" : ""}
+          </>
+        }
+      />
+      <RunTabs base={base} />
+      <QueryProvider>{children}</QueryProvider>
+    </>
+  );
+}

@@ -1,0 +1,48 @@
+"use client";
+
+import { StatusBadge } from "@/app/_components/status-badge";
+import type { RunRecord, RunResults } from "@/lib/runs/types";
+import { RunProgress } from "./run-progress";
+import { useRun } from "./use-run";
+
+export function RunStatusBadge({ status }: { status: string }) {
+  if (status === "completed") return <StatusBadge tone="ok">Completed</StatusBadge>;
+  if (status === "failed") return <StatusBadge tone="alert">Failed</StatusBadge>;
+  if (status === "running") return <StatusBadge tone="caution">Running</StatusBadge>;
+  return <StatusBadge tone="neutral">Waiting</StatusBadge>;
+}
+
+/**
+ * Loads a run and shows its loading, error, in-progress and failed states; renders `children` once the run has
+ * completed, with its results.
+ */
+export function CompletedRun({ runId, children }: { runId: string; children: (data: { run: RunRecord; results: RunResults; reportingCurrency: string }) => React.ReactNode }) {
+  const { data, error, isLoading } = useRun(runId);
+  if (isLoading) return <p className="text-sm text-ink-muted" role="status">Loading the run…</p>;
+  if (error || !data) {
+    return (
+      <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-3 text-sm text-alert">
+        {error instanceof Error ? error.message : "Could not load the run."}
+      </p>
+    );
+  }
+  const { run } = data;
+  if (run.status === "failed") {
+    return (
+      <div role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-4 text-sm text-alert" data-testid="run-failed">
+        <p className="font-semibold">This run failed; it has no figures.</p>
+        <p className="mt-1">{run.error}</p>
+        <p className="mt-1 text-ink-soft">Earlier runs are unchanged. Start a new run from the runs list.</p>
+      </div>
+    );
+  }
+  if (!run.results) {
+    return (
+      <div className="max-w-xl rounded-lg border border-ink-line bg-paper-raised p-4">
+        <p className="mb-3 text-sm text-ink-soft">The run is computing on the server; this page follows it and shows the figures when it completes. You can leave and come back.</p>
+        <RunProgress stage={run.stage} progress={run.progress} />
+      </div>
+    );
+  }
+  return <>{children({ run, results: run.results, reportingCurrency: data.reportingCurrency })}</>;
+}

@@ -1,0 +1,21 @@
+"use client";
+
+import { useQuery } from "@tanstack/react-query";
+import { apiFetch } from "@/app/_components/api";
+import type { RunRecord } from "@/lib/runs/types";
+
+export interface RunResponse {
+  run: RunRecord;
+  reportingCurrency: string;
+}
+
+export const isActive = (status: string | undefined) => status === "queued" || status === "running";
+
+/** One run, polled every second while it is queued or running. */
+export function useRun(runId: string) {
+  return useQuery({
+    queryKey: ["run", runId],
+    queryFn: () => apiFetch<RunResponse>(`/api/runs/${runId}`),
+    refetchInterval: (q) => (isActive(q.state.data?.run.status) ? 1000 : false),
+  });
+}

@@ -1,0 +1,44 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { PageHeader } from "@/app/_components/page-header";
+import { QueryProvider } from "@/app/_components/query-provider";
+import { formatDate, formatMonth } from "@/app/_components/format";
+import { pageActor } from "@/lib/auth/page";
+import { can } from "@/lib/auth/permissions";
+import { getPeriod } from "@/lib/data/periods";
+import { AppError } from "@/lib/errors";
+import { RunsPanel } from "./runs-panel";
+
+export const metadata: Metadata = { title: "Runs" };
+
+export default async function RunsPage({ params }: { params: Promise<{ periodId: string }> }) {
+  const { periodId } = await params;
+  const { actor } = await pageActor("periods.read");
+  const period = await getPeriod(actor, periodId).catch((error) => {
+    if (error instanceof AppError && error.kind === "not_found") notFound();
+    throw error;
+  });
+  const locked = period.state === "signed" || period.state === "filed";
+  return (
+    <>
+      <p className="mb-2 text-sm">
+        <Link href={`/periods/${period.id}`} className="underline">
+          ← {formatMonth(period.periodEnd)}
+        </Link>
+      </p>
+      <PageHeader
+        title={`Runs: ${formatMonth(period.periodEnd)}`}
+        lead={
+          <>
+            Each run computes every figure of the period ending {formatDate(period.periodEnd)} from the confirmed positions, the price history up to that date, the approved method statement and the
+            firm&apos;s capital rule profile, and keeps those inputs so it can be reproduced. A run is never edited: running again makes a new run.
+          </>
+        }
+      />
+      <QueryProvider>
+        <RunsPanel periodId={period.id} currency={actor.reportingCurrency} canStart={can(actor, "run.start") && !locked} locked={locked} />
+      </QueryProvider>
+    </>
+  );
+}
