@@ -101,4 +101,29 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "GET", path: "/api/runs/[runId]/change", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
   { method: "POST", path: "/api/runs/[runId]/reproduce", allowed: ["risk_analyst"], scoped: true, invalidBody: { note: 5 }, validBody: {} },
   { method: "POST", path: "/api/runs/[runId]/use-for-filing", allowed: ["risk_analyst"], scoped: true, invalidBody: { confirm: "no" }, validBody: { confirm: true } },
+  // Filings: read (and their packs downloaded) by every member; assembled, edited, submitted, answered and re-versioned
+  // by compliance officers; commented on, sent back and signed by compliance heads; recorded as filed by compliance
+  // officers. The [filingId] is the demo period's draft: the permissions spec marks its completed run for the filing
+  // and has the compliance officer assemble the draft before walking the table (the seed holds no filing).
+  { method: "GET", path: "/api/periods/[periodId]/filing", allowed: "member", scoped: true },
+  { method: "POST", path: "/api/periods/[periodId]/filing", allowed: ["compliance_officer"], scoped: true, invalidBody: { coverNote: 5 }, validBody: {} },
+  { method: "GET", path: "/api/filings/[filingId]", allowed: "member", scoped: true },
+  { method: "PATCH", path: "/api/filings/[filingId]", allowed: ["compliance_officer"], scoped: true, invalidBody: { coverNote: 5 }, validBody: { coverNote: "A cover note." } },
+  { method: "POST", path: "/api/filings/[filingId]/submit", allowed: ["compliance_officer"], scoped: true, invalidBody: { note: 5 }, validBody: {} },
+  { method: "POST", path: "/api/filings/[filingId]/comments", allowed: ["compliance_head"], scoped: true, invalidBody: { section: "elsewhere", body: "" }, validBody: { section: "capital", body: "Check the multiplier." } },
+  { method: "POST", path: "/api/filings/[filingId]/replies", allowed: ["compliance_officer"], scoped: true, invalidBody: { section: "elsewhere", body: "" }, validBody: { section: "capital", body: "Checked." } },
+  { method: "POST", path: "/api/filings/[filingId]/request-changes", allowed: ["compliance_head"], scoped: true, invalidBody: { reason: "" }, validBody: { reason: "Explain the exceptions." } },
+  {
+    method: "POST",
+    path: "/api/filings/[filingId]/sign",
+    allowed: ["compliance_head"],
+    scoped: true,
+    invalidBody: { password: "", attest: false },
+    validBody: { password: "not-the-password", attest: true, signerName: "Rafe Pellam", licenceReference: "REF-1" },
+  },
+  { method: "POST", path: "/api/filings/[filingId]/versions", allowed: ["compliance_officer"], scoped: true, invalidBody: { reason: "" }, validBody: { reason: "A correction to the cover note." } },
+  { method: "POST", path: "/api/filings/[filingId]/filed", allowed: ["compliance_officer"], scoped: true, invalidBody: { filedOn: "2026-02-30", reference: "" }, validBody: { filedOn: "2026-12-01", reference: "REG-1" } },
+  { method: "GET", path: "/api/filings/[filingId]/verify", allowed: "member", scoped: true },
+  { method: "GET", path: "/api/filings/[filingId]/packs/docx", allowed: "member", scoped: true },
+  { method: "GET", path: "/api/filings/[filingId]/packs/xlsx", allowed: "member", scoped: true },
 ];

@@ -4,6 +4,7 @@ import { Logo } from "@/app/_components/logo";
 import { getActor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/permissions";
 import { ROLE_LABELS } from "@/lib/auth/roles";
+import { currentFilingPeriodId } from "@/lib/data/filings";
 import { signOutAction, switchFirmAction } from "./actions";
 import { Nav, type NavItem } from "./nav";
 
@@ -11,10 +12,12 @@ import { Nav, type NavItem } from "./nav";
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
   const actor = await getActor();
   if (!actor) redirect("/sign-in");
+  const filingPeriodId = await currentFilingPeriodId(actor);
   const items: NavItem[] = [
     { href: "/home", label: "This month" },
     { href: "/data", label: "Data" },
     { href: "/periods", label: "Periods" },
+    { href: filingPeriodId ? `/periods/${filingPeriodId}/filing` : "/periods", label: "Filing" },
     { href: "/method", label: "Method" },
     { href: "/calendar", label: "Calendar" },
     { href: "/settings", label: "Settings" },

@@ -35,6 +35,29 @@ async function completedRunOf(periodId: string): Promise<string> {
   return runId;
 }
 
+/**
+ * The demo period's current filing (the seed has none): the risk analyst marks the completed run for the filing and
+ * the compliance officer assembles the draft, unless an earlier spec already left a filing for the period.
+ */
+async function filingOf(periodId: string, runId: string): Promise<string> {
+  const officer = await signedInApi(DEMO_USERS.find((u) => u.roles.length === 1 && u.roles[0] === "compliance_officer")!.email);
+  let filingId = (await (await officer.get(`/api/periods/${periodId}/filing`)).json()).current?.id as string | undefined;
+  if (!filingId) {
+    const analyst = await signedInApi(DEMO_USERS.find((u) => u.roles.length === 1 && u.roles[0] === "risk_analyst")!.email);
+    const state = (await (await officer.get(`/api/periods/${periodId}/filing`)).json()).markedRun;
+    if (!state) {
+      const marked = await analyst.post(`/api/runs/${runId}/use-for-filing`, { data: { confirm: true } });
+      expect(marked.status(), await marked.text()).toBe(200);
+    }
+    await analyst.dispose();
+    const prepared = await officer.post(`/api/periods/${periodId}/filing`, { data: {} });
+    expect(prepared.status(), await prepared.text()).toBe(200);
+    filingId = (await prepared.json()).filing.id as string;
+  }
+  await officer.dispose();
+  return filingId;
+}
+
 test("every route answers each persona as the permission table says", async () => {
   const admin = await signedInApi(DEMO_USERS[0].email);
   const ids: Record<string, string> = {
@@ -48,6 +71,7 @@ test("every route answers each persona as the permission table says", async () =
   expect(ids.methodId, "the demo seed holds an approved method statement").toBeTruthy();
   await admin.dispose();
   ids.runId = await completedRunOf(ids.periodId);
+  ids.filingId = await filingOf(ids.periodId, ids.runId);
 
   const failures: string[] = [];
   for (const persona of personas) {
