@@ -17,6 +17,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
     { href: "/home", label: "This month" },
     { href: "/data", label: "Data" },
     { href: "/periods", label: "Periods" },
+    { href: "/runs", label: "Runs" },
     { href: filingPeriodId ? `/periods/${filingPeriodId}/filing` : "/periods", label: "Filing" },
     { href: "/method", label: "Method" },
     { href: "/calendar", label: "Calendar" },

@@ -71,6 +71,9 @@ export default async function PeriodPage({ params }: { params: Promise<{ periodI
         )}
       </section>
       <div className="mt-6 flex flex-wrap gap-4 text-sm">
+        <Link href={`/periods/${period.id}/runs`} className="font-medium underline">
+          Runs
+        </Link>
         <Link href={`/periods/${period.id}/filing`} className="font-medium underline">
           Draft filing and sign-off
         </Link>
