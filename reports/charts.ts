@@ -27,14 +27,19 @@ function esc(text: string): string {
   return text.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
 }
 
-/** About five round tick values covering [lo, hi]. */
+/** About five round tick values from at or below lo to at or above hi. */
 export function niceTicks(lo: number, hi: number, count = 5): number[] {
   if (!(hi > lo)) return [lo];
   const raw = (hi - lo) / count;
   const mag = 10 ** Math.floor(Math.log10(raw));
   const step = [1, 2, 2.5, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
   const out: number[] = [];
-  for (let v = Math.ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
+  const first = Math.floor(lo / step + 1e-9) * step;
+  // from the last round value at or below lo to the first at or above hi
+  for (let k = 0; first + (k - 1) * step < hi - step * 1e-9; k++) {
+    const v = first + k * step;
+    out.push(Math.abs(v) < step * 1e-9 ? 0 : v);
+  }
   return out;
 }
 

@@ -277,6 +277,6 @@ export function filingSections(vm: FilingViewModel): Section[] {
 
 /** The DRAFT marking while unsigned, the signature line once signed. */
 export function statusMarking(vm: FilingViewModel): string {
-  return vm.signOff ? `SIGNED — ${vm.signOff.signerName}, ${formatTimestamp(vm.signOff.signedAt)} · SHA-256 ${vm.signOff.contentHash.slice(0, 16)}…` : "DRAFT — NOT SIGNED";
+  return vm.signOff ? `SIGNED by ${vm.signOff.signerName} on ${formatDate(vm.signOff.signedAt)} · SHA-256 ${vm.signOff.contentHash.slice(0, 12)}…` : "DRAFT — NOT SIGNED";
 }
 

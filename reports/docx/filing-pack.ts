@@ -5,7 +5,6 @@
  * Pure apart from reading the text templates: `buildWordPack(vm)` → the .docx bytes.
  */
 import {
-  AlignmentType,
   BorderStyle,
   Document,
   Footer,
@@ -373,16 +372,12 @@ function headerFor(vm: FilingViewModel): Header {
   const marking = statusMarking(vm);
   return new Header({
     children: [
+      new Paragraph({ style: STYLE.marking, children: [new TextRun({ text: marking, color: vm.signOff ? COLOURS.ok : COLOURS.alert })] }),
       new Paragraph({
-        style: STYLE.marking,
-        tabStops: [{ type: TabStopType.RIGHT, position: BODY_TWIPS }],
-        children: [
-          new TextRun({ text: marking, color: vm.signOff ? COLOURS.ok : COLOURS.alert }),
-          new TextRun({ text: "\t" }),
-          new TextRun({ text: `${vm.firm.name} · ${vm.period.label}`, bold: false, color: COLOURS.muted }),
-        ],
+        style: STYLE.headerText,
+        border: { bottom: { style: BorderStyle.SINGLE, size: 4, color: COLOURS.line, space: 4 } },
+        text: `${vm.firm.name} · ${vm.period.label} · filing pack, version ${vm.filing.version} · figures as of ${formatDate(vm.figures.asOf)} · ${vm.figures.currency}`,
       }),
-      new Paragraph({ style: STYLE.headerText, border: { bottom: { style: BorderStyle.SINGLE, size: 4, color: COLOURS.line, space: 4 } }, text: `Filing pack, version ${vm.filing.version} · figures as of ${formatDate(vm.figures.asOf)} · ${vm.figures.currency}` }),
     ],
   });
 }
@@ -416,8 +411,9 @@ export async function buildWordPack(vm: FilingViewModel, options: WordPackOption
   for (const section of sections) {
     let first = true;
     for (const [index, b] of section.blocks.entries()) {
-      const next = section.blocks[index + 1];
-      const beforeFigure = next !== undefined && (next.kind === "table" || next.kind === "chart");
+      // text that leads into a table or chart (possibly through notes) stays on the figure's page
+      const following = section.blocks.slice(index + 1).find((x) => x.kind !== "note");
+      const beforeFigure = b.kind !== "h1" && following !== undefined && (following.kind === "table" || following.kind === "chart");
       if (b.kind === "table") {
         const make = slots[b.name];
         if (!make) throw new Error(`templates/filing/${section.id}.md names a table "${b.name}" that the Word pack does not have.`);

@@ -41,6 +41,7 @@ export interface PaneOptions {
 
 export interface PackRange {
   value(): unknown[][];
+  cells(): PackCell[][];
   style(styles: StyleValues): PackRange;
   merged(): boolean;
   merged(merged: boolean): PackRange;
