@@ -30,7 +30,7 @@ import { can } from "@/lib/auth/permissions";
 import { parseRoles } from "@/lib/auth/roles";
 import { verifyPassword } from "@/lib/auth/password";
 import { MAX_FAILURES_PER_ACCOUNT, RATE_WINDOW_MINUTES } from "@/lib/auth/rate-limit";
-import { today } from "@/lib/clock";
+import { now, today } from "@/lib/clock";
 import { prepareRun } from "@/lib/risk/portfolio/run-month-end";
 import { engineInputOf } from "@/lib/runs/compute";
 import type { RunRecord, RunResults } from "@/lib/runs/types";
@@ -933,7 +933,7 @@ export async function signFiling(actor: Actor, filingId: string, input: SignFili
   // the content exactly as stored, signed over its canonical form
   const stored = row.content as unknown as FilingViewModel;
   const hash = contentHash(stored);
-  const signedAt = new Date().toISOString();
+  const signedAt = now().toISOString();
   const signOff = { signerName: actor.name, licenceReference: input.licenceReference.trim(), signedAt, contentHash: hash };
   const signedContent: FilingViewModel = { ...stored, filing: { ...stored.filing, status: "signed" }, signOff };
   if (contentHash(signedContent) !== hash) throw new AppError("internal:filing_hash", "The signed content does not hash as the content reviewed.");
@@ -975,7 +975,7 @@ export async function newFilingVersion(actor: Actor, filingId: string, input: Ne
   const reason = input.reason.trim();
   const run = await markedCompletedRun(actor, period);
   const old = row.content as unknown as FilingViewModel;
-  const supersededAt = new Date().toISOString();
+  const supersededAt = now().toISOString();
   const [sig] = (await signaturesOf(actor, [row.id])).filter((s) => s.supersededAt === null);
   const earlier = await supersededOf(actor, row.periodId);
   const superseded: SupersededSignature[] = [
