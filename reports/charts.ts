@@ -76,9 +76,11 @@ export function volatilityChart(vm: FilingViewModel): Chart | null {
     `<rect width="${W}" height="${H}" fill="${CHART_COLOURS.paper}"/>`,
     `<text x="${m.left}" y="48" font-size="34" font-weight="bold" fill="${CHART_COLOURS.ink}">${esc(title)}</text>`,
   ];
+  const step = ticks.length > 1 ? ticks[1] - ticks[0] : 1;
+  const decimals = Math.max(0, Math.min(3, -Math.floor(Math.log10(step) + 1e-9) + (step / 10 ** Math.floor(Math.log10(step) + 1e-9) === 2.5 ? 1 : 0)));
   for (const t of ticks) {
     parts.push(`<line x1="${m.left}" x2="${W - m.right}" y1="${y(t)}" y2="${y(t)}" stroke="${CHART_COLOURS.line}" stroke-width="2"/>`);
-    parts.push(`<text x="${m.left - 14}" y="${y(t) + 9}" font-size="24" text-anchor="end" fill="${CHART_COLOURS.muted}">${formatNumber(t, t < 1 ? 2 : 1)}</text>`);
+    parts.push(`<text x="${m.left - 14}" y="${y(t) + 9}" font-size="24" text-anchor="end" fill="${CHART_COLOURS.muted}">${formatNumber(t, decimals)}</text>`);
   }
   factors.forEach((f, i) => {
     const x0 = m.left + i * groupW + (groupW - barW * estimators.length) / 2;

@@ -68,6 +68,7 @@ function table(columns: Column[], rows: string[][], options: { totalRows?: numbe
   const header = new TableRow({
     tableHeader: true,
     cantSplit: true,
+    keepNext: true,
     children: columns.map(
       (c, i) =>
         new TableCell({
@@ -77,10 +78,13 @@ function table(columns: Column[], rows: string[][], options: { totalRows?: numbe
         }),
     ),
   });
+  // a short table stays on one page (every row kept with the next); a long one breaks between rows, its header repeated
+  const keepTogether = rows.length <= 16;
   const body = rows.map((row, r) => {
     const total = options.totalRows?.includes(r) ?? false;
     return new TableRow({
       cantSplit: true,
+      keepNext: keepTogether && r < rows.length - 1 ? true : undefined,
       children: row.map(
         (text, i) =>
           new TableCell({

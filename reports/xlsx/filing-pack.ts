@@ -76,6 +76,8 @@ function fixed(sheet: SheetName, ccy: string, h: number): TableColumn[] {
 
 /** Headers, widths and rows of one sheet's table. */
 function writeTable(sheet: PackSheet, columns: TableColumn[], rows: CellValue[][]): void {
+  // room for three lines of a wrapped header where a run adds long column names
+  if (columns.some((c) => c.header.length > 30)) sheet.row(HEADER_ROW).height(44);
   columns.forEach((c, i) => {
     sheet.cell(HEADER_ROW, i + 1).value(c.header).style({ ...HEADER_STYLE, horizontalAlignment: c.kind === "text" ? "left" : "right" });
     sheet.column(i + 1).width(c.width);
