@@ -14,7 +14,7 @@ const nextConfig: NextConfig = {
   // `npm test` type-checks the whole repository (tsc --noEmit) before it builds; the build need not repeat it.
   typescript: { ignoreBuildErrors: true },
   turbopack: { root: path.resolve(__dirname) },
-  serverExternalPackages: ["@libsql/client", "libsql", "bcryptjs", "smtp-server", "mailparser", "xlsx-populate", "docx"],
+  serverExternalPackages: ["@libsql/client", "libsql", "bcryptjs", "smtp-server", "mailparser", "xlsx-populate", "docx", "@resvg/resvg-js"],
   async headers() {
     return [{ source: "/:path*", headers: securityHeaders }];
   },
