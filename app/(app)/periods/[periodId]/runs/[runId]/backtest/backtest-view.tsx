@@ -42,7 +42,7 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
             {bt.exceptions} <span className="text-base font-normal text-ink-soft">of {bt.days} days</span>
           </p>
           <p className="text-xs text-ink-muted">
-            {num(expected, 1)} expected at {confidence(bt.confidence)}. {bt.exceptionRule}
+            {num(expected, 1)} expected at {confidence(bt.confidence)}. {bt.exceptionRule.charAt(0).toUpperCase() + bt.exceptionRule.slice(1)}
           </p>
         </div>
         <div>
@@ -69,7 +69,7 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
                 <YAxis tickFormatter={compactMoney} tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" width={64} />
                 <Tooltip formatter={(v, name) => [money(Number(v), currency), name]} />
                 <Legend wrapperStyle={{ fontSize: 12 }} />
-                <Bar dataKey="pnl" name="P&L" isAnimationActive={false}>
+                <Bar dataKey="pnl" name="P&L" fill="#9aa4ae" isAnimationActive={false}>
                   {data.map((d) => (
                     <Cell key={d.date} fill={d.exception !== null ? "#a2332b" : "#9aa4ae"} />
                   ))}

@@ -53,8 +53,8 @@ function GroupTable({ caption, rows, currency, total, standAlone }: { caption: s
       </thead>
       <tbody className="figure">
         {rows.map((r) => (
-          <tr key={r.label} className="border-b border-ink-line/60 text-right">
-            <th scope="row" className="py-1.5 pr-2 text-left font-normal">{r.label}</th>
+          <tr key={r.label} className="whitespace-nowrap border-b border-ink-line/60 text-right">
+            <th scope="row" className="whitespace-normal py-1.5 pr-2 text-left font-normal">{r.label}</th>
             <td className="py-1.5 pr-2">{money(r.componentVar, currency)}</td>
             <td className="py-1.5 pr-2">{pct(r.componentVar / total, 1)}</td>
             <td className="py-1.5 pr-2">{money(r.componentVar10d, currency)}</td>
@@ -68,7 +68,7 @@ function GroupTable({ caption, rows, currency, total, standAlone }: { caption: s
 
 function PositionsTable({ rows, currency, total }: { rows: PositionContribution[]; currency: string; total: number }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: "componentVar", desc: true }]);
-  const right = (v: string) => <span className="figure block text-right">{v}</span>;
+  const right = (v: string) => <span className="figure block whitespace-nowrap text-right">{v}</span>;
   const columns = [
     column.accessor("instrument", { header: "Position (book · instrument)" }),
     column.accessor((p) => ASSET_CLASS_WORDS[p.assetClass] ?? p.assetClass, { id: "assetClass", header: "Asset class" }),

@@ -19,6 +19,15 @@ interface FactorsResponse {
 
 const column = createColumnHelper<FactorVolatility>();
 const FAMILY = ["ma", "ewma", "arch", "garch"] as const;
+/** Short words for the engine's warning codes in the table; the full sentence is in the factor's detail. */
+const WARNING_WORDS: Record<string, string> = {
+  "heavy-tails": "heavy tails",
+  "near-integrated": "near-integrated",
+  "not-converged": "not converged",
+  "bound-hit": "parameter at a bound",
+  "short-history": "short history",
+  "fit-failed": "fit failed",
+};
 const FAMILY_WORDS = { ma: "Moving average", ewma: "EWMA", arch: "ARCH", garch: "GARCH(1,1)" } as const;
 
 const params = (p: Record<string, number>) =>
@@ -38,7 +47,7 @@ function Table({ runId }: { runId: string }) {
     column.accessor("factor", {
       header: "Factor",
       cell: (c) => (
-        <button type="button" className="text-left font-medium underline decoration-ink-line underline-offset-2" aria-expanded={open === c.getValue()} onClick={() => setOpen(open === c.getValue() ? null : c.getValue())}>
+        <button type="button" className="whitespace-nowrap text-left font-medium underline decoration-ink-line underline-offset-2" aria-expanded={open === c.getValue()} onClick={() => setOpen(open === c.getValue() ? null : c.getValue())}>
           {c.getValue()}
         </button>
       ),
@@ -76,7 +85,16 @@ function Table({ runId }: { runId: string }) {
     column.accessor((f) => f.warnings.length + (f.excluded ? 1 : 0), {
       id: "warnings",
       header: "Warnings",
-      cell: (c) => (c.row.original.excluded ? <span className="text-xs text-alert">Left out: {c.row.original.excluded}</span> : c.getValue() ? <span className="text-xs text-caution">{c.row.original.warnings.map((w) => w.message).join(" ")}</span> : <span className="text-xs text-ink-muted">none</span>),
+      cell: (c) =>
+        c.row.original.excluded ? (
+          <span className="text-xs text-alert">Left out: {c.row.original.excluded}</span>
+        ) : c.getValue() ? (
+          <span className="text-xs text-caution" title={c.row.original.warnings.map((w) => w.message).join(" ")}>
+            {c.getValue()} on the chosen fit: {[...new Set(c.row.original.warnings.map((w) => WARNING_WORDS[w.code] ?? w.code))].join(", ")}
+          </span>
+        ) : (
+          <span className="text-xs text-ink-muted">none</span>
+        ),
     }),
   ];
   // TanStack Table returns fresh functions each render; this component does not memoise around them.

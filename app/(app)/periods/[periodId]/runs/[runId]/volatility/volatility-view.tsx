@@ -129,8 +129,8 @@ function Charts({ d }: { d: VolatilityDetail }) {
                 <ResponsiveContainer width="100%" height="100%">
                   <LineChart data={term} margin={{ top: 8, right: 16, bottom: 16, left: 8 }}>
                     <CartesianGrid stroke="#e6e1d6" vertical={false} />
-                    <XAxis dataKey="day" tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: "days ahead", position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
-                    <YAxis tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" unit=" %" width={56} domain={["auto", "auto"]} />
+                    <XAxis dataKey="day" type="number" domain={[1, term.length]} ticks={[1, 25, 50, 75, 100, 125, 150, 175, 200, 225, 250].filter((t) => t <= term.length)} tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: "days ahead", position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
+                    <YAxis tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" unit=" %" width={56} domain={["auto", "auto"]} tickFormatter={(v: number) => v.toFixed(1)} />
                     <Tooltip formatter={(v) => [`${v} %`, "Forecast volatility"]} labelFormatter={(l) => `Day ${l}`} />
                     {longRun !== null ? <ReferenceLine y={annual(longRun)!} stroke="#a2332b" strokeDasharray="6 4" label={{ value: `long-run ${annual(longRun)} %`, position: "insideTopRight", fontSize: 12, fill: "#a2332b" }} /> : null}
                     <Line type="monotone" dataKey="vol" name="Forecast" stroke="#1f4e79" strokeWidth={2} dot={false} isAnimationActive={false} />
