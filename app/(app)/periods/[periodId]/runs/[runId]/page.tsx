@@ -11,5 +11,6 @@ export default async function RunSummaryPage({ params }: { params: Promise<{ per
   const { actor } = await pageActor("periods.read");
   const period = await getPeriod(actor, periodId);
   const locked = period.state === "signed" || period.state === "filed";
-  return <RunSummary periodId={periodId} runId={runId} canChange={can(actor, "run.start") && !locked} />;
+  // a reproduction only adds a run that checks an earlier one, so it stays open after sign-off; choosing the filing run does not
+  return <RunSummary periodId={periodId} runId={runId} canReproduce={can(actor, "run.start")} canChooseForFiling={can(actor, "run.start") && !locked} />;
 }

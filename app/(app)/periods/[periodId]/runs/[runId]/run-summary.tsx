@@ -178,7 +178,7 @@ function Reproduction({ r, periodId }: { r: NonNullable<RunResults["reproduction
   );
 }
 
-function Actions({ run, periodId, canChange }: { run: RunRecord; periodId: string; canChange: boolean }) {
+function Actions({ run, periodId, canReproduce, canChooseForFiling }: { run: RunRecord; periodId: string; canReproduce: boolean; canChooseForFiling: boolean }) {
   const router = useRouter();
   const queryClient = useQueryClient();
   const reproduce = useMutation({
@@ -200,20 +200,18 @@ function Actions({ run, periodId, canChange }: { run: RunRecord; periodId: strin
     <div className="flex flex-col gap-2">
       <div className="flex flex-wrap items-center gap-2">
         {run.isFilingRun ? <StatusBadge tone="ok">Used for the filing</StatusBadge> : null}
-        {canChange ? (
-          <>
-            {!run.isFilingRun ? (
-              <button type="button" className={primaryButtonClass} disabled={filing.isPending} onClick={() => filing.mutate()}>
-                {filing.isPending ? "Marking…" : "Use for the filing"}
-              </button>
-            ) : null}
-            <button type="button" className={secondaryButtonClass} disabled={reproduce.isPending} onClick={() => reproduce.mutate()}>
-              {reproduce.isPending ? "Starting…" : "Reproduce"}
-            </button>
-          </>
+        {canChooseForFiling && !run.isFilingRun ? (
+          <button type="button" className={primaryButtonClass} disabled={filing.isPending} onClick={() => filing.mutate()}>
+            {filing.isPending ? "Marking…" : "Use for the filing"}
+          </button>
+        ) : null}
+        {canReproduce ? (
+          <button type="button" className={secondaryButtonClass} disabled={reproduce.isPending} onClick={() => reproduce.mutate()}>
+            {reproduce.isPending ? "Starting…" : "Reproduce"}
+          </button>
         ) : null}
       </div>
-      {canChange ? (
+      {canReproduce ? (
         <p className="text-xs text-ink-muted">Reproduce re-runs this run from its stored inputs (never today&apos;s data) as a new run and checks every figure against this one.</p>
       ) : (
         <p className="text-xs text-ink-muted">Risk analysts reproduce runs and choose the one the filing uses.</p>
@@ -227,7 +225,7 @@ function Actions({ run, periodId, canChange }: { run: RunRecord; periodId: strin
   );
 }
 
-export function RunSummary({ periodId, runId, canChange }: { periodId: string; runId: string; canChange: boolean }) {
+export function RunSummary({ periodId, runId, canReproduce, canChooseForFiling }: { periodId: string; runId: string; canReproduce: boolean; canChooseForFiling: boolean }) {
   return (
     <CompletedRun runId={runId}>
       {({ run, results, reportingCurrency: currency }) => {
@@ -243,7 +241,7 @@ export function RunSummary({ periodId, runId, canChange }: { periodId: string; r
                   Finished {run.finishedAt ? formatTimestamp(run.finishedAt) : "—"} · figures as of {formatDate(m.asOf)} · engine {run.engineVersion}
                 </span>
               </div>
-              <Actions run={{ ...run, results }} periodId={periodId} canChange={canChange} />
+              <Actions run={{ ...run, results }} periodId={periodId} canReproduce={canReproduce} canChooseForFiling={canChooseForFiling} />
             </div>
             {results.reproduction ? <Reproduction r={results.reproduction} periodId={periodId} /> : null}
             <DraftCaution />
