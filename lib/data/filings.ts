@@ -40,7 +40,7 @@ import { formatAmount, formatConfidence, formatMonth } from "@/reports/format";
 import { fragment } from "@/reports/sections";
 import { buildWordPack } from "@/reports/docx/filing-pack";
 import { buildWorkbookPack } from "@/reports/xlsx/filing-pack";
-import { filingRunOf, getRun, getRunInputs } from "./runs";
+import { filingRunOf, getRun, getRunInputs, runChange } from "./runs";
 
 /** A filing version's stored status: the workflow states, and "superseded" for a signed version a later one replaced. */
 export type FilingRowStatus = FilingStatus | "superseded";
@@ -504,6 +504,16 @@ async function changesSinceLast(actor: Actor, args: AssembleArgs, draft: FilingV
     lines.push(`One-day VaR at ${formatConfidence(b.confidence)}: ${formatAmount(a.var1d)} → ${formatAmount(b.var1d)} ${ccy} (${signed(b.var1d - a.var1d)}); ${draft.figures.horizonDays}-day expected shortfall: ${formatAmount(a.esHorizon)} → ${formatAmount(b.esHorizon)} ${ccy}.`);
     if (a.exceptions !== b.exceptions) lines.push(`Backtest exceptions: ${a.exceptions} → ${b.exceptions}.`);
     if (a.methodVersion !== b.methodVersion) lines.push(`Method statement: version ${a.methodVersion} → version ${b.methodVersion}.`);
+    try {
+      const change = await runChange(actor, args.run.id);
+      const e = change.explanation;
+      if (e && change.previous?.periodId === period.id) {
+        const steps = e.steps.map((s) => `${s.step} ${signed(s.change)}`).join(", ");
+        lines.push(`The change in one-day parametric VaR at ${formatConfidence(e.confidence)} against that period's run (${formatAmount(e.previousVar)} → ${formatAmount(e.currentVar)} ${ccy}) splits into ${steps} ${ccy}: ${e.order}.`);
+      }
+    } catch (error) {
+      console.error("[ballast] filing: the change against the earlier period's run could not be explained", error);
+    }
     return lines;
   }
   lines.push(earlier.length ? "No earlier period has a signed filing in Ballast to compare with." : "This is the firm's first reporting period in Ballast: there is no earlier filing to compare with.");

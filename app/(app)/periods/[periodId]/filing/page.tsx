@@ -236,7 +236,7 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
             </p>
           </article>
 
-          <aside className="flex flex-col gap-4 lg:sticky lg:top-4 lg:self-start" aria-label="Filing state and actions">
+          <aside className="flex flex-col gap-4 lg:self-start" aria-label="Filing state and actions">
             <Card title="State">
               <People f={f} data={data} />
             </Card>
