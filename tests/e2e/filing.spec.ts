@@ -3,25 +3,24 @@ import { readFileSync } from "node:fs";
 import JSZip from "jszip";
 import XlsxPopulate from "xlsx-populate";
 import { DataPage } from "./pages/data";
-import { DEMO_PASSWORD, DEMO_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { DEMO_PASSWORD, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
 
 /**
  * The review loop across roles, in the browser: the compliance officer assembles and submits the draft filing; the
- * compliance head comments and requests a change; the officer answers and resubmits; a compliance head who submitted
- * it is refused under four eyes; the head's wrong password is refused, then she signs with the attestation; both
- * packs download and open; a change after signing makes version 2 with version 1's signature shown superseded;
- * version 2 is signed and the officer records it as filed with the regulator's reference.
+ * compliance head comments and requests a change; the officer answers and resubmits; the officer, given the compliance
+ * head role for the check, is refused under four eyes; the head's wrong password is refused, then he signs with the
+ * attestation; both packs download and open; a change after signing makes version 2 with version 1's signature shown
+ * superseded; version 2 is signed and the officer records it as filed with the regulator's reference.
  *
- * It works on its own reporting period (Northmoor's October 2026, opened here, its positions uploaded from
- * templates/demo/ through the Data page, a run started by the risk analyst through the API and marked for the
- * filing), so that the demo's November period, which later specs follow step by step, is left as the seed made it.
+ * It works on a reporting period of its own so that no other spec sees its end state: Pellam's October 2026, opened
+ * here, its positions (Pellam's demo book dated 30 October) uploaded through the Data page, a run started by June
+ * Okafor (Pellam's risk analyst and compliance officer) through the API and marked for the filing; Rafe Pellam is the
+ * compliance head. (On Northmoor, a filed November would stop the runs, reminders and uploads specs that follow the
+ * demo period, and any earlier Northmoor period with a filing run changes what the runs spec's "change since last
+ * period" shows.)
  */
-const by = (email: string) => DEMO_USERS.find((u) => u.email === email)!;
-const ADMIN = by("ada.quayle@northmoor.example");
-const OFFICER = by("tomas.reyne@northmoor.example");
-const ANALYST = by("priya.castell@northmoor.example");
-const HEAD = by("helen.marsh@northmoor.example");
-const NIA = by("nia.dorrance@northmoor.example");
+const OFFICER = SECOND_FIRM_USERS.find((u) => u.email === "june.okafor@pellam.example")!;
+const HEAD = SECOND_FIRM_USERS.find((u) => u.email === "rafe.pellam@pellam.example")!;
 const SCREENS = "test-results/screens";
 
 let periodId = "";
@@ -33,12 +32,12 @@ async function json<T>(api: APIRequestContext, url: string): Promise<T> {
   return (await response.json()) as T;
 }
 
-/** Nia's roles at Northmoor, set by the administrator through the API (restored after the four-eyes check). */
-async function setNiaRoles(roles: string[]) {
-  const admin = await signedInApi(ADMIN.email);
+/** June's roles at Pellam, set by Rafe Pellam (the firm's administrator) through the API; restored after the check. */
+async function setOfficerRoles(roles: string[]) {
+  const admin = await signedInApi(HEAD.email);
   const { members } = await json<{ members: { id: string; email: string }[] }>(admin, "/api/members");
-  const nia = members.find((m) => m.email === NIA.email)!;
-  const response = await admin.patch(`/api/members/${nia.id}`, { data: { roles } });
+  const june = members.find((m) => m.email === OFFICER.email)!;
+  const response = await admin.patch(`/api/members/${june.id}`, { data: { roles } });
   expect(response.status(), await response.text()).toBe(200);
   await admin.dispose();
 }
@@ -56,7 +55,7 @@ test.describe.configure({ mode: "serial", timeout: 120_000 });
 
 test.beforeAll(async ({ browser }) => {
   test.setTimeout(240_000);
-  // October 2026, opened by the compliance officer
+  // Pellam's October 2026, opened by its compliance officer
   const officer = await signedInApi(OFFICER.email);
   const { periods } = await json<{ periods: { id: string; periodEnd: string }[] }>(officer, "/api/periods");
   const existing = periods.find((p) => p.periodEnd === "2026-10-31");
@@ -79,13 +78,14 @@ test.beforeAll(async ({ browser }) => {
       const data = new DataPage(page);
       await data.open();
       await page.getByLabel("Reporting period").selectOption({ label: "October 2026 (ends 2026-10-31)" });
-      await data.upload("positions", { name: "northmoor-positions-2026-10.csv", mimeType: "text/csv", buffer: readFileSync("templates/demo/northmoor-positions-2026-10.csv") });
+      const book = readFileSync("templates/demo/pellam-positions-2026-11.csv", "utf8").replaceAll("2026-11-30,", "2026-10-30,");
+      await data.upload("positions", { name: "pellam-positions-2026-10.csv", mimeType: "text/csv", buffer: Buffer.from(book) });
       await data.confirm();
       await page.close();
     }
 
     // a run by the risk analyst, marked for the filing
-    const analyst = await signedInApi(ANALYST.email);
+    const analyst = await signedInApi(OFFICER.email);
     const started = await analyst.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
     expect(started.status(), await started.text()).toBe(202);
     const runId = (await started.json()).run.id as string;
@@ -97,7 +97,7 @@ test.beforeAll(async ({ browser }) => {
 });
 
 test.afterAll(async () => {
-  await setNiaRoles([...NIA.roles]);
+  await setOfficerRoles([...OFFICER.roles]);
 });
 
 test("the compliance officer assembles the draft, explains an exception and submits it", async ({ page }) => {
@@ -115,17 +115,19 @@ test("the compliance officer assembles the draft, explains an exception and subm
     await expect(page.getByTestId(`section-${section}`)).toBeVisible();
   }
   await expect(page.getByTestId("capital-table")).toContainText("Capital");
+  await expect(page.getByTestId("totals-table")).toContainText("(primary)");
+  await expect(page.getByTestId("stressed-table")).toContainText("Stressed VaR, 1 day (GBP)");
   await expect(page.getByTestId("sign-off-table")).toContainText("Filled in when the filing is signed");
 
-  await page.getByLabel("Cover note").fill("October 2026: the first month on Ballast. The book is unchanged in kind from September.");
+  await page.getByLabel("Cover note").fill("October 2026: the first month on Ballast. The principal book is unchanged in kind from September.");
   await page.getByRole("button", { name: "Save cover note" }).click();
   await expect(page.getByTestId("section-cover")).toContainText("the first month on Ballast");
 
   const firstException = page.locator("[id^=explanation-]").first();
   if (await firstException.count()) {
-    await firstException.fill("A gap in government bond prices after the rate announcement; no change to the method.");
+    await firstException.fill("A gap in gilt prices after the rate announcement; no change to the method.");
     await page.getByRole("button", { name: "Save explanations" }).click();
-    await expect(page.getByTestId("exceptions-table")).toContainText("A gap in government bond prices");
+    await expect(page.getByTestId("exceptions-table")).toContainText("A gap in gilt prices");
   }
   await page.screenshot({ path: `${SCREENS}/filing-draft.png`, fullPage: true });
 
@@ -155,8 +157,8 @@ test("the compliance head comments on a section and requests a change", async ({
   await expect(page.getByTestId("comments-backtest")).toContainText("Explain every exception, not only the first.");
 });
 
-test("the officer (Nia) answers, completes the explanations and resubmits", async ({ page }) => {
-  await signInThroughPage(page, NIA.email);
+test("the officer answers, completes the explanations and resubmits", async ({ page }) => {
+  await signInThroughPage(page, OFFICER.email);
   await page.goto(filingUrl);
   await expect(status(page)).toHaveText(/Changes requested/);
   const explanations = page.locator("[id^=explanation-]");
@@ -178,23 +180,23 @@ test("the officer (Nia) answers, completes the explanations and resubmits", asyn
   await expect(status(page)).toHaveText(/In review/);
 });
 
-test("four eyes: a compliance head who submitted the filing is told why she cannot sign it", async ({ browser }) => {
-  await setNiaRoles(["compliance_officer", "risk_analyst", "compliance_head"]);
-  const page = await asPerson(browser, NIA.email);
+test("four eyes: the officer, given the compliance head role, is told why she cannot sign what she prepared", async ({ browser }) => {
+  await setOfficerRoles(["compliance_officer", "risk_analyst", "compliance_head"]);
+  const page = await asPerson(browser, OFFICER.email);
   await page.getByRole("button", { name: "Sign version 1" }).click();
   const dialog = page.getByRole("dialog", { name: "Sign version 1 of the filing" });
   await dialog.getByRole("checkbox").check();
-  await dialog.getByLabel("Your full name").fill(NIA.name);
-  await dialog.getByLabel("Registration no.").fill("FMA-CO-4410");
+  await dialog.getByLabel("Your full name").fill(OFFICER.name);
+  await dialog.getByLabel("Registration no.").fill("CA-CO-4410");
   await dialog.getByLabel("Your password, entered again").fill(DEMO_PASSWORD);
   await dialog.getByRole("button", { name: "Sign", exact: true }).click();
-  await expect(dialog.getByTestId("sign-error")).toContainText("You submitted this filing, so you cannot also sign it.");
-  await expect(dialog.getByTestId("sign-error")).toContainText("Ask Helen Marsh to sign it.");
+  await expect(dialog.getByTestId("sign-error")).toContainText("You prepared, submitted and started the run of this filing, so you cannot also sign it.");
+  await expect(dialog.getByTestId("sign-error")).toContainText("Ask Rafe Pellam to sign it.");
   await page.close();
-  await setNiaRoles([...NIA.roles]);
+  await setOfficerRoles([...OFFICER.roles]);
 });
 
-test("the head's wrong password is refused; she then signs with the attestation and the hash verifies", async ({ page }) => {
+test("the head's wrong password is refused; he then signs with the attestation and the hash verifies", async ({ page }) => {
   await signInThroughPage(page, HEAD.email);
   await page.goto(filingUrl);
   await page.getByRole("button", { name: "Sign version 1" }).click();
@@ -202,7 +204,7 @@ test("the head's wrong password is refused; she then signs with the attestation 
   await expect(dialog).toContainText("By signing, the compliance head confirms");
   await dialog.getByRole("checkbox").check();
   await dialog.getByLabel("Your full name").fill(HEAD.name);
-  await dialog.getByLabel("Registration no.").fill("FMA-CH-2291");
+  await dialog.getByLabel("Registration no.").fill("CA-CH-0391");
   await dialog.getByLabel("Your password, entered again").fill("not-my-password");
   await dialog.getByRole("button", { name: "Sign", exact: true }).click();
   await expect(dialog).toContainText("The password is not correct.");
@@ -220,18 +222,18 @@ test("the head's wrong password is refused; she then signs with the attestation 
   await page.screenshot({ path: `${SCREENS}/filing-signed.png`, fullPage: true });
 });
 
-test("both packs download with their content types and open", async ({ page }) => {
+test("both packs download with their content types and open; each download is in the audit trail", async ({ page }) => {
   await signInThroughPage(page, OFFICER.email);
   await page.goto(filingUrl);
   const [docx] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-docx").click()]);
-  expect(docx.suggestedFilename()).toBe("northmoor-2026-10-v1-signed.docx");
+  expect(docx.suggestedFilename()).toBe("pellam-2026-10-v1-signed.docx");
   const zip = await JSZip.loadAsync(readFileSync((await docx.path())!));
   const body = (await zip.file("word/document.xml")!.async("string")).replace(/<[^>]+>/g, "");
   expect(body).toContain("Sign-off");
-  expect(body).toContain("Helen Marsh");
+  expect(body).toContain("Rafe Pellam");
 
   const [xlsx] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-xlsx").click()]);
-  expect(xlsx.suggestedFilename()).toBe("northmoor-2026-10-v1-signed.xlsx");
+  expect(xlsx.suggestedFilename()).toBe("pellam-2026-10-v1-signed.xlsx");
   const book = await XlsxPopulate.fromDataAsync(readFileSync((await xlsx.path())!));
   expect(book.sheets().length).toBeGreaterThan(3);
 
@@ -239,30 +241,30 @@ test("both packs download with their content types and open", async ({ page }) =
   const filingId = (await json<{ current: { id: string } }>(api, `/api/periods/${periodId}/filing`)).current.id;
   const word = await api.get(`/api/filings/${filingId}/packs/docx`);
   expect(word.headers()["content-type"]).toBe("application/vnd.openxmlformats-officedocument.wordprocessingml.document");
-  expect(word.headers()["content-disposition"]).toBe('attachment; filename="northmoor-2026-10-v1-signed.docx"');
+  expect(word.headers()["content-disposition"]).toBe('attachment; filename="pellam-2026-10-v1-signed.docx"');
   const sheet = await api.get(`/api/filings/${filingId}/packs/xlsx`);
   expect(sheet.headers()["content-type"]).toBe("application/vnd.openxmlformats-officedocument.spreadsheetml.sheet");
   await api.dispose();
 
-  // every download is in the audit trail (the auditor reads it)
-  const auditor = await signedInApi("oskar.lind@northmoor.example");
-  const audit = await json<{ events: { action: string; summary: string }[] }>(auditor, "/api/audit?action=filing.download&pageSize=200");
+  // Rafe Pellam is the firm's administrator too, so he reads the audit trail
+  const admin = await signedInApi(HEAD.email);
+  const audit = await json<{ events: { action: string; summary: string }[] }>(admin, "/api/audit?action=filing.download&pageSize=200");
   const summaries = audit.events.filter((e) => e.action === "filing.download").map((e) => e.summary);
-  expect(summaries.filter((s) => s.includes("northmoor-2026-10-v1-signed")).length).toBeGreaterThanOrEqual(4);
-  await auditor.dispose();
+  expect(summaries.filter((s) => s.includes("pellam-2026-10-v1-signed")).length).toBeGreaterThanOrEqual(4);
+  await admin.dispose();
 });
 
 test("a change after signing makes version 2; version 1's signature stays, superseded; version 2 is signed and filed", async ({ browser }) => {
   const officer = await asPerson(browser, OFFICER.email);
   await officer.getByRole("button", { name: "Change the signed filing…" }).click();
-  await officer.getByLabel("Why does the signed version need to change?").fill("The cover note must say that September was filed elsewhere.");
+  await officer.getByLabel("Why does the signed version need to change?").fill("The cover note must say that September was filed outside Ballast.");
   await officer.getByRole("button", { name: "Start version 2" }).click();
   await expect(status(officer)).toHaveText(/Draft/);
   await expect(officer.getByTestId("filing-version")).toHaveText("2");
   const v1 = officer.getByTestId("version-1");
   await expect(v1).toContainText("Superseded");
-  await expect(v1.getByTestId("superseded-signature")).toContainText("Signed by Helen Marsh");
-  await expect(v1.getByTestId("superseded-signature")).toContainText("The cover note must say that September was filed elsewhere.");
+  await expect(v1.getByTestId("superseded-signature")).toContainText("Signed by Rafe Pellam");
+  await expect(v1.getByTestId("superseded-signature")).toContainText("The cover note must say that September was filed outside Ballast.");
   await expect(officer.getByTestId("section-changes")).toContainText("Version 2 replaces version 1.");
   await officer.getByLabel("Cover note").fill("October 2026: the first month on Ballast; September was filed outside it.");
   await officer.getByRole("button", { name: "Save cover note" }).click();
@@ -275,24 +277,24 @@ test("a change after signing makes version 2; version 1's signature stays, super
   const dialog = head.getByRole("dialog", { name: "Sign version 2 of the filing" });
   await dialog.getByRole("checkbox").check();
   await dialog.getByLabel("Your full name").fill(HEAD.name);
-  await expect(dialog.getByLabel("Registration no.")).toHaveValue("FMA-CH-2291");
+  await expect(dialog.getByLabel("Registration no.")).toHaveValue("CA-CH-0391");
   await dialog.getByLabel("Your password, entered again").fill(DEMO_PASSWORD);
   await dialog.getByRole("button", { name: "Sign", exact: true }).click();
   await expect(status(head)).toHaveText(/Signed/);
   await expect(head.getByTestId("version-1").getByTestId("superseded-signature")).toBeVisible();
-  await expect(head.getByTestId("version-2").getByTestId("signature")).toContainText("Signed by Helen Marsh");
+  await expect(head.getByTestId("version-2").getByTestId("signature")).toContainText("Signed by Rafe Pellam");
   await head.close();
 
   await officer.reload();
-  await officer.getByLabel("Regulator's reference").fill("FMA/2026/10/0117");
+  await officer.getByLabel("Regulator's reference").fill("CA/2026/10/0117");
   await officer.getByRole("button", { name: "Record as filed" }).click();
   await expect(status(officer)).toHaveText(/Filed/);
-  await expect(officer.getByTestId("filed-line")).toContainText("FMA/2026/10/0117");
+  await expect(officer.getByTestId("filed-line")).toContainText("CA/2026/10/0117");
   await officer.screenshot({ path: `${SCREENS}/filing-filed.png`, fullPage: true });
   await officer.close();
 
   const api = await signedInApi(OFFICER.email);
   const period = await json<{ period: { state: string; filingReference: string } }>(api, `/api/periods/${periodId}`);
-  expect(period.period).toMatchObject({ state: "filed", filingReference: "FMA/2026/10/0117" });
+  expect(period.period).toMatchObject({ state: "filed", filingReference: "CA/2026/10/0117" });
   await api.dispose();
 });

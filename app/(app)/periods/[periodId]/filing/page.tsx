@@ -109,6 +109,14 @@ function Versions({ data }: { data: PeriodFiling }) {
             {v.preparedBy.name}, {formatTimestamp(v.createdAt)}
           </p>
           {v.reason ? <p className="mt-1 text-ink-soft">Reason: {v.reason}</p> : null}
+          <p className="mt-1 flex gap-3 text-xs">
+            <a href={`/api/filings/${v.id}/packs/docx`} download className="underline" aria-label={`Word pack of version ${v.version}`}>
+              Word
+            </a>
+            <a href={`/api/filings/${v.id}/packs/xlsx`} download className="underline" aria-label={`Spreadsheet pack of version ${v.version}`}>
+              Spreadsheet
+            </a>
+          </p>
           {v.signatures.map((s) => (
             <div key={s.id} className={`mt-2 rounded border px-2 py-1.5 text-xs ${s.supersededAt ? "border-ink-line bg-paper-sunk text-ink-muted" : "border-ok/30 bg-ok-bg"}`} data-testid={s.supersededAt ? "superseded-signature" : "signature"}>
               <p>
