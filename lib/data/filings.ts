@@ -883,6 +883,12 @@ async function fourEyesRefusal(actor: Actor, row: FilingRow, run: RunRecord): Pr
   return `You ${what} this filing, so you cannot also sign it. ${rule} ${way}`;
 }
 
+/** Why this person cannot sign this version under the four-eyes rule (the page says so before they try), or null. */
+export async function fourEyesNote(actor: Actor, filingId: string): Promise<string | null> {
+  const row = await findRow(actor, filingId);
+  return fourEyesRefusal(actor, row, await getRun(actor, row.runId));
+}
+
 /** Failed signing passwords of this person in the rate window (the same window and limit as sign-in). */
 async function recentPasswordFailures(actor: Actor): Promise<number> {
   const since = new Date(Date.now() - RATE_WINDOW_MINUTES * 60_000).toISOString();

@@ -183,15 +183,17 @@ test("the officer answers, completes the explanations and resubmits", async ({ p
 test("four eyes: the officer, given the compliance head role, is told why she cannot sign what she prepared", async ({ browser }) => {
   await setOfficerRoles(["compliance_officer", "risk_analyst", "compliance_head"]);
   const page = await asPerson(browser, OFFICER.email);
-  await page.getByRole("button", { name: "Sign version 1" }).click();
-  const dialog = page.getByRole("dialog", { name: "Sign version 1 of the filing" });
-  await dialog.getByRole("checkbox").check();
-  await dialog.getByLabel("Your full name").fill(OFFICER.name);
-  await dialog.getByLabel("Registration no.").fill("CA-CO-4410");
-  await dialog.getByLabel("Your password, entered again").fill(DEMO_PASSWORD);
-  await dialog.getByRole("button", { name: "Sign", exact: true }).click();
-  await expect(dialog.getByTestId("sign-error")).toContainText("You prepared, submitted and started the run of this filing, so you cannot also sign it.");
-  await expect(dialog.getByTestId("sign-error")).toContainText("Ask Rafe Pellam to sign it.");
+  const note = page.getByTestId("four-eyes-note");
+  await expect(note).toContainText("You prepared, submitted and started the run of this filing, so you cannot also sign it.");
+  await expect(note).toContainText("Ask Rafe Pellam to sign it.");
+  await expect(page.getByRole("button", { name: "Sign version 1" })).toHaveCount(0);
+  // and the route refuses her all the same
+  const api = await signedInApi(OFFICER.email);
+  const filingId = (await json<{ current: { id: string } }>(api, `/api/periods/${periodId}/filing`)).current.id;
+  const refused = await api.post(`/api/filings/${filingId}/sign`, { data: { password: DEMO_PASSWORD, attest: true, signerName: OFFICER.name, licenceReference: "CA-CO-4410" } });
+  expect(refused.status()).toBe(403);
+  expect((await refused.json()).error).toMatchObject({ code: "forbidden:four_eyes" });
+  await api.dispose();
   await page.close();
   await setOfficerRoles([...OFFICER.roles]);
 });

@@ -94,6 +94,14 @@ describe("four eyes", () => {
     await setActive(NORTHMOOR.head, true);
   });
 
+  it("is said on the page before anyone tries: a note for the involved, none for the head who may sign", async () => {
+    const { fourEyesNote } = await data();
+    expect(await fourEyesNote(w.head, filingId)).toBeNull();
+    const starter = await withRoles(NORTHMOOR.analyst, ["risk_analyst", "compliance_head"]);
+    expect(await fourEyesNote(starter, filingId)).toMatch(/^You started the run of this filing, so you cannot also sign it\..* Ask Helen Marsh to sign it\.$/);
+    await withRoles(NORTHMOOR.analyst, ["risk_analyst"]);
+  });
+
   it("checks four eyes before the password, so nothing is counted against the person", async () => {
     const { signFiling } = await data();
     const starter = await withRoles(NORTHMOOR.analyst, ["risk_analyst", "compliance_head"]);

@@ -6,7 +6,7 @@ import { PageHeader } from "@/app/_components/page-header";
 import { pageActor } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { today } from "@/lib/clock";
-import { attestationText, periodFiling, type FilingDetail, type PeriodFiling } from "@/lib/data/filings";
+import { attestationText, fourEyesNote, periodFiling, type FilingDetail, type PeriodFiling } from "@/lib/data/filings";
 import { AppError } from "@/lib/errors";
 import { formatDate, formatTimestamp } from "@/reports/format";
 import { filingSections, type Block } from "@/reports/sections";
@@ -161,10 +161,11 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
   const mode = (): "comment" | "reply" | null => {
     if (!f) return null;
     if (head && reviewing) return "comment";
-    if (officer && (editable || f.status === "in_review")) return "reply";
+    if (officer && (f.status === "changes_requested" || f.status === "in_review")) return "reply";
     return null;
   };
   const unexplained = f ? f.exceptions.filter((e) => !e.explanation).length : 0;
+  const cannotSign = f && signer && f.status === "in_review" ? await fourEyesNote(actor, f.id) : null;
 
   return (
     <>
@@ -263,7 +264,14 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
             {head && f.status === "in_review" ? (
               <Card title="Review and sign-off" testId="head-actions">
                 <div className="flex flex-col gap-5">
-                  {signer ? (
+                  {cannotSign ? (
+                    <p role="note" className="rounded-md border border-caution/30 bg-caution-bg px-3 py-2 text-sm text-ink-soft" data-testid="four-eyes-note">
+                      <span aria-hidden="true" className="text-caution">
+                        ◔{" "}
+                      </span>
+                      {cannotSign}
+                    </p>
+                  ) : signer ? (
                     <SignDialog
                       filingId={f.id}
                       version={f.version}
