@@ -31,11 +31,10 @@ import { parseRoles } from "@/lib/auth/roles";
 import { verifyPassword } from "@/lib/auth/password";
 import { MAX_FAILURES_PER_ACCOUNT, RATE_WINDOW_MINUTES } from "@/lib/auth/rate-limit";
 import { now, today } from "@/lib/clock";
-import { prepareRun } from "@/lib/risk/portfolio/run-month-end";
-import { engineInputOf } from "@/lib/runs/compute";
-import type { RunRecord, RunResults } from "@/lib/runs/types";
+import type { RunRecord } from "@/lib/runs/types";
 import { PACK_KINDS, sectionLabel, type FilingCommentInput, type MarkFiledInput, type NewFilingVersionInput, type PackKind, type PrepareFilingInput, type RequestChangesInput, type SignFilingInput, type SubmitFilingInput, type UpdateFilingInput } from "@/lib/validation/filings";
-import { buildFilingViewModel, contentHash, FILING_STATUS_LABELS, type CorrelationView, type FactorVolatilityInput, type FilingStatus, type FilingViewModel, type SupersededSignature } from "@/reports/view-model";
+import { correlationFromRunInputs, filingInputFromRun } from "@/reports/run-adapter";
+import { buildFilingViewModel, contentHash, FILING_STATUS_LABELS, type CorrelationView, type FilingStatus, type FilingViewModel, type SupersededSignature } from "@/reports/view-model";
 import { formatAmount, formatConfidence, formatMonth } from "@/reports/format";
 import { fragment } from "@/reports/sections";
 import { buildWordPack } from "@/reports/docx/filing-pack";
@@ -368,76 +367,24 @@ export async function currentFilingPeriodId(actor: Actor): Promise<string | null
 // ---------------------------------------------------------------------------------------------------------------
 // assembling the content
 
-/** Each factor's one-day volatility under every estimator the run computed, and the method statement's choice. */
-function riskFactorsOf(results: RunResults): FactorVolatilityInput[] {
-  const out: FactorVolatilityInput[] = [];
-  for (const f of results.factorVolatility?.factors ?? []) {
-    if (f.excluded) continue;
-    const estimates = f.estimates.map((e) => ({ estimator: e.estimator, label: e.label, volatility: e.currentVolatility }));
-    if (!estimates.some((e) => e.estimator === f.chosen.kind)) continue;
-    out.push({ factor: f.factor, estimates, chosen: f.chosen.kind });
-  }
-  return out;
-}
+/** Runs never change, so the correlation recomputed from a run's stored inputs is kept for the few runs last used. */
+const correlationCache = new Map<string, Promise<CorrelationView | null>>();
 
-/**
- * The book's daily hypothetical P&L (today's exposures times each day's factor returns) and the correlation behind
- * the parametric figures, recomputed from the run's stored inputs (never today's data). Null when they cannot be.
- */
-type Series = { pnl: { date: string; pnl: number }[] | null; correlation: CorrelationView | null };
-/** Runs never change, so their series are kept for the few runs last used (a draft is rebuilt on every edit). */
-const seriesCache = new Map<string, Promise<Series>>();
-
-function seriesOf(actor: Actor, run: RunRecord): Promise<Series> {
+/** The correlation behind the run's parametric figures (not part of RunResults), or null when it cannot be had. */
+function correlationOf(actor: Actor, run: RunRecord): Promise<CorrelationView | null> {
   const key = `${actor.firmId}:${run.id}`;
-  let hit = seriesCache.get(key);
+  let hit = correlationCache.get(key);
   if (!hit) {
-    hit = computeSeries(actor, run);
-    seriesCache.set(key, hit);
-    while (seriesCache.size > 6) seriesCache.delete(seriesCache.keys().next().value!);
+    hit = getRunInputs(actor, run.id)
+      .then((inputs) => correlationFromRunInputs(inputs))
+      .catch((error: unknown) => {
+        console.error("[ballast] filing: the correlation could not be recomputed from the run's stored inputs", error);
+        return null;
+      });
+    correlationCache.set(key, hit);
+    while (correlationCache.size > 6) correlationCache.delete(correlationCache.keys().next().value!);
   }
   return hit;
-}
-
-async function computeSeries(actor: Actor, run: RunRecord): Promise<Series> {
-  try {
-    const inputs = await getRunInputs(actor, run.id);
-    const prepared = prepareRun(engineInputOf(inputs));
-    const pnl: { date: string; pnl: number }[] = [];
-    for (let t = 0; t < prepared.dates.length; t++) {
-      let s = 0;
-      let ok = true;
-      for (let i = 0; i < prepared.factorIds.length; i++) {
-        const r = prepared.returns[i][t];
-        if (!Number.isFinite(r)) {
-          ok = false;
-          break;
-        }
-        s += prepared.exposures[i] * r;
-      }
-      if (ok) pnl.push({ date: prepared.dates[t], pnl: s });
-    }
-    const n = prepared.factorIds.length;
-    const source = prepared.correlation ?? prepared.covariance;
-    const v = source.values;
-    const matrix = Array.from({ length: n }, (_, i) =>
-      Array.from({ length: n }, (_, j) => {
-        const d = Math.sqrt(v[i * n + i] * v[j * n + j]);
-        return i === j ? 1 : d > 0 ? v[i * n + j] / d : 0;
-      }),
-    );
-    const content = inputs.method.content;
-    const basis =
-      content.covariance === "garch-ccc"
-        ? "Constant correlation of the GARCH(1,1)-standardised returns, as used for the parametric figures"
-        : content.covariance === "ewma"
-          ? `EWMA covariance (λ = ${content.covarianceLambda}) scaled to correlations, as used for the parametric figures`
-          : `Equal-weight covariance over ${content.covarianceWindow} days scaled to correlations, as used for the parametric figures`;
-    return { pnl: pnl.length ? pnl : null, correlation: n > 0 && matrix.every((row) => row.every(Number.isFinite)) ? { factors: [...prepared.factorIds], matrix, basis } : null };
-  } catch (error) {
-    console.error("[ballast] filing: P&L and correlation could not be recomputed from the run's stored inputs", error);
-    return { pnl: null, correlation: null };
-  }
 }
 
 interface AssembleArgs {
@@ -526,7 +473,7 @@ async function assemble(actor: Actor, args: AssembleArgs): Promise<FilingViewMod
   const results = run.results;
   if (run.status !== "completed" || !results) throw new AppError("conflict:filing_run", "The period's filing run has not completed, so there are no figures to file yet.");
   const db = getDb();
-  const [firm, method, people, series] = await Promise.all([
+  const [firm, method, people, correlation] = await Promise.all([
     firmOf(actor),
     db
       .select({ rationale: methodStatements.rationale, limitations: methodStatements.limitations })
@@ -534,45 +481,37 @@ async function assemble(actor: Actor, args: AssembleArgs): Promise<FilingViewMod
       .where(and(eq(methodStatements.id, results.method.id), eq(methodStatements.firmId, actor.firmId)))
       .then((rows) => rows[0] ?? null),
     names([args.preparedBy, args.submittedBy]),
-    seriesOf(actor, run),
+    correlationOf(actor, run),
   ]);
   const exceptionDates = new Set(results.monthEnd.backtest.exceptionList.map((e) => e.date));
   const explanations = Object.fromEntries(Object.entries(args.explanations).filter(([d, t]) => exceptionDates.has(d) && t.trim() !== ""));
-  const input = {
-    results: results.monthEnd,
-    run: { id: run.id, startedBy: run.startedByName, inputHashes: { ...(run.inputHashes ?? {}) } as unknown as Record<string, string> },
-    riskFactors: riskFactorsOf(results),
-    correlation: series.correlation,
-    pnlHistory: series.pnl,
-    dataQuality: results.dataQuality?.report ?? null,
-    method: {
-      version: results.method.version,
-      approvedAt: results.method.approvedAt,
-      content: results.method.content,
-      rationale: method?.rationale ?? "",
-      limitations: method?.limitations ?? [],
-    },
-    firm: { name: firm.name, reportingCurrency: firm.reportingCurrency, regulatorName: firm.regulatorName, licenceLabel: firm.licenceLabel },
-    period: { end: args.period.periodEnd, deadline: args.period.deadline },
-    filing: {
-      version: args.version,
-      previousVersion: args.previous?.version ?? null,
-      status: args.status,
-      preparedBy: people.get(args.preparedBy) ?? "",
-      submittedBy: args.submittedBy ? (people.get(args.submittedBy) ?? "") : null,
-      coverNote: args.coverNote,
-      reason: args.reason,
-      changesSinceLast: [] as string[],
-      exceptionExplanations: explanations,
-    },
-    signature: null,
-    supersededSignatures: args.supersededSignatures,
+  const filing = {
+    version: args.version,
+    previousVersion: args.previous?.version ?? null,
+    status: args.status,
+    preparedBy: people.get(args.preparedBy) ?? "",
+    submittedBy: args.submittedBy ? (people.get(args.submittedBy) ?? "") : null,
+    coverNote: args.coverNote,
+    reason: args.reason,
+    changesSinceLast: [] as string[],
+    exceptionExplanations: explanations,
   };
+  const input = () =>
+    filingInputFromRun({
+      run,
+      method: { rationale: method?.rationale ?? "", limitations: method?.limitations ?? [] },
+      firm: { name: firm.name, reportingCurrency: firm.reportingCurrency, regulatorName: firm.regulatorName, licenceLabel: firm.licenceLabel },
+      period: { end: args.period.periodEnd, deadline: args.period.deadline },
+      filing,
+      correlation,
+      signature: null,
+      supersededSignatures: args.supersededSignatures,
+    });
   let vm: FilingViewModel;
   try {
-    vm = buildFilingViewModel(input);
-    input.filing.changesSinceLast = await changesSinceLast(actor, args, vm);
-    vm = buildFilingViewModel(input);
+    vm = buildFilingViewModel(input());
+    filing.changesSinceLast = await changesSinceLast(actor, args, vm);
+    vm = buildFilingViewModel(input());
   } catch (error) {
     if (error instanceof AppError) throw error;
     throw new AppError("unprocessable:filing_content", `The draft filing cannot be assembled from this run: ${error instanceof Error ? error.message : String(error)}`);

@@ -130,6 +130,16 @@ describe("from the marked run", () => {
     expect(vm.signOff).toBeNull();
   });
 
+  it("carries the run's backtest day by day, its factor volatilities and notes, and the correlation behind the figures", () => {
+    const r = run.results!;
+    expect(vm.figures.backtest.pnlVsVar.map((p) => p.date)).toEqual(r.backtestSeries.dates);
+    expect(vm.figures.backtest.pnlVsVar.map((p) => p.pnl)).toEqual(r.backtestSeries.pnl);
+    expect(vm.figures.riskFactors.map((f) => f.factor)).toEqual(r.monthEnd.factors.used);
+    expect(vm.engine.notes).toEqual(r.notes);
+    expect(vm.figures.correlation?.factors.length).toBe(vm.figures.correlation?.matrix.length);
+    expect(vm.figures.correlation?.matrix.every((row, i) => row[i] === 1)).toBe(true);
+  });
+
   it("records the assembly in the audit trail with the content hash", async () => {
     const [event] = await w.db
       .select()
