@@ -16,7 +16,7 @@ import { storeFileInStandIn } from "../scripts/upload-standin";
 
 const DEMO_DIR = path.join(__dirname, "..", "templates", "demo");
 
-async function actorFor(db: Database, email: string): Promise<Actor> {
+export async function actorFor(db: Database, email: string): Promise<Actor> {
   const [row] = await db
     .select({ user: users, membership: memberships, firm: firms })
     .from(users)
@@ -49,7 +49,7 @@ export function resetLocalFileStore(): void {
   if (path.resolve(dir).startsWith(path.resolve("data"))) rmSync(dir, { recursive: true, force: true });
 }
 
-async function load(db: Database, email: string, kind: "positions" | "prices", fileName: string, periodEnd?: string): Promise<string> {
+export async function load(db: Database, email: string, kind: "positions" | "prices", fileName: string, periodEnd?: string): Promise<string> {
   const actor = await actorFor(db, email);
   const bytes = new Uint8Array(readFileSync(path.join(DEMO_DIR, fileName)));
   const { dir, base } = storeSettings();

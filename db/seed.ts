@@ -110,6 +110,7 @@ if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename
     await seedDemo(db, today);
     await seedDemoUploads(db, format(endOfMonth(subMonths(today, 1)), "yyyy-MM-dd"));
     await (await import("./seed-method")).seedDemoMethod(db);
+    await (await import("./seed-history")).seedDemoHistory(db);
     db.$client.close();
     console.log(`seeded the demo firms into ${databaseUrl()}`);
   })().catch((error) => {

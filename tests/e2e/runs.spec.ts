@@ -144,11 +144,15 @@ test.describe("runs and results", () => {
     await page.screenshot({ path: `${SCREENS}/run-backtest.png`, fullPage: true });
   });
 
-  test("the change since last period says plainly that there is nothing to compare with", async ({ page }) => {
+  test("the change since last period explains the move from October's filed run, step by step", async ({ page }) => {
+    // The demo seed walks October 2026 to a filed filing (db/seed-history.ts), so November's run has a comparison.
     await signInThroughPage(page, ANALYST);
     await page.goto(runUrl);
     await openTab(page, "Change since last period");
-    await expect(page.getByTestId("change-empty")).toContainText("Nothing to compare with yet");
+    const table = page.getByTestId("change-table");
+    await expect(table).toBeVisible();
+    await expect(table).toContainText("Whole change");
+    await expect(page.getByRole("link", { name: /filing run of the period ending 31 Oct 2026/ })).toBeVisible();
     await page.screenshot({ path: `${SCREENS}/run-change.png`, fullPage: true });
   });
 
