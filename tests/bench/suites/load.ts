@@ -77,27 +77,51 @@ async function waitFor(url: string, seconds: number): Promise<void> {
     await waitFor(`${BASE}/api/health`, 60);
 
     const sessions: string[] = [];
-    for (let i = 0; i < 50; i++) sessions.push(await signIn(DEMO_USERS[i % DEMO_USERS.length].email));
+    // Administrators and auditors may read every route in the mix (the audit trail is theirs only).
+    const readers = DEMO_USERS.filter((u) => u.roles.some((r) => r === "admin" || r === "auditor"));
+    for (let i = 0; i < 50; i++) sessions.push(await signIn(readers[i % readers.length].email));
     const probe = { headers: { cookie: sessions[0] } };
     const periodId = (await (await fetch(`${BASE}/api/periods`, probe)).json()).periods[0].id as string;
 
     // Start a run for the period while the load runs, when the runs routes exist.
     const analyst = await signIn(DEMO_USERS[2].email);
-    const started = await fetch(`${BASE}/api/periods/${periodId}/runs`, { method: "POST", headers: { cookie: analyst, "content-type": "application/json" }, body: "{}" });
+    const started = await fetch(`${BASE}/api/periods/${periodId}/runs`, { method: "POST", headers: { cookie: analyst, "content-type": "application/json" }, body: JSON.stringify({ excludeShortHistory: true }) });
     const runNote = started.status < 300 ? "a run computing" : `no run (POST runs answered ${started.status})`;
     const runs = started.status < 300 ? await (await fetch(`${BASE}/api/periods/${periodId}/runs`, { headers: { cookie: analyst } })).json() : null;
     const runId: string | undefined = runs?.runs?.[0]?.id;
 
-    const paths = ["/home", "/api/periods", `/api/periods/${periodId}`, "/api/audit?page=1&pageSize=50", "/api/uploads", `/api/periods/${periodId}/data-quality`];
-    if (runId) paths.push(`/api/runs/${runId}`);
+    // The dashboard, the results and the audit trail.
+    const paths = ["/home", "/api/periods", "/api/audit?page=1&pageSize=50"];
+    if (runId) paths.push(`/api/runs/${runId}`, `/api/runs/${runId}/factors`);
+    // One request per route first, to see which route costs what (median of 5, one connection).
+    for (const p of paths) {
+      const each: number[] = [];
+      let size = 0;
+      for (let i = 0; i < 5; i++) {
+        const t0 = performance.now();
+        const r = await fetch(`${BASE}${p}`, { headers: { cookie: sessions[0] } });
+        size = (await r.arrayBuffer()).byteLength;
+        each.push(performance.now() - t0);
+      }
+      each.sort((a, b) => a - b);
+      emit({ name: "load-route-single", route: p.replace(/[0-9a-f-]{36}/g, ":id"), value: Math.round(each[2]), unit: "ms", runs: 5, bytes: size });
+    }
     let client = 0;
     const times: number[] = [];
     const instance = autocannon({
       url: BASE,
       connections: 50,
       duration: SECONDS,
-      requests: paths.map((p) => ({ method: "GET", path: p })),
-      setupClient: (c) => c.setHeaders({ cookie: sessions[client++ % sessions.length] }),
+      // Each connection is one signed-in person: its context keeps the session cookie for all its requests.
+      requests: paths.map((p): autocannon.Request => ({
+        method: "GET",
+        path: p,
+        setupRequest: (request: autocannon.Request, context: object) => {
+          const ctx = context as { cookie?: string };
+          ctx.cookie ??= sessions[client++ % sessions.length];
+          return { ...request, headers: { ...(request.headers ?? {}), cookie: ctx.cookie } } as autocannon.Request;
+        },
+      })),
     });
     const statuses = new Map<number, number>();
     (instance as unknown as { on(event: "response", listener: (client: unknown, status: number, bytes: number, time: number) => void): void }).on("response", (_client, status, _bytes, responseTime) => {
