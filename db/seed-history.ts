@@ -10,7 +10,7 @@ import { reportingPeriods } from "./schema";
 import { actorFor, load } from "./seed-uploads";
 import { DEMO_PASSWORD } from "./seed";
 import { openPeriod } from "../lib/data/periods";
-import { startRun, useForFiling } from "../lib/data/runs";
+import { startRun, useForFiling as chooseFilingRun } from "../lib/data/runs";
 import { executeRun } from "../lib/runs/execute";
 import { prepareFiling, submitFiling, signFiling, markFiled } from "../lib/data/filings";
 
@@ -41,7 +41,7 @@ async function walkOctober(db: Database, on: (date: string) => void): Promise<vo
   const run = await startRun(analyst, period.id, { excludeShortHistory: true });
   const outcome = await executeRun(run.id);
   if (outcome !== "completed") throw new Error(`the demo October run did not complete (${outcome})`);
-  await useForFiling(analyst, run.id);
+  await chooseFilingRun(analyst, run.id);
   on("2026-11-16");
   const draft = await prepareFiling(officer, period.id, {
     coverNote: "October 2026 month-end draft for Northmoor Brokerage Ltd, prepared from the chosen run and method statement version 1.",

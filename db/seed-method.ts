@@ -3,33 +3,12 @@
  * defaults, the firm's choices and rationale saved, the estimator evidence computed from the seeded price history,
  * then approved — each step through lib/data/method with its audit record. Runs need an approved version.
  */
-import { eq } from "drizzle-orm";
 import type { Database } from "./client";
-import { firms, memberships, users } from "./schema";
 import { approveMethod, attachEvidence, createMethodDraft, updateMethodDraft } from "../lib/data/method";
-import { parseRoles } from "../lib/auth/roles";
-import type { Actor } from "../lib/auth/actor";
+import { actorForEmail } from "./actor-for";
 import { DEFAULT_METHOD_CONTENT, type MethodDraft } from "../lib/validation/method";
 
-async function actorFor(db: Database, email: string): Promise<Actor> {
-  const [row] = await db
-    .select({ user: users, membership: memberships, firm: firms })
-    .from(users)
-    .innerJoin(memberships, eq(memberships.userId, users.id))
-    .innerJoin(firms, eq(firms.id, memberships.firmId))
-    .where(eq(users.email, email));
-  if (!row) throw new Error(`no seeded person ${email}`);
-  return {
-    userId: row.user.id,
-    name: row.user.name,
-    email: row.user.email,
-    firmId: row.firm.id,
-    firmName: row.firm.name,
-    reportingCurrency: row.firm.reportingCurrency,
-    roles: parseRoles(row.membership.roles),
-    firms: [{ id: row.firm.id, name: row.firm.name }],
-  };
-}
+const actorFor = actorForEmail;
 
 /** Northmoor: EWMA 0.94 by default, GARCH(1,1) Student-t with an EWMA fallback for its equities. */
 export const NORTHMOOR_METHOD: MethodDraft = {

@@ -8,32 +8,15 @@ import path from "node:path";
 import { randomBytes } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import type { Database } from "./client";
-import { firms, memberships, reportingPeriods, users } from "./schema";
+import { reportingPeriods } from "./schema";
 import { receiveUploadBytes, confirmUpload } from "../lib/data/uploads";
-import { parseRoles } from "../lib/auth/roles";
-import type { Actor } from "../lib/auth/actor";
+import { actorForEmail } from "./actor-for";
 import { storeFileInStandIn } from "../scripts/upload-standin";
 
 const DEMO_DIR = path.join(__dirname, "..", "templates", "demo");
 
-export async function actorFor(db: Database, email: string): Promise<Actor> {
-  const [row] = await db
-    .select({ user: users, membership: memberships, firm: firms })
-    .from(users)
-    .innerJoin(memberships, eq(memberships.userId, users.id))
-    .innerJoin(firms, eq(firms.id, memberships.firmId))
-    .where(eq(users.email, email));
-  return {
-    userId: row.user.id,
-    name: row.user.name,
-    email: row.user.email,
-    firmId: row.firm.id,
-    firmName: row.firm.name,
-    reportingCurrency: row.firm.reportingCurrency,
-    roles: parseRoles(row.membership.roles),
-    firms: [{ id: row.firm.id, name: row.firm.name }],
-  };
-}
+/** The actor for a demo person (see db/actor-for.ts). */
+export const actorFor = actorForEmail;
 
 /** Where the stand-in keeps files, and the URL it serves them from. */
 function storeSettings() {

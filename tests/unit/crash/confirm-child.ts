@@ -5,29 +5,14 @@
 import { readFileSync } from "node:fs";
 import { eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { firms, memberships, reportingPeriods, users } from "@/db/schema";
-import { parseRoles } from "@/lib/auth/roles";
+import { reportingPeriods } from "@/db/schema";
+import { actorForEmail } from "@/db/actor-for";
 import { confirmUpload, receiveUploadBytes } from "@/lib/data/uploads";
 
 (async () => {
   const [file, ufsUrl] = process.argv.slice(2);
   const db = getDb();
-  const [row] = await db
-    .select({ user: users, membership: memberships, firm: firms })
-    .from(users)
-    .innerJoin(memberships, eq(memberships.userId, users.id))
-    .innerJoin(firms, eq(firms.id, memberships.firmId))
-    .where(eq(users.email, "tomas.reyne@northmoor.example"));
-  const actor = {
-    userId: row.user.id,
-    name: row.user.name,
-    email: row.user.email,
-    firmId: row.firm.id,
-    firmName: row.firm.name,
-    reportingCurrency: row.firm.reportingCurrency,
-    roles: parseRoles(row.membership.roles),
-    firms: [{ id: row.firm.id, name: row.firm.name }],
-  };
+  const actor = await actorForEmail(db, "tomas.reyne@northmoor.example");
   const [period] = await db.select().from(reportingPeriods).where(eq(reportingPeriods.firmId, actor.firmId));
   const { uploadId } = await receiveUploadBytes(
     { firmId: actor.firmId, userId: actor.userId, userName: actor.name, periodId: period.id, kind: "positions", numberFormat: "plain" },

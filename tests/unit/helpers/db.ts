@@ -5,13 +5,11 @@
 import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { eq } from "drizzle-orm";
 import { migrateDatabase } from "@/db/migrate";
 import { openDatabase, getDb, type Database } from "@/db/client";
 import { seedDemo } from "@/db/seed";
-import { firms, memberships, users } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
-import { parseRoles } from "@/lib/auth/roles";
+import { actorForEmail } from "@/db/actor-for";
 
 /** Create a database for this test file; returns the handle data functions will use. */
 export async function freshDatabase(): Promise<Database> {
@@ -27,24 +25,7 @@ export async function freshDatabase(): Promise<Database> {
 
 /** The actor for a seeded person, as lib/auth/actor.ts would resolve it. */
 export async function actorFor(email: string): Promise<Actor> {
-  const db = getDb();
-  const [row] = await db
-    .select({ user: users, membership: memberships, firm: firms })
-    .from(users)
-    .innerJoin(memberships, eq(memberships.userId, users.id))
-    .innerJoin(firms, eq(firms.id, memberships.firmId))
-    .where(eq(users.email, email));
-  if (!row) throw new Error(`no seeded person ${email}`);
-  return {
-    userId: row.user.id,
-    name: row.user.name,
-    email: row.user.email,
-    firmId: row.firm.id,
-    firmName: row.firm.name,
-    reportingCurrency: row.firm.reportingCurrency,
-    roles: parseRoles(row.membership.roles),
-    firms: [{ id: row.firm.id, name: row.firm.name }],
-  };
+  return actorForEmail(getDb(), email);
 }
 
 /** Every row of every table, for "nothing changed" checks. */
