@@ -45,7 +45,9 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
   // A refused sign-in is an expected answer, not a server fault: keep it out of the error log.
   logger: {
     error(error) {
-      if (error.name === "CredentialsSignin" || error.name === "RateLimited") return;
+      // Class names are minified in production builds: match on the error's type, which Auth.js keeps.
+      const type = (error as { type?: string }).type ?? error.name;
+      if (type === "CredentialsSignin" || error.name === "RateLimited") return;
       console.error("[auth]", error);
     },
   },
