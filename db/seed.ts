@@ -109,7 +109,15 @@ if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename
     const today = pinned ? new Date(pinned.length === 10 ? `${pinned}T09:00:00Z` : pinned) : new Date();
     await seedDemo(db, today);
     await seedDemoUploads(db, format(endOfMonth(subMonths(today, 1)), "yyyy-MM-dd"));
-    await (await import("./seed-method")).seedDemoMethod(db);
+    // The demo's method statement was approved in mid-September, before the October cycle it served.
+    const pinnedToday = process.env.BALLAST_CLOCK;
+    process.env.BALLAST_CLOCK = "2026-09-15";
+    try {
+      await (await import("./seed-method")).seedDemoMethod(db);
+    } finally {
+      if (pinnedToday === undefined) delete process.env.BALLAST_CLOCK;
+      else process.env.BALLAST_CLOCK = pinnedToday;
+    }
     await (await import("./seed-history")).seedDemoHistory(db);
     db.$client.close();
     console.log(`seeded the demo firms into ${databaseUrl()}`);

@@ -1,7 +1,7 @@
 /** What the month end needs from this person now: a short list of plain sentences, each with a link. */
 import "server-only";
 import { and, desc, eq } from "drizzle-orm";
-import { formatDistanceStrict, parseISO } from "date-fns";
+import { format, formatDistanceStrict, parseISO } from "date-fns";
 import { getDb } from "@/db/client";
 import { filings, methodStatements, pricePoints, runs, uploads } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
@@ -51,7 +51,7 @@ export async function homeItems(actor: Actor, openPeriods: readonly PeriodSummar
     }
   }
   for (const period of openPeriods) {
-    const label = period.periodEnd.slice(0, 7);
+    const label = format(parseISO(period.periodEnd), "MMMM yyyy");
     const periodRuns = await db.select({ status: runs.status, isFilingRun: runs.isFilingRun }).from(runs).where(and(eq(runs.firmId, actor.firmId), eq(runs.periodId, period.id)));
     const periodFilings = await db.select({ status: filings.status, version: filings.version }).from(filings).where(and(eq(filings.firmId, actor.firmId), eq(filings.periodId, period.id))).orderBy(desc(filings.version));
     const latest = periodFilings[0];

@@ -17,7 +17,7 @@ test.describe("method statement", () => {
     await expect(page.getByRole("heading", { name: "Approved version 1" })).toBeVisible();
     await expect(page.getByRole("cell", { name: /GARCH\(1,1\), Student-t errors, zero mean, falls back to EWMA/ })).toBeVisible();
     await expect(page.getByText("99 %, 97.5 %")).toBeVisible();
-    await expect(page.getByTestId("evidence-summary")).toContainText("prices up to 30 Nov 2026");
+    await expect(page.getByTestId("evidence-summary")).toContainText("prices up to 15 Sep 2026"); // the demo approved version 1 in mid-September (db/seed.ts)
     await expect(page.getByText(/Equities: QLIKE of each estimator above the best/)).toBeVisible();
     await expect(page.getByTestId("version-1").getByText("Approved")).toBeVisible();
     await page.screenshot({ path: "test-results/screens/method-page.png", fullPage: true });
