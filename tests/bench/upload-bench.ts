@@ -9,8 +9,8 @@ import { migrateDatabase } from "@/db/migrate";
 import { openDatabase, getDb } from "@/db/client";
 import { seedDemo } from "@/db/seed";
 import { eq } from "drizzle-orm";
-import { firms, memberships, reportingPeriods, users } from "@/db/schema";
-import { parseRoles } from "@/lib/auth/roles";
+import { reportingPeriods } from "@/db/schema";
+import { actorForEmail } from "@/db/actor-for";
 import type { Actor } from "@/lib/auth/actor";
 
 /** A fresh seeded database for this process; returns the actor for an e-mail and the open period id. */
@@ -24,26 +24,9 @@ export async function benchDatabase(email: string): Promise<{ actor: Actor; peri
   await seedDemo(seedDb, new Date("2026-12-01T09:00:00Z"));
   seedDb.$client.close();
   const db = getDb();
-  const [row] = await db
-    .select({ user: users, membership: memberships, firm: firms })
-    .from(users)
-    .innerJoin(memberships, eq(memberships.userId, users.id))
-    .innerJoin(firms, eq(firms.id, memberships.firmId))
-    .where(eq(users.email, email));
-  const [period] = await db.select().from(reportingPeriods).where(eq(reportingPeriods.firmId, row.firm.id));
-  return {
-    actor: {
-      userId: row.user.id,
-      name: row.user.name,
-      email,
-      firmId: row.firm.id,
-      firmName: row.firm.name,
-      reportingCurrency: row.firm.reportingCurrency,
-      roles: parseRoles(row.membership.roles),
-      firms: [{ id: row.firm.id, name: row.firm.name }],
-    },
-    periodId: period.id,
-  };
+  const actor = await actorForEmail(db, email);
+  const [period] = await db.select().from(reportingPeriods).where(eq(reportingPeriods.firmId, actor.firmId));
+  return { actor, periodId: period.id };
 }
 
 /** Peak resident memory of this process so far, in MiB. */
