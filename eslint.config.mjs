@@ -5,7 +5,7 @@ const config = [
   ...nextVitals,
   ...nextTs,
   {
-    ignores: [".next/**", "node_modules/**", "db/migrations/**", "test-results/**", "playwright-report/**", "next-env.d.ts"],
+    ignores: [".next/**", ".next-slot*/**", "node_modules/**", "db/migrations/**", "test-results/**", "playwright-report/**", "next-env.d.ts"],
   },
   {
     rules: {

@@ -11,6 +11,8 @@ const securityHeaders = [
 const nextConfig: NextConfig = {
   reactStrictMode: true,
   poweredByHeader: false,
+  // NEXT_DIST_DIR lets two engineers build and browser-test side by side in one working tree (scripts/e2e-slot.sh).
+  ...(process.env.NEXT_DIST_DIR ? { distDir: process.env.NEXT_DIST_DIR } : {}),
   // `npm test` type-checks the whole repository (tsc --noEmit) before it builds; the build need not repeat it.
   typescript: { ignoreBuildErrors: true },
   turbopack: { root: path.resolve(__dirname) },

@@ -11,6 +11,9 @@ const uploadToken =
   process.env.E2E_UPLOADTHING_TOKEN ??
   Buffer.from(JSON.stringify({ apiKey: `sk_e2e_${randomBytes(12).toString("hex")}`, appId: "ballast-e2e", regions: ["local"] })).toString("base64");
 process.env.E2E_UPLOADTHING_TOKEN = uploadToken;
+/** The browser tests' own database file (E2E_DB_FILE lets side-by-side runs keep theirs apart; scripts/e2e-slot.sh). */
+export const E2E_DB_FILE = process.env.E2E_DB_FILE ?? "data/e2e.db";
+process.env.E2E_DB_FILE = E2E_DB_FILE;
 const MAIL_SMTP_PORT = Number(process.env.E2E_MAIL_SMTP_PORT ?? 4125);
 const MAIL_HTTP_PORT = Number(process.env.E2E_MAIL_HTTP_PORT ?? 4126);
 process.env.E2E_REMINDERS_SECRET ??= randomBytes(24).toString("base64url");
@@ -19,8 +22,8 @@ export const E2E_ENV = {
   UPLOADTHING_INGEST_URL: `http://127.0.0.1:${UPLOAD_PORT}`,
   UPLOADTHING_API_URL: `http://127.0.0.1:${UPLOAD_PORT}`,
   UPLOAD_STANDIN_PORT: String(UPLOAD_PORT),
-  UPLOAD_STANDIN_DIR: "data/e2e-uploads",
-  DATABASE_URL: "file:./data/e2e.db",
+  UPLOAD_STANDIN_DIR: process.env.E2E_UPLOAD_DIR ?? "data/e2e-uploads",
+  DATABASE_URL: `file:./${E2E_DB_FILE}`,
   AUTH_SECRET: process.env.E2E_AUTH_SECRET ?? randomBytes(32).toString("base64url"),
   AUTH_TRUST_HOST: "true",
   BALLAST_CLOCK: "2026-12-01",
@@ -40,7 +43,7 @@ process.env.E2E_AUTH_SECRET = E2E_ENV.AUTH_SECRET;
 
 export default defineConfig({
   testDir: "tests/e2e",
-  outputDir: "test-results",
+  outputDir: process.env.E2E_OUTPUT_DIR ?? "test-results",
   fullyParallel: false,
   workers: 1,
   retries: 0,

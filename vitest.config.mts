@@ -16,6 +16,10 @@ export default defineConfig({
     include: ["tests/unit/**/*.test.ts", "tests/reference/**/*.test.ts"],
     environment: "node",
     testTimeout: 30_000,
+    // Several files build a seeded database world in beforeAll (migrations, seed, confirmed uploads, a run). On an
+    // idle machine that takes 2–6 s; on a busy one (a build beside it, CI sharing two cores) several times that.
+    // The hook's limit is there to catch a hang, not to measure speed (speed belongs in npm run bench).
+    hookTimeout: 180_000,
     pool: "forks",
     reporters: ["default", ["json", { outputFile: ".test-output/vitest.json" }]],
   },

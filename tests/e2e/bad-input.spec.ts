@@ -13,7 +13,7 @@ const corpus = JSON.parse(readFileSync("tests/fixtures/bad-input/requests.json",
 };
 
 async function snapshot(): Promise<string> {
-  const client = createClient({ url: "file:./data/e2e.db" });
+  const client = createClient({ url: `file:./${process.env.E2E_DB_FILE ?? "data/e2e.db"}` });
   try {
     const tables = await client.execute("SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE '__drizzle%' AND name <> 'sign_in_attempts' ORDER BY name");
     const out: Record<string, unknown[]> = {};
