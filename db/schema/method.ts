@@ -26,18 +26,36 @@ export const methodStatements = sqliteTable(
 );
 
 /** The firm's capital rule profile: every parameter of the capital formula is the firm's to set. */
-export const capitalRuleProfiles = sqliteTable("capital_rule_profiles", {
-  id: id(),
-  ...firmColumns,
-  name: text("name").notNull().default("Default (Basel market-risk framework)"),
-  confidence: real("confidence").notNull().default(0.99),
-  horizonDays: integer("horizon_days").notNull().default(10),
-  averagingDays: integer("averaging_days").notNull().default(60),
-  baseMultiplier: real("base_multiplier").notNull().default(3),
-  stressedMultiplier: real("stressed_multiplier").notNull().default(3),
-  backtestDays: integer("backtest_days").notNull().default(250),
-  /** plus factor by exception count (JSON object "5": 0.4 …); defaults follow the 1996 backtesting framework */
-  plusFactors: text("plus_factors", { mode: "json" }).$type<Record<string, number>>().notNull(),
-  active: integer("active", { mode: "boolean" }).notNull().default(true),
-  createdAt: createdAt(),
-});
+export const capitalRuleProfiles = sqliteTable(
+  "capital_rule_profiles",
+  {
+    id: id(),
+    ...firmColumns,
+    name: text("name").notNull().default("Default (Basel market-risk framework)"),
+    confidence: real("confidence").notNull().default(0.99),
+    horizonDays: integer("horizon_days").notNull().default(10),
+    averagingDays: integer("averaging_days").notNull().default(60),
+    baseMultiplier: real("base_multiplier").notNull().default(3),
+    stressedMultiplier: real("stressed_multiplier").notNull().default(3),
+    backtestDays: integer("backtest_days").notNull().default(250),
+    /** plus factor by exception count (JSON object "5": 0.4 …); defaults follow the 1996 backtesting framework */
+    plusFactors: text("plus_factors", { mode: "json" }).$type<Record<string, number>>().notNull(),
+    active: integer("active", { mode: "boolean" }).notNull().default(true),
+    /** 1, 2, …: each saved change is a new version; the earlier one stays (active = false) */
+    version: integer("version").notNull().default(1),
+    /** which figures a run computes: "internal_models", "standardised" or "both" */
+    regimes: text("regimes").notNull().default("internal_models"),
+    /** which of the computed figures is the one filed: "internal_models" or "standardised" */
+    filedRegime: text("filed_regime").notNull().default("internal_models"),
+    /** the standardised building blocks' rates and choices (lib/validation/capital-profile.ts), null: the defaults */
+    standardised: text("standardised", { mode: "json" }).$type<Record<string, unknown> | null>(),
+    /** show the risk-weighted-asset equivalent (capital × 12.5) beside the filed figure */
+    showRwa: integer("show_rwa", { mode: "boolean" }).notNull().default(false),
+    /** why this version was made */
+    reason: text("reason").notNull().default(""),
+    previousId: text("previous_id"),
+    createdBy: text("created_by"),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("capital_rule_profiles_firm_version").on(t.firmId, t.version)],
+);
