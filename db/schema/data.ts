@@ -100,7 +100,15 @@ export const positions = sqliteTable(
     commodity: text("commodity"),
     underlying: text("underlying"),
     strike: real("strike"),
-    optionType: text("option_type"),
+    /** call or put */
+    optionKind: text("option_type"),
+    nextResetYears: real("next_reset_years"),
+    /** derivatives: signed notional in the reporting currency */
+    notional: real("notional"),
+    /** bond future or forward: the deliverable bond's residual maturity in years */
+    underlyingMaturityYears: real("underlying_maturity_years"),
+    /** options: the underlying's price per unit in the reporting currency */
+    underlyingPrice: real("underlying_price"),
   },
   (t) => [index("positions_firm_upload").on(t.firmId, t.uploadId)],
 );
