@@ -12,6 +12,8 @@ export const firms = sqliteTable("firms", {
   licenceLabel: text("licence_label").notNull().default("Registration reference"),
   /** require a compliance head to co-approve method statements */
   methodCoApproval: integer("method_co_approval", { mode: "boolean" }).notNull().default(false),
+  /** why the firm allows one-person method approval (required when methodCoApproval is off; new firms start with it on) */
+  methodSingleApprovalReason: text("method_single_approval_reason").notNull().default(""),
   createdAt: createdAt(),
 });
 export type Firm = typeof firms.$inferSelect;

@@ -6,3 +6,4 @@ export * from "./runs";
 export * from "./filings";
 export * from "./calendar";
 export * from "./audit";
+export * from "./accounts";
