@@ -200,7 +200,12 @@ export interface InterestRateCurrencyResult {
   /** sum of matched amounts over the bands */
   verticalMatched: number;
   zones: ZoneResult[];
-  between: { zone12: BetweenZoneResult; zone23: BetweenZoneResult; zone13: BetweenZoneResult };
+  /** the between-zone charges, in the order applied: 1–2, then 2–3, then 1–3 */
+  between: { zone12: number; zone23: number; zone13: number };
+  /** each between-zone offset with its matched amount, rate and what was left */
+  betweenDetail: { zone12: BetweenZoneResult; zone23: BetweenZoneResult; zone13: BetweenZoneResult };
+  /** sum of the within-zone charges */
+  withinZones: number;
   /** |sum of all band nets| */
   residual: number;
   residualCharge: number;
