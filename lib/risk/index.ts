@@ -31,3 +31,6 @@ export * from "./portfolio";
 export * from "./var";
 export * from "./backtest";
 export * from "./capital";
+// issue 13: volatility processes, D·R·D, candidate evidence
+export * from "./process";
+export { candidateEvidence, standardCandidates } from "./portfolio/candidates";

@@ -22,6 +22,7 @@ import { allocateToPositions, type PositionLoadings } from "./decomposition";
 import { correlationToCovariance, matVec, type SymmetricMatrix } from "./matrix";
 import { checkPsd, repairPsd, type PsdCheck, type PsdRepair } from "./psd";
 import { positionsToExposures, type Position } from "./exposures";
+import type { BacktestRefit, CandidateEvidence, CandidateMethod, CorrelationSpec, ResolvedModel, StoredBacktestSeries, StoredCorrelation, VolatilityChoice } from "../process/types";
 
 export type VarMethod = "parametric" | "historical" | "filtered";
 export type CovarianceChoice = "equal" | "ewma" | "garch-ccc";
@@ -66,6 +67,20 @@ export interface MonthEndMethod {
   backtestDays?: number;
   /** EWMA/covariance start-up days; default 30 */
   startupDays?: number;
+  /**
+   * Per-factor volatility processes (issue 13). When given, covariance = D·R·D with D from each factor's own process
+   * and R from `correlation`; `covariance` and `lambda` then apply only where stated. Absent: today's behaviour.
+   */
+  volatility?: VolatilityChoice;
+  /** the correlation estimator of D·R·D; default { kind: "ewma", lambda: `lambda` (0.94) }; only with `volatility` */
+  correlation?: CorrelationSpec;
+  /**
+   * How the VaR history and backtest re-estimate parameters; default rolling every 21 business days with
+   * `volatility`, full-sample on the legacy garch-ccc path (today's behaviour, its limitation stated)
+   */
+  backtestRefit?: BacktestRefit;
+  /** compute the candidate-method evidence on the book (CANDIDATE_METHODS plus these); default none */
+  candidates?: { include: "standard" | "none"; archOrder?: number; extra?: CandidateMethod[] };
 }
 
 export interface MonthEndInput {
@@ -169,6 +184,14 @@ export interface MonthEndResult {
   choices: Record<string, string | number | number[] | string[]>;
   warnings: EngineWarning[];
   limitations: string[];
+  /** the resolved model configuration: per factor process, parameters, start-up, fallback, one-day variance; correlation; horizon; backtest refit */
+  model?: ResolvedModel;
+  /** the correlation matrix behind the parametric figures (so the app never re-runs prepareRun) */
+  correlation?: StoredCorrelation;
+  /** the backtest day by day */
+  backtestSeries?: StoredBacktestSeries;
+  /** the candidate-method evidence, when asked for */
+  candidates?: CandidateEvidence;
 }
 
 interface Scenarios {
