@@ -1,5 +1,6 @@
 /** Column helpers shared by every table: generated ids, timestamps, and the firm scope of tenant tables. */
 import { text } from "drizzle-orm/sqlite-core";
+import { now } from "../lib/clock";
 
 /** A random, opaque primary key. */
 export const id = () =>
@@ -11,7 +12,7 @@ export const id = () =>
 export const createdAt = () =>
   text("created_at")
     .notNull()
-    .$defaultFn(() => new Date().toISOString());
+    .$defaultFn(() => now().toISOString());
 
 /** Every tenant table spreads these: the firm that owns the row. */
 export const firmColumns = {

@@ -3,6 +3,7 @@ import "server-only";
 import { auditEvents } from "@/db/schema";
 import type { Tx, Database } from "@/db/client";
 import type { Actor } from "@/lib/auth/actor";
+import { now } from "@/lib/clock";
 
 export interface AuditInput {
   action: string;
@@ -10,6 +11,8 @@ export interface AuditInput {
   entityId?: string | null;
   summary: string;
   detail?: Record<string, unknown>;
+  /** the time of the act when the caller stamped the record itself (so both show the same instant); now otherwise */
+  at?: string;
 }
 
 /** Record who did what, when, on which record. */
@@ -18,7 +21,7 @@ export async function recordAudit(tx: Tx | Database, actor: Pick<Actor, "userId"
     firmId: actor.firmId,
     actorId: actor.userId,
     actorName: actor.name,
-    at: new Date().toISOString(),
+    at: event.at ?? now().toISOString(),
     action: event.action,
     entityType: event.entityType,
     entityId: event.entityId ?? null,

@@ -910,6 +910,7 @@ export async function signFiling(actor: Actor, filingId: string, input: SignFili
       entityId: row.id,
       summary: `Signed version ${row.version} of the filing for the period ending ${period.periodEnd} (SHA-256 ${hash.slice(0, 16)}…)`,
       detail: { version: row.version, contentHash: hash, licenceReference: signOff.licenceReference, attestation, runId: row.runId },
+      at: signedAt,
     });
   });
   return getFiling(actor, row.id);

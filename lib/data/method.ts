@@ -431,6 +431,7 @@ export async function approveMethod(actor: Actor, methodId: string, input: { not
         `${step === "co-approve" ? "Co-approved" : "Approved"} method statement version ${row.version}` +
         (superseded.length ? `; version ${superseded.join(", ")} is superseded` : ""),
       detail: { version: row.version, note, superseded: previous.map((p) => p.id), approvedAt: at },
+      at,
     });
   });
   return getMethodVersion(actor, row.id);

@@ -10,6 +10,7 @@ import { getDb } from "@/db/client";
 import { capitalRuleProfiles, methodStatements, positions, reportingPeriods, runInputs, runs, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
+import { now } from "@/lib/clock";
 import type { Actor } from "@/lib/auth/actor";
 import { BASEL_CAPITAL_PROFILE } from "@/lib/risk/capital/capital";
 import { explainRuns } from "@/lib/risk";
@@ -243,7 +244,7 @@ async function insertRun(
 ): Promise<string> {
   const hashes = inputHashesOf(inputs);
   const packed = packInputs(inputs);
-  const stamp = new Date().toISOString();
+  const stamp = now().toISOString();
   try {
     return await getDb().transaction(async (tx) => {
       const [row] = await tx

@@ -10,7 +10,7 @@ import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/permissions";
-import { today } from "@/lib/clock";
+import { now, today } from "@/lib/clock";
 import { readTables } from "@/lib/uploads/read-table";
 import { chooseTable, parsePositions, POSITION_FIELDS, type PositionsParse } from "@/lib/uploads/parse-positions";
 import { parsePrices, PRICE_FIELDS, type PricePoint, type PricesParse } from "@/lib/uploads/parse-prices";
@@ -279,7 +279,7 @@ export async function cancelUpload(actor: Actor, uploadId: string) {
   if (!can(actor, PERMISSION[row.kind as UploadKind])) throw new AppError("forbidden:upload");
   if (row.status !== "pending") throw new AppError("conflict:upload", `This upload is already ${row.status}.`);
   await getDb().transaction(async (tx) => {
-    await tx.update(uploads).set({ status: "cancelled", cancelledAt: new Date().toISOString() }).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId), eq(uploads.status, "pending")));
+    await tx.update(uploads).set({ status: "cancelled", cancelledAt: now().toISOString() }).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId), eq(uploads.status, "pending")));
     await recordAudit(tx, actor, { action: "upload.cancel", entityType: "upload", entityId: uploadId, summary: `Cancelled ${row.kind} file "${row.fileName}"` });
   });
   return { status: "cancelled" };
@@ -302,7 +302,7 @@ async function upsertInstruments(tx: Tx, firmId: string, wanted: Map<string, { n
     }
   }
   const fresh = codes.filter((c) => !ids.has(c)).map((code) => ({ id: crypto.randomUUID(), code, ...wanted.get(code)! }));
-  const createdAt = new Date().toISOString();
+  const createdAt = now().toISOString();
   await bulkInsert(
     tx,
     "instruments",
@@ -332,7 +332,7 @@ export async function confirmUpload(actor: Actor, uploadId: string, input: { ack
   if (warnings > 0 && !input.acknowledgeWarnings) {
     throw new AppError("unprocessable:upload", `Acknowledge the ${warnings} warning${warnings === 1 ? "" : "s"} before confirming.`, { acknowledgeWarnings: "Required when there are warnings." });
   }
-  const confirmedAt = new Date().toISOString();
+  const confirmedAt = now().toISOString();
   const outcome = await getDb().transaction(async (tx) => {
     // The status guard makes a second, concurrent confirmation a no-op that is refused below.
     const claimed = await tx

@@ -8,6 +8,7 @@ import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { runInputs, runs, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
+import { now } from "@/lib/clock";
 import { ENGINE_VERSION } from "@/lib/risk/version";
 import { unpackInputs } from "@/lib/data/runs";
 import { inputHashesOf, compareRuns, asStored } from "./compare";
@@ -68,7 +69,7 @@ export async function executeRun(runId: string): Promise<"completed" | "failed" 
           );
         }
       }
-      const finishedAt = new Date().toISOString();
+      const finishedAt = now().toISOString();
       await db.transaction(async (tx) => {
         await tx
           .update(runs)
@@ -88,7 +89,7 @@ export async function executeRun(runId: string): Promise<"completed" | "failed" 
       return "completed";
     } catch (error) {
       const message = error instanceof Error ? error.message : String(error);
-      const finishedAt = new Date().toISOString();
+      const finishedAt = now().toISOString();
       try {
         await db.transaction(async (tx) => {
           await tx.update(runs).set({ status: "failed", stage: "failed", error: `The run failed: ${message}`, finishedAt, heartbeatAt: finishedAt }).where(where);
