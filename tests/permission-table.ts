@@ -47,6 +47,8 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "GET", path: "/api/periods", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"] },
   { method: "POST", path: "/api/periods", allowed: ["compliance_officer", "admin"], invalidBody: { month: "2026-13" } },
   { method: "GET", path: "/api/periods/[periodId]", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+  // Withdrawing needs a reason; the other firm's period answers 404 (the seeded periods are not empty: 409 for the owner).
+  { method: "DELETE", path: "/api/periods/[periodId]", allowed: ["compliance_officer", "admin"], scoped: true, invalidBody: { reason: 5 }, validBody: { reason: "Opened by mistake" } },
   { method: "GET", path: "/api/calendar", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"] },
   { method: "GET", path: "/api/calendar/ics", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"] },
   { method: "GET", path: "/api/calendar/settings", allowed: ["admin"] },

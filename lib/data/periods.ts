@@ -2,14 +2,14 @@
 import "server-only";
 import { and, desc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { calendarSettings, holidays, reportingPeriods, uploads, methodStatements, runs, filings } from "@/db/schema";
+import { calendarSettings, holidays, reportingPeriods, uploads, methodStatements, runs, filings, reminderLog } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
 import type { Role } from "@/lib/auth/roles";
 import { businessDaysBetween, deadlineFor, type DeadlineRule } from "@/lib/calendar/deadline";
 import { today } from "@/lib/clock";
-import { periodEndOf } from "@/lib/validation/periods";
+import { earliestPeriodMonth, periodEndOf } from "@/lib/validation/periods";
 
 /** The month-end steps in order, each with the role that owns it. */
 export const STEPS = [
@@ -126,6 +126,12 @@ export async function openPeriod(actor: Actor, month: string): Promise<PeriodSum
   if (periodEnd > periodEndOf(today().slice(0, 7))) {
     throw new AppError("unprocessable:period", "A period can be opened from its own month onwards, not before.", { month: "That month has not started yet." });
   }
+  const earliest = earliestPeriodMonth(today());
+  if (month < earliest) {
+    throw new AppError("unprocessable:period", `A period can be opened back to ${earliest}, not earlier.`, {
+      month: `Choose ${earliest} or later.`,
+    });
+  }
   const { rule, holidays: holidaySet } = await getCalendar(actor.firmId);
   const deadline = deadlineFor(periodEnd, rule, holidaySet);
   const id = await getDb().transaction(async (tx) => {
@@ -148,4 +154,45 @@ export async function openPeriod(actor: Actor, month: string): Promise<PeriodSum
     return row.id;
   });
   return getPeriod(actor, id);
+}
+
+/**
+ * Withdraw a period opened by mistake: allowed only while nothing has entered it (no upload in any state, no run,
+ * no filing). The period row and the reminders logged for it go, in one transaction with the audit record.
+ */
+export async function withdrawPeriod(actor: Actor, periodId: string, reason: string): Promise<{ periodEnd: string }> {
+  return getDb().transaction(async (tx) => {
+    const [period] = await tx
+      .select()
+      .from(reportingPeriods)
+      .where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
+    if (!period) throw new AppError("not_found:period", "No such reporting period.");
+    const inside = (
+      await Promise.all([
+        tx.select({ id: uploads.id }).from(uploads).where(and(eq(uploads.firmId, actor.firmId), eq(uploads.periodId, periodId))).limit(1),
+        tx.select({ id: runs.id }).from(runs).where(and(eq(runs.firmId, actor.firmId), eq(runs.periodId, periodId))).limit(1),
+        tx.select({ id: filings.id }).from(filings).where(and(eq(filings.firmId, actor.firmId), eq(filings.periodId, periodId))).limit(1),
+      ])
+    ).map((rows) => rows.length > 0);
+    if (period.state !== "open" || inside.some(Boolean)) {
+      const what = [inside[0] ? "a file" : null, inside[1] ? "a run" : null, inside[2] ? "a filing" : null].filter(Boolean).join(", ");
+      throw new AppError(
+        "conflict:period",
+        `The period ending ${period.periodEnd} cannot be withdrawn: it already holds ${what || `work (${period.state})`}. Only an empty period opened by mistake can be withdrawn.`,
+      );
+    }
+    const reminders = await tx
+      .delete(reminderLog)
+      .where(and(eq(reminderLog.firmId, actor.firmId), eq(reminderLog.periodId, periodId)))
+      .returning({ id: reminderLog.id });
+    await tx.delete(reportingPeriods).where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
+    await recordAudit(tx, actor, {
+      action: "period.withdraw",
+      entityType: "reporting_period",
+      entityId: periodId,
+      summary: `Withdrew the empty period ending ${period.periodEnd}: ${reason}`,
+      detail: { periodEnd: period.periodEnd, deadline: period.deadline, reason, reminderRowsRemoved: reminders.length },
+    });
+    return { periodEnd: period.periodEnd };
+  });
 }

@@ -11,6 +11,8 @@ import { pageActor } from "@/lib/auth/page";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { getPeriod } from "@/lib/data/periods";
 import { AppError } from "@/lib/errors";
+import { can } from "@/lib/auth/permissions";
+import { WithdrawPeriod } from "./withdraw-period";
 
 export const metadata: Metadata = { title: "Period" };
 
@@ -85,6 +87,11 @@ export default async function PeriodPage({ params }: { params: Promise<{ periodI
         </Link>
       </div>
       {period.filingReference ? <p className="mt-4 text-sm">Regulator&apos;s reference: {period.filingReference}</p> : null}
+      {can(actor, "periods.open") && period.state === "open" && uploads.length === 0 && !period.steps.some((s) => s.done && s.key !== "method") ? (
+        <div className="mt-8">
+          <WithdrawPeriod periodId={period.id} label={formatMonth(period.periodEnd)} />
+        </div>
+      ) : null}
     </>
   );
 }
