@@ -9,6 +9,8 @@ export type ErrorKind =
   | "not_found"
   | "conflict"
   | "unprocessable"
+  | "too_large"
+  | "unsupported_media"
   | "rate_limited"
   | "unavailable"
   | "internal";
@@ -20,6 +22,8 @@ const statusByKind: Record<ErrorKind, number> = {
   not_found: 404,
   conflict: 409,
   unprocessable: 422,
+  too_large: 413,
+  unsupported_media: 415,
   rate_limited: 429,
   unavailable: 503,
   internal: 500,
@@ -32,6 +36,8 @@ const defaultMessages: Record<ErrorKind, string> = {
   not_found: "Not found.",
   conflict: "This conflicts with the current state; reload and try again.",
   unprocessable: "Some values are not valid.",
+  too_large: "The request is too large.",
+  unsupported_media: "Send the request as JSON (Content-Type: application/json).",
   rate_limited: "Too many attempts. Wait a few minutes and try again.",
   unavailable: "A service Ballast depends on is not answering. Try again shortly.",
   internal: "Something went wrong on our side. Nothing was changed.",

@@ -1,12 +1,14 @@
 /**
  * The route-handler wrapper every route.ts under app/api uses: resolves the actor through the gate (or allows
- * public access explicitly), validates params, query and JSON body with zod, and turns errors into the shared
- * JSON shape with honest status codes.
+ * public access explicitly), refuses writes from another origin (403), bodies that are not JSON (415) or too large
+ * (413), validates params, query and JSON body with zod, and turns errors into the shared JSON shape with honest
+ * status codes.
  */
 import "server-only";
 import type { z } from "zod";
 import { AppError, toAppError, type FieldErrors } from "@/lib/errors";
 import { requireActor, type Actor } from "./actor";
+import { assertSameOrigin, readJsonBody } from "./request-guard";
 import type { Permission } from "./permissions";
 
 type Schema = z.ZodType;
@@ -53,6 +55,8 @@ export function route<P extends Schema | undefined = undefined, Q extends Schema
 ) {
   return async (request: Request, context: { params: Promise<Record<string, string | string[] | undefined>> }): Promise<Response> => {
     try {
+      // Writes from another site are refused before anything else (cross-site request forgery).
+      assertSameOrigin(request);
       const actor =
         options.permission === "public"
           ? (null as unknown as Actor)
@@ -79,12 +83,7 @@ export function route<P extends Schema | undefined = undefined, Q extends Schema
 
       let body: unknown = undefined;
       if (options.body) {
-        let raw: unknown;
-        try {
-          raw = await request.json();
-        } catch {
-          throw new AppError("bad_request:body", "The request body is not valid JSON.");
-        }
+        const raw = await readJsonBody(request);
         const parsed = options.body.safeParse(raw);
         if (!parsed.success) {
           const fields = fieldErrors(parsed.error);
