@@ -6,6 +6,7 @@
 import type { Database } from "./client";
 import { approveMethod, attachEvidence, createMethodDraft, updateMethodDraft } from "../lib/data/method";
 import { actorForEmail } from "./actor-for";
+import { setStampClock } from "../lib/clock";
 import { DEFAULT_METHOD_CONTENT, type MethodDraft } from "../lib/validation/method";
 
 const actorFor = actorForEmail;
@@ -16,6 +17,9 @@ export const NORTHMOOR_METHOD: MethodDraft = {
     ...DEFAULT_METHOD_CONTENT,
     defaultEstimator: { kind: "ewma", lambdaMode: "fixed", lambda: 0.94 },
     byAssetClass: { equity: { kind: "garch", distribution: "t", mean: "zero", targeting: false, fallback: "ewma" } },
+    // version 1 keeps one EWMA covariance for every factor (the equity choice drives the factor volatility report only);
+    // the runs and packs say so
+    portfolioVolatility: "covariance",
     covariance: "ewma",
     covarianceLambda: 0.94,
     varMethod: "parametric",
@@ -49,16 +53,33 @@ export const PELLAM_METHOD: MethodDraft = {
   reason: "",
 };
 
-/** Write, evidence and approve version 1 for both demo firms (their price history must already be loaded). */
+/**
+ * Write, evidence and approve version 1 for both demo firms (their price history must already be loaded): the
+ * risk analyst drafts and approves on 15 September, a compliance head co-approves that afternoon (the demo firms
+ * keep the default: method approval needs a second person).
+ */
 export async function seedDemoMethod(db: Database): Promise<void> {
-  for (const [email, draft] of [
-    ["priya.castell@northmoor.example", NORTHMOOR_METHOD],
-    ["june.okafor@pellam.example", PELLAM_METHOD],
-  ] as const) {
-    const analyst = await actorFor(db, email);
-    const created = await createMethodDraft(analyst, { reason: "" });
-    await updateMethodDraft(analyst, created.id, draft);
-    await attachEvidence(analyst, created.id);
-    await approveMethod(analyst, created.id, { note: "First version for the demo." });
+  const firms = [
+    ["priya.castell@northmoor.example", "helen.marsh@northmoor.example", NORTHMOOR_METHOD, 0],
+    ["june.okafor@pellam.example", "rafe.pellam@pellam.example", PELLAM_METHOD, 30],
+  ] as const;
+  try {
+    for (const [email, coEmail, draft, minutes] of firms) {
+      const at = (hh: number, mm: number) => setStampClock(`2026-09-15T${String(hh).padStart(2, "0")}:${String(mm + minutes).padStart(2, "0")}:00.000Z`);
+      const analyst = await actorFor(db, email);
+      const head = await actorFor(db, coEmail);
+      at(9, 0);
+      const created = await createMethodDraft(analyst, { reason: "" });
+      at(9, 10);
+      await updateMethodDraft(analyst, created.id, draft);
+      at(9, 20);
+      await attachEvidence(analyst, created.id);
+      at(10, 0);
+      await approveMethod(analyst, created.id, { note: "First version for the demo." });
+      at(14, 0);
+      await approveMethod(head, created.id, { note: "Read the rationale and the evidence; agreed." });
+    }
+  } finally {
+    setStampClock(null);
   }
 }

@@ -12,6 +12,7 @@ import { reportingPeriods } from "./schema";
 import { receiveUploadBytes, confirmUpload } from "../lib/data/uploads";
 import { actorForEmail } from "./actor-for";
 import { storeFileInStandIn } from "../scripts/upload-standin";
+import { setStampClock } from "../lib/clock";
 
 const DEMO_DIR = path.join(__dirname, "..", "templates", "demo");
 
@@ -50,10 +51,22 @@ export async function load(db: Database, email: string, kind: "positions" | "pri
   return uploadId;
 }
 
-/** Load the demo firms' price history and this month's positions. */
+/**
+ * Load the demo firms' price history and this month's positions, stamped in the past: the price history the day
+ * before the method statement's evidence was computed (mid-September; the demo keeps one history file, which runs
+ * on to 20 November), the month's positions at the evening of the period end.
+ */
 export async function seedDemoUploads(db: Database, periodEnd: string): Promise<void> {
-  await load(db, "priya.castell@northmoor.example", "prices", "northmoor-prices.csv");
-  await load(db, "tomas.reyne@northmoor.example", "positions", "northmoor-positions-2026-11.csv", periodEnd);
-  await load(db, "june.okafor@pellam.example", "prices", "pellam-prices.csv");
-  await load(db, "june.okafor@pellam.example", "positions", "pellam-positions-2026-11.csv", periodEnd);
+  try {
+    setStampClock("2026-09-14T15:00:00.000Z");
+    await load(db, "priya.castell@northmoor.example", "prices", "northmoor-prices.csv");
+    setStampClock("2026-09-14T15:20:00.000Z");
+    await load(db, "june.okafor@pellam.example", "prices", "pellam-prices.csv");
+    setStampClock(`${periodEnd}T17:30:00.000Z`);
+    await load(db, "tomas.reyne@northmoor.example", "positions", "northmoor-positions-2026-11.csv", periodEnd);
+    setStampClock(`${periodEnd}T17:50:00.000Z`);
+    await load(db, "june.okafor@pellam.example", "positions", "pellam-positions-2026-11.csv", periodEnd);
+  } finally {
+    setStampClock(null);
+  }
 }

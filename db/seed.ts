@@ -5,12 +5,13 @@
  */
 import path from "node:path";
 import { rmSync } from "node:fs";
-import { format, subMonths, endOfMonth } from "date-fns";
+import { format, subMonths, endOfMonth, startOfMonth } from "date-fns";
 import bcrypt from "bcryptjs";
 import { openDatabase, databaseUrl, type Database } from "./client";
 import { migrateDatabase } from "./migrate";
 import * as s from "./schema";
 import { deadlineFor } from "../lib/calendar/deadline";
+import { now, setStampClock } from "../lib/clock";
 
 /** The demo-only password of every demo user. Never use it anywhere else. */
 export const DEMO_PASSWORD = "ballast-demo-2026";
@@ -48,12 +49,14 @@ async function seedFirm(
 ) {
   const [row] = await db
     .insert(s.firms)
-    .values({ name: firm.name, slug: firm.slug, reportingCurrency: firm.currency, regulatorName: firm.regulator, licenceLabel: "Registration no." })
+    .values({ name: firm.name, slug: firm.slug, reportingCurrency: firm.currency, regulatorName: firm.regulator, licenceLabel: "Registration no.", methodCoApproval: true })
     .returning();
   await db.insert(s.calendarSettings).values({ firmId: row.id, deadlineRule: "business-days-after", deadlineValue: 15 });
   if (holidayList.length) await db.insert(s.holidays).values(holidayList.map(([date, name]) => ({ firmId: row.id, date, name })));
   await db.insert(s.capitalRuleProfiles).values({ firmId: row.id, plusFactors: BASEL_PLUS_FACTORS });
-  const at = today.toISOString();
+  // The demo's history has times of its own in the past: the firm was set up three months before the open
+  // period's month, and that period opened on the first of its month (see seedDemo's stamp clock).
+  const at = now().toISOString();
   for (const person of people) {
     const [user] = await db.insert(s.users).values({ email: person.email, name: person.name, passwordHash }).returning();
     const [membership] = await db.insert(s.memberships).values({ firmId: row.id, userId: user.id, roles: [...person.roles] }).returning();
@@ -70,12 +73,13 @@ async function seedFirm(
   }
   const periodEnd = format(endOfMonth(subMonths(today, 1)), "yyyy-MM-dd");
   const deadline = deadlineFor(periodEnd, { kind: "business-days-after", days: 15 }, new Set(holidayList.map(([d]) => d)));
-  const [period] = await db.insert(s.reportingPeriods).values({ firmId: row.id, periodEnd, deadline }).returning();
+  const openedAt = `${periodEnd.slice(0, 8)}01T06:00:00.000Z`;
+  const [period] = await db.insert(s.reportingPeriods).values({ firmId: row.id, periodEnd, deadline, createdAt: openedAt }).returning();
   await db.insert(s.auditEvents).values({
     firmId: row.id,
     actorId: null,
     actorName: "Demo set-up",
-    at,
+    at: openedAt,
     action: "period.open",
     entityType: "reporting_period",
     entityId: period.id,
@@ -89,8 +93,14 @@ export async function seedDemo(db: Database, today = new Date()): Promise<void> 
   const existing = await db.select({ id: s.firms.id }).from(s.firms).limit(1);
   if (existing.length) throw new Error("the database already holds firms; the demo seeds only an empty database");
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 11);
-  await seedFirm(db, { name: "Northmoor Brokerage Ltd", slug: "northmoor", currency: "EUR", regulator: "Financial Markets Authority (demo)" }, DEMO_USERS, passwordHash, today, DEMO_HOLIDAYS);
-  await seedFirm(db, { name: "Pellam Capital Partners", slug: "pellam", currency: "GBP", regulator: "Conduct Authority (demo)" }, SECOND_FIRM_USERS, passwordHash, today, []);
+  // The firms and their people were set up at 08:00 UTC on the first of the month three months before today's.
+  setStampClock(`${format(startOfMonth(subMonths(today, 3)), "yyyy-MM-dd")}T08:00:00.000Z`);
+  try {
+    await seedFirm(db, { name: "Northmoor Brokerage Ltd", slug: "northmoor", currency: "EUR", regulator: "Financial Markets Authority (demo)" }, DEMO_USERS, passwordHash, today, DEMO_HOLIDAYS);
+    await seedFirm(db, { name: "Pellam Capital Partners", slug: "pellam", currency: "GBP", regulator: "Conduct Authority (demo)" }, SECOND_FIRM_USERS, passwordHash, today, []);
+  } finally {
+    setStampClock(null);
+  }
 }
 
 if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename)) {
@@ -119,6 +129,7 @@ if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename
       else process.env.BALLAST_CLOCK = pinnedToday;
     }
     await (await import("./seed-history")).seedDemoHistory(db);
+    setStampClock(null);
     db.$client.close();
     console.log(`seeded the demo firms into ${databaseUrl()}`);
   })().catch((error) => {

@@ -249,7 +249,7 @@ async function insertRun(
     return await getDb().transaction(async (tx) => {
       const [row] = await tx
         .insert(runs)
-        .values({ firmId: actor.firmId, ...values, status: "queued", stage: "queued", progress: 0, inputHashes: hashes as unknown as Record<string, string>, startedBy: actor.userId, startedAt: stamp, heartbeatAt: stamp })
+        .values({ firmId: actor.firmId, ...values, status: "queued", stage: "queued", progress: 0, inputHashes: hashes as unknown as Record<string, string>, startedBy: actor.userId, startedAt: stamp, heartbeatAt: new Date().toISOString() /* wall clock: staleness */ })
         .returning({ id: runs.id });
       await tx.insert(runInputs).values({ runId: row.id, firmId: actor.firmId, data: packed.data, bytes: packed.bytes });
       await recordAudit(tx, actor, { action: audit.action, entityType: "run", entityId: row.id, summary: audit.summary, detail: { ...audit.detail, inputHashes: hashes } });
