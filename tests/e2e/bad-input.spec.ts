@@ -9,7 +9,20 @@ import { DEMO_USERS, signedInApi } from "./helpers";
  * table (sign-in attempts aside: signing the test's personas in writes them before the corpus starts).
  */
 const corpus = JSON.parse(readFileSync("tests/fixtures/bad-input/requests.json", "utf8")) as {
-  cases: { as: "admin" | "officer"; method: string; path: string; body?: unknown; raw?: string; status: number; expect?: string; field?: string }[];
+  cases: {
+    as: "admin" | "officer";
+    method: string;
+    path: string;
+    body?: unknown;
+    raw?: string;
+    /** the Content-Type sent (application/json when a body or raw text is given and this is not) */
+    contentType?: string;
+    /** send a JSON string body of this many bytes instead (the size limit) */
+    bigBytes?: number;
+    status: number;
+    expect?: string;
+    field?: string;
+  }[];
 };
 
 async function snapshot(): Promise<string> {
@@ -33,19 +46,21 @@ test("every malformed request is refused plainly and changes nothing", async () 
     memberId: members.find((m: { email: string }) => m.email === DEMO_USERS[4].email).id,
     selfMemberId: members.find((m: { email: string }) => m.email === DEMO_USERS[0].email).id,
     uploadId: uploads.find((u: { status: string }) => u.status === "confirmed").id,
+    periodId: (await (await apis.officer.get("/api/periods")).json()).periods.find((p: { periodEnd: string }) => p.periodEnd === "2026-11-30").id,
   };
   const failures: string[] = [];
   // Nothing may change at all, so one picture of the database serves every case.
   const before = await snapshot();
   for (const c of corpus.cases) {
     const url = c.path.replace(/\{(\w+)\}/g, (_m, name: string) => ids[name]);
+    const hasBody = c.raw !== undefined || c.body !== undefined || c.bigBytes !== undefined;
     const response = await apis[c.as].fetch(url, {
       method: c.method,
-      headers: c.raw !== undefined || c.body !== undefined ? { "content-type": "application/json" } : undefined,
-      data: c.raw !== undefined ? Buffer.from(c.raw) : c.body,
+      headers: hasBody ? { "content-type": c.contentType ?? "application/json" } : undefined,
+      data: c.bigBytes !== undefined ? Buffer.from(JSON.stringify({ name: "x".repeat(c.bigBytes) })) : c.raw !== undefined ? Buffer.from(c.raw) : c.body,
     });
     const body = await response.json().catch(() => null);
-    const label = `${c.method} ${c.path} ${JSON.stringify(c.body ?? c.raw ?? "").slice(0, 60)}`;
+    const label = `${c.method} ${c.path} ${c.contentType ?? ""} ${c.bigBytes ? `${c.bigBytes} bytes` : JSON.stringify(c.body ?? c.raw ?? "").slice(0, 60)}`;
     if (response.status() !== c.status) failures.push(`${label}: status ${response.status()} (expected ${c.status}) ${JSON.stringify(body).slice(0, 160)}`);
     if (typeof body?.error?.code !== "string" || typeof body?.error?.message !== "string") failures.push(`${label}: no shared error shape`);
     const text = JSON.stringify(body?.error ?? {});

@@ -1,7 +1,10 @@
-import { test, expect, type Page } from "@playwright/test";
+import { test, expect, type APIRequestContext, type Page } from "@playwright/test";
 import { readdirSync, readFileSync, statSync, existsSync } from "node:fs";
+import { randomUUID } from "node:crypto";
 import path from "node:path";
-import { DEMO_USERS, signInThroughPage } from "./helpers";
+import { createClient } from "@libsql/client";
+import { ROUTES, type RouteCase } from "../permission-table";
+import { BASE_URL, DEMO_USERS, signedInApi, signInThroughPage } from "./helpers";
 
 /** Collect the browser's reports of content-security-policy violations on a page. */
 function watchViolations(page: Page): string[] {
@@ -65,4 +68,81 @@ test("no secret reaches the browser's files", () => {
     for (const secret of secrets) expect(text.includes(secret), `${file} contains a secret`).toBe(false);
     expect(text, file).not.toMatch(/AUTH_SECRET|UPLOADTHING_TOKEN|REMINDERS_SECRET|DATABASE_AUTH_TOKEN/);
   }
+});
+
+/** Every table but the sign-in log (signing the personas in writes it), for "nothing changed" checks. */
+async function databaseSnapshot(): Promise<string> {
+  const client = createClient({ url: `file:./${process.env.E2E_DB_FILE ?? "data/e2e.db"}` });
+  try {
+    const tables = await client.execute("SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE '__drizzle%' AND name <> 'sign_in_attempts' ORDER BY name");
+    const out: Record<string, unknown[]> = {};
+    for (const { name } of tables.rows) out[String(name)] = (await client.execute(`SELECT * FROM "${String(name)}" ORDER BY rowid`)).rows.map((r) => ({ ...r }));
+    return JSON.stringify(out);
+  } finally {
+    client.close();
+  }
+}
+
+function personaFor(route: RouteCase): string {
+  const user =
+    route.allowed === "public" || route.allowed === "member"
+      ? DEMO_USERS[0]
+      : DEMO_USERS.find((u) => u.roles.some((r) => (route.allowed as readonly string[]).includes(r)));
+  return user!.email;
+}
+
+test("every write route refuses a request from another origin, even from a signed-in person, and changes nothing", async () => {
+  const admin = await signedInApi(DEMO_USERS[0].email);
+  const ids: Record<string, string> = {
+    periodId: (await (await admin.get("/api/periods")).json()).periods[0].id,
+    memberId: (await (await admin.get("/api/members")).json()).members.find((m: { email: string }) => m.email === DEMO_USERS[4].email).id,
+    uploadId: (await (await admin.get("/api/uploads")).json()).uploads[0]?.id,
+    methodId: (await (await admin.get("/api/method")).json()).versions[0]?.id,
+  };
+  await admin.dispose();
+  const writes = ROUTES.filter((r) => !r.external && r.method !== "GET");
+  expect(writes.length).toBeGreaterThan(20);
+  const apis = new Map<string, APIRequestContext>();
+  const failures: string[] = [];
+  const before = await databaseSnapshot();
+  // Another port of the same host (same site, so a Lax cookie would still travel), another host, an opaque origin.
+  const foreign = [
+    { origin: BASE_URL.replace(/:\d+$/, ":4999"), "sec-fetch-site": "same-site" },
+    { origin: "https://evil.example", "sec-fetch-site": "cross-site" },
+    { origin: "null" },
+  ];
+  for (const route of writes) {
+    const email = personaFor(route);
+    if (!apis.has(email)) apis.set(email, await signedInApi(email));
+    const url = route.path.replace(/\[(\w+)\]/g, (_m, name: string) => ids[name] ?? randomUUID());
+    for (const headers of foreign) {
+      const response = await apis.get(email)!.fetch(url, { method: route.method, headers, data: route.validBody ?? route.invalidBody ?? {} });
+      const body = await response.json().catch(() => null);
+      if (response.status() !== 403 || body?.error?.code !== "forbidden:origin") {
+        failures.push(`${route.method} ${route.path} from ${headers.origin}: ${response.status()} ${JSON.stringify(body).slice(0, 120)}`);
+      }
+    }
+  }
+  expect(await databaseSnapshot()).toBe(before);
+  for (const api of apis.values()) await api.dispose();
+  expect(failures).toEqual([]);
+});
+
+test("a text/plain form post that would add an administrator is refused, from another port and from none", async () => {
+  const admin = await signedInApi(DEMO_USERS[0].email);
+  const before = await databaseSnapshot();
+  const payload = JSON.stringify({ name: "Mallory Vane", email: "mallory@evil.example", roles: ["admin", "compliance_head"], password: "attacker-chosen-pass-1" });
+  const crossPort = await admin.fetch("/api/members", {
+    method: "POST",
+    headers: { "content-type": "text/plain", origin: BASE_URL.replace(/:\d+$/, ":4999"), "sec-fetch-site": "same-site" },
+    data: Buffer.from(payload),
+  });
+  expect(crossPort.status()).toBe(403);
+  const plain = await admin.fetch("/api/members", { method: "POST", headers: { "content-type": "text/plain" }, data: Buffer.from(payload) });
+  expect(plain.status()).toBe(415);
+  expect((await plain.json()).error.message).toContain("application/json");
+  expect(await databaseSnapshot()).toBe(before);
+  const members = (await (await admin.get("/api/members")).json()).members as { email: string }[];
+  expect(members.some((m) => m.email === "mallory@evil.example")).toBe(false);
+  await admin.dispose();
 });
