@@ -12,7 +12,7 @@ import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
 import { now, today } from "@/lib/clock";
-import { DEFAULT_METHOD_CONTENT, methodDraftSchema, type MethodContent, type MethodDraft } from "@/lib/validation/method";
+import { DEFAULT_METHOD_CONTENT, methodDraftSchema, readMethodContent, type MethodContent, type MethodDraft } from "@/lib/validation/method";
 import { combineLimitations, diffContent, splitLimitations, type FieldChange } from "@/lib/method/describe";
 import { buildEvidence, type MethodEvidence } from "@/lib/method/evidence";
 import { priceSeries } from "./prices";
@@ -92,7 +92,7 @@ function summarise(row: Row, byId: Map<string, string>): MethodVersionSummary {
 
 async function present(row: Row): Promise<MethodVersion> {
   const byId = await names([row.createdBy, row.approvedBy, row.coApprovedBy]);
-  const content = row.content as unknown as MethodContent;
+  const content = readMethodContent(row.content);
   const { engine, analyst } = splitLimitations(content, row.limitations);
   let previousVersion: number | null = null;
   if (row.previousId) {
@@ -182,7 +182,7 @@ export async function createMethodDraft(actor: Actor, input: { reason?: string }
     }
     const [{ top }] = await tx.select({ top: max(methodStatements.version) }).from(methodStatements).where(eq(methodStatements.firmId, actor.firmId));
     const version = (top ?? 0) + 1;
-    const content: MethodContent = approved ? (approved.content as unknown as MethodContent) : DEFAULT_METHOD_CONTENT;
+    const content: MethodContent = approved ? readMethodContent(approved.content) : DEFAULT_METHOD_CONTENT;
     const analyst = approved ? splitLimitations(content, approved.limitations).analyst : [];
     const [row] = await tx
       .insert(methodStatements)
@@ -254,7 +254,7 @@ export async function updateMethodDraft(actor: Actor, methodId: string, input: u
       entityType: "method_statement",
       entityId: row.id,
       summary: `Saved draft method statement version ${row.version}${row.approvedBy ? " (the pending approval was withdrawn)" : ""}`,
-      detail: { version: row.version, changes: diffContent(row.content as unknown as MethodContent, draft.content), withdrewApproval: row.approvedBy !== null },
+      detail: { version: row.version, changes: diffContent(readMethodContent(row.content), draft.content), withdrewApproval: row.approvedBy !== null },
     });
   });
   return getMethodVersion(actor, row.id);
@@ -326,7 +326,7 @@ export async function computeEvidence(actor: Actor, options: { periodId?: string
 export async function attachEvidence(actor: Actor, methodId: string, options: { periodId?: string } = {}): Promise<MethodVersion> {
   const row = await findRow(actor, methodId);
   refuseUnlessDraft(row, "given new evidence");
-  const content = row.content as unknown as MethodContent;
+  const content = readMethodContent(row.content);
   const evidence = await computeEvidence(actor, { periodId: options.periodId, minHistory: content.minHistory });
   await getDb().transaction(async (tx) => {
     const updated = await tx
@@ -353,7 +353,7 @@ export async function attachEvidence(actor: Actor, methodId: string, options: { 
 /** What approval needs before it may proceed: valid content, the reason, the evidence. */
 function checkApprovable(row: Row): void {
   const draft = checkDraft(
-    { content: row.content, rationale: row.rationale, analystLimitations: splitLimitations(row.content as unknown as MethodContent, row.limitations).analyst, reason: row.reason },
+    { content: row.content, rationale: row.rationale, analystLimitations: splitLimitations(readMethodContent(row.content), row.limitations).analyst, reason: row.reason },
     row.previousId,
   );
   void draft;
@@ -482,8 +482,8 @@ export async function diffMethodVersions(actor: Actor, fromId?: string, toId?: s
     to = latest;
   }
   const from: Row | null = fromId ? await findRow(actor, fromId) : to.previousId ? await findRow(actor, to.previousId) : null;
-  const toContent = to.content as unknown as MethodContent;
-  const fromContent = from ? (from.content as unknown as MethodContent) : null;
+  const toContent = readMethodContent(to.content);
+  const fromContent = from ? readMethodContent(from.content) : null;
   const evidenceDate = (r: Row | null) => (r?.evidence ? String((r.evidence as unknown as MethodEvidence).computedAt) : null);
   return {
     from: from ? { id: from.id, version: from.version, status: from.status as MethodStatus } : null,

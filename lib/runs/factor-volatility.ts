@@ -6,23 +6,18 @@
 import { fitArch, fitEwma, fitGarch11, fitMovingAverage } from "@/lib/risk";
 import type { EstimatorKind, VolatilityFit } from "@/lib/risk/types";
 import type { EstimatorChoice, MethodContent } from "@/lib/validation/method";
+import { estimatorDefault, OTHER_FAMILIES_STATEMENT } from "@/lib/method/defaults";
 import { estimatorFor } from "./method-map";
 import type { FactorEstimate, FactorVolatility } from "./types";
 
 const ANNUAL = Math.sqrt(252);
 
-/** The settings of a family the factor's asset class does not choose (stated with the run). */
-export function otherSettings(content: MethodContent): Record<EstimatorKind, EstimatorChoice> {
-  return {
-    ma: { kind: "ma", window: 20, divisor: "m", mean: "zero" },
-    ewma: { kind: "ewma", lambdaMode: "fixed", lambda: content.covarianceLambda },
-    arch: { kind: "arch", order: 1 },
-    garch: { kind: "garch", distribution: "normal", mean: "zero", targeting: false, fallback: "none" },
-  };
+/** The settings of a family the factor's asset class does not choose: the one table of defaults (lib/method/defaults.ts). */
+export function otherSettings(): Record<EstimatorKind, EstimatorChoice> {
+  return { ma: estimatorDefault("ma"), ewma: estimatorDefault("ewma"), arch: estimatorDefault("arch"), garch: estimatorDefault("garch") };
 }
 
-export const OTHER_SETTINGS_STATEMENT =
-  "Families the asset class does not choose are shown with: a 20-day moving average (zero mean, divisor M), EWMA with the covariance λ, ARCH(1), and GARCH(1,1) with normal errors and zero mean.";
+export const OTHER_SETTINGS_STATEMENT = OTHER_FAMILIES_STATEMENT;
 
 export function labelOf(choice: EstimatorChoice, fit?: VolatilityFit | null): string {
   switch (choice.kind) {
@@ -58,7 +53,7 @@ export function fitChoice(returns: Float64Array, choice: EstimatorChoice): { fit
 /** The choices fitted for a factor, in family order, and which family is the chosen one. */
 export function choicesFor(content: MethodContent, assetClass: string): { choices: EstimatorChoice[]; chosen: EstimatorChoice; from: "asset-class" | "default" } {
   const { choice, from } = estimatorFor(content, assetClass);
-  const others = otherSettings(content);
+  const others = otherSettings();
   const choices = (["ma", "ewma", "arch", "garch"] as const).map((k) => (k === choice.kind ? choice : others[k]));
   return { choices, chosen: choice, from };
 }

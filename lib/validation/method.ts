@@ -44,14 +44,70 @@ export const ESTIMATOR_LABELS: Record<EstimatorChoice["kind"], string> = {
 /** Sensible defaults: EWMA λ 0.94 (J.P. Morgan/Reuters 1996) everywhere, parametric 99 % and 97.5 %, ten days. */
 export const DEFAULT_ESTIMATOR: EstimatorChoice = { kind: "ewma", lambdaMode: "fixed", lambda: 0.94 };
 
-export const methodContentSchema = z
+
+/** How the correlation between factors is estimated when each factor's volatility comes from its asset class's estimator. */
+export const correlationSchema = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("equal"), window: z.coerce.number().int("Whole days.").min(20, "At least 20 days.").max(2000, "At most 2,000 days.") }),
+  z.object({ kind: z.literal("ewma"), lambda: z.coerce.number({ message: "Enter λ." }).gt(0, "λ must be above 0.").lt(1, "λ must be below 1.") }),
+  z.object({ kind: z.literal("ccc") }),
+]);
+export type CorrelationChoice = z.infer<typeof correlationSchema>;
+
+/** How often the backtest re-estimates the model's parameters: every so many business days, or once on the whole sample. */
+export const backtestRefitSchema = z.discriminatedUnion("mode", [
+  z.object({ mode: z.literal("every"), days: z.coerce.number().int("Whole days.").min(1, "At least every day.").max(250, "At most every 250 days.") }),
+  z.object({ mode: z.literal("once") }),
+]);
+export type BacktestRefitChoice = z.infer<typeof backtestRefitSchema>;
+
+/** The backtest refits every 21 business days (about a month) unless the method statement says otherwise. */
+export const DEFAULT_BACKTEST_REFIT: BacktestRefitChoice = { mode: "every", days: 21 };
+
+/**
+ * Content stored before the per-asset-class portfolio choices existed, read as what it computed: the one covariance
+ * model for every factor, the correlation implied by that model, and the backtest as it was: parameters fitted once
+ * on the whole sample for the GARCH-CCC covariance, refits every 21 days otherwise (the EWMA and equal-weight
+ * covariances fit nothing, so their figures are unchanged). Stored rows are never rewritten: they are read
+ * through this. Content that already has the fields passes unchanged.
+ */
+export function upgradeMethodContent(raw: unknown): unknown {
+  if (raw === null || typeof raw !== "object" || Array.isArray(raw)) return raw;
+  const c = raw as Record<string, unknown>;
+  const out: Record<string, unknown> = { ...c };
+  if (out.portfolioVolatility === undefined) out.portfolioVolatility = "covariance";
+  if (out.correlation === undefined) {
+    out.correlation =
+      c.covariance === "equal"
+        ? { kind: "equal", window: c.covarianceWindow ?? 250 }
+        : c.covariance === "garch-ccc"
+          ? { kind: "ccc" }
+          : { kind: "ewma", lambda: c.covarianceLambda ?? 0.94 };
+  }
+  // the GARCH-CCC covariance fitted its parameters once on the whole sample; the others fit nothing
+  if (out.backtestRefit === undefined) out.backtestRefit = c.covariance === "garch-ccc" ? { mode: "once" } : { ...DEFAULT_BACKTEST_REFIT };
+  return out;
+}
+
+const methodContentObject = z
   .object({
     /** the firm-wide default estimator */
     defaultEstimator: estimatorSchema,
     /** per asset class, where it differs from the default */
     byAssetClass: z.partialRecord(z.enum(ASSET_CLASSES), estimatorSchema).default({}),
+    /**
+     * Where each factor's volatility in the portfolio figures comes from: "asset-class", the estimator its asset class
+     * is assigned (the firm-wide default where none), with the correlation below; "covariance", one covariance model
+     * for every factor (`covariance`, `covarianceLambda`, `covarianceWindow`), as versions written before this choice
+     * existed computed.
+     */
+    portfolioVolatility: z.enum(["asset-class", "covariance"], { message: "Choose where the portfolio volatilities come from." }),
+    /** the correlation between factors when the volatilities come from the asset classes */
+    correlation: correlationSchema,
+    /** how often the backtest's forecasts re-estimate the model's parameters (only data up to the day before each forecast) */
+    backtestRefit: backtestRefitSchema,
+    /** the one covariance model, when `portfolioVolatility` is "covariance" */
     covariance: z.enum(["equal", "ewma", "garch-ccc"], { message: "Choose a covariance." }),
-    /** EWMA decay of the covariance (shared with an EWMA volatility choice) */
+    /** EWMA decay of the one covariance model */
     covarianceLambda: z.coerce.number().gt(0, "λ must be above 0.").lt(1, "λ must be below 1."),
     covarianceWindow: z.coerce.number().int().min(20, "At least 20 days.").max(2000, "At most 2,000 days."),
     varMethod: z.enum(["parametric", "historical", "filtered"], { message: "Choose a VaR method." }),
@@ -80,11 +136,16 @@ export const methodContentSchema = z
         ctx.addIssue({ code: "custom", path: [...path.split("."), "order"], message: `ARCH(${e.order}) needs a minimum history of at least ${e.order * 10} returns.` });
       }
     }
-    if (value.scaling === "term" && !(value.varMethod === "parametric" && value.covariance === "garch-ccc")) {
-      ctx.addIssue({ code: "custom", path: ["scaling"], message: "The GARCH term structure needs parametric VaR with GARCH volatilities (garch-ccc)." });
+    if (value.scaling === "term" && value.varMethod !== "parametric") {
+      ctx.addIssue({ code: "custom", path: ["scaling"], message: "The term structure of each factor's variance applies to parametric VaR; historical and filtered simulation scale by the square root of time or use overlapping returns." });
+    } else if (value.scaling === "term" && value.portfolioVolatility === "covariance" && value.covariance !== "garch-ccc") {
+      ctx.addIssue({ code: "custom", path: ["scaling"], message: "With one covariance model, the term structure needs GARCH volatilities (garch-ccc); or take the volatilities from the asset classes." });
+    }
+    if (value.portfolioVolatility === "asset-class" && value.correlation.kind === "equal" && value.correlation.window > value.minHistory) {
+      ctx.addIssue({ code: "custom", path: ["correlation", "window"], message: `The correlation window (${value.correlation.window}) is longer than the minimum history (${value.minHistory}).` });
     }
     if (value.scaling === "overlap" && value.varMethod === "parametric") {
-      ctx.addIssue({ code: "custom", path: ["scaling"], message: "Overlapping ten-day returns apply to historical or filtered simulation, not parametric VaR." });
+      ctx.addIssue({ code: "custom", path: ["scaling"], message: "Overlapping multi-day returns apply to historical or filtered simulation, not parametric VaR." });
     }
     if (value.stressWindow.mode === "chosen" && value.stressWindow.end <= value.stressWindow.start) {
       ctx.addIssue({ code: "custom", path: ["stressWindow", "end"], message: "The stress window must end after it starts." });
@@ -93,11 +154,17 @@ export const methodContentSchema = z
       ctx.addIssue({ code: "custom", path: ["confidences"], message: "Each confidence level once." });
     }
   });
+
+/** The method statement's content; older stored content is read through `upgradeMethodContent`. */
+export const methodContentSchema = z.preprocess(upgradeMethodContent, methodContentObject);
 export type MethodContent = z.infer<typeof methodContentSchema>;
 
 export const DEFAULT_METHOD_CONTENT: MethodContent = {
   defaultEstimator: DEFAULT_ESTIMATOR,
   byAssetClass: {},
+  portfolioVolatility: "asset-class",
+  correlation: { kind: "ewma", lambda: 0.94 },
+  backtestRefit: DEFAULT_BACKTEST_REFIT,
   covariance: "ewma",
   covarianceLambda: 0.94,
   covarianceWindow: 250,
@@ -147,3 +214,9 @@ export const methodDiffQuerySchema = z.object({
   from: z.string().uuid("A version id.").optional(),
   to: z.string().uuid("A version id.").optional(),
 });
+
+/** A stored content as the current schema reads it (older content upgraded); content that no longer parses is returned upgraded as stored. */
+export function readMethodContent(raw: unknown): MethodContent {
+  const parsed = methodContentSchema.safeParse(raw);
+  return parsed.success ? parsed.data : (upgradeMethodContent(raw) as MethodContent);
+}

@@ -1,6 +1,7 @@
 /** Method statement → engine input, the capital profile, the plus-factor table, alignment and canonical hashing. Pure. */
 import { describe, expect, it } from "vitest";
 import { DEFAULT_METHOD_CONTENT, methodContentSchema, type MethodContent } from "@/lib/validation/method";
+import { ESTIMATOR_DEFAULTS } from "@/lib/method/defaults";
 import { capitalProfileOf, engineMethodOf, estimatorFor, firmPlusFactor, storedHistoryDays, DEFAULT_T_NU } from "@/lib/runs/method-map";
 import { alignReturns, usableSeries } from "@/lib/runs/align";
 import { canonicalJson, hashOf, sha256Hex } from "@/lib/runs/canonical";
@@ -96,7 +97,9 @@ describe("per-factor estimator", () => {
     expect(choices.map((x) => x.kind)).toEqual(["ma", "ewma", "arch", "garch"]);
     expect(choices[2]).toBe(chosen);
     expect(chosen).toEqual({ kind: "arch", order: 2 });
-    expect(choices[1]).toEqual({ kind: "ewma", lambdaMode: "fixed", lambda: c.covarianceLambda });
+    // the families not chosen take the one table of defaults, the same the method form starts a new choice with
+    expect(choices[1]).toEqual(ESTIMATOR_DEFAULTS.ewma);
+    expect(choices[0]).toEqual(ESTIMATOR_DEFAULTS.ma);
   });
 });
 

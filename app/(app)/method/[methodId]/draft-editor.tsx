@@ -14,15 +14,9 @@ import { ASSET_CLASSES, ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
 import { ESTIMATOR_LABELS, methodDraftSchema, type EstimatorChoice, type MethodDraft } from "@/lib/validation/method";
 import { COVARIANCE_LABELS, SCALING_LABELS, VAR_METHOD_LABELS, engineLimitations } from "@/lib/method/describe";
 import type { MethodVersion } from "@/lib/data/method";
+import { ESTIMATOR_DEFAULTS } from "@/lib/method/defaults";
 import { EvidenceView } from "../_components/evidence-view";
 import { ApprovalPanel } from "./approval-panel";
-
-const ESTIMATOR_DEFAULTS: Record<EstimatorChoice["kind"], EstimatorChoice> = {
-  ma: { kind: "ma", window: 250, divisor: "m", mean: "zero" },
-  ewma: { kind: "ewma", lambdaMode: "fixed", lambda: 0.94 },
-  arch: { kind: "arch", order: 5 },
-  garch: { kind: "garch", distribution: "t", mean: "zero", targeting: false, fallback: "ewma" },
-};
 
 /** The message at a dotted path of the form's errors. */
 function errorAt(errors: FieldErrors<MethodDraft>, path: string): string | undefined {
