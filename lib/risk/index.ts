@@ -34,3 +34,5 @@ export * from "./capital";
 // issue 13: volatility processes, D·R·D, candidate evidence
 export * from "./process";
 export { candidateEvidence, standardCandidates } from "./portfolio/candidates";
+// standardised building blocks (1996): debt, equity, FX, commodities, options
+export * from "./standardised";
