@@ -3,14 +3,8 @@
  * one-day-ahead variance forecasts over the following evaluation window (parameters held fixed, the
  * filter run on the data before each day only).
  */
-import { fitMovingAverage, movingAverageVariance } from "./estimators/moving-average";
-import { fitEwma } from "./estimators/ewma";
-import { ewmaVariance } from "./estimators/ewma-variance";
-import { fitArch } from "./estimators/arch";
-import { archVariance } from "./estimators/arch-variance";
-import { fitGarch11 } from "./estimators/garch11";
-import { garch11Variance } from "./estimators/garch11-variance";
-import { backcastValue, backcastWeights } from "./estimators/initial-variance";
+import { filterFit, fitProcess, parameterNames } from "./process/registry";
+import type { VolatilitySpec } from "./process/types";
 import { ENGINE_VERSION } from "./version";
 import type { VolatilityFit } from "./types";
 
@@ -64,27 +58,24 @@ interface Candidate {
   id: string;
   label: string;
   minEstimation: number;
-  /** fit on the estimation window and return the fit and the one-day forecasts for every day of the full series */
-  run: (est: number[], all: number[]) => { fit: VolatilityFit; variance: Float64Array; k: number };
+  spec: VolatilitySpec;
 }
 
 const candidates: Candidate[] = [
-  { id: "ma-20", label: "20-day moving average", minEstimation: 20, run: (est, all) => ({ fit: fitMovingAverage(est, { window: 20 }), variance: movingAverageVariance(all, { window: 20, divisor: "m", mean: "zero" }).variance, k: 0 }) },
-  { id: "ma-250", label: "250-day moving average", minEstimation: 250, run: (est, all) => ({ fit: fitMovingAverage(est, { window: 250 }), variance: movingAverageVariance(all, { window: 250, divisor: "m", mean: "zero" }).variance, k: 0 }) },
-  { id: "ewma-0.94", label: "EWMA λ = 0.94", minEstimation: 2, run: (est, all) => { const fit = fitEwma(est, { lambda: 0.94 }); return { fit, variance: ewmaVariance(all, 0.94, fit.variance[0]).variance, k: 0 }; } },
-  { id: "ewma-fit", label: "EWMA λ fitted", minEstimation: 50, run: (est, all) => { const fit = fitEwma(est, { lambda: "fit" }); return { fit, variance: ewmaVariance(all, fit.params.lambda, fit.variance[0]).variance, k: 1 }; } },
-  {
-    id: "arch-5", label: "ARCH(5)", minEstimation: 150,
-    run: (est, all) => {
-      const fit = fitArch(est, { order: 5 });
-      const alphas = [1, 2, 3, 4, 5].map((i) => fit.params[`alpha${i}`]);
-      const b = backcastValue(est, backcastWeights("sample", est.length)!, 0);
-      return { fit, variance: archVariance(all, { omega: fit.params.omega, alphas }, b).variance, k: 6 };
-    },
-  },
-  { id: "garch-normal", label: "GARCH(1,1), normal errors", minEstimation: 100, run: (est, all) => { const fit = fitGarch11(est); return { fit, variance: garch11Variance(all, fit.params as { omega: number; alpha: number; beta: number }, fit.variance[0]).variance, k: 3 }; } },
-  { id: "garch-t", label: "GARCH(1,1), Student-t errors", minEstimation: 100, run: (est, all) => { const fit = fitGarch11(est, { distribution: "t" }); return { fit, variance: garch11Variance(all, fit.params as { omega: number; alpha: number; beta: number }, fit.variance[0]).variance, k: 4 }; } },
+  { id: "ma-20", label: "20-day moving average", minEstimation: 20, spec: { kind: "ma", window: 20 } },
+  { id: "ma-250", label: "250-day moving average", minEstimation: 250, spec: { kind: "ma", window: 250 } },
+  { id: "ewma-0.94", label: "EWMA λ = 0.94", minEstimation: 2, spec: { kind: "ewma", lambda: 0.94 } },
+  { id: "ewma-fit", label: "EWMA λ fitted", minEstimation: 50, spec: { kind: "ewma", lambda: 0.94, fit: true } },
+  { id: "arch-5", label: "ARCH(5)", minEstimation: 150, spec: { kind: "arch", order: 5 } },
+  { id: "garch-normal", label: "GARCH(1,1), normal errors", minEstimation: 100, spec: { kind: "garch" } },
+  { id: "garch-t", label: "GARCH(1,1), Student-t errors", minEstimation: 100, spec: { kind: "garch", distribution: "t" } },
 ];
+
+/** Parameters a spec estimates from the data (none for the moving average and a fixed λ). */
+function estimated(spec: VolatilitySpec): number {
+  if (spec.kind === "ma" || (spec.kind === "ewma" && !spec.fit)) return 0;
+  return parameterNames(spec).length;
+}
 
 /**
  * Compare the moving averages, EWMA, ARCH(5) and GARCH(1,1) on one series of returns (zero mean for all).
@@ -109,7 +100,12 @@ export function compareEstimators(returns: ArrayLike<number>, options: CompareOp
   for (const c of candidates) {
     if (estimationDays < c.minEstimation) { notes.push(`${c.label} left out: it needs an estimation window of at least ${c.minEstimation} returns.`); continue; }
     try {
-      const { fit, variance, k } = c.run(est, used);
+      // fit on the estimation window; the filter runs over all the returns with those parameters and the start-up
+      // from the estimation window, so each evaluation day's forecast uses the data before it only
+      const pf = fitProcess(est, c.spec);
+      const fit = pf.fit;
+      const variance = filterFit(pf, used, est.length);
+      const k = estimated(c.spec);
       let se = 0, ql = 0, ll = 0, exceptions = 0;
       for (let t = evalOffset; t < used.length; t++) {
         const h = variance[t], r = used[t], r2 = r * r;

@@ -18,6 +18,8 @@ export interface FitArchOptions {
   order?: number;
   /** start-up rule for pre-sample squared residuals (default "sample"); "unconditional" and fixed numbers do not apply */
   init?: "sample" | "backcast" | { firstReturns: number };
+  /** parameters of an earlier fit (omega, alpha1..alpham, in the returns' units) to start from: one run, cold only if it fails */
+  warmStart?: Record<string, number>;
 }
 
 /** Largest ARCH order fitArch accepts. */
@@ -97,7 +99,24 @@ export function fitArch(returns: ArrayLike<number>, options: FitArchOptions = {}
     return z;
   });
   const bfgsOptions = { gradientTolerance: 1e-9, maxIterations: 500 };
-  let best = minimizeMultiStart(objective, starts, { ...bfgsOptions, runs: 2 });
+  let best: ReturnType<typeof minimizeMultiStart> | null = null;
+  const warm = options.warmStart;
+  if (warm && warm.omega > 0) {
+    const alphas = Array.from({ length: m }, (_, i) => warm[`alpha${i + 1}`]);
+    const total = alphas.reduce((a, v) => a + v, 0);
+    if (alphas.every((a) => a > 0) && total < 1) {
+      const z = new Float64Array(k);
+      z[0] = Math.log(warm.omega / (scale * scale));
+      for (let i = 1; i < k; i++) z[i] = Math.log(alphas[i - 1] / (1 - total));
+      try {
+        const run = minimizeMultiStart(objective, [z], { ...bfgsOptions, runs: 1 });
+        if (run.converged) best = run;
+      } catch {
+        best = null;
+      }
+    }
+  }
+  best ??= minimizeMultiStart(objective, starts, { ...bfgsOptions, runs: 2 });
   // a lag driven to zero in the unconstrained coordinates cannot come back (its gradient there vanishes):
   // if the likelihood still wants it larger, restart with it moved off the bound (at most m times)
   for (let round = 0; round < m; round++) {

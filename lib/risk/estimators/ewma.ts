@@ -18,6 +18,8 @@ export interface FitEwmaOptions {
   lambda?: number | "fit";
   /** start-up rule for the first day's variance (default "sample"); "unconditional" does not apply */
   init?: Exclude<InitRule, "unconditional">;
+  /** when λ is fitted: the optimiser's first starting value (the method statement's "λ starting value"); default 0.94 */
+  start?: number;
 }
 
 /** Fewest returns fitEwma accepts when λ is fitted. */
@@ -74,13 +76,15 @@ export function fitEwma(returns: ArrayLike<number>, options: FitEwmaOptions = {}
       g[0] = (-derivative * lam * (1 - lam)) / n;
       return -logLikelihood / n;
     };
-    const starts = [0.94, 0.97, 0.9, 0.99, 0.8].map((l) => [Math.log(l / (1 - l))]);
+    const first = options.start ?? 0.94;
+    if (!(first > 0 && first < 1)) throw new RangeError("fitEwma requires 0 < start < 1");
+    const starts = [first, ...[0.94, 0.97, 0.9, 0.99, 0.8].filter((l) => l !== first)].map((l) => [Math.log(l / (1 - l))]);
     const best = minimizeMultiStart(objective, starts, { runs: 2, gradientTolerance: 1e-10 });
     lambda = 1 / (1 + Math.exp(-best.x[0]));
     const step = 1e-6;
     const d2 = (ewmaLogLikelihood(returns, lambda + step, h1).derivative - ewmaLogLikelihood(returns, lambda - step, h1).derivative) / (2 * step);
     standardErrors = { lambda: d2 < 0 ? Math.sqrt(-1 / d2) : NaN };
-    Object.assign(diagnostics, { converged: best.converged, stop: best.stop, iterations: best.iterations, evaluations: best.totalEvaluations });
+    Object.assign(diagnostics, { startingValue: first, converged: best.converged, stop: best.stop, iterations: best.iterations, evaluations: best.totalEvaluations });
     if (!best.converged) warnings.push({ code: "not-converged", message: `The fit of λ stopped without meeting its convergence test (${best.stop}).` });
     if (lambda > 0.9999) warnings.push({ code: "bound-hit", message: `The fitted λ is at its upper bound of 1 (λ = ${lambda.toFixed(6)}): the variance barely moves.` });
   } else lambda = lambdaOption as number;

@@ -26,10 +26,21 @@ export interface FitGarch11Options {
   targeting?: boolean;
   /** start-up variance rule (default "sample", the benchmark convention) */
   init?: InitRule;
-  /** what to return when the fit fails or is near-integrated (α+β ≥ 0.999): "none" (default) or "ewma" (λ = 0.94) */
+  /** what to return when the fit fails or is near-integrated (α+β ≥ 0.999): "none" (default) or "ewma" (λ = fallbackLambda) */
   fallback?: "ewma" | "none";
   /** BFGS runs from distinct starting points (default 2) */
   starts?: number;
+  /** λ of the EWMA fallback (default 0.94) */
+  fallbackLambda?: number;
+  /**
+   * parameters of an earlier fit to start from (omega, alpha, beta, and mu, nu where free; in the returns' units):
+   * one BFGS run from there, and the full multi-start only when it fails to converge
+   */
+  warmStart?: Record<string, number>;
+  /** skip the standard errors (Hessian and sandwich), for refits inside a backtest */
+  lean?: boolean;
+  /** relative step of the central-difference Hessian (default 1e-5; for convergence checks) */
+  hessianStep?: number;
 }
 
 /** Fewest returns fitGarch11 accepts. */
@@ -62,6 +73,8 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   const targeting = options.targeting ?? false;
   const init = options.init ?? "sample";
   const fallback = options.fallback ?? "none";
+  const fallbackLambda = options.fallbackLambda ?? 0.94;
+  if (!(fallbackLambda > 0 && fallbackLambda < 1)) throw new RangeError("fitGarch11 requires 0 < fallbackLambda < 1");
   checkInit(init, "fitGarch11");
   if (options.mean && options.mean !== "zero" && options.mean !== "fit") throw new RangeError('fitGarch11 requires mean "zero" or "fit"');
   if (options.distribution && options.distribution !== "normal" && options.distribution !== "t") throw new RangeError('fitGarch11 requires distribution "normal" or "t"');
@@ -142,25 +155,50 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     for (let i = 0; i < k * k; i++) hz[i] /= n;
     return invertMatrix(hz, k);
   };
-  const best = minimizeMultiStart(objective, starts, { runs: options.starts ?? 2, gradientTolerance: 1e-9, maxIterations: 300, initialInverseHessian: bhhh });
+  const bfgs = { gradientTolerance: 1e-9, maxIterations: 300, initialInverseHessian: bhhh };
+  let best: ReturnType<typeof minimizeMultiStart> | null = null;
+  const warm = options.warmStart;
+  if (warm && warm.alpha > 0 && warm.beta > 0 && warm.alpha + warm.beta < 1 && (targeting || warm.omega > 0) && (!studentT || warm.nu > NU_FLOOR)) {
+    const z = toFree(fitMean ? (warm.mu ?? mean) / scale : 0, targeting ? 1 : warm.omega / (scale * scale), warm.alpha, warm.beta, studentT ? warm.nu : 8);
+    try {
+      const run = minimizeMultiStart(objective, [z], { ...bfgs, runs: 1 });
+      if (run.converged) best = run;
+    } catch {
+      best = null; // a warm start outside the domain of these returns: start cold
+    }
+  }
+  best ??= minimizeMultiStart(objective, starts, { ...bfgs, runs: options.starts ?? 2 });
   toNatural(best.x, theta);
 
-  // standard errors from the Hessian of the log-likelihood (central differences of the analytic gradient)
-  const hess = new Float64Array(k * k);
-  // forward differences from the gradient at the optimum (one pass per parameter; the error is of the order of the step, 1e−6 relative)
-  const gp = new Float64Array(k), g0 = new Float64Array(k), tp = new Float64Array(k);
-  garch11LogLikelihood(problem, theta, g0, scoreRows);
-  for (let i = 0; i < k; i++) {
-    const step = 1e-6 * Math.max(Math.abs(theta[i]), 0.1);
-    tp.set(theta); tp[i] = theta[i] + step; garch11LogLikelihood(problem, tp, gp);
-    for (let j = 0; j < k; j++) hess[i * k + j] = (gp[j] - g0[j]) / step;
+  // standard errors from the Hessian of the log-likelihood: central differences of the analytic gradient
+  // (error of the order of the step squared; a one-sided difference only where the lower point leaves the domain)
+  const lean = options.lean ?? false;
+  let cov: Float64Array | null = null;
+  let robust: Float64Array | null = null;
+  if (!lean) {
+    const hess = new Float64Array(k * k);
+    const gp = new Float64Array(k), gm = new Float64Array(k), g0 = new Float64Array(k), tp = new Float64Array(k);
+    garch11LogLikelihood(problem, theta, g0, scoreRows);
+    const relStep = options.hessianStep ?? 1e-5;
+    for (let i = 0; i < k; i++) {
+      const step = relStep * Math.max(Math.abs(theta[i]), 0.1);
+      tp.set(theta); tp[i] = theta[i] + step; garch11LogLikelihood(problem, tp, gp);
+      const lower = theta[i] - step;
+      const inside = i === iMu || (i === iNu ? lower > NU_FLOOR : lower > 0);
+      let central = false;
+      if (inside) {
+        tp[i] = lower;
+        central = Number.isFinite(garch11LogLikelihood(problem, tp, gm));
+      }
+      for (let j = 0; j < k; j++) hess[i * k + j] = central ? (gp[j] - gm[j]) / (2 * step) : (gp[j] - g0[j]) / step;
+    }
+    for (let i = 0; i < k; i++) for (let j = 0; j < i; j++) { const v = 0.5 * (hess[i * k + j] + hess[j * k + i]); hess[i * k + j] = v; hess[j * k + i] = v; }
+    const information = hess.map((v) => -v);
+    cov = invertMatrix(information, k);
+    const opg = new Float64Array(k * k);
+    for (let t = 0; t < n; t++) for (let i = 0; i < k; i++) { const si = scoreRows[t * k + i]; for (let j = 0; j < k; j++) opg[i * k + j] += si * scoreRows[t * k + j]; }
+    robust = cov ? multiplyMatrices(multiplyMatrices(cov, opg, k), cov, k) : null;
   }
-  for (let i = 0; i < k; i++) for (let j = 0; j < i; j++) { const v = 0.5 * (hess[i * k + j] + hess[j * k + i]); hess[i * k + j] = v; hess[j * k + i] = v; }
-  const information = hess.map((v) => -v);
-  const cov = invertMatrix(information, k);
-  const opg = new Float64Array(k * k);
-  for (let t = 0; t < n; t++) for (let i = 0; i < k; i++) { const si = scoreRows[t * k + i]; for (let j = 0; j < k; j++) opg[i * k + j] += si * scoreRows[t * k + j]; }
-  const robust = cov ? multiplyMatrices(multiplyMatrices(cov, opg, k), cov, k) : null;
   const unit = (name: string): number => (name === "mu" ? scale : name === "omega" ? scale * scale : 1);
   const standardErrors: Record<string, number> = {};
   const robustStandardErrors: Record<string, number> = {};
@@ -213,15 +251,15 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   if (studentT && nu > 200) warnings.push({ code: "bound-hit", message: `ν is very large (${nu.toFixed(0)}): the Student-t errors are indistinguishable from normal ones.` });
   if (studentT && nu < 2.1) warnings.push({ code: "bound-hit", message: `ν is at its lower bound of 2 (ν = ${nu.toFixed(3)}): the variance of the errors is barely finite.` });
   const failed = !best.converged || !Number.isFinite(logLikelihood);
-  if (failed) warnings.push({ code: "not-converged", message: `The GARCH(1,1) fit failed: the optimiser stopped without meeting its convergence test (${best.stop}, largest gradient ${gradientNorm.toExponential(2)}). ${fallback === "ewma" ? "As the caller chose, EWMA (λ = 0.94) is used instead." : "The caller chose no fallback, so these numbers are the last estimates, not an optimum."}` });
+  if (failed) warnings.push({ code: "not-converged", message: `The GARCH(1,1) fit failed: the optimiser stopped without meeting its convergence test (${best.stop}, largest gradient ${gradientNorm.toExponential(2)}). ${fallback === "ewma" ? `As the caller chose, EWMA (λ = ${fallbackLambda}) is used instead.` : "The caller chose no fallback, so these numbers are the last estimates, not an optimum."}` });
   const nearIntegrated = persistence >= NEAR_INTEGRATED;
   if (nearIntegrated) {
     warnings.push({
       code: "near-integrated",
-      message: `The fit is near-integrated: α+β = ${persistence.toFixed(5)} ≥ ${NEAR_INTEGRATED}, so shocks barely die out and the long-run variance is not reliable. ${fallback === "ewma" ? "As the caller chose, EWMA (λ = 0.94) is used instead." : "The caller chose no fallback, so these are the GARCH estimates as fitted."}`,
+      message: `The fit is near-integrated: α+β = ${persistence.toFixed(5)} ≥ ${NEAR_INTEGRATED}, so shocks barely die out and the long-run variance is not reliable. ${fallback === "ewma" ? `As the caller chose, EWMA (λ = ${fallbackLambda}) is used instead.` : "The caller chose no fallback, so these are the GARCH estimates as fitted."}`,
     });
   }
-  if (!cov) warnings.push({ code: "singular-hessian", message: "The Hessian of the log-likelihood is singular at the optimum: standard errors are not available." });
+  if (!cov && !lean) warnings.push({ code: "singular-hessian", message: "The Hessian of the log-likelihood is singular at the optimum: standard errors are not available." });
 
   const limitations = [...LIMITATIONS.garch];
   if (!studentT) limitations.push(NORMAL_TAILS);
@@ -229,8 +267,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   const fit: VolatilityFit = {
     kind: "garch",
     params,
-    standardErrors,
-    robustStandardErrors,
+    ...(lean ? {} : { standardErrors, robustStandardErrors }),
     variance: path.variance,
     currentVariance: path.currentVariance,
     longRunVariance,
@@ -260,10 +297,10 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     engineVersion: ENGINE_VERSION,
   };
   if (fallback === "ewma" && (nearIntegrated || failed)) {
-    const ewma = fitEwma(returns, { lambda: 0.94, init: init === "unconditional" ? "sample" : init });
+    const ewma = fitEwma(returns, { lambda: fallbackLambda, init: init === "unconditional" ? "sample" : init });
     return {
       ...ewma,
-      warnings: [...warnings, ...ewma.warnings, { code: "fallback-used", message: `GARCH(1,1) ${failed ? "did not converge" : "was near-integrated"}; EWMA with λ = 0.94 was used instead, as the caller chose.` }],
+      warnings: [...warnings, ...ewma.warnings, { code: "fallback-used", message: `GARCH(1,1) ${failed ? "did not converge" : "was near-integrated"}; EWMA with λ = ${fallbackLambda} was used instead, as the caller chose.` }],
       fallbackFrom: { kind: "garch", params, logLikelihood, reason: failed ? "not-converged" : "near-integrated" },
     };
   }

@@ -203,6 +203,8 @@ export interface ProcessFit {
   spec: VolatilitySpec;
   /** the family that produced the numbers (ewma when a GARCH fallback was used) */
   process: EstimatorKind;
+  /** the spec that produced the numbers: `spec`, or the EWMA fallback's spec */
+  used: VolatilitySpec;
   label: string;
   params: Record<string, number>;
   parameterNames: string[];
