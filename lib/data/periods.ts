@@ -1,7 +1,7 @@
 /** Reporting periods: listing, opening, and what each still needs and from whom. */
 import "server-only";
-import { and, desc, eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { and, desc, eq, inArray } from "drizzle-orm";
+import { getDb, type Database, type Tx } from "@/db/client";
 import { calendarSettings, holidays, reportingPeriods, uploads, methodStatements, runs, filings, reminderLog } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
@@ -195,4 +195,37 @@ export async function withdrawPeriod(actor: Actor, periodId: string, reason: str
     });
     return { periodEnd: period.periodEnd };
   });
+}
+
+/** Period states and filing states in which nothing new may enter the period (a new filing version reopens it). */
+const LOCKED_PERIOD_STATES = ["in_review", "signed", "filed"] as const;
+const LOCKING_FILING_STATES = ["in_review", "changes_requested", "signed", "filed"] as const;
+
+/**
+ * Refuse new data for a period under review, signed or filed, read through `tx` so that a caller's transaction
+ * sees the state it writes against (call it inside the confirming transaction). Another firm's period: not found.
+ */
+export async function assertPeriodTakesData(tx: Tx | Database, firmId: string, periodId: string): Promise<void> {
+  const [period] = await tx
+    .select({ state: reportingPeriods.state, periodEnd: reportingPeriods.periodEnd })
+    .from(reportingPeriods)
+    .where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, firmId)));
+  if (!period) throw new AppError("not_found:period", "No such reporting period.");
+  const [filing] = await tx
+    .select({ status: filings.status, version: filings.version })
+    .from(filings)
+    .where(and(eq(filings.firmId, firmId), eq(filings.periodId, periodId), inArray(filings.status, [...LOCKING_FILING_STATES])))
+    .limit(1);
+  const locked = (LOCKED_PERIOD_STATES as readonly string[]).includes(period.state) ? period.state : filing?.status;
+  if (!locked) return;
+  const words: Record<string, string> = { in_review: "under review", changes_requested: "under review", signed: "signed", filed: "filed" };
+  throw new AppError(
+    "conflict:period",
+    `The period ending ${period.periodEnd} is ${words[locked] ?? locked}: its positions can no longer change. To correct them, start a new version of the filing (compliance officer), which reopens the period.`,
+  );
+}
+
+/** The same check for the actor's firm outside a transaction (the upload route's middleware, before any bytes). */
+export async function assertPeriodOpenForData(actor: Actor, periodId: string): Promise<void> {
+  await assertPeriodTakesData(getDb(), actor.firmId, periodId);
 }

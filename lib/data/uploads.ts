@@ -17,6 +17,7 @@ import { parsePrices, PRICE_FIELDS, type PricePoint, type PricesParse } from "@/
 import { bulkInsert, orderedId } from "@/db/bulk-insert";
 import { FileRejected, type NumberFormat, type Problem, type ReadOptions } from "@/lib/uploads/types";
 import { fetchStoredFile, deleteStoredFiles, sha256 } from "@/lib/uploads/file-store";
+import { assertPeriodTakesData } from "./periods";
 
 export type UploadKind = "positions" | "prices";
 
@@ -134,6 +135,14 @@ export async function receiveUploadBytes(
   if (sameFile.length > 0) {
     await deleteStoredFiles([file.key]);
     return { uploadId: sameFile[0].id, duplicate: true };
+  }
+  if (context.periodId) {
+    try {
+      await assertPeriodTakesData(db, context.firmId, context.periodId);
+    } catch (error) {
+      await deleteStoredFiles([file.key]);
+      throw error;
+    }
   }
   const [firm] = await db.select().from(firms).where(eq(firms.id, context.firmId));
   const [period] = context.periodId
@@ -344,6 +353,8 @@ export async function confirmUpload(actor: Actor, uploadId: string, input: { ack
 
     if (parsed.kind === "positions") {
       if (!row.periodId) throw new AppError("unprocessable:upload", "A positions upload must belong to a period.");
+      // Inside the transaction: a filing submitted or signed a moment ago is seen here, and refuses the upload.
+      await assertPeriodTakesData(tx, actor.firmId, row.periodId);
       const superseded = await tx
         .update(uploads)
         .set({ status: "superseded", supersededBy: uploadId })

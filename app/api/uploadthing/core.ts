@@ -7,7 +7,7 @@ import { UploadThingError } from "uploadthing/server";
 import { z } from "zod";
 import { requireActor } from "@/lib/auth/actor";
 import { AppError } from "@/lib/errors";
-import { getPeriod } from "@/lib/data/periods";
+import { assertPeriodOpenForData, getPeriod } from "@/lib/data/periods";
 import { receiveUpload, type UploadContext } from "@/lib/data/uploads";
 
 const f = createUploadthing({
@@ -54,7 +54,7 @@ export const uploadRouter = {
       gate(async () => {
         const actor = await requireActor("positions.upload");
         const period = await getPeriod(actor, input.periodId);
-        if (period.state === "filed") throw new AppError("conflict:period", "This period is filed; its positions can no longer change.");
+        await assertPeriodOpenForData(actor, period.id);
         return { firmId: actor.firmId, userId: actor.userId, userName: actor.name, periodId: period.id, kind: "positions" as const, numberFormat: input.numberFormat };
       }),
     )
