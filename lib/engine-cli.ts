@@ -5,10 +5,12 @@
 import { CliError } from "./engine-cli/io";
 import { commands as volatilityCommands } from "./engine-cli/volatility";
 import { commands as portfolioCommands } from "./engine-cli/portfolio";
+import { commands as standardisedCommands } from "./engine-cli/standardised";
 
 const commands: Record<string, (argv: string[]) => void | Promise<void>> = {
   ...volatilityCommands,
   ...portfolioCommands,
+  ...standardisedCommands,
 };
 
 async function main(argv: string[]): Promise<void> {

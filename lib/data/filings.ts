@@ -34,6 +34,7 @@ import { now, today } from "@/lib/clock";
 import type { RunRecord } from "@/lib/runs/types";
 import { PACK_KINDS, sectionLabel, type FilingCommentInput, type MarkFiledInput, type NewFilingVersionInput, type PackKind, type PrepareFilingInput, type RequestChangesInput, type SignFilingInput, type SubmitFilingInput, type UpdateFilingInput } from "@/lib/validation/filings";
 import { correlationFromRunInputs, filingInputFromRun } from "@/reports/run-adapter";
+import { storedCorrelationOf } from "@/lib/runs/stored-state";
 import { buildFilingViewModel, contentHash, FILING_STATUS_LABELS, type CorrelationView, type FilingStatus, type FilingViewModel, type SupersededSignature } from "@/reports/view-model";
 import { formatAmount, formatConfidence, formatMonth } from "@/reports/format";
 import { fragment } from "@/reports/sections";
@@ -375,6 +376,8 @@ function correlationOf(actor: Actor, run: RunRecord): Promise<CorrelationView | 
   const key = `${actor.firmId}:${run.id}`;
   let hit = correlationCache.get(key);
   if (!hit) {
+  const stored = run.results ? storedCorrelationOf(run.results) : null;
+  if (stored) return Promise.resolve(stored);
     hit = getRunInputs(actor, run.id)
       .then((inputs) => correlationFromRunInputs(inputs))
       .catch((error: unknown) => {

@@ -13,7 +13,8 @@ import { recordAudit } from "@/lib/audit/record";
 import { now } from "@/lib/clock";
 import type { Actor } from "@/lib/auth/actor";
 import { BASEL_CAPITAL_PROFILE } from "@/lib/risk/capital/capital";
-import { explainRuns } from "@/lib/risk";
+import { explainRuns, explainVarChange } from "@/lib/risk";
+import { storedPortfolioStateOf } from "@/lib/runs/stored-state";
 import { methodContentSchema } from "@/lib/validation/method";
 import { alignReturns } from "@/lib/runs/align";
 import { canonicalJson } from "@/lib/runs/canonical";
@@ -356,9 +357,18 @@ export async function runChange(actor: Actor, runId: string): Promise<RunChange>
   for (const p of earlier) {
     const filing = await filingRunOf(actor, p.id);
     if (!filing) continue;
-    const [mine, theirs] = await Promise.all([getRunInputs(actor, runId), getRunInputs(actor, filing.id)]);
     const confidence = run.results.capitalProfile.profile.confidence;
-    const explanation = explainRuns(engineInputOf(theirs), engineInputOf(mine), confidence);
+    // the stored state of both runs (nothing recomputed); runs stored before the engine returned it are recomputed
+    const mineState = storedPortfolioStateOf(run.results);
+    const theirState = filing.results ? storedPortfolioStateOf(filing.results) : null;
+    let explanation: RunChange["explanation"];
+    if (mineState && theirState) {
+      const method = run.results.engineMethod;
+      explanation = explainVarChange(theirState, mineState, confidence, { distribution: method.distribution, nu: method.nu });
+    } else {
+      const [mine, theirs] = await Promise.all([getRunInputs(actor, runId), getRunInputs(actor, filing.id)]);
+      explanation = explainRuns(engineInputOf(theirs), engineInputOf(mine), confidence);
+    }
     return { previous: { runId: filing.id, periodId: p.id, periodEnd: p.periodEnd }, explanation, note: null };
   }
   return {

@@ -6,8 +6,10 @@
  */
 import { capitalCharge, ENGINE_VERSION, prepareRun, runMonthEnd, type MonthEndInput, type MonthEndResult, type Position } from "@/lib/risk";
 import { alignReturns, usableSeries, type Alignment } from "./align";
+import type { ResolvedModel } from "@/lib/risk/process/types";
 import { factorVolatility, OTHER_SETTINGS_STATEMENT } from "./factor-volatility";
-import { engineMethodOf, firmPlusFactor, mappingStatements, storedHistoryDays } from "./method-map";
+import { engineMethodOf, firmPlusFactor, runStatements, storedHistoryDays } from "./method-map";
+import { readMethodContent } from "@/lib/validation/method";
 import type { FactorVolatility, PositionsSummary, RunInputs, RunResults, StoredPosition } from "./types";
 
 export type RunProgress = (stage: string, fraction: number) => void | Promise<void>;
@@ -112,7 +114,7 @@ export function engineInputOf(inputs: RunInputs, alignment: Alignment = alignRet
     returns: { dates: alignment.returns.dates, factors },
     reportingCurrency: inputs.reportingCurrency,
     fxFactorId: fxFactorOf,
-    method: engineMethodOf(inputs.method.content, inputs.capitalProfile),
+    method: engineMethodOf(readMethodContent(inputs.method.content), inputs.capitalProfile, { candidates: true }),
     capitalProfile: inputs.capitalProfile.profile,
   };
 }
@@ -149,12 +151,40 @@ export function backtestSeriesOf(input: MonthEndInput, monthEnd: MonthEndResult)
 }
 
 const yieldNow = () => new Promise<void>((resolve) => setImmediate(resolve));
+/**
+ * The chosen estimate of each factor as the engine fitted it for the portfolio figures (label, parameters, one-day
+ * volatility), so that the factor report and the figures cannot disagree.
+ */
+export function alignChosenWithEngine(factors: FactorVolatility[], model: ResolvedModel): void {
+  if (model.covariance !== "per-factor") return;
+  const byFactor = new Map(model.factors.map((f) => [f.factor, f]));
+  for (const f of factors) {
+    const r = byFactor.get(f.factor);
+    if (!r) continue;
+    const vol = Math.sqrt(r.variance);
+    f.chosenVolatility = Number.isFinite(vol) ? vol : null;
+    f.chosenAnnualisedVolatility = f.chosenVolatility === null ? null : f.chosenVolatility * Math.sqrt(252);
+    f.chosenParams = Object.fromEntries(Object.entries(r.params).filter(([, v]) => Number.isFinite(v)));
+    f.chosenLabel = r.fallback ? `${r.label} (fallback from ${r.fallback.label})` : r.label;
+  }
+}
+
+/** Which estimator drives what, in words, from what the engine used. */
+export function factorVolatilityStatement(monthEnd: MonthEndResult): string {
+  if (monthEnd.model?.covariance === "per-factor") {
+    return "Each factor's chosen estimator (by its asset class, exchange-rate factors by the FX class, the firm-wide default otherwise) is the volatility in the portfolio figures: value-at-risk, expected shortfall, the backtest and capital.";
+  }
+  const cov = monthEnd.model?.covariance ?? "ewma";
+  return `The portfolio figures use one ${cov === "equal" ? "equal-weight" : cov === "ewma" ? "EWMA" : "GARCH(1,1) constant-correlation"} covariance for every factor, as the method statement chooses; the estimator chosen for each factor's asset class gives the factor volatility reported here and does not enter the portfolio figures.`;
+}
+
 
 /** Every figure of a run from its inputs. */
 export async function computeRun(inputs: RunInputs, context: ComputeContext = { fromStoredInputsOf: null }, onProgress?: RunProgress): Promise<RunResults> {
   const alignment = alignReturns(inputs.prices);
   const assessment = assessHistory(inputs, alignment);
-  const content = inputs.method.content;
+  // content stored before the per-asset-class choices is read as what it computed (never rewritten)
+  const content = readMethodContent(inputs.method.content);
   const shortReason = new Map(assessment.short.map((s) => [s.factor, s.reason]));
   await onProgress?.("inputs", 1);
 
@@ -177,13 +207,15 @@ export async function computeRun(inputs: RunInputs, context: ComputeContext = { 
     stages.push([stage, fraction]);
   });
   for (const [stage, fraction] of stages.filter(([, f]) => f === 1)) await onProgress?.(stage, fraction);
-  const backtestSeries = backtestSeriesOf(input, monthEnd);
+  // the engine returns the series it backtested; runs of an engine without it rebuild it from the prepared run
+  const backtestSeries = monthEnd.backtestSeries ? { ...monthEnd.backtestSeries } : backtestSeriesOf(input, monthEnd);
+  if (monthEnd.model) alignChosenWithEngine(factors, monthEnd.model);
   const keep = storedHistoryDays(inputs.capitalProfile);
   monthEnd.varHistory = { ...monthEnd.varHistory, points: monthEnd.varHistory.points.slice(-keep) };
   monthEnd.choices = { ...monthEnd.choices, historyDays: monthEnd.varHistory.points.length };
 
   // the firm's plus factors, where they differ from the engine's table
-  const notes = [...mappingStatements(content), OTHER_SETTINGS_STATEMENT];
+  const notes = [...runStatements(monthEnd, input.method!), OTHER_SETTINGS_STATEMENT];
   const bt = monthEnd.backtest;
   const firmPlus = firmPlusFactor(inputs.capitalProfile.plusFactors, bt.exceptions);
   if (firmPlus !== monthEnd.capital.plusFactor) {
@@ -210,8 +242,7 @@ export async function computeRun(inputs: RunInputs, context: ComputeContext = { 
     backtestSeries,
     factorVolatility: {
       factors,
-      statement:
-        "The portfolio covariance follows the method statement's covariance choice; the estimator chosen for each factor's asset class gives the factor volatility reported here (it does not enter the portfolio figures unless it is the same model).",
+      statement: factorVolatilityStatement(monthEnd),
     },
     dataQuality: inputs.context.dataQuality,
     positions: positionsSummary(inputs, inputs.context.upload),

@@ -3,9 +3,10 @@
  * scaling, distribution and stress window a run uses, which volatility estimator applies to a factor, and the
  * firm's capital rule profile as the engine's CapitalProfile. Pure.
  */
-import type { MonthEndMethod } from "@/lib/risk";
+import type { MonthEndMethod, MonthEndResult } from "@/lib/risk";
 import type { CapitalProfile } from "@/lib/risk/capital/capital";
-import type { EstimatorChoice, MethodContent } from "@/lib/validation/method";
+import type { BacktestRefit, CorrelationSpec, VolatilityChoice, VolatilitySpec } from "@/lib/risk/process/types";
+import type { BacktestRefitChoice, CorrelationChoice, EstimatorChoice, MethodContent } from "@/lib/validation/method";
 import type { RunCapitalProfile } from "./types";
 
 /**
@@ -41,11 +42,52 @@ export function capitalProfileOf(row: CapitalProfileRow): RunCapitalProfile {
   return { id: row.id, name: row.name, profile, plusFactors: { ...row.plusFactors }, backtestDays: row.backtestDays };
 }
 
+/** The engine's volatility process for one estimator choice, with every setting the analyst chose. */
+export function volatilitySpecOf(choice: EstimatorChoice): VolatilitySpec {
+  switch (choice.kind) {
+    case "ma":
+      return { kind: "ma", window: choice.window, divisor: choice.divisor, mean: choice.mean };
+    case "ewma":
+      // a fitted λ starts the optimiser from the stated value
+      return choice.lambdaMode === "fit" ? { kind: "ewma", lambda: choice.lambda, fit: true } : { kind: "ewma", lambda: choice.lambda };
+    case "arch":
+      return { kind: "arch", order: choice.order };
+    case "garch":
+      return { kind: "garch", distribution: choice.distribution, mean: choice.mean, targeting: choice.targeting, fallback: choice.fallback };
+  }
+}
+
+/** Each factor's process by its asset class (exchange-rate factors are the "fx" class), the firm-wide default for the rest. */
+export function volatilityChoiceOf(content: MethodContent): VolatilityChoice {
+  const byAssetClass: Record<string, VolatilitySpec> = {};
+  for (const [cls, e] of Object.entries(content.byAssetClass)) if (e) byAssetClass[cls] = volatilitySpecOf(e);
+  return { default: volatilitySpecOf(content.defaultEstimator), byAssetClass };
+}
+
+/** The engine's correlation estimator for the method statement's choice. */
+export function correlationSpecOf(choice: CorrelationChoice): CorrelationSpec {
+  return choice.kind === "equal" ? { kind: "equal", window: choice.window } : choice.kind === "ewma" ? { kind: "ewma", lambda: choice.lambda } : { kind: "ccc" };
+}
+
+/** The engine's backtest refit rule for the method statement's choice. */
+export function backtestRefitOf(choice: BacktestRefitChoice): BacktestRefit {
+  return choice.mode === "every" ? { mode: "rolling", everyDays: choice.days } : { mode: "full-sample" };
+}
+
 /** The engine's method for a method statement and capital profile. Parametric and historical always; filtered when chosen. */
-export function engineMethodOf(content: MethodContent, capital: RunCapitalProfile): MonthEndMethod {
+export function engineMethodOf(content: MethodContent, capital: RunCapitalProfile, options: { candidates?: boolean } = {}): MonthEndMethod {
   const methods: MonthEndMethod["methods"] = ["parametric", "historical"];
   if (content.varMethod === "filtered") methods.push("filtered");
+  const perFactor: Partial<MonthEndMethod> =
+    content.portfolioVolatility === "asset-class" ? { volatility: volatilityChoiceOf(content), correlation: correlationSpecOf(content.correlation) } : {};
   return {
+    ...perFactor,
+    // with one covariance model the engine's own default is today's behaviour (full-sample GARCH-CCC; EWMA and equal
+    // weights fit nothing): the refit is passed only where the statement asks for something else
+    ...(content.portfolioVolatility === "asset-class" || (content.covariance === "garch-ccc" && content.backtestRefit.mode === "every")
+      ? { backtestRefit: backtestRefitOf(content.backtestRefit) }
+      : {}),
+    ...(options.candidates ? { candidates: { include: "standard" as const } } : {}),
     methods,
     primaryMethod: content.varMethod,
     covariance: content.covariance,
@@ -90,12 +132,21 @@ export function firmPlusFactor(plusFactors: Record<string, number>, exceptions: 
   return value;
 }
 
-/** Plain statements of what the mapping decided, shown with the run. */
-export function mappingStatements(content: MethodContent): string[] {
+/**
+ * Plain statements of what the run computed, from the engine's result and the method it was given: the VaR methods,
+ * the t distribution's ν, then the engine's own sentences about the resolved model (volatility per factor,
+ * correlation, horizon, backtest). Runs stored before the engine returned its model get the covariance in words.
+ */
+export function runStatements(monthEnd: MonthEndResult, method: MonthEndMethod): string[] {
+  const computed = monthEnd.methods.map((m) => m.method);
   const out = [
-    `Primary VaR method: ${content.varMethod} (the VaR history, backtest and capital use it); parametric and historical figures are always computed${content.varMethod === "filtered" ? ", filtered historical as chosen" : ""}.`,
-    `Portfolio covariance: ${content.covariance === "equal" ? `equal weights over ${content.covarianceWindow} days` : content.covariance === "ewma" ? `EWMA with λ = ${content.covarianceLambda}` : "GARCH(1,1) per factor with constant correlation"}, as the method statement chooses.`,
+    `Primary VaR method: ${monthEnd.primaryMethod} (the VaR history, backtest and capital use it); computed: ${computed.join(", ")}.`,
   ];
-  if (content.distribution === "t") out.push(`Student-t parametric VaR with ν = ${DEFAULT_T_NU}: the method statement chooses the t distribution without a number of degrees of freedom; ${DEFAULT_T_NU} is Ballast's default.`);
+  if (method.distribution === "t") out.push(`Student-t parametric VaR with ν = ${method.nu ?? DEFAULT_T_NU}: the method statement chooses the t distribution without a number of degrees of freedom; ${DEFAULT_T_NU} is Ballast's default.`);
+  if (monthEnd.model) out.push(...monthEnd.model.statements);
+  else {
+    const cov = method.covariance ?? "ewma";
+    out.push(`Portfolio covariance: ${cov === "equal" ? `equal weights over ${method.covarianceWindow ?? 250} days` : cov === "ewma" ? `EWMA with λ = ${method.lambda ?? 0.94}` : "GARCH(1,1) per factor with constant correlation"}.`);
+  }
   return out;
 }

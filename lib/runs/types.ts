@@ -82,6 +82,8 @@ export interface FactorVolatility {
   chosenAnnualisedVolatility: number | null;
   chosenParams: Record<string, number>;
   warnings: EngineWarning[];
+  /** the chosen estimator as the engine fitted it for the portfolio figures, when it did (e.g. "GARCH(1,1), Student-t errors, zero mean") */
+  chosenLabel?: string;
   /** set when the factor was left out of the run for lack of history */
   excluded: string | null;
 }
@@ -161,7 +163,7 @@ export interface RunResults {
   backtestSeries: { confidence: number; method: string; dates: string[]; pnl: number[]; var: number[]; exception: boolean[] };
   factorVolatility: {
     factors: FactorVolatility[];
-    /** which estimator drives what: the covariance follows the method's covariance choice; the per-asset-class estimator gives the reported factor volatility */
+    /** which estimator drives what, from what the engine used */
     statement: string;
   };
   dataQuality: { report: QualityReport; items: number; errors: number; warnings: number };
