@@ -34,8 +34,17 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "GET", path: "/api/audit", allowed: ["admin", "auditor"] },
   { method: "GET", path: "/api/firm", allowed: "member" },
   { method: "PATCH", path: "/api/firm", allowed: ["admin"], invalidBody: { name: "" } },
+  { method: "GET", path: "/api/capital-profile", allowed: "member" },
+  { method: "POST", path: "/api/capital-profile", allowed: ["compliance_officer", "compliance_head"], invalidBody: { name: "", regimes: "sometimes" } },
   { method: "GET", path: "/api/members", allowed: ["admin"] },
   { method: "POST", path: "/api/members", allowed: ["admin"], invalidBody: { email: "not-an-address" } },
+  // The seeded auditor chose their password long ago: a fresh invitation is refused with 409 for their own firm.
+  { method: "POST", path: "/api/members/[memberId]/invitation", allowed: ["admin"], scoped: true, probe: 409 },
+  { method: "POST", path: "/api/account/password", allowed: "member", invalidBody: { currentPassword: "", newPassword: "short" } },
+  // Public account routes: every caller, signed in or not, gets 422 for an invalid body (nothing is looked up).
+  { method: "POST", path: "/api/account/reset", allowed: "public", invalidBody: { email: "not-an-address" } },
+  { method: "POST", path: "/api/account/set-password", allowed: "public", invalidBody: { token: "", password: "short", confirm: "", purpose: "invite" } },
+  { method: "POST", path: "/api/setup", allowed: "public", invalidBody: { firmName: "" } },
   {
     method: "PATCH",
     path: "/api/members/[memberId]",

@@ -15,6 +15,7 @@ export const grants = {
   "prices.upload": ["risk_analyst"],
   "method.edit": ["risk_analyst"],
   "method.approve": ["risk_analyst", "compliance_head"],
+  "capital.edit": ["compliance_officer", "compliance_head"],
   "run.start": ["risk_analyst"],
   "filing.prepare": ["compliance_officer"],
   "filing.review": ["compliance_head"],
