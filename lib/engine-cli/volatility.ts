@@ -4,29 +4,40 @@
  *   compare --input FILE.csv [options] --json
  */
 import { CliError, parseOptions, printJson, readCsv, readNumericColumn, type CliOptions } from "./io";
-import {
-  annualisedVolatilityTermStructure,
-  compareEstimators,
-  fitArch,
-  fitEwma,
-  fitGarch11,
-  fitMovingAverage,
-  forecastVariance,
-  logReturns,
-  simpleReturns,
-  type InitRule,
-  type VolatilityFit,
-} from "../risk";
+import { annualisedVolatilityTermStructure, compareEstimators, logReturns, simpleReturns, type InitRule } from "../risk";
+import { fitProcess, forecastFit, hasTermStructure } from "../risk/process/registry";
+import type { ProcessFit, VolatilitySpec } from "../risk/process/types";
 
 const INPUT_OPTIONS = ["input", "column", "input-kind", "returns"];
 const FIT_OPTIONS = [...INPUT_OPTIONS, "model", "window", "divisor", "mean", "lambda", "order", "dist", "init", "horizon", "fallback", "days-per-year"];
 const COMPARE_OPTIONS = [...INPUT_OPTIONS, "estimation", "evaluation"];
+
+const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
+
+/**
+ * A "date" column, where there is one, must name each row once, and ISO dates (yyyy-mm-dd) must increase: otherwise
+ * the last row would not be the latest day and "today's" variance would be another day's. Errors name the row.
+ */
+export function checkDates(table: { header: string[]; rows: string[][] }): void {
+  const i = table.header.findIndex((h) => h.toLowerCase() === "date");
+  if (i < 0) return;
+  const seen = new Map<string, number>();
+  const cells = table.rows.map((row) => (row[i] ?? "").trim());
+  const iso = cells.every((d) => ISO_DATE.test(d));
+  cells.forEach((d, r) => {
+    const first = seen.get(d);
+    if (first !== undefined) throw new CliError(`--input: row ${r + 2}, column "${table.header[i]}": the date ${d} appears twice (first at row ${first})`);
+    seen.set(d, r + 2);
+    if (iso && r > 0 && d < cells[r - 1]) throw new CliError(`--input: row ${r + 2}, column "${table.header[i]}": dates must increase (${cells[r - 1]} then ${d}); sort the file oldest first`);
+  });
+}
 
 /** Read the input file and turn it into returns as the options say; errors name the row. */
 function readReturns(options: CliOptions): { returns: number[]; column: string; kind: "returns" | "prices" } {
   const file = options.input === true ? undefined : options.input;
   const table = readCsv(file);
   const col = readNumericColumn(table, typeof options.column === "string" ? options.column : undefined);
+  checkDates(table);
   const kind = (options["input-kind"] ?? "returns") as string;
   if (kind !== "returns" && kind !== "prices") throw new CliError(`--input-kind must be returns or prices, not "${kind}"`);
   const returnsKind = (options.returns ?? "log") as string;
@@ -66,54 +77,58 @@ function initOption(options: CliOptions): InitRule | undefined {
   throw new CliError(`--init must be sample, backcast, unconditional, first-K or a positive variance, not "${raw}"`);
 }
 
-/** Run the fit a command line asks for. */
-export function runFit(returns: readonly number[], options: CliOptions): VolatilityFit {
+/** The volatility spec a command line asks for (the engine's stated defaults where an option is absent). */
+export function specOf(options: CliOptions): VolatilitySpec {
   const model = choice(options, "model", ["ma", "arch", "ewma", "garch"] as const, "garch");
   const init = initOption(options);
   const noTargeting = (): void => { if (options.targeting) throw new CliError(`--targeting applies to --model garch only`); };
-  try {
-    switch (model) {
-      case "ma": {
-        noTargeting();
-        if (init !== undefined) throw new CliError("--init does not apply to --model ma (it needs a full window)");
-        return fitMovingAverage(returns, {
-          window: intOption(options, "window", 20, 2),
-          divisor: choice(options, "divisor", ["m", "m-1"] as const, "m"),
-          mean: choice(options, "mean", ["zero", "sample"] as const, "zero"),
-        });
-      }
-      case "ewma": {
-        noTargeting();
-        choice(options, "mean", ["zero"] as const, "zero");
-        const raw = options.lambda;
-        let lambda: number | "fit" = 0.94;
-        if (raw === "fit") lambda = "fit";
-        else if (raw !== undefined) {
-          lambda = Number(raw);
-          if (!(lambda > 0 && lambda < 1)) throw new CliError(`--lambda must be fit or a number between 0 and 1, not "${raw}"`);
-        }
-        if (init === "unconditional") throw new CliError("--init unconditional does not apply to EWMA (it has no long-run variance)");
-        return fitEwma(returns, { lambda, init });
-      }
-      case "arch": {
-        noTargeting();
-        choice(options, "mean", ["zero"] as const, "zero");
-        if (typeof init === "number" || init === "unconditional") throw new CliError("--init for ARCH must be sample, backcast or first-K");
-        return fitArch(returns, { order: intOption(options, "order", 1, 1), init });
-      }
-      case "garch":
-        return fitGarch11(returns, {
-          mean: choice(options, "mean", ["zero", "fit"] as const, "zero"),
-          distribution: choice(options, "dist", ["normal", "t"] as const, "normal"),
-          targeting: options.targeting === true,
-          init,
-          fallback: choice(options, "fallback", ["none", "ewma"] as const, "none"),
-        });
+  switch (model) {
+    case "ma": {
+      noTargeting();
+      if (init !== undefined) throw new CliError("--init does not apply to --model ma (it needs a full window)");
+      return { kind: "ma", window: intOption(options, "window", 20, 2), divisor: choice(options, "divisor", ["m", "m-1"] as const, "m"), mean: choice(options, "mean", ["zero", "sample"] as const, "zero") };
     }
+    case "ewma": {
+      noTargeting();
+      choice(options, "mean", ["zero"] as const, "zero");
+      const raw = options.lambda;
+      let lambda = 0.94;
+      let fit = false;
+      if (raw === "fit") fit = true;
+      else if (raw !== undefined) {
+        lambda = Number(raw);
+        if (!(lambda > 0 && lambda < 1)) throw new CliError(`--lambda must be fit or a number between 0 and 1, not "${raw}"`);
+      }
+      if (init === "unconditional") throw new CliError("--init unconditional does not apply to EWMA (it has no long-run variance)");
+      return { kind: "ewma", lambda, fit, ...(init !== undefined ? { init } : {}) };
+    }
+    case "arch": {
+      noTargeting();
+      choice(options, "mean", ["zero"] as const, "zero");
+      if (typeof init === "number" || init === "unconditional") throw new CliError("--init for ARCH must be sample, backcast or first-K");
+      return { kind: "arch", order: intOption(options, "order", 1, 1), ...(init !== undefined ? { init } : {}) };
+    }
+    case "garch":
+      return {
+        kind: "garch",
+        mean: choice(options, "mean", ["zero", "fit"] as const, "zero"),
+        distribution: choice(options, "dist", ["normal", "t"] as const, "normal"),
+        targeting: options.targeting === true,
+        fallback: choice(options, "fallback", ["none", "ewma"] as const, "none"),
+        ...(init !== undefined ? { init } : {}),
+      };
+  }
+}
+
+/** Run the fit a command line asks for, through the engine's one registry of volatility processes. */
+export function runFit(returns: readonly number[], options: CliOptions): ProcessFit {
+  const spec = specOf(options);
+  try {
+    return fitProcess(returns, spec);
   } catch (error) {
     if (error instanceof CliError) throw error;
     // the engine's own wording (e.g. "fitGarch11 requires at least 100 returns"), as one line
-    throw new CliError(`--model ${model}: ${(error as Error).message}`);
+    throw new CliError(`--model ${spec.kind}: ${(error as Error).message}`);
   }
 }
 
@@ -122,14 +137,16 @@ function fitCommand(argv: string[]): void {
   const options = parseOptions(argv, FIT_OPTIONS, ["json", "targeting"]);
   if (options.model === undefined) throw new CliError("missing --model ma|arch|ewma|garch");
   const { returns, column, kind } = readReturns(options);
-  const fit = runFit(returns, options);
+  const pf = runFit(returns, options);
+  const fit = pf.fit;
   const horizon = intOption(options, "horizon", 10, 1);
   const daysPerYear = intOption(options, "days-per-year", 252, 1);
   if (daysPerYear !== 252 && daysPerYear !== 250) throw new CliError("--days-per-year must be 252 or 250");
-  const forecast = forecastVariance(fit, horizon);
+  const forecast = forecastFit(pf, horizon);
   const out = {
     model: options.model,
     fittedModel: fit.kind,
+    label: pf.label,
     engineVersion: fit.engineVersion,
     input: { file: options.input, column, kind, returns: kind === "prices" ? (options.returns ?? "log") : "as given" },
     n: returns.length,
@@ -142,7 +159,7 @@ function fitCommand(argv: string[]): void {
     longRunVariance: fit.longRunVariance,
     horizonDays: horizon,
     forecast: Array.from(forecast),
-    forecastShape: fit.kind === "garch" || fit.kind === "arch" ? "reverts towards the long-run variance" : "flat: today's variance for every day",
+    forecastShape: hasTermStructure(pf.used) ? "reverts towards the long-run variance" : "flat: today's variance for every day",
     annualisedVolatility: { daysPerYear, byHorizon: Array.from(annualisedVolatilityTermStructure(forecast, daysPerYear as 252 | 250)) },
     initialization: fit.initialization,
     diagnostics: fit.diagnostics,

@@ -6,7 +6,6 @@
 import { filterFit, fitProcess, parameterNames } from "./process/registry";
 import type { VolatilitySpec } from "./process/types";
 import { ENGINE_VERSION } from "./version";
-import type { VolatilityFit } from "./types";
 
 /** Options of compareEstimators. */
 export interface CompareOptions {
