@@ -257,7 +257,10 @@ function csv(header: readonly string[], rows: readonly (readonly string[])[]): s
 
 // ---------------------------------------------------------------------------------------------- positions
 
-export const POSITIONS_HEADER = ["as_of", "book", "instrument_id", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure"] as const;
+export const POSITIONS_HEADER = ["as_of", "book", "instrument_id", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure", "market_value_note"] as const;
+
+/** Why the NOK position's market value stands without a NOKEUR series (the upload refuses it without a reason). */
+export const NOK_VALUE_NOTE = `No NOKEUR series loaded: valued at ${NOK_EUR_RATE} EUR per NOK from the broker statement`;
 
 interface Holding {
   book: string;
@@ -342,7 +345,8 @@ interface PositionRow {
 
 function positionCells(p: PositionRow): string[] {
   const mv = fmt(p.marketValue, 2);
-  return [p.asOf, p.book, p.id, p.name, p.assetClass, p.currency, String(p.quantity), fmt(p.price, p.decimals), mv, p.delta ? mv : ""];
+  const note = p.currency === "NOK" && p.marketValue !== 0 ? NOK_VALUE_NOTE : "";
+  return [p.asOf, p.book, p.id, p.name, p.assetClass, p.currency, String(p.quantity), fmt(p.price, p.decimals), mv, p.delta ? mv : "", note];
 }
 
 interface World {
@@ -678,7 +682,7 @@ ${specTable(PELLAM_SERIES)}
 | gap | ${PLANTED.gap.instrument} | ${PLANTED.gap.from} to ${PLANTED.gap.to} | ${PLANTED.gap.days} consecutive business days missing (prices on ${f.gapBefore} and ${f.gapAfter}) |
 | suspicious jump | ${PLANTED.jump.instrument} | ${PLANTED.jump.date} | close ${f.jumpValue} (+35 % on the true ${f.jumpTrue}; ${f.jumpBefore} the day before, ${f.jumpAfter} the day after) |
 | no price history | ${PLANTED.noHistory.instrument} | — | in the November positions, absent from both price files |
-| currency without a rate series | ${PLANTED.missingFx.instrument} | — | a NOK position; there is no NOKEUR series (its market value uses an invented ${NOK_EUR_RATE} EUR per NOK; the instrument itself has a price history) |
+| currency without a rate series | ${PLANTED.missingFx.instrument} | — | a NOK position; there is no NOKEUR series (its market value uses an invented ${NOK_EUR_RATE} EUR per NOK; the instrument itself has a price history; the row says so in \`market_value_note\`, without which the upload refuses it) |
 | correction in the extension | ${PLANTED.correction.instrument} | ${PLANTED.correction.date} | northmoor-prices.csv has ${f.provisionalClose} (two digits swapped); the extension's first row corrects it to ${f.correctedClose} |
 
 The stress episode also gives real moves that a robust extreme-return check lists for a person to confirm; they are

@@ -15,7 +15,7 @@ import { readTables } from "@/lib/uploads/read-table";
 import { chooseTable, parsePositions, POSITION_FIELDS, type PositionsParse } from "@/lib/uploads/parse-positions";
 import { parsePrices, PRICE_FIELDS, type PricePoint, type PricesParse } from "@/lib/uploads/parse-prices";
 import { bulkInsert, orderedId } from "@/db/bulk-insert";
-import { FileRejected, type NumberFormat, type Problem, type ReadOptions } from "@/lib/uploads/types";
+import { FileRejected, type DateFormat, type NumberFormat, type Problem, type ReadOptions } from "@/lib/uploads/types";
 import { fetchStoredFile, deleteStoredFiles, sha256 } from "@/lib/uploads/file-store";
 import { assertPeriodTakesData } from "./periods";
 
@@ -29,6 +29,8 @@ export type UploadContext = {
   periodId: string | null;
   kind: UploadKind;
   numberFormat: NumberFormat;
+  /** how text dates are written (ISO when absent) */
+  dateFormat?: DateFormat;
 };
 
 export type ParsedUpload = ({ kind: "positions" } & PositionsParse) | ({ kind: "prices" } & PricesParse) | { kind: "rejected"; message: string; problems: Problem[] };
@@ -47,19 +49,23 @@ function remember(key: string, value: ParsedUpload): ParsedUpload {
 }
 
 /** Rates to the reporting currency on or before `asOf`, from the firm's `CCY` + reporting-currency series. */
-async function fxRates(firmId: string, reportingCurrency: string, asOf: string): Promise<Record<string, number>> {
+async function fxRates(firmId: string, reportingCurrency: string, asOf: string): Promise<{ rates: Record<string, number>; dates: Record<string, string> }> {
   const db = getDb();
   const pairs = await db.select().from(instruments).where(eq(instruments.firmId, firmId));
   const rates: Record<string, number> = {};
+  const dates: Record<string, string> = {};
   for (const pair of pairs.filter((p) => /^[A-Z]{3}[A-Z]{3}$/.test(p.code) && p.code.endsWith(reportingCurrency))) {
     const points = await db
       .select({ date: pricePoints.date, close: pricePoints.close })
       .from(pricePoints)
       .where(and(eq(pricePoints.firmId, firmId), eq(pricePoints.instrumentId, pair.id), eq(pricePoints.current, true)));
     const latest = points.filter((p) => p.date <= asOf).sort((a, b) => (a.date < b.date ? 1 : -1))[0];
-    if (latest) rates[pair.code.slice(0, 3)] = latest.close;
+    if (latest) {
+      rates[pair.code.slice(0, 3)] = latest.close;
+      dates[pair.code.slice(0, 3)] = latest.date;
+    }
   }
-  return rates;
+  return { rates, dates };
 }
 
 /** Parse bytes as the given kind of upload, in the firm's context. */
@@ -79,8 +85,8 @@ export async function parseUploadBytes(
       return { kind: "rejected", message, problems: [{ row: null, field: null, severity: "error", message }] };
     }
     if (kind === "positions") {
-      const rates = await fxRates(context.firmId, context.reportingCurrency, context.periodEnd ?? today());
-      return { kind, ...parsePositions(table, options, { today: today(), reportingCurrency: context.reportingCurrency, periodEnd: context.periodEnd, fxToReporting: rates }) };
+      const fx = await fxRates(context.firmId, context.reportingCurrency, context.periodEnd ?? today());
+      return { kind, ...parsePositions(table, options, { today: today(), reportingCurrency: context.reportingCurrency, periodEnd: context.periodEnd, fxToReporting: fx.rates, fxDates: fx.dates }) };
     }
     return { kind, ...parsePrices(table, options, { today: today() }) };
   } catch (error) {
@@ -99,7 +105,7 @@ function counts(parsed: ParsedUpload) {
 }
 
 function summaryOf(parsed: ParsedUpload): Record<string, unknown> {
-  if (parsed.kind === "positions") return { totals: parsed.totals, source: parsed.source, missingColumns: parsed.missingColumns };
+  if (parsed.kind === "positions") return { totals: parsed.totals, source: parsed.source, missingColumns: parsed.missingColumns, rates: parsed.rates ?? [] };
   if (parsed.kind === "prices") return { ...parsed.summary, layout: parsed.layout, source: parsed.source, missingColumns: parsed.missingColumns };
   return { rejected: parsed.message };
 }
@@ -148,7 +154,7 @@ export async function receiveUploadBytes(
   const [period] = context.periodId
     ? await db.select().from(reportingPeriods).where(and(eq(reportingPeriods.id, context.periodId), eq(reportingPeriods.firmId, context.firmId)))
     : [];
-  const options: ReadOptions = { numberFormat: context.numberFormat };
+  const options: ReadOptions = { numberFormat: context.numberFormat, ...(context.dateFormat && context.dateFormat !== "iso" ? { dateFormat: context.dateFormat } : {}) };
   const parsed = await parseUploadBytes(bytes, context.kind, options, { firmId: context.firmId, reportingCurrency: firm.reportingCurrency, periodEnd: period?.periodEnd });
   const id = crypto.randomUUID();
   remember(`${id}:${JSON.stringify(options)}`, parsed);
@@ -241,6 +247,7 @@ export async function getUploadPreview(actor: Actor, uploadId: string) {
   return {
     upload: { ...(await listUploads(actor)).find((u) => u.id === row.id)!, options: row.options, summary: row.summary, sizeBytes: row.sizeBytes },
     canConfirm: can(actor, PERMISSION[row.kind as UploadKind]),
+    reportingCurrency: actor.reportingCurrency,
     problems: parsed ? parsed.problems : ((row.problems ?? []) as Problem[]),
     header: parsed && parsed.kind !== "rejected" ? parsed.header : [],
     missingColumns: parsed && parsed.kind !== "rejected" ? parsed.missingColumns : [],

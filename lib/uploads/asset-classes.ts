@@ -12,17 +12,31 @@ export const ASSET_CLASS_LABELS: Record<AssetClass, string> = {
   other: "Other",
 };
 
-const SPELLINGS: Record<string, AssetClass> = {
-  equity: "equity", equities: "equity", stock: "equity", stocks: "equity", share: "equity", shares: "equity",
-  etf: "etf", etfs: "etf", fund: "etf", exchangetradedfund: "etf",
-  governmentbond: "government_bond", governmentbonds: "government_bond", govbond: "government_bond", govt: "government_bond", sovereign: "government_bond",
-  corporatebond: "corporate_bond", corporatebonds: "corporate_bond", corpbond: "corporate_bond",
-  commodityfuture: "commodity_future", commodityfutures: "commodity_future", commodity: "commodity_future", future: "commodity_future", futures: "commodity_future",
-  fx: "fx", currency: "fx", foreignexchange: "fx", fxforward: "fx",
-  other: "other",
+/**
+ * The one table of spellings a file may use for each asset class (compared without case, spaces, underscores,
+ * hyphens, dots or slashes). The Data page and the column guide show this table; the parser reads only it.
+ * A bare "bond" is read as a corporate bond: without the issuer, the class with the larger specific-risk weight.
+ */
+export const ASSET_CLASS_ALIASES: Record<AssetClass, readonly string[]> = {
+  equity: ["equity", "equities", "stock", "stocks", "share", "shares"],
+  etf: ["etf", "etfs", "fund", "exchange traded fund"],
+  government_bond: ["government bond", "government bonds", "gov bond", "govt", "govt bond", "sovereign", "gilt", "treasury"],
+  corporate_bond: ["corporate bond", "corporate bonds", "corp bond", "bond", "bonds"],
+  commodity_future: ["commodity future", "commodity futures", "commodity", "future", "futures"],
+  fx: ["fx", "currency", "foreign exchange", "fx forward"],
+  other: ["other"],
 };
+
+/** A spelling as the parser compares it. */
+function spellingKey(text: string): string {
+  return text.toLowerCase().replace(/[\s_\-./]+/g, "");
+}
+
+const SPELLINGS: Record<string, AssetClass> = Object.fromEntries(
+  (Object.entries(ASSET_CLASS_ALIASES) as [AssetClass, readonly string[]][]).flatMap(([cls, names]) => [cls, ...names].map((n) => [spellingKey(n), cls])),
+);
 
 /** The asset class a file's spelling names, or null. */
 export function parseAssetClass(text: string): AssetClass | null {
-  return SPELLINGS[text.toLowerCase().replace(/[\s_\-./]+/g, "")] ?? null;
+  return SPELLINGS[spellingKey(text)] ?? null;
 }

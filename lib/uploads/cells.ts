@@ -1,6 +1,6 @@
 /** Reading single cells: numbers in the chosen format, dates (ISO or Excel serials), header names. */
 import { excelSerialToIso } from "./read-table";
-import type { NumberFormat } from "./types";
+import type { DateFormat, NumberFormat } from "./types";
 
 /** Header names compared without case, spaces, underscores, hyphens, dots or slashes. */
 export function normaliseHeader(name: string): string {
@@ -31,9 +31,25 @@ export function readNumber(cell: unknown, format: NumberFormat): { value: number
 }
 
 const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
+const DAY_FIRST = /^(\d{1,2})[/.-](\d{1,2})[/.-](\d{4})$/;
 
-/** A date cell as yyyy-mm-dd: ISO text, an Excel serial (number, or digits in a CSV), or a workbook date. */
-export function readDate(cell: unknown): { value: string } | { error: string } {
+/** A date written day/month/year or month/day/year (slashes, dots or hyphens) as yyyy-mm-dd, or why it is not one. */
+function readWrittenDate(text: string, format: Exclude<DateFormat, "iso">): { value: string } | { error: string } {
+  const match = DAY_FIRST.exec(text);
+  const shape = format === "day-month-year" ? "dd/mm/yyyy" : "mm/dd/yyyy";
+  if (!match) return { error: `"${text}" is not a date as ${shape}` };
+  const [a, b, y] = [Number(match[1]), Number(match[2]), Number(match[3])];
+  const [d, m] = format === "day-month-year" ? [a, b] : [b, a];
+  const date = new Date(Date.UTC(y, m - 1, d));
+  if (m < 1 || m > 12 || date.getUTCFullYear() !== y || date.getUTCMonth() !== m - 1 || date.getUTCDate() !== d) return { error: `"${text}" does not exist as ${shape}` };
+  return { value: `${String(y).padStart(4, "0")}-${String(m).padStart(2, "0")}-${String(d).padStart(2, "0")}` };
+}
+
+/**
+ * A date cell as yyyy-mm-dd: text in the chosen date format (ISO yyyy-mm-dd by default), an Excel serial (number,
+ * or digits in a CSV), or a workbook date.
+ */
+export function readDate(cell: unknown, format: DateFormat = "iso"): { value: string } | { error: string } {
   if (cell instanceof Date) return Number.isNaN(cell.getTime()) ? { error: "is not a date" } : { value: cell.toISOString().slice(0, 10) };
   if (typeof cell === "number") {
     const iso = excelSerialToIso(cell);
@@ -45,6 +61,7 @@ export function readDate(cell: unknown): { value: string } | { error: string } {
     const iso = excelSerialToIso(Number(text));
     if (iso) return { value: iso };
   }
+  if (format !== "iso") return readWrittenDate(text, format);
   const match = ISO_DATE.exec(text.slice(0, 10));
   if (!match || (text.length > 10 && !/^[T ]/.test(text.slice(10)))) return { error: `"${text}" is not a date as yyyy-mm-dd` };
   const [, y, m, d] = match.map(Number);

@@ -18,6 +18,8 @@ export const POSITION_FIELDS = {
   price: { label: "price", required: true, aliases: ["price", "close", "lastprice", "unitprice"] },
   marketValue: { label: "market value", required: false, aliases: ["marketvalue", "mv", "value", "marketvaluereporting"] },
   deltaExposure: { label: "delta-equivalent exposure", required: false, aliases: ["deltaequivalentexposure", "deltaexposure", "delta", "deltaequivalent"] },
+  marketValueCurrency: { label: "market value currency", required: false, aliases: ["marketvaluecurrency", "mvcurrency", "mvccy", "valuecurrency", "marketvalueccy"] },
+  marketValueNote: { label: "market value note", required: false, aliases: ["marketvaluenote", "mvnote", "valuenote", "marketvaluereason", "valuereason"] },
 } as const;
 export type PositionField = keyof typeof POSITION_FIELDS;
 export const REQUIRED_POSITION_FIELDS = (Object.keys(POSITION_FIELDS) as PositionField[]).filter((f) => POSITION_FIELDS[f].required);
@@ -59,18 +61,53 @@ export interface PositionsParse {
   rows: PositionRow[];
   problems: Problem[];
   totals: PositionTotals;
+  /** the exchange rates the file's rows were converted or checked with */
+  rates?: RateUsed[];
 }
 
 export interface PositionParseContext {
   /** yyyy-mm-dd: no as-of date may be after it */
   today: string;
   reportingCurrency: string;
-  /** the period end the file is for; as-of dates elsewhere are warned about */
+  /** the period end the file is for; as-of dates before it in the same month are warned about, outside the month refused */
   periodEnd?: string;
   /** units of reporting currency per unit of the row's currency, for the market value cross-check */
   fxToReporting?: Record<string, number>;
   /** relative tolerance of the quantity × price cross-check */
   tolerance?: number;
+  /** the date of each rate in fxToReporting; a rate older than the period's last weekday makes the cross-check indicative */
+  fxDates?: Record<string, string>;
+}
+
+/** Relative tolerance of the market value cross-check, unless the caller states another: 0.5 % (and at least 1 unit). */
+export const MARKET_VALUE_TOLERANCE = 0.005;
+/**
+ * Against a rate from before the period's last weekday (the series is not loaded to the period end yet), a difference
+ * beyond the tolerance is only a warning, up to this much: beyond it the value cannot be a month's currency move.
+ */
+export const EARLIER_RATE_TOLERANCE = 0.1;
+
+/** An exchange rate a positions file was read with. */
+export interface RateUsed {
+  currency: string;
+  pair: string;
+  rate: number;
+  /** the date of the close used, when known */
+  date: string | null;
+  /** false when the rate series stops before the period's last weekday */
+  periodEnd: boolean;
+}
+
+/** The last Monday-to-Friday day on or before a yyyy-mm-dd date. */
+export function lastWeekdayOnOrBefore(date: string): string {
+  const d = new Date(`${date}T00:00:00Z`);
+  while (d.getUTCDay() === 0 || d.getUTCDay() === 6) d.setUTCDate(d.getUTCDate() - 1);
+  return d.toISOString().slice(0, 10);
+}
+
+/** The first day of the month a period end closes, yyyy-mm-dd. */
+export function periodStartOf(periodEnd: string): string {
+  return `${periodEnd.slice(0, 8)}01`;
 }
 
 /** Totals by asset class and by currency. */
@@ -138,7 +175,7 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
     return { ...empty, missingColumns };
   }
 
-  const tolerance = context.tolerance ?? 0.005;
+  const tolerance = context.tolerance ?? MARKET_VALUE_TOLERANCE;
   const seen = new Map<string, number>();
   const cell = (raw: unknown[], field: PositionField) => (index[field] === undefined ? undefined : raw[index[field]!]);
 
@@ -147,16 +184,18 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
     const rowProblems: Problem[] = [];
     const fail = (field: PositionField, message: string) => rowProblems.push({ row, field: POSITION_FIELDS[field].label, message, severity: "error" });
 
-    const asOf = readDate(cell(raw, "asOf"));
-    if ("error" in asOf) fail("asOf", `as-of date ${asOf.error}`);
+    const asOf = readDate(cell(raw, "asOf"), options.dateFormat);
+    if ("error" in asOf) fail("asOf", `as-of date ${asOf.error}${asOf.error.includes("is not a date as") ? " (choose the date format that matches the file)" : ""}`);
     else if (asOf.value > context.today) fail("asOf", `as-of date ${asOf.value} is in the future`);
-    else if (context.periodEnd && asOf.value !== context.periodEnd) {
+    else if (context.periodEnd && (asOf.value > context.periodEnd || asOf.value < periodStartOf(context.periodEnd))) {
+      fail("asOf", `as-of date ${asOf.value} is outside the period ${periodStartOf(context.periodEnd)} to ${context.periodEnd}: upload it to the period it belongs to`);
+    } else if (context.periodEnd && asOf.value !== context.periodEnd) {
       rowProblems.push({ row, field: POSITION_FIELDS.asOf.label, severity: "warning", message: `as-of date ${asOf.value} is not the period end ${context.periodEnd}` });
     }
 
     const assetText = readText(cell(raw, "assetClass"));
     const assetClass = parseAssetClass(assetText);
-    if (!assetClass) fail("assetClass", assetText ? `"${assetText}" is not an asset class Ballast knows (${ASSET_CLASSES.join(", ")})` : "asset class is empty");
+    if (!assetClass) fail("assetClass", assetText ? `"${assetText}" is not an asset class Ballast knows (${ASSET_CLASSES.join(", ")}; the Data page lists every accepted spelling)` : "asset class is empty");
 
     const currency = readText(cell(raw, "currency")).toUpperCase();
     const numbers: Partial<Record<"quantity" | "price" | "marketValue" | "deltaExposure", number | null>> = {};
@@ -172,7 +211,34 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
       else numbers[field] = parsed.value;
     }
 
-    const fx = currency === context.reportingCurrency ? 1 : context.fxToReporting?.[currency];
+    const rateOf = (ccy: string) => (ccy === context.reportingCurrency ? 1 : context.fxToReporting?.[ccy]);
+    const fx = rateOf(currency);
+    const pair = `${currency}${context.reportingCurrency}`;
+    const note = readText(cell(raw, "marketValueNote")).slice(0, 500);
+    const valueCurrency = readText(cell(raw, "marketValueCurrency")).toUpperCase();
+    if (fx === undefined && isIsoCurrency(currency)) {
+      const load = `load its price history (instrument ${pair}, the price of one ${currency} in ${context.reportingCurrency}) before confirming`;
+      const valuedInReporting = numbers.marketValue != null && (valueCurrency === "" || valueCurrency === context.reportingCurrency);
+      if (valuedInReporting && note) {
+        rowProblems.push({
+          row,
+          field: POSITION_FIELDS.currency.label,
+          severity: "warning",
+          message: `currency ${currency} has no ${pair} exchange-rate series up to ${context.periodEnd ?? context.today}: the market value is kept as given in ${context.reportingCurrency} because: ${note}; the run leaves this position's currency risk out until you ${load.replace(" before confirming", "")}`,
+        });
+      } else {
+        fail("currency", `currency ${currency} has no ${pair} exchange-rate series up to ${context.periodEnd ?? context.today}: ${load} (or give the market value in ${context.reportingCurrency} and say where its rate came from in a market_value_note column)`);
+      }
+    }
+    // A market value in another currency than the reporting one is converted at the period-end rate.
+    let givenValue = numbers.marketValue ?? null;
+    if (givenValue != null && valueCurrency !== "" && valueCurrency !== context.reportingCurrency) {
+      const rate = isIsoCurrency(valueCurrency) ? rateOf(valueCurrency) : undefined;
+      if (!isIsoCurrency(valueCurrency)) fail("marketValueCurrency", `market value currency "${valueCurrency}" is not an ISO 4217 currency code`);
+      else if (rate === undefined) fail("marketValueCurrency", `market value currency ${valueCurrency} has no ${valueCurrency}${context.reportingCurrency} exchange-rate series to convert it with`);
+      else givenValue = givenValue * rate;
+    }
+    // A market value without its currency is read in the reporting currency, and cross-checked below.
     const computed = numbers.quantity != null && numbers.price != null && fx !== undefined ? numbers.quantity * numbers.price * fx : null;
     const candidate = {
       row,
@@ -184,13 +250,10 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
       currency,
       quantity: numbers.quantity ?? 0,
       price: numbers.price ?? 0,
-      marketValue: numbers.marketValue ?? computed ?? 0,
+      marketValue: givenValue ?? computed ?? 0,
       marketValueGiven: numbers.marketValue != null,
       deltaExposure: numbers.deltaExposure ?? null,
     };
-    if (numbers.marketValue == null && computed == null && numbers.quantity != null && numbers.price != null) {
-      fail("marketValue", `market value is needed: there is no ${currency}/${context.reportingCurrency} rate to compute it from quantity × price`);
-    }
 
     const checked = positionRowSchema.safeParse(candidate);
     if (!checked.success) {
@@ -209,14 +272,31 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
       if (first !== undefined) {
         fail("instrumentId", `duplicate position: book "${candidate.book}" and instrument "${candidate.instrumentId}" already appear on row ${first}`);
       } else seen.set(key, row);
-      if (numbers.marketValue != null && computed !== null) {
-        const gap = Math.abs(numbers.marketValue - computed);
-        if (gap > Math.max(1, tolerance * Math.abs(computed))) {
+      if (givenValue != null && computed !== null) {
+        const gap = Math.abs(givenValue - computed);
+        const usedRates = [currency, valueCurrency].filter((c) => c && c !== context.reportingCurrency);
+        const earlier = usedRates.map((c) => context.fxDates?.[c]).find((d) => d && context.periodEnd && d < lastWeekdayOnOrBefore(context.periodEnd));
+        if (earlier && gap > Math.max(1, tolerance * Math.abs(computed)) && gap <= EARLIER_RATE_TOLERANCE * Math.abs(computed)) {
           rowProblems.push({
             row,
             field: POSITION_FIELDS.marketValue.label,
             severity: "warning",
-            message: `market value ${numbers.marketValue} differs from quantity × price${fx !== 1 ? " × rate" : ""} = ${computed.toFixed(2)} by more than ${(tolerance * 100).toFixed(1)} %`,
+            message: `market value ${numbers.marketValue} differs from quantity × price × ${pair} rate ${fx} = ${computed.toFixed(2)} ${context.reportingCurrency} by more than ${(tolerance * 100).toFixed(1)} %, but that rate is of ${earlier}, before the period end: load the exchange rates to ${context.periodEnd} to check it`,
+          });
+        } else if (gap > Math.max(1, tolerance * Math.abs(computed))) {
+          const shown = valueCurrency && valueCurrency !== context.reportingCurrency ? `${numbers.marketValue} ${valueCurrency} (${givenValue.toFixed(2)} ${context.reportingCurrency})` : `${numbers.marketValue}`;
+          const against = `quantity × price${fx !== 1 ? ` × ${pair} rate ${fx}` : ""} = ${computed.toFixed(2)} ${context.reportingCurrency}`;
+          const hint =
+            currency !== context.reportingCurrency && !valueCurrency && Math.abs(numbers.marketValue! - numbers.quantity! * numbers.price!) <= Math.max(1, tolerance * Math.abs(numbers.quantity! * numbers.price!))
+              ? `; it looks like a value in ${currency}: add a market_value_currency column saying ${currency}, or leave market value empty`
+              : "";
+          rowProblems.push({
+            row,
+            field: POSITION_FIELDS.marketValue.label,
+            severity: note ? "warning" : "error",
+            message: note
+              ? `market value ${shown} differs from ${against} by more than ${(tolerance * 100).toFixed(1)} %; kept as given because: ${note}`
+              : `market value ${shown} differs from ${against} by more than ${(tolerance * 100).toFixed(1)} %${hint}. Correct it, leave it empty to compute it, or say why in a market_value_note column`,
           });
         }
       }
@@ -226,5 +306,11 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
     if (checked.success && !rowProblems.some((p) => p.severity === "error")) rows.push(checked.data);
   });
 
-  return { ...empty, missingColumns, rows, problems, totals: positionTotals(rows) };
+  const rates: RateUsed[] = [...new Set(rows.map((r) => r.currency).filter((c) => c !== context.reportingCurrency && context.fxToReporting?.[c] !== undefined))]
+    .sort()
+    .map((c) => {
+      const date = context.fxDates?.[c] ?? null;
+      return { currency: c, pair: `${c}${context.reportingCurrency}`, rate: context.fxToReporting![c], date, periodEnd: !(date && context.periodEnd && date < lastWeekdayOnOrBefore(context.periodEnd)) };
+    });
+  return { ...empty, missingColumns, rows, problems, totals: positionTotals(rows), rates };
 }

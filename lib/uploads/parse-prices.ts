@@ -83,7 +83,7 @@ export function parsePrices(table: RawTable, options: ReadOptions, context: { to
   const dateCache = new Map<unknown, ReturnType<typeof readDate>>();
   const dateOf = (cell: unknown) => {
     let value = dateCache.get(cell);
-    if (!value) dateCache.set(cell, (value = readDate(cell)));
+    if (!value) dateCache.set(cell, (value = readDate(cell, options.dateFormat)));
     return value;
   };
   const accept = (row: number, dateCell: unknown, instrument: string, closeCell: unknown, field: string) => {

@@ -19,9 +19,20 @@ export const NUMBER_FORMAT_LABELS: Record<NumberFormat, string> = {
   "dot-thousands": "Dot thousands, decimal comma: 1.234,56",
 };
 
+/** How dates are written in the file's text cells (workbook dates and Excel serials are read whatever is chosen). */
+export type DateFormat = "iso" | "day-month-year" | "month-day-year";
+
+export const DATE_FORMAT_LABELS: Record<DateFormat, string> = {
+  iso: "Year first: 2026-11-30",
+  "day-month-year": "Day first: 30/11/2026",
+  "month-day-year": "Month first: 11/30/2026",
+};
+
 /** Options a person chose for reading one file. */
 export interface ReadOptions {
   numberFormat: NumberFormat;
+  /** how text dates are written; ISO yyyy-mm-dd when not chosen */
+  dateFormat?: DateFormat;
   /** required field → the file's column header, when the names differ */
   mapping?: Record<string, string>;
 }

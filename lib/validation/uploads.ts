@@ -1,10 +1,12 @@
 import { z } from "zod";
 
 export const numberFormatSchema = z.enum(["plain", "comma-thousands", "dot-thousands"], { message: "Choose a number format." });
+export const dateFormatSchema = z.enum(["iso", "day-month-year", "month-day-year"], { message: "Choose a date format: iso, day-month-year or month-day-year." });
 
 /** How a pending upload is read: number format and, when the header names differ, a field → column mapping. */
 export const uploadOptionsSchema = z.object({
   numberFormat: numberFormatSchema,
+  dateFormat: dateFormatSchema.optional(),
   mapping: z.record(z.string().max(40), z.string().max(200, "A column name is at most 200 characters.")).optional(),
 });
 

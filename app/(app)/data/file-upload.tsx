@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { UploadButton } from "@/app/_components/upload-button";
 import { inputClass } from "@/app/_components/field";
-import { NUMBER_FORMAT_LABELS, type NumberFormat } from "@/lib/uploads/types";
+import { DATE_FORMAT_LABELS, NUMBER_FORMAT_LABELS, type DateFormat, type NumberFormat } from "@/lib/uploads/types";
 
 interface Props {
   kind: "positions" | "prices";
@@ -19,6 +19,7 @@ interface Props {
 export function FileUpload({ kind, periods = [] }: Props) {
   const router = useRouter();
   const [numberFormat, setNumberFormat] = useState<NumberFormat>("plain");
+  const [dateFormat, setDateFormat] = useState<DateFormat>("iso");
   const [periodId, setPeriodId] = useState(periods[0]?.id ?? "");
   const [message, setMessage] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
   const id = `${kind}-upload`;
@@ -76,15 +77,25 @@ export function FileUpload({ kind, periods = [] }: Props) {
             ))}
           </select>
         </label>
+        <label className="flex flex-col gap-1 text-sm" htmlFor={`${id}-date-format`}>
+          Dates in the file
+          <select id={`${id}-date-format`} className={inputClass} value={dateFormat} onChange={(e) => setDateFormat(e.target.value as DateFormat)}>
+            {Object.entries(DATE_FORMAT_LABELS).map(([value, label]) => (
+              <option key={value} value={value}>
+                {label}
+              </option>
+            ))}
+          </select>
+        </label>
         <div data-testid={`${kind}-upload-button`}>
           {kind === "positions" ? (
             periodId ? (
-              <UploadButton endpoint="positions" input={{ periodId, numberFormat }} {...common} />
+              <UploadButton endpoint="positions" input={{ periodId, numberFormat, dateFormat }} {...common} />
             ) : (
               <p className="text-sm text-ink-muted">Open a reporting period first.</p>
             )
           ) : (
-            <UploadButton endpoint="prices" input={{ numberFormat }} {...common} />
+            <UploadButton endpoint="prices" input={{ numberFormat, dateFormat }} {...common} />
           )}
         </div>
       </div>

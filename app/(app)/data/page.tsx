@@ -9,6 +9,7 @@ import { listPeriods } from "@/lib/data/periods";
 import { listUploads } from "@/lib/data/uploads";
 import { priceCoverage } from "@/lib/data/prices";
 import { FileUpload } from "./file-upload";
+import { PositionColumnGuide } from "./column-guide";
 
 export const metadata: Metadata = { title: "Data" };
 
@@ -31,8 +32,9 @@ export default async function DataPage() {
             Month-end positions
           </h2>
           <p className="mt-1 text-sm text-ink-soft">
-            One file per period: as-of date, book, instrument id and name, asset class, currency, quantity, price, and optionally market value and
-            delta-equivalent exposure. A new confirmed file supersedes the period&apos;s earlier one; both are kept.
+            One file per period: as-of date, book, instrument id and name, asset class, currency, quantity, price, and optionally market value
+            (with its currency, or computed), delta-equivalent exposure and a note; <a className="underline" href="#columns-heading">every column is explained below</a>.
+            A new confirmed file supersedes the period&apos;s earlier one; both are kept.
           </p>
           <div className="mt-4">
             {can(actor, "positions.upload") ? (
@@ -42,7 +44,7 @@ export default async function DataPage() {
             )}
           </div>
           <p className="mt-3 text-sm">
-            Blank template: <a className="underline" href="/api/templates/positions.csv">positions.csv</a>
+            Template with an example row: <a className="underline" href="/api/templates/positions.csv">positions.csv</a>
           </p>
         </section>
         <section aria-labelledby="prices-heading" className="rounded-lg border border-ink-line bg-paper-raised p-5">
@@ -62,6 +64,8 @@ export default async function DataPage() {
           </p>
         </section>
       </div>
+
+      <PositionColumnGuide reportingCurrency={actor.reportingCurrency} />
 
       <section aria-labelledby="uploads-heading" className="mt-8">
         <h2 id="uploads-heading" className="mb-3 text-lg font-semibold">

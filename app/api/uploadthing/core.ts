@@ -15,6 +15,7 @@ const f = createUploadthing({
 });
 
 const numberFormat = z.enum(["plain", "comma-thousands", "dot-thousands"]).default("plain");
+const dateFormat = z.enum(["iso", "day-month-year", "month-day-year"]).default("iso");
 
 /** Table files: CSV (browsers report several MIME types for it) and XLSX workbooks. */
 const tableFiles = (maxFileSize: "32MB" | "64MB") => ({
@@ -49,23 +50,23 @@ async function complete(metadata: UploadContext, file: { key: string; name: stri
 
 export const uploadRouter = {
   positions: f(tableFiles("32MB"), { awaitServerData: true })
-    .input(z.object({ periodId: z.string().uuid(), numberFormat }))
+    .input(z.object({ periodId: z.string().uuid(), numberFormat, dateFormat }))
     .middleware(({ input }) =>
       gate(async () => {
         const actor = await requireActor("positions.upload");
         const period = await getPeriod(actor, input.periodId);
         await assertPeriodOpenForData(actor, period.id);
-        return { firmId: actor.firmId, userId: actor.userId, userName: actor.name, periodId: period.id, kind: "positions" as const, numberFormat: input.numberFormat };
+        return { firmId: actor.firmId, userId: actor.userId, userName: actor.name, periodId: period.id, kind: "positions" as const, numberFormat: input.numberFormat, dateFormat: input.dateFormat };
       }),
     )
     .onUploadComplete(({ metadata, file }) => complete(metadata, file)),
 
   prices: f(tableFiles("64MB"), { awaitServerData: true })
-    .input(z.object({ numberFormat }))
+    .input(z.object({ numberFormat, dateFormat }))
     .middleware(({ input }) =>
       gate(async () => {
         const actor = await requireActor("prices.upload");
-        return { firmId: actor.firmId, userId: actor.userId, userName: actor.name, periodId: null, kind: "prices" as const, numberFormat: input.numberFormat };
+        return { firmId: actor.firmId, userId: actor.userId, userName: actor.name, periodId: null, kind: "prices" as const, numberFormat: input.numberFormat, dateFormat: input.dateFormat };
       }),
     )
     .onUploadComplete(({ metadata, file }) => complete(metadata, file)),

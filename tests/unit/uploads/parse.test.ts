@@ -125,15 +125,15 @@ describe("positions", () => {
     expect(parsed.rows[1]).toMatchObject({ book: "@desk", instrumentId: "-EQ-B", instrumentName: "-minus" });
   });
 
-  it("cross-checks a given market value and warns (not errors) when it differs", async () => {
+  it("cross-checks a given market value and refuses the row when it differs beyond the tolerance", async () => {
     const parsed = await positionsFrom(`${HEADER}\n2026-11-30,T,EQ-A,Alpha,equity,USD,100,10,1000,\n`);
-    expect(parsed.rows).toHaveLength(1);
-    expect(parsed.problems).toEqual([expect.objectContaining({ severity: "warning", field: "market value", message: expect.stringContaining("920.00") })]);
+    expect(parsed.rows).toHaveLength(0);
+    expect(parsed.problems).toEqual([expect.objectContaining({ row: 2, severity: "error", field: "market value", message: expect.stringContaining("920.00") })]);
   });
 
-  it("needs a market value when no exchange rate can compute it", async () => {
+  it("refuses a foreign-currency position when there is no exchange-rate series", async () => {
     const parsed = await positionsFrom(`${HEADER}\n2026-11-30,T,EQ-A,Alpha,equity,NOK,100,10,,\n`);
-    expect(parsed.problems[0]).toMatchObject({ severity: "error", field: "market value" });
+    expect(parsed.problems[0]).toMatchObject({ row: 2, severity: "error", field: "currency", message: expect.stringContaining("no NOKEUR exchange-rate series") });
   });
 
   it("accepts a file of 200,000 rows, within the limit of 250,000", async () => {

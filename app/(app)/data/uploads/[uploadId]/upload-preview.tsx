@@ -8,7 +8,7 @@ import { PageHeader } from "@/app/_components/page-header";
 import { UploadStatus } from "@/app/_components/upload-status";
 import { StatusBadge } from "@/app/_components/status-badge";
 import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
-import { NUMBER_FORMAT_LABELS, type NumberFormat, type Problem } from "@/lib/uploads/types";
+import { DATE_FORMAT_LABELS, NUMBER_FORMAT_LABELS, type DateFormat, type NumberFormat, type Problem } from "@/lib/uploads/types";
 
 interface Group {
   key: string;
@@ -27,10 +27,11 @@ interface Preview {
     warningCount: number;
     sha256: string;
     sizeBytes: number;
-    options: { numberFormat: NumberFormat; mapping?: Record<string, string> } | null;
+    options: { numberFormat: NumberFormat; dateFormat?: DateFormat; mapping?: Record<string, string> } | null;
     summary: Record<string, unknown> | null;
   };
   canConfirm: boolean;
+  reportingCurrency: string;
   problems: Problem[];
   header: string[];
   missingColumns: string[];
@@ -64,11 +65,20 @@ function cellText(value: unknown, column: string): string {
 
 const money = (n: number) => n.toLocaleString("en", { maximumFractionDigits: 0 });
 
-function Totals({ summary, kind }: { summary: Record<string, unknown> | null; kind: "positions" | "prices" }) {
+interface RateUsed {
+  currency: string;
+  pair: string;
+  rate: number;
+  date: string | null;
+  periodEnd: boolean;
+}
+
+function Totals({ summary, kind, reportingCurrency }: { summary: Record<string, unknown> | null; kind: "positions" | "prices"; reportingCurrency: string }) {
   if (!summary) return null;
   if (kind === "positions") {
     const totals = summary.totals as { positions: number; grossMarketValue: number; netMarketValue: number; byAssetClass: Group[]; byCurrency: Group[] } | undefined;
     if (!totals || totals.positions === 0) return null;
+    const rates = (summary.rates as RateUsed[] | undefined) ?? [];
     const table = (title: string, groups: Group[]) => (
       <table className="w-full text-sm">
         <caption className="mb-1 text-left font-medium">{title}</caption>
@@ -101,7 +111,24 @@ function Totals({ summary, kind }: { summary: Record<string, unknown> | null; ki
           <dd className="figure text-right">{money(totals.grossMarketValue)}</dd>
           <dt className="text-ink-soft">Net market value</dt>
           <dd className="figure text-right">{money(totals.netMarketValue)}</dd>
-          <dd className="col-span-2 text-xs text-ink-muted">Values in the reporting currency.</dd>
+          <dd className="col-span-2 text-xs text-ink-muted" data-testid="values-note">
+            Market values in {reportingCurrency}: as given in {reportingCurrency}, converted from the row&apos;s market_value_currency, or computed as
+            quantity × price × rate, at the rates below.
+          </dd>
+          {rates.length > 0 ? (
+            <>
+              <dt className="col-span-2 mt-2 font-medium">Exchange rates used</dt>
+              {rates.map((r) => (
+                <div key={r.pair} className="col-span-2 flex justify-between gap-2 text-xs" data-testid="rate-used">
+                  <span>
+                    {r.pair} {r.date ? `(${r.date})` : ""}
+                    {r.periodEnd ? "" : " · before the period end"}
+                  </span>
+                  <span className="figure">{r.rate.toLocaleString("en", { maximumFractionDigits: 6 })}</span>
+                </div>
+              ))}
+            </>
+          ) : null}
         </dl>
         {table("By asset class", totals.byAssetClass)}
         {table("By currency", totals.byCurrency)}
@@ -191,7 +218,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
       ) : null}
 
       <div className="flex flex-col gap-6">
-        <Totals summary={summary} kind={upload.kind} />
+        <Totals summary={summary} kind={upload.kind} reportingCurrency={preview.data.reportingCurrency} />
 
         <section aria-labelledby="problems-heading">
           <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
@@ -249,13 +276,23 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
               onSubmit={(e) => {
                 e.preventDefault();
                 const form = new FormData(e.currentTarget);
-                act.mutate({ path: "options", method: "PUT", body: { numberFormat: form.get("numberFormat"), mapping: { ...(upload.options?.mapping ?? {}), ...mapping } } });
+                act.mutate({ path: "options", method: "PUT", body: { numberFormat: form.get("numberFormat"), dateFormat: form.get("dateFormat"), mapping: { ...(upload.options?.mapping ?? {}), ...mapping } } });
               }}
             >
               <label className="flex max-w-xs flex-col gap-1 text-sm">
                 Numbers in the file
                 <select name="numberFormat" className={inputClass} defaultValue={upload.options?.numberFormat ?? "plain"}>
                   {Object.entries(NUMBER_FORMAT_LABELS).map(([value, label]) => (
+                    <option key={value} value={value}>
+                      {label}
+                    </option>
+                  ))}
+                </select>
+              </label>
+              <label className="flex max-w-xs flex-col gap-1 text-sm">
+                Dates in the file
+                <select name="dateFormat" className={inputClass} defaultValue={upload.options?.dateFormat ?? "iso"}>
+                  {Object.entries(DATE_FORMAT_LABELS).map(([value, label]) => (
                     <option key={value} value={value}>
                       {label}
                     </option>

@@ -1,0 +1,82 @@
+import { POSITION_FIELDS } from "@/lib/uploads/parse-positions";
+import { assetClassTable, POSITION_COLUMN_GUIDE } from "@/lib/uploads/position-guide";
+
+/** The positions file's columns (meaning, unit, allowed values, example) and the accepted asset-class spellings. */
+export function PositionColumnGuide({ reportingCurrency }: { reportingCurrency: string }) {
+  const described = new Set<string>(POSITION_COLUMN_GUIDE.map((g) => g.field));
+  const others = Object.entries(POSITION_FIELDS).filter(([key]) => !described.has(key));
+  return (
+    <section aria-labelledby="columns-heading" className="mt-8" data-testid="column-guide">
+      <h2 id="columns-heading" className="mb-1 text-lg font-semibold">
+        Positions file: the columns
+      </h2>
+      <p className="mb-3 text-sm text-ink-soft">
+        The template holds this header and one example row (replace it). Header names are matched without case, spaces or underscores; the
+        reporting currency of this firm is {reportingCurrency}.
+      </p>
+      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+        <table className="w-full text-sm">
+          <caption className="sr-only">Columns of the positions file</caption>
+          <thead className="bg-paper-sunk text-left text-ink-soft">
+            <tr>
+              <th scope="col" className="px-3 py-2 font-medium">Column</th>
+              <th scope="col" className="px-3 py-2 font-medium">Meaning</th>
+              <th scope="col" className="px-3 py-2 font-medium">Unit</th>
+              <th scope="col" className="px-3 py-2 font-medium">Allowed</th>
+              <th scope="col" className="px-3 py-2 font-medium">Example</th>
+            </tr>
+          </thead>
+          <tbody>
+            {POSITION_COLUMN_GUIDE.map((g) => (
+              <tr key={g.field} className="border-t border-ink-line align-top" data-testid="column-guide-row">
+                <th scope="row" className="px-3 py-2 text-left font-normal whitespace-nowrap">
+                  <code className="font-medium">{g.column}</code>
+                  <span className="block text-xs text-ink-muted">{g.required ? "required" : "optional"}</span>
+                </th>
+                <td className="px-3 py-2">{g.meaning}</td>
+                <td className="px-3 py-2">{g.unit.replace("reporting currency", `reporting currency (${reportingCurrency})`)}</td>
+                <td className="px-3 py-2">{g.allowed}</td>
+                <td className="px-3 py-2 whitespace-nowrap">
+                  <code>{g.example || "(empty)"}</code>
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {others.length > 0 ? (
+        <p className="mt-2 text-sm text-ink-soft">
+          Also read when present (for the standardised figure): {others.map(([, f]) => f.label).join(", ")}.
+        </p>
+      ) : null}
+
+      <h3 id="asset-classes-heading" className="mt-6 mb-1 font-semibold">
+        Asset classes and the spellings accepted
+      </h3>
+      <p className="mb-2 text-sm text-ink-soft">
+        The file&apos;s <code>asset_class</code> may use any spelling below (case, spaces, hyphens and underscores do not matter). A bare
+        &ldquo;bond&rdquo; is read as a corporate bond; write &ldquo;government bond&rdquo; for a sovereign issuer.
+      </p>
+      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+        <table className="w-full text-sm" aria-labelledby="asset-classes-heading">
+          <thead className="bg-paper-sunk text-left text-ink-soft">
+            <tr>
+              <th scope="col" className="px-3 py-2 font-medium">Asset class</th>
+              <th scope="col" className="px-3 py-2 font-medium">Spellings accepted</th>
+            </tr>
+          </thead>
+          <tbody>
+            {assetClassTable().map((row) => (
+              <tr key={row.assetClass} className="border-t border-ink-line" data-testid="asset-class-row">
+                <th scope="row" className="px-3 py-1.5 text-left font-normal">
+                  <code className="font-medium">{row.assetClass}</code> <span className="text-ink-muted">{row.label}</span>
+                </th>
+                <td className="px-3 py-1.5">{[row.assetClass, ...row.spellings.filter((s) => s !== row.assetClass)].join(", ")}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </section>
+  );
+}
