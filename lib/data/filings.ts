@@ -371,13 +371,16 @@ export async function currentFilingPeriodId(actor: Actor): Promise<string | null
 /** Runs never change, so the correlation recomputed from a run's stored inputs is kept for the few runs last used. */
 const correlationCache = new Map<string, Promise<CorrelationView | null>>();
 
-/** The correlation behind the run's parametric figures (not part of RunResults), or null when it cannot be had. */
+/**
+ * The correlation behind the run's parametric figures: the one the run stored; runs stored before the engine returned
+ * it are recomputed from their stored inputs (null when that fails).
+ */
 function correlationOf(actor: Actor, run: RunRecord): Promise<CorrelationView | null> {
+  const stored = run.results ? storedCorrelationOf(run.results) : null;
+  if (stored) return Promise.resolve(stored);
   const key = `${actor.firmId}:${run.id}`;
   let hit = correlationCache.get(key);
   if (!hit) {
-  const stored = run.results ? storedCorrelationOf(run.results) : null;
-  if (stored) return Promise.resolve(stored);
     hit = getRunInputs(actor, run.id)
       .then((inputs) => correlationFromRunInputs(inputs))
       .catch((error: unknown) => {
