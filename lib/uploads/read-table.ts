@@ -1,12 +1,12 @@
 /**
- * Read an uploaded file into a raw table: CSV (UTF-8 with or without BOM, comma or semicolon, quoted fields) with
+ * Read an uploaded file into a raw table: CSV (UTF-8 with or without BOM, or UTF-16; comma or semicolon, quoted fields) with
  * papaparse, or a workbook with xlsx-populate (formulas read as their stored values). The type is decided from
  * the bytes, not the file name.
  */
 import Papa from "papaparse";
 import XlsxPopulate from "xlsx-populate";
 import { FileRejected, type RawTable } from "./types";
-import { checkZipProportions } from "./zip-guard";
+import { checkZipInflation } from "./zip-guard";
 
 export type SniffedType = "csv" | "xlsx";
 
@@ -21,9 +21,30 @@ export function sniffType(bytes: Uint8Array): SniffedType {
   if (head[0] === 0xd0 && head[1] === 0xcf && head[2] === 0x11 && head[3] === 0xe0) {
     throw new FileRejected("This is an old-format (.xls) workbook; save it as .xlsx or CSV and upload again.");
   }
+  if (utf16Encoding(bytes)) return "csv";
   const sample = bytes.subarray(0, Math.min(bytes.length, 8192));
   if (sample.includes(0)) throw new FileRejected("This file is binary, not a CSV or XLSX file.");
   return "csv";
+}
+
+/**
+ * Whether the bytes are UTF-16 text (spreadsheet programs save "Unicode text" so): a byte-order mark, or mostly
+ * text whose every other byte is zero (the pattern of Latin text in UTF-16 without a mark).
+ */
+export function utf16Encoding(bytes: Uint8Array): "utf-16le" | "utf-16be" | null {
+  if (bytes[0] === 0xff && bytes[1] === 0xfe) return "utf-16le";
+  if (bytes[0] === 0xfe && bytes[1] === 0xff) return "utf-16be";
+  const pairs = Math.floor(Math.min(bytes.length, 8192) / 2);
+  if (pairs < 2) return null;
+  let zeroOdd = 0;
+  let zeroEven = 0;
+  for (let i = 0; i < pairs; i++) {
+    if (bytes[2 * i] === 0) zeroEven++;
+    if (bytes[2 * i + 1] === 0) zeroOdd++;
+  }
+  if (zeroOdd / pairs > 0.6 && zeroEven / pairs < 0.05) return "utf-16le";
+  if (zeroEven / pairs > 0.6 && zeroOdd / pairs < 0.05) return "utf-16be";
+  return null;
 }
 
 /** Parse CSV text: delimiter detected among comma and semicolon; blank lines skipped. */
@@ -45,9 +66,9 @@ export function excelSerialToIso(serial: number): string | null {
   return new Date(ms).toISOString().slice(0, 10);
 }
 
-/** Read every sheet of a workbook as raw tables (first row as header), after the zip proportions check. */
+/** Read every sheet of a workbook as raw tables (first row as header), after the zip checks (declared and real sizes). */
 export async function readWorkbook(bytes: Uint8Array): Promise<RawTable[]> {
-  checkZipProportions(bytes);
+  await checkZipInflation(bytes);
   let workbook: Awaited<ReturnType<typeof XlsxPopulate.fromDataAsync>>;
   try {
     workbook = await XlsxPopulate.fromDataAsync(Buffer.from(bytes));
@@ -75,6 +96,15 @@ export async function readTables(bytes: Uint8Array): Promise<RawTable[]> {
   const type = sniffType(bytes);
   if (type === "xlsx") return readWorkbook(bytes);
   let text: string;
+  const utf16 = utf16Encoding(bytes);
+  if (utf16) {
+    try {
+      text = new TextDecoder(utf16, { fatal: true }).decode(bytes);
+    } catch {
+      throw new FileRejected("The file is UTF-16 text but part of it cannot be decoded; save it as CSV UTF-8 and upload again.");
+    }
+    return [readCsvText(text)];
+  }
   try {
     text = new TextDecoder("utf-8", { fatal: true }).decode(bytes);
   } catch {

@@ -7,6 +7,7 @@ import { receiveUploadBytes, confirmUpload, getUploadPreview } from "@/lib/data/
 import { listPeriods } from "@/lib/data/periods";
 import type { Database } from "@/db/client";
 import type { Actor } from "@/lib/auth/actor";
+import { lyingZip } from "./helpers/lying-zip";
 
 /**
  * The malformed-file corpus (tests/fixtures/bad-input/files.json): each file, received as an upload, must produce
@@ -26,6 +27,7 @@ async function generated(name: string): Promise<Uint8Array> {
     wb.sheet(0)!.cell("A1").value([["Quarter", "Result"], ["Q3", 5]] as never);
     return new Uint8Array((await wb.outputAsync()) as Buffer);
   }
+  if (name === "workbook-lying-about-its-sizes") return lyingZip([{ name: "xl/worksheets/sheet1.xml", realBytes: 64 * 1024 * 1024 }]);
   // A zip whose central directory declares one entry of 1 GB inside a tiny archive.
   const entry = new Uint8Array(47);
   const dv = new DataView(entry.buffer);
