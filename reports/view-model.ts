@@ -11,7 +11,7 @@ import { CHECK_LABELS } from "@/lib/uploads/data-quality";
 import type { MethodContent } from "@/lib/validation/method";
 import { ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
 import { DRAFT_CAUTION } from "@/app/_components/draft-caution";
-import { describeMethod } from "./method-text";
+import { describeComputedMethod } from "./method-text";
 import { formatMonth } from "./format";
 
 export { canonicalContent, contentHash, CANONICAL_SCHEMA } from "./canonical";
@@ -650,7 +650,7 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       version: input.method.version,
       approvedAt: input.method.approvedAt ?? null,
       content: input.method.content,
-      sentences: input.method.content ? describeMethod(input.method.content) : [],
+      sentences: describeComputedMethod(r, input.method.content),
       rationale: input.method.rationale,
     },
     limitations,
