@@ -2,20 +2,16 @@ import type { Metadata } from "next";
 import { redirect } from "next/navigation";
 import { Logo } from "@/app/_components/logo";
 import { getActor } from "@/lib/auth/actor";
+import { safeNextPath } from "@/lib/auth/safe-redirect";
 import { SignInForm } from "./sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
 export const dynamic = "force-dynamic";
 
-/** Only same-site paths are followed after sign-in. */
-function safeNext(value: string | string[] | undefined): string {
-  const next = Array.isArray(value) ? value[0] : value;
-  return next && next.startsWith("/") && !next.startsWith("//") ? next : "/home";
-}
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const params = await searchParams;
-  const next = safeNext(params.next ?? params.callbackUrl);
+  const next = safeNextPath(params.next ?? params.callbackUrl);
   if (await getActor()) redirect(next);
   return (
     <main className="flex min-h-screen items-center justify-center px-4 py-12">

@@ -6,6 +6,7 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { signIn } from "next-auth/react";
 import { signInSchema, type SignInInput } from "@/lib/validation/auth";
+import { safeNextPath } from "@/lib/auth/safe-redirect";
 import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
 
 const GENERIC = "That e-mail and password do not match an active account.";
@@ -27,7 +28,8 @@ export function SignInForm({ next, expired }: { next: string; expired: boolean }
       setFormError(result?.code === "rate_limited" ? RATE_LIMITED : GENERIC);
       return;
     }
-    router.replace(next);
+    // Checked again here: the page passed a safe path, and this keeps it so whatever calls the form.
+    router.replace(safeNextPath(next));
     router.refresh();
   });
 
