@@ -12,6 +12,7 @@ import { migrateDatabase } from "./migrate";
 import * as s from "./schema";
 import { deadlineFor } from "../lib/calendar/deadline";
 import { now, setStampClock } from "../lib/clock";
+import { BASEL_PLUS_FACTORS } from "../lib/accounts/firm-defaults";
 
 /** The demo-only password of every demo user. Never use it anywhere else. */
 export const DEMO_PASSWORD = "ballast-demo-2026";
@@ -31,7 +32,7 @@ export const SECOND_FIRM_USERS = [
 ] as const;
 
 /** Plus factors by exception count over 250 days (Basel Committee 1996 backtesting framework, Table 2). */
-export const BASEL_PLUS_FACTORS: Record<string, number> = { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 };
+export { BASEL_PLUS_FACTORS };
 
 /** Holidays of the demo firm's calendar (invented for the demo; a firm uploads its own). */
 const DEMO_HOLIDAYS = [

@@ -6,10 +6,9 @@ import { memberships, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
-import { hashPassword } from "@/lib/auth/password";
 import { parseRoles, type Role } from "@/lib/auth/roles";
-import { isCommonPassword } from "@/lib/validation/common-passwords";
-import type { MemberUpdateInput, NewMemberInput } from "@/lib/validation/firm";
+import type { MemberUpdateInput } from "@/lib/validation/firm";
+import { pendingInvitations } from "./accounts";
 
 export interface Member {
   id: string;
@@ -20,6 +19,8 @@ export interface Member {
   active: boolean;
   createdAt: string;
   deactivatedAt: string | null;
+  /** an invitation not yet taken up: when its link expires (it may have expired already) */
+  invitationExpiresAt: string | null;
 }
 
 /** Every member of the actor's firm, active first, by name. */
@@ -29,6 +30,7 @@ export async function listMembers(actor: Actor): Promise<Member[]> {
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(eq(memberships.firmId, actor.firmId));
+  const pending = await pendingInvitations(actor, rows.map((r) => r.u.id));
   return rows
     .map(({ m, u }) => ({
       id: m.id,
@@ -39,6 +41,7 @@ export async function listMembers(actor: Actor): Promise<Member[]> {
       active: m.active && u.active,
       createdAt: m.createdAt,
       deactivatedAt: m.deactivatedAt,
+      invitationExpiresAt: pending.get(u.id) ?? null,
     }))
     .sort((a, b) => Number(b.active) - Number(a.active) || a.name.localeCompare(b.name));
 }
@@ -47,40 +50,6 @@ async function getMember(actor: Actor, memberId: string): Promise<Member> {
   const member = (await listMembers(actor)).find((m) => m.id === memberId);
   if (!member) throw new AppError("not_found:member");
   return member;
-}
-
-/**
- * Add a person to the firm. A new e-mail gets a new account with the given password; an e-mail that already has
- * a Ballast account (at another firm) is linked without changing its password. The answer is the same in both
- * cases, so the form cannot be used to learn which addresses have accounts.
- */
-export async function addMember(actor: Actor, input: NewMemberInput): Promise<Member> {
-  if (isCommonPassword(input.password)) {
-    throw new AppError("unprocessable:member", "Choose a less common password.", { password: "This password is too common; choose another." });
-  }
-  const db = getDb();
-  const passwordHash = await hashPassword(input.password);
-  const membershipId = await db.transaction(async (tx) => {
-    let [user] = await tx.select().from(users).where(eq(users.email, input.email));
-    if (!user) {
-      [user] = await tx.insert(users).values({ email: input.email, name: input.name, passwordHash }).returning();
-    }
-    const [existing] = await tx
-      .select()
-      .from(memberships)
-      .where(and(eq(memberships.firmId, actor.firmId), eq(memberships.userId, user.id)));
-    if (existing) throw new AppError("conflict:member", "This person is already a member of the firm.", { email: "Already a member of this firm." });
-    const [membership] = await tx.insert(memberships).values({ firmId: actor.firmId, userId: user.id, roles: input.roles }).returning();
-    await recordAudit(tx, actor, {
-      action: "member.add",
-      entityType: "membership",
-      entityId: membership.id,
-      summary: `Added ${input.name} <${input.email}> as ${input.roles.join(", ")}`,
-      detail: { roles: input.roles },
-    });
-    return membership.id;
-  });
-  return getMember(actor, membershipId);
 }
 
 /** Change a member's roles or deactivate/reactivate them. The firm always keeps one active administrator. */

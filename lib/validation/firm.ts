@@ -1,7 +1,6 @@
 /** Firm settings and member forms: one zod schema each, used by the form and again by the server. */
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
-import { newPasswordSchema } from "./auth";
 
 /** ISO 4217 codes Ballast accepts as a reporting currency (the currencies a small firm is likely to report in). */
 export const REPORTING_CURRENCIES = ["EUR", "GBP", "USD", "CHF", "SEK", "NOK", "DKK", "PLN", "CZK", "JPY", "CAD", "AUD", "SGD", "HKD"] as const;
@@ -34,8 +33,8 @@ export const newMemberSchema = z.object({
   name: z.string().trim().min(2, "Enter the person's name.").max(120, "At most 120 characters."),
   email: z.string().trim().toLowerCase().email("Enter a valid e-mail address.").max(200, "At most 200 characters."),
   roles: rolesField,
-  password: newPasswordSchema,
 });
+/** An invitation: the person chooses their own password through the e-mailed link (administrators never set it). */
 export type NewMemberInput = z.infer<typeof newMemberSchema>;
 
 export const memberUpdateSchema = z

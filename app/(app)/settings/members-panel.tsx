@@ -28,6 +28,21 @@ function RolePicker({ value, onChange, idPrefix }: { value: Role[]; onChange: (r
   );
 }
 
+interface Invitation {
+  mail: { status: "sent" } | { status: "failed"; message: string } | { status: "not_configured" };
+  link: string | null;
+  expiresAt: string | null;
+}
+
+/** What the administrator is told after an invitation: sent, not sent (and why), or the link to pass on. */
+function invitationStatus(name: string, email: string, invitation: Invitation): string {
+  if (invitation.mail.status === "sent") return `Invitation sent to ${email}.`;
+  if (invitation.mail.status === "failed") return `${name} was added, but the invitation was not sent: ${invitation.mail.message} Use "Send invitation again" when mail works.`;
+  return invitation.link
+    ? `No mail server is configured. Pass this single-use link to ${name} yourself (valid until ${invitation.expiresAt?.slice(0, 16).replace("T", " ")} UTC): ${invitation.link}`
+    : `${name} was added; they sign in with their existing Ballast password.`;
+}
+
 function MemberRow({ member, isSelf, onChanged }: { member: Member; isSelf: boolean; onChanged: (m: Member) => void }) {
   const [roles, setRoles] = useState<Role[]>(member.roles);
   const [error, setError] = useState<string | null>(null);
@@ -57,8 +72,15 @@ function MemberRow({ member, isSelf, onChanged }: { member: Member; isSelf: bool
           </p>
           <p className="text-sm text-ink-muted">{member.email}</p>
         </div>
-        {member.active ? <StatusBadge tone="ok">Active</StatusBadge> : <StatusBadge tone="neutral">Deactivated</StatusBadge>}
+        {!member.active ? (
+          <StatusBadge tone="neutral">Deactivated</StatusBadge>
+        ) : member.invitationExpiresAt ? (
+          <StatusBadge tone="caution">Invited</StatusBadge>
+        ) : (
+          <StatusBadge tone="ok">Active</StatusBadge>
+        )}
       </div>
+      {member.active && member.invitationExpiresAt ? <InvitationLine member={member} onChanged={onChanged} /> : null}
       <fieldset className="mt-3" disabled={busy || !member.active}>
         <legend className="sr-only">Roles of {member.name}</legend>
         <RolePicker value={roles} onChange={setRoles} idPrefix={`m-${member.id}`} />
@@ -89,6 +111,42 @@ function MemberRow({ member, isSelf, onChanged }: { member: Member; isSelf: bool
   );
 }
 
+/** A pending invitation: until when its link works, and a way to send a fresh one. */
+function InvitationLine({ member, onChanged }: { member: Member; onChanged: (m: Member) => void }) {
+  const [message, setMessage] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const expiresAt = member.invitationExpiresAt!;
+  const expired = expiresAt <= new Date().toISOString();
+  async function resend() {
+    setBusy(true);
+    setMessage(null);
+    try {
+      const { invitation } = await apiFetch<{ invitation: Invitation }>(`/api/members/${member.id}/invitation`, { method: "POST" });
+      setMessage(invitationStatus(member.name, member.email, invitation));
+      if (invitation.expiresAt) onChanged({ ...member, invitationExpiresAt: invitation.expiresAt });
+    } catch (e) {
+      setMessage(e instanceof Error ? e.message : "Could not send the invitation.");
+    } finally {
+      setBusy(false);
+    }
+  }
+  return (
+    <div className="mt-2 flex flex-wrap items-center gap-3 text-sm text-ink-soft">
+      <span>
+        {expired ? "The invitation link expired on" : "Has not chosen a password yet; the link works until"} {expiresAt.slice(0, 16).replace("T", " ")} UTC.
+      </span>
+      <button type="button" className={secondaryButtonClass} disabled={busy} onClick={resend}>
+        {busy ? "Sending…" : "Send invitation again"}
+      </button>
+      {message ? (
+        <p role="status" className="basis-full break-all">
+          {message}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
 export function MembersPanel({ initial, currentUserId }: { initial: Member[]; currentUserId: string }) {
   const [members, setMembers] = useState(initial);
   const [status, setStatus] = useState<string | null>(null);
@@ -99,15 +157,15 @@ export function MembersPanel({ initial, currentUserId }: { initial: Member[]; cu
     reset,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<NewMemberInput>({ resolver: zodResolver(newMemberSchema), defaultValues: { name: "", email: "", roles: [], password: "" } });
+  } = useForm<NewMemberInput>({ resolver: zodResolver(newMemberSchema), defaultValues: { name: "", email: "", roles: [] } });
 
   const onSubmit = handleSubmit(async (values) => {
     setStatus(null);
     try {
-      const { member } = await apiFetch<{ member: Member }>("/api/members", { method: "POST", body: values });
+      const { member, invitation } = await apiFetch<{ member: Member; invitation: Invitation }>("/api/members", { method: "POST", body: values });
       setMembers((list) => [...list, member]);
       reset();
-      setStatus(`${member.name} was added. A person who already has a Ballast account signs in with their existing password.`);
+      setStatus(invitationStatus(member.name, member.email, invitation));
     } catch (e) {
       if (e instanceof ApiError && e.fields) {
         for (const [field, message] of Object.entries(e.fields)) setError(field as keyof NewMemberInput, { message });
@@ -125,7 +183,7 @@ export function MembersPanel({ initial, currentUserId }: { initial: Member[]; cu
       </ul>
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4 rounded-lg border border-ink-line bg-paper-raised p-5" aria-labelledby="add-member-heading">
         <h3 id="add-member-heading" className="font-semibold">
-          Add a person
+          Invite a person
         </h3>
         <div className="grid gap-4 sm:grid-cols-2">
           <Field id="new-name" label="Name" error={errors.name?.message}>
@@ -135,9 +193,10 @@ export function MembersPanel({ initial, currentUserId }: { initial: Member[]; cu
             <input id="new-email" type="email" className={inputClass} aria-invalid={Boolean(errors.email)} {...register("email")} />
           </Field>
         </div>
-        <Field id="new-password" label="First password" hint="At least 12 characters; they can change it later." error={errors.password?.message}>
-          <input id="new-password" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(errors.password)} {...register("password")} />
-        </Field>
+        <p className="text-sm text-ink-muted">
+          Ballast e-mails them a link to choose their own password; it works once, for 72 hours. Someone who already has a Ballast account signs in with
+          their existing password.
+        </p>
         <fieldset>
           <legend className="mb-1 text-sm font-medium">Roles</legend>
           <Controller control={control} name="roles" render={({ field }) => <RolePicker value={field.value} onChange={field.onChange} idPrefix="new-role" />} />
@@ -149,10 +208,10 @@ export function MembersPanel({ initial, currentUserId }: { initial: Member[]; cu
         </fieldset>
         <div className="flex items-center gap-3">
           <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
-            {isSubmitting ? "Adding…" : "Add person"}
+            {isSubmitting ? "Inviting…" : "Send invitation"}
           </button>
           {status ? (
-            <p role="status" className="text-sm text-ink-soft">
+            <p role="status" className="text-sm text-ink-soft break-all" data-testid="invite-status">
               {status}
             </p>
           ) : null}

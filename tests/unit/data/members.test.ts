@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { actorFor, freshDatabase, snapshot } from "../helpers/db";
-import { addMember, listMembers, updateMember } from "@/lib/data/members";
+import { listMembers, updateMember } from "@/lib/data/members";
+import { inviteMember } from "@/lib/data/accounts";
 import { updateFirmSettings, getFirmSettings } from "@/lib/data/firm";
 import { getPeriod, listPeriods, openPeriod } from "@/lib/data/periods";
 import { listAuditEvents } from "@/lib/data/audit";
@@ -22,17 +23,19 @@ beforeAll(async () => {
 });
 
 describe("members", () => {
-  it("adds a person and records it in the audit trail", async () => {
-    const member = await addMember(admin, { name: "Ivo Brandt", email: "ivo.brandt@northmoor.example", roles: ["risk_analyst"], password: "long-enough-and-rare-77" });
+  it("invites a person (no password set by the administrator) and records it in the audit trail", async () => {
+    const invitation = await inviteMember(admin, { name: "Ivo Brandt", email: "ivo.brandt@northmoor.example", roles: ["risk_analyst"] });
+    const member = (await listMembers(admin)).find((m) => m.id === invitation.memberId)!;
     expect(member.roles).toEqual(["risk_analyst"]);
+    expect(member.invitationExpiresAt).toBe(invitation.expiresAt);
     const audit = await listAuditEvents(admin, { page: 1, pageSize: 10 });
-    expect(audit.events[0]).toMatchObject({ action: "member.add", entityId: member.id });
+    expect(audit.events.map((e) => e.action)).toContain("member.invite");
+    expect(audit.events.find((e) => e.action === "member.invite")).toMatchObject({ entityId: member.id });
   });
 
-  it("refuses a duplicate member and a common password, writing nothing", async () => {
+  it("refuses a duplicate member, writing nothing", async () => {
     const before = await snapshot(db);
-    await expect(addMember(admin, { name: "Ivo Brandt", email: "ivo.brandt@northmoor.example", roles: ["auditor"], password: "another-long-password-9" })).rejects.toMatchObject({ kind: "conflict" });
-    await expect(addMember(admin, { name: "Lena Holt", email: "lena.holt@northmoor.example", roles: ["auditor"], password: "passwordpassword" })).rejects.toMatchObject({ kind: "unprocessable" });
+    await expect(inviteMember(admin, { name: "Ivo Brandt", email: "ivo.brandt@northmoor.example", roles: ["auditor"] })).rejects.toMatchObject({ kind: "conflict" });
     expect(await snapshot(db)).toEqual(before);
   });
 
