@@ -28,7 +28,7 @@ export function computesRegime(regimes: RegimeChoice, regime: CapitalRegime): bo
 }
 
 const percent = (label: string, max = 100) =>
-  z.coerce.number({ message: `Enter ${label} in percent.` }).refine(Number.isFinite, `Enter ${label} in percent.`).min(0, `${label} cannot be below 0 %.`).max(max, `${label} is at most ${max} %.`);
+  z.coerce.number({ message: `Enter ${label.charAt(0).toLowerCase()}${label.slice(1)} in percent.` }).refine(Number.isFinite, `Enter ${label} in percent.`).min(0, `${label} cannot be below 0 %.`).max(max, `${label} is at most ${max} %.`);
 
 const plusFactorSchema = z.object({
   exceptions: z.coerce.number({ message: "Enter a count of exceptions." }).int("A whole number of exceptions.").min(0, "At least 0.").max(1000, "At most 1,000."),

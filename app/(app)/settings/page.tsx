@@ -7,6 +7,8 @@ import { listMembers } from "@/lib/data/members";
 import { FirmSettingsForm } from "./firm-settings-form";
 import { MembersPanel } from "./members-panel";
 import { CalendarSettingsSection } from "./calendar-settings-section";
+import { capitalProfileScreen } from "@/lib/data/capital-profile";
+import { CapitalProfileForm } from "./capital-profile-form";
 
 export const metadata: Metadata = { title: "Settings" };
 
@@ -15,6 +17,7 @@ export default async function SettingsPage() {
   const settings = await getFirmSettings(actor);
   const admin = can(actor, "users.manage");
   const members = admin ? await listMembers(actor) : [];
+  const capital = await capitalProfileScreen(actor);
   return (
     <>
       <PageHeader
@@ -37,6 +40,12 @@ export default async function SettingsPage() {
           </section>
         ) : null}
       </div>
+      <section aria-labelledby="capital-heading" className="mt-8">
+        <h2 id="capital-heading" className="mb-3 text-lg font-semibold">
+          Capital rule profile
+        </h2>
+        <CapitalProfileForm current={capital.current} versions={capital.versions} editable={can(actor, "capital.edit")} />
+      </section>
       {can(actor, "calendar.manage") ? <CalendarSettingsSection actor={actor} /> : null}
     </>
   );
