@@ -10,7 +10,7 @@ import { getDb } from "@/db/client";
 import { memberships, users } from "@/db/schema";
 import { signInSchema } from "@/lib/validation/auth";
 import { verifyPassword, dummyHash } from "./password";
-import { isSignInBlocked, recordSignInAttempt } from "./rate-limit";
+import { clientAddress, isSignInBlocked, recordSignInAttempt } from "./rate-limit";
 
 declare module "next-auth" {
   interface Session {
@@ -24,7 +24,7 @@ declare module "next-auth/jwt" {
   }
 }
 
-/** Too many recent failures for this account or address. */
+/** Too many recent failures for this account from this address (or from this address, or for this account). */
 class RateLimited extends CredentialsSignin {
   code = "rate_limited";
 }
@@ -32,11 +32,6 @@ class RateLimited extends CredentialsSignin {
 /** Hours a session lasts without activity. */
 export const SESSION_MAX_AGE_SECONDS = 8 * 60 * 60;
 
-/** The caller's address as the proxy in front reports it, for rate limiting. */
-function clientAddress(request: Request | undefined): string {
-  const forwarded = request?.headers.get("x-forwarded-for");
-  return forwarded?.split(",")[0]?.trim() || request?.headers.get("x-real-ip") || "local";
-}
 
 export const { handlers, auth, signIn, signOut } = NextAuth({
   trustHost: true,
@@ -58,7 +53,8 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
         const parsed = signInSchema.safeParse(raw);
         if (!parsed.success) return null;
         const email = parsed.data.email.toLowerCase();
-        const address = clientAddress(request);
+        // Only from the configured trusted proxy hop (BALLAST_TRUSTED_PROXY_HOPS); a client's own header is ignored.
+        const address = clientAddress(request?.headers);
         if (await isSignInBlocked(email, address)) throw new RateLimited();
         const [user] = await getDb().select().from(users).where(eq(users.email, email));
         // Compare against a dummy hash when there is no such user, so the answer takes as long either way.

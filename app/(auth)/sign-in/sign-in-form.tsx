@@ -10,7 +10,7 @@ import { safeNextPath } from "@/lib/auth/safe-redirect";
 import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
 
 const GENERIC = "That e-mail and password do not match an active account.";
-const RATE_LIMITED = "Too many sign-in attempts. Wait 15 minutes and try again.";
+const RATE_LIMITED = "Too many failed sign-in attempts for this account from here. Wait a few minutes and try again; each further failure doubles the wait.";
 
 export function SignInForm({ next, expired }: { next: string; expired: boolean }) {
   const router = useRouter();
