@@ -3,6 +3,7 @@ import {
   commodityLadder,
   computeStandardised,
   fxRisk,
+  parseIsoDate,
   specificRiskWeight,
   STANDARDISED_1996_PROFILE,
   yearsBetween,
@@ -45,6 +46,16 @@ describe("year fractions from dates", () => {
     expect(yearsBetween("2026-11-30", "2027-02-28")).toBe(0.25);
     expect(yearsBetween("2026-01-15", "2026-07-15")).toBe(0.5);
     expect(yearsBetween("2026-11-30", "2026-12-15")).toBeCloseTo(15 / 31 / 12, 12);
+  });
+  it("leap years: 29 February is a month end; a day that does not exist is no date", () => {
+    expect(yearsBetween("2024-02-29", "2025-02-28")).toBe(1);
+    expect(yearsBetween("2027-12-31", "2028-02-29")).toBe(2 / 12);
+    expect(yearsBetween("2027-12-31", "2028-02-28")).toBeCloseTo((1 + 28 / 29) / 12, 12);
+    expect(yearsBetween("2027-05-31", "2026-11-30")).toBe(-0.5);
+    expect(parseIsoDate("2028-02-29")).toEqual([2028, 2, 29]);
+    expect(parseIsoDate("2026-02-29")).toBeNull();
+    expect(parseIsoDate("2100-02-29")).toBeNull();
+    expect(parseIsoDate("2026-1-05")).toBeNull();
   });
 });
 
