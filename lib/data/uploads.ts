@@ -5,7 +5,7 @@
 import "server-only";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import { getDb, type Tx } from "@/db/client";
-import { firms, instruments, pricePoints, reportingPeriods, uploads } from "@/db/schema";
+import { capitalRuleProfiles, firms, instruments, pricePoints, reportingPeriods, uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
@@ -17,6 +17,9 @@ import { parsePrices, PRICE_FIELDS, type PricePoint, type PricesParse } from "@/
 import { bulkInsert, orderedId } from "@/db/bulk-insert";
 import { FileRejected, type DateFormat, type NumberFormat, type Problem, type ReadOptions } from "@/lib/uploads/types";
 import { fetchStoredFile, deleteStoredFiles, sha256 } from "@/lib/uploads/file-store";
+import { ATTRIBUTE_SQL_COLUMNS, attributeSqlValues } from "@/lib/uploads/position-attributes";
+import type { StandardisedProfile } from "@/lib/risk/standardised";
+import { standardisedProfileOfRow } from "./capital-profile";
 import { assertPeriodTakesData } from "./periods";
 
 export type UploadKind = "positions" | "prices";
@@ -68,6 +71,16 @@ async function fxRates(firmId: string, reportingCurrency: string, asOf: string):
   return { rates, dates };
 }
 
+/** The standardised rates when the firm's capital rule profile in force files that figure (its positions then need their attributes); null otherwise. */
+async function filedStandardisedProfile(firmId: string): Promise<StandardisedProfile | null> {
+  const [profile] = await getDb()
+    .select({ filedRegime: capitalRuleProfiles.filedRegime, standardised: capitalRuleProfiles.standardised, showRwa: capitalRuleProfiles.showRwa })
+    .from(capitalRuleProfiles)
+    .where(and(eq(capitalRuleProfiles.firmId, firmId), eq(capitalRuleProfiles.active, true)))
+    .limit(1);
+  return profile?.filedRegime === "standardised" ? standardisedProfileOfRow(profile) : null;
+}
+
 /** Parse bytes as the given kind of upload, in the firm's context. */
 export async function parseUploadBytes(
   bytes: Uint8Array,
@@ -86,7 +99,8 @@ export async function parseUploadBytes(
     }
     if (kind === "positions") {
       const fx = await fxRates(context.firmId, context.reportingCurrency, context.periodEnd ?? today());
-      return { kind, ...parsePositions(table, options, { today: today(), reportingCurrency: context.reportingCurrency, periodEnd: context.periodEnd, fxToReporting: fx.rates, fxDates: fx.dates }) };
+      const filedStandardised = await filedStandardisedProfile(context.firmId);
+      return { kind, ...parsePositions(table, options, { today: today(), reportingCurrency: context.reportingCurrency, periodEnd: context.periodEnd, fxToReporting: fx.rates, fxDates: fx.dates, filedStandardisedProfile: filedStandardised }) };
     }
     return { kind, ...parsePrices(table, options, { today: today() }) };
   } catch (error) {
@@ -373,8 +387,8 @@ export async function confirmUpload(actor: Actor, uploadId: string, input: { ack
       const stored = await bulkInsert(
         tx,
         "positions",
-        ["id", "firm_id", "period_id", "upload_id", "row_number", "as_of", "book", "instrument_code", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure"],
-        parsed.rows.map((r) => [orderedId(), actor.firmId, periodId, uploadId, r.row, r.asOf, r.book, r.instrumentId, r.instrumentName, r.assetClass, r.currency, r.quantity, r.price, r.marketValue, r.deltaExposure]),
+        ["id", "firm_id", "period_id", "upload_id", "row_number", "as_of", "book", "instrument_code", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure", ...ATTRIBUTE_SQL_COLUMNS],
+        parsed.rows.map((r) => [orderedId(), actor.firmId, periodId, uploadId, r.row, r.asOf, r.book, r.instrumentId, r.instrumentName, r.assetClass, r.currency, r.quantity, r.price, r.marketValue, r.deltaExposure, ...attributeSqlValues(r.attributes)]),
       );
       const result = { stored, superseded: superseded.map((s) => s.id) };
       await recordAudit(tx, actor, {

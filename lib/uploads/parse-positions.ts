@@ -6,6 +6,8 @@ import { z } from "zod";
 import { isIsoCurrency, matchColumns, readDate, readNumber, readText } from "./cells";
 import { ASSET_CLASSES, parseAssetClass } from "./asset-classes";
 import type { Problem, RawTable, ReadOptions } from "./types";
+import type { StandardisedProfile } from "@/lib/risk/standardised";
+import { POSITION_ATTRIBUTE_FIELDS, positionAttributesSchema, readPositionAttributes, standardisedRequirementProblems } from "./position-attributes";
 
 export const POSITION_FIELDS = {
   asOf: { label: "as-of date", required: true, aliases: ["asof", "asofdate", "date", "positiondate", "valuationdate"] },
@@ -20,6 +22,8 @@ export const POSITION_FIELDS = {
   deltaExposure: { label: "delta-equivalent exposure", required: false, aliases: ["deltaequivalentexposure", "deltaexposure", "delta", "deltaequivalent"] },
   marketValueCurrency: { label: "market value currency", required: false, aliases: ["marketvaluecurrency", "mvcurrency", "mvccy", "valuecurrency", "marketvalueccy"] },
   marketValueNote: { label: "market value note", required: false, aliases: ["marketvaluenote", "mvnote", "valuenote", "marketvaluereason", "valuereason"] },
+  // optional columns the standardised building blocks read (lib/uploads/position-attributes.ts)
+  ...POSITION_ATTRIBUTE_FIELDS,
 } as const;
 export type PositionField = keyof typeof POSITION_FIELDS;
 export const REQUIRED_POSITION_FIELDS = (Object.keys(POSITION_FIELDS) as PositionField[]).filter((f) => POSITION_FIELDS[f].required);
@@ -41,6 +45,8 @@ export const positionRowSchema = z.object({
   marketValue: z.number().finite(),
   marketValueGiven: z.boolean(),
   deltaExposure: z.number().finite().nullable(),
+  /** the standardised attributes the file gives (absent when it gives none) */
+  attributes: positionAttributesSchema.optional(),
 });
 export type PositionRow = z.infer<typeof positionRowSchema>;
 
@@ -77,6 +83,8 @@ export interface PositionParseContext {
   tolerance?: number;
   /** the date of each rate in fxToReporting; a rate older than the period's last weekday makes the cross-check indicative */
   fxDates?: Record<string, string>;
+  /** set when the firm's capital rule profile files the standardised figure (its rates): a position lacking an attribute its blocks need is an error */
+  filedStandardisedProfile?: StandardisedProfile | null;
 }
 
 /** Relative tolerance of the market value cross-check, unless the caller states another: 0.5 % (and at least 1 unit). */
@@ -108,6 +116,11 @@ export function lastWeekdayOnOrBefore(date: string): string {
 /** The first day of the month a period end closes, yyyy-mm-dd. */
 export function periodStartOf(periodEnd: string): string {
   return `${periodEnd.slice(0, 8)}01`;
+}
+
+/** The row's attributes when the file gave any (left out otherwise, so a row without them reads as before). */
+function attributesOf(attributes: PositionRow["attributes"]): { attributes?: PositionRow["attributes"] } {
+  return attributes && Object.keys(attributes).length > 0 ? { attributes } : {};
 }
 
 /** Totals by asset class and by currency. */
@@ -253,6 +266,7 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
       marketValue: givenValue ?? computed ?? 0,
       marketValueGiven: numbers.marketValue != null,
       deltaExposure: numbers.deltaExposure ?? null,
+      ...attributesOf(readPositionAttributes((f) => cell(raw, f), options, (f, message) => fail(f, message))),
     };
 
     const checked = positionRowSchema.safeParse(candidate);
@@ -306,6 +320,16 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
     if (checked.success && !rowProblems.some((p) => p.severity === "error")) rows.push(checked.data);
   });
 
+  if (context.filedStandardisedProfile && rows.length > 0) {
+    // The filed standardised figure needs each position's attributes: a lacking one refuses its row, before confirmation.
+    const needed = standardisedRequirementProblems(rows, { reportingCurrency: context.reportingCurrency, asOf: context.periodEnd ?? context.today, profile: context.filedStandardisedProfile });
+    if (needed.length > 0) {
+      problems.push(...needed);
+      const refused = new Set(needed.map((p) => p.row));
+      const kept = rows.filter((r) => !refused.has(r.row));
+      return { ...empty, missingColumns, rows: kept, problems, totals: positionTotals(kept) };
+    }
+  }
   const rates: RateUsed[] = [...new Set(rows.map((r) => r.currency).filter((c) => c !== context.reportingCurrency && context.fxToReporting?.[c] !== undefined))]
     .sort()
     .map((c) => {
