@@ -17,6 +17,7 @@ import { explainRuns, explainVarChange } from "@/lib/risk";
 import { storedPortfolioStateOf } from "@/lib/runs/stored-state";
 import { methodContentSchema } from "@/lib/validation/method";
 import { alignReturns } from "@/lib/runs/align";
+import { regimeFieldsOf, storedAttributesOf } from "@/lib/runs/standardised";
 import { canonicalJson } from "@/lib/runs/canonical";
 import { inputHashesOf } from "@/lib/runs/compare";
 import { assessHistory, engineInputOf, neededFactors } from "@/lib/runs/compute";
@@ -175,7 +176,7 @@ async function gatherInputs(actor: Actor, periodId: string) {
     .orderBy(desc(capitalRuleProfiles.createdAt))
     .limit(1);
   const capitalProfile = profileRow
-    ? capitalProfileOf(profileRow)
+    ? { ...capitalProfileOf(profileRow), ...regimeFieldsOf(profileRow) }
     : { id: null, name: "Engine default (no capital rule profile stored)", profile: BASEL_CAPITAL_PROFILE, plusFactors: { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 }, backtestDays: 250 };
 
   const rows = await db
@@ -195,6 +196,7 @@ async function gatherInputs(actor: Actor, periodId: string) {
     marketValue: r.marketValue,
     deltaExposure: r.deltaExposure,
     asOf: r.asOf,
+    ...storedAttributesOf(r),
   }));
 
   // closes of the factors the book needs, as of the period end, on the union of their dates

@@ -4,6 +4,7 @@
  * factors. Pure apart from yielding between steps so that a server can report progress; the same inputs give the
  * same results, bit for bit.
  */
+import { standardisedOfRun } from "./standardised";
 import { capitalCharge, ENGINE_VERSION, prepareRun, runMonthEnd, type MonthEndInput, type MonthEndResult, type Position } from "@/lib/risk";
 import { alignReturns, usableSeries, type Alignment } from "./align";
 import type { ResolvedModel } from "@/lib/risk/process/types";
@@ -259,6 +260,7 @@ export async function computeRun(inputs: RunInputs, context: ComputeContext = { 
     },
     notes,
     reproduction: null,
+    standardised: standardisedOfRun(inputs),
   };
 }
 

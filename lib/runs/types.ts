@@ -7,6 +7,10 @@ import type { MonthEndMethod, MonthEndResult, VarExplanation } from "@/lib/risk"
 import type { CapitalProfile } from "@/lib/risk/capital/capital";
 import type { QualityReport } from "@/lib/uploads/data-quality";
 import type { EstimatorChoice, MethodContent } from "@/lib/validation/method";
+import type { CapitalRegime, RegimeChoice } from "@/lib/validation/capital-profile";
+import type { StandardisedProfile } from "@/lib/risk/standardised";
+import type { RunStandardised } from "./standardised";
+import type { PositionAttributes } from "@/lib/uploads/position-attributes";
 
 export type RunStatus = "queued" | "running" | "completed" | "failed";
 
@@ -114,6 +118,16 @@ export interface RunCapitalProfile {
   /** the firm's plus factor by exception count */
   plusFactors: Record<string, number>;
   backtestDays: number;
+  /** the profile version (absent on runs stored before profiles were versioned) */
+  version?: number;
+  /** which figures the run computes (absent: internal models only) */
+  regimes?: RegimeChoice;
+  /** which computed figure is filed (absent: internal models) */
+  filedRegime?: CapitalRegime;
+  /** show the risk-weighted-asset equivalent (capital × 12.5) */
+  showRwa?: boolean;
+  /** the standardised building blocks' rates, when the run computes them */
+  standardised?: StandardisedProfile | null;
 }
 
 /** What the run read, in words and counts (the inputs themselves are stored apart, see RunInputs). */
@@ -175,6 +189,8 @@ export interface RunResults {
   notes: string[];
   /** set on a reproduction */
   reproduction: Reproduction | null;
+  /** the standardised building blocks, when the capital rule profile computes them (absent on earlier runs) */
+  standardised?: RunStandardised | null;
 }
 
 /** A run as the pages and other modules see it. */
@@ -232,6 +248,8 @@ export interface StoredPosition {
   marketValue: number;
   deltaExposure: number | null;
   asOf: string;
+  /** the standardised attributes the positions file gave (absent when it gave none) */
+  attributes?: PositionAttributes;
 }
 
 /** The change since last period: the explain against the previous period's filing run. */

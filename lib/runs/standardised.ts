@@ -1,0 +1,88 @@
+/**
+ * The standardised building blocks in a run: the regime fields a run stores with its capital rule profile, the
+ * stored positions' attributes, the standardised figure computed from the run's stored inputs, and which figure is
+ * filed (with the other as comparison and the risk-weighted-asset equivalent where the profile asks). Pure.
+ */
+import { computeStandardised, STANDARDISED_1996_PROFILE, validateStandardisedPositions, type StandardisedProfile, type StandardisedResult } from "@/lib/risk/standardised";
+import { attributesFromStored, standardisedPositionOf, type PositionAttributes } from "@/lib/uploads/position-attributes";
+import { CAPITAL_REGIMES, REGIME_CHOICES, REGIME_LABELS, computesRegime, type CapitalRegime, type RegimeChoice } from "@/lib/validation/capital-profile";
+import type { RunCapitalProfile, RunInputs, RunResults, StoredPosition } from "./types";
+
+/** The risk-weighted-asset equivalent of a capital figure: × 12.5 (the reciprocal of the 8 % minimum ratio). */
+export const RWA_MULTIPLIER = 12.5;
+
+/** The stored profile row's regime fields, as a run stores them with its capital profile. */
+export function regimeFieldsOf(row: { version: number; regimes: string; filedRegime: string; showRwa: boolean; standardised: unknown }): Pick<RunCapitalProfile, "version" | "regimes" | "filedRegime" | "showRwa" | "standardised"> {
+  const regimes: RegimeChoice = (REGIME_CHOICES as readonly string[]).includes(row.regimes) ? (row.regimes as RegimeChoice) : "internal_models";
+  const filedRegime: CapitalRegime = (CAPITAL_REGIMES as readonly string[]).includes(row.filedRegime) ? (row.filedRegime as CapitalRegime) : "internal_models";
+  const standardised = computesRegime(regimes, "standardised")
+    ? { ...((row.standardised as StandardisedProfile | null) ?? STANDARDISED_1996_PROFILE), showRwa: row.showRwa }
+    : null;
+  return { version: row.version, regimes, filedRegime, showRwa: row.showRwa, standardised };
+}
+
+/** A stored positions row's attributes as a run stores them (left out when the row has none, so older hashes hold). */
+export function storedAttributesOf(row: Parameters<typeof attributesFromStored>[0]): { attributes?: PositionAttributes } {
+  const attributes = attributesFromStored(row);
+  return attributes ? { attributes } : {};
+}
+
+/** What a run stores of the standardised figure. */
+export interface RunStandardised {
+  /** the full result, every line; null when it could not be computed */
+  result: StandardisedResult | null;
+  /** why it could not be computed: each position lacking an attribute, by its file row and column */
+  problems: { row: number; instrument: string; column: string; message: string }[];
+  error: string | null;
+}
+
+/** The standardised figure of a run's stored inputs, when its profile computes it; null otherwise. */
+export function standardisedOfRun(inputs: Pick<RunInputs, "positions" | "capitalProfile" | "periodEnd" | "reportingCurrency">): RunStandardised | null {
+  const cp = inputs.capitalProfile;
+  if (!cp.regimes || !computesRegime(cp.regimes, "standardised")) return null;
+  const profile = cp.standardised ?? { ...STANDARDISED_1996_PROFILE, showRwa: cp.showRwa ?? false };
+  const positions = inputs.positions.map((p: StoredPosition) =>
+    standardisedPositionOf({ instrumentId: p.instrument, assetClass: p.assetClass, currency: p.currency, quantity: p.quantity, marketValue: p.marketValue, attributes: p.attributes }),
+  );
+  const options = { reportingCurrency: inputs.reportingCurrency, asOf: inputs.periodEnd, profile };
+  const issues = validateStandardisedPositions(positions, options);
+  if (issues.length > 0) {
+    const problems = issues.map((i) => ({ row: inputs.positions[i.row]?.row ?? i.row + 2, instrument: inputs.positions[i.row]?.instrument ?? "", column: i.column, message: i.message }));
+    const first = problems.slice(0, 3).map((p) => `row ${p.row} (${p.instrument}), column ${p.column}: ${p.message}`).join("; ");
+    return { result: null, problems, error: `The standardised figure could not be computed: ${problems.length} position attribute(s) are missing or wrong — ${first}${problems.length > 3 ? "; …" : ""}.` };
+  }
+  return { result: computeStandardised(positions, options), problems: [], error: null };
+}
+
+/** One capital figure of a run, for the filing and the screens. */
+export interface CapitalFigure {
+  regime: CapitalRegime;
+  label: string;
+  capital: number;
+  /** capital × 12.5, where the profile asks */
+  rwa: number | null;
+}
+
+/** Which figure a run files and which it shows beside it. Runs stored before regimes file the internal-models figure. */
+export function filedCapitalOf(results: Pick<RunResults, "monthEnd" | "capitalProfile"> & { standardised?: RunStandardised | null }): {
+  filedRegime: CapitalRegime;
+  filed: CapitalFigure | null;
+  comparison: CapitalFigure | null;
+  /** set when the filed regime's figure is missing (the reason) */
+  missing: string | null;
+} {
+  const cp = results.capitalProfile;
+  const regimes: RegimeChoice = cp.regimes ?? "internal_models";
+  const filedRegime: CapitalRegime = cp.filedRegime ?? "internal_models";
+  const showRwa = cp.showRwa ?? false;
+  const figure = (regime: CapitalRegime): CapitalFigure | null => {
+    if (!computesRegime(regimes, regime)) return null;
+    const capital = regime === "internal_models" ? results.monthEnd.capital.capital : (results.standardised?.result?.total ?? null);
+    if (capital === null || capital === undefined) return null;
+    return { regime, label: REGIME_LABELS[regime], capital, rwa: showRwa ? capital * RWA_MULTIPLIER : null };
+  };
+  const other: CapitalRegime = filedRegime === "internal_models" ? "standardised" : "internal_models";
+  const filed = figure(filedRegime);
+  const missing = filed ? null : filedRegime === "standardised" ? (results.standardised?.error ?? "The run did not compute the standardised figure.") : "The run did not compute the internal-models figure.";
+  return { filedRegime, filed, comparison: figure(other), missing };
+}
