@@ -2,6 +2,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { Logo } from "./_components/logo";
 import { getActor } from "@/lib/auth/actor";
+import { isFirstRun } from "@/lib/data/accounts";
 
 export const dynamic = "force-dynamic";
 
@@ -14,6 +15,8 @@ const cycle = [
 
 export default async function LandingPage() {
   if (await getActor()) redirect("/home");
+  // an empty install starts with its first-run screen
+  if (await isFirstRun()) redirect("/setup");
   return (
     <main className="mx-auto flex min-h-screen max-w-5xl flex-col px-6 py-10">
       <header className="flex items-center justify-between">

@@ -24,6 +24,11 @@ export default async function SettingsPage() {
         title="Settings"
         lead={admin ? "The firm's profile, its filing deadline rule, and who may do what." : "The firm's profile. Only an administrator can change it."}
       />
+      <p className="-mt-2 mb-6 text-sm">
+        <a href="/settings/account" className="underline">
+          Your account and password
+        </a>
+      </p>
       <div className="grid gap-8 xl:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
         <section aria-labelledby="firm-heading">
           <h2 id="firm-heading" className="mb-3 text-lg font-semibold">

@@ -22,7 +22,17 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
         <div className="rounded-lg border border-ink-line bg-paper-raised p-6 shadow-sm">
           <h1 className="text-xl font-semibold">Sign in to your firm</h1>
           <p className="mt-1 text-sm text-ink-muted">Use the e-mail address your administrator registered.</p>
+          {params.changed === "1" ? (
+            <p role="status" className="mt-4 rounded-md border border-ok/30 bg-ok-bg px-3 py-2 text-sm">
+              Your password is changed and your sessions have ended. Sign in with the new password.
+            </p>
+          ) : null}
           <SignInForm next={next} expired={params.expired === "1"} />
+          <p className="mt-4 text-sm">
+            <a href="/reset-password" className="underline">
+              Forgot your password?
+            </a>
+          </p>
         </div>
       </div>
     </main>

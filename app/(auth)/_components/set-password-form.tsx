@@ -1,0 +1,63 @@
+"use client";
+
+import { useState } from "react";
+import Link from "next/link";
+import { useForm } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { tokenPasswordSchema, type TokenPasswordInput } from "@/lib/validation/accounts";
+import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
+import { apiFetch, ApiError } from "@/app/_components/api";
+import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+
+/** Choose a password through an invitation or reset link; then sign in with it. */
+export function SetPasswordForm({ token, purpose, email }: { token: string; purpose: "invite" | "reset"; email: string }) {
+  const [done, setDone] = useState(false);
+  const [formError, setFormError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    setError,
+    formState: { errors, isSubmitting },
+  } = useForm<TokenPasswordInput>({ resolver: zodResolver(tokenPasswordSchema), defaultValues: { token, password: "", confirm: "" } });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      await apiFetch("/api/account/set-password", { method: "POST", body: { ...values, purpose } });
+      setDone(true);
+    } catch (e) {
+      if (e instanceof ApiError && e.fields) for (const [field, message] of Object.entries(e.fields)) setError(field as keyof TokenPasswordInput, { message });
+      setFormError(e instanceof Error ? e.message : "Could not set the password.");
+    }
+  });
+
+  if (done) {
+    return (
+      <div className="mt-6 flex flex-col gap-4" role="status">
+        <p>Your password is set. Sign in with {email} and the password you chose.</p>
+        <Link href="/sign-in" className={primaryButtonClass}>
+          Sign in
+        </Link>
+      </div>
+    );
+  }
+  return (
+    <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">
+      {formError ? (
+        <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
+          {formError}
+        </p>
+      ) : null}
+      <input type="hidden" autoComplete="username" value={email} readOnly />
+      <Field id="password" label="New password" hint={`At least ${MIN_PASSWORD_LENGTH} characters; a phrase of several words is easiest to remember.`} error={errors.password?.message}>
+        <input id="password" type="password" autoComplete="new-password" autoFocus className={inputClass} aria-invalid={Boolean(errors.password)} {...register("password")} />
+      </Field>
+      <Field id="confirm" label="The same password again" error={errors.confirm?.message}>
+        <input id="confirm" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(errors.confirm)} {...register("confirm")} />
+      </Field>
+      <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
+        {isSubmitting ? "Saving…" : "Set password"}
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,59 @@
+"use client";
+
+import { useState } from "react";
+import Link from "next/link";
+import { useForm } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { resetRequestSchema, type ResetRequestInput } from "@/lib/validation/accounts";
+import { apiFetch } from "@/app/_components/api";
+import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+
+/** The reset request: one answer whatever the address, so the form cannot tell who has an account. */
+export function ResetRequestForm() {
+  const [answer, setAnswer] = useState<string | null>(null);
+  const [formError, setFormError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    formState: { errors, isSubmitting },
+  } = useForm<ResetRequestInput>({ resolver: zodResolver(resetRequestSchema), defaultValues: { email: "" } });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      const { message } = await apiFetch<{ message: string }>("/api/account/reset", { method: "POST", body: values });
+      setAnswer(message);
+    } catch (e) {
+      setFormError(e instanceof Error ? e.message : "Could not send the request.");
+    }
+  });
+
+  if (answer) {
+    return (
+      <div className="mt-6 flex flex-col gap-4">
+        <p role="status">{answer}</p>
+        <Link href="/sign-in" className="text-sm underline">
+          Back to sign-in
+        </Link>
+      </div>
+    );
+  }
+  return (
+    <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">
+      {formError ? (
+        <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
+          {formError}
+        </p>
+      ) : null}
+      <Field id="email" label="E-mail" error={errors.email?.message}>
+        <input id="email" type="email" autoComplete="username" autoFocus className={inputClass} aria-invalid={Boolean(errors.email)} {...register("email")} />
+      </Field>
+      <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
+        {isSubmitting ? "Sending…" : "Send reset link"}
+      </button>
+      <Link href="/sign-in" className="text-sm underline">
+        Back to sign-in
+      </Link>
+    </form>
+  );
+}
