@@ -9,6 +9,7 @@ import path from "node:path";
 import { existsSync } from "node:fs";
 import type { FilingViewModel } from "./view-model";
 import { formatAmount, formatConfidence, formatDate, formatNumber } from "./format";
+import { countOf } from "@/lib/text/count";
 
 export const CHART_COLOURS = {
   ink: "#1c2733",
@@ -172,7 +173,7 @@ export function varPnlChart(vm: FilingViewModel): Chart | null {
     title,
     width: W,
     height: H,
-    description: `${title}, ${s.length} days from ${formatDate(s[0].date)} to ${formatDate(s[s.length - 1].date)}, ${exceptions} exception(s) in this span; the VaR history table gives every value.`,
+    description: `${title}, ${s.length} days from ${formatDate(s[0].date)} to ${formatDate(s[s.length - 1].date)}, ${countOf(exceptions, "exception")} in this span; the VaR history table gives every value.`,
     svg: `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="${FONT}">${parts.join("")}</svg>`,
   };
 }

@@ -9,6 +9,7 @@ import { renderTemplate, type TemplateValues } from "@/lib/templates/render";
 import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatTimestamp } from "./format";
 import { VAR_METHOD_LABELS, type FilingViewModel } from "./view-model";
 import { neutralise } from "./neutralise";
+import { countOf } from "@/lib/text/count";
 
 /** Text a person typed, line by line made inert for spreadsheets (see ./neutralise). */
 function typed(text: string): string {
@@ -172,6 +173,7 @@ export function sectionValues(id: SectionId, vm: FilingViewModel): TemplateValue
         days: b.days,
         confidence: formatConfidence(b.confidence),
         exceptions: b.exceptions,
+        exceptionsSeen: `${countOf(b.exceptions, "exception")} ${b.exceptions === 1 ? "was" : "were"}`,
         expectedExceptions: formatNumber(b.expectedExceptions, 1),
         zone: b.zone,
         plusFactor: formatNumber(b.plusFactor, 2),

@@ -355,14 +355,17 @@ export async function periodFiling(actor: Actor, periodId: string): Promise<Peri
   };
 }
 
-/** Where the shell's "Filing" link goes: the newest period that is not filed yet, or else the newest period. */
+/**
+ * Where the shell's "Filing" link goes: the period that needs filing first (the earliest one not filed yet, whose
+ * deadline comes first), or else the newest period.
+ */
 export async function currentFilingPeriodId(actor: Actor): Promise<string | null> {
   const rows = await getDb()
     .select({ id: reportingPeriods.id, state: reportingPeriods.state })
     .from(reportingPeriods)
     .where(eq(reportingPeriods.firmId, actor.firmId))
     .orderBy(desc(reportingPeriods.periodEnd));
-  return (rows.find((r) => r.state !== "filed") ?? rows[0])?.id ?? null;
+  return (rows.findLast((r) => r.state !== "filed") ?? rows[0])?.id ?? null;
 }
 
 // ---------------------------------------------------------------------------------------------------------------

@@ -123,8 +123,14 @@ export async function getPeriod(actor: Actor, periodId: string): Promise<PeriodS
 /** Open the reporting period for a month, with its deadline under the firm's rule. */
 export async function openPeriod(actor: Actor, month: string): Promise<PeriodSummary> {
   const periodEnd = periodEndOf(month);
-  if (periodEnd > periodEndOf(today().slice(0, 7))) {
-    throw new AppError("unprocessable:period", "A period can be opened from its own month onwards, not before.", { month: "That month has not started yet." });
+  // A period opens once its month has ended (its last day has come), as the calendar opens it: the positions are as
+  // of the period end, and a file as of a day still to come cannot be taken.
+  if (periodEnd > today()) {
+    throw new AppError(
+      "unprocessable:period",
+      `The period ending ${periodEnd} can be opened from ${periodEnd} on, once its month has ended: its positions are as of that day.`,
+      { month: "That month has not ended yet." },
+    );
   }
   const earliest = earliestPeriodMonth(today());
   if (month < earliest) {

@@ -33,8 +33,8 @@ export function OpenPeriodForm({ defaultMonth }: { defaultMonth: string }) {
 
   return (
     <form onSubmit={onSubmit} noValidate className="mb-6 flex flex-wrap items-end gap-3 rounded-lg border border-ink-line bg-paper-raised p-4">
-      <Field id="month" label="Open the period for month" error={errors.month?.message}>
-        <input id="month" type="month" className={inputClass} aria-invalid={Boolean(errors.month)} {...register("month")} />
+      <Field id="month" label="Open the period for month" hint="A month's period opens once the month has ended." error={errors.month?.message}>
+        <input id="month" type="month" max={defaultMonth} className={inputClass} aria-invalid={Boolean(errors.month)} {...register("month")} />
       </Field>
       <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
         {isSubmitting ? "Opening…" : "Open period"}

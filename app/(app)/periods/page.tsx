@@ -8,6 +8,7 @@ import { can } from "@/lib/auth/permissions";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { listPeriods } from "@/lib/data/periods";
 import { today } from "@/lib/clock";
+import { latestMonthEnd } from "@/lib/calendar/deadline";
 import { OpenPeriodForm } from "./open-period-form";
 
 export const metadata: Metadata = { title: "Periods" };
@@ -18,7 +19,7 @@ export default async function PeriodsPage() {
   return (
     <>
       <PageHeader title="Reporting periods" lead="Each month end, with its deadline under the firm's calendar and the step it waits on." />
-      {can(actor, "periods.open") ? <OpenPeriodForm defaultMonth={today().slice(0, 7)} /> : null}
+      {can(actor, "periods.open") ? <OpenPeriodForm defaultMonth={latestMonthEnd(today()).slice(0, 7)} /> : null}
       {periods.length === 0 ? (
         <p className="rounded-lg border border-dashed border-ink-line bg-paper-raised p-6 text-ink-soft">No period has been opened yet.</p>
       ) : (

@@ -11,6 +11,7 @@ import { prepareRun, type MonthEndInput } from "./run-month-end";
 import { varMultiplier, type ParametricOptions } from "../var/parametric";
 import type { EngineWarning } from "../types";
 import { ENGINE_VERSION } from "../version";
+import { countOf, isAre, listSome } from "../../text/count";
 
 /** What a parametric VaR needs: factors, exposures, one-day volatilities and correlations. */
 export interface PortfolioState {
@@ -94,8 +95,8 @@ export function explainVarChange(previous: PortfolioState, current: PortfolioSta
   const newFactors = current.factors.filter((f) => !prevSet.has(f));
   const droppedFactors = previous.factors.filter((f) => !curSet.has(f));
   const warnings: EngineWarning[] = [];
-  if (newFactors.length) warnings.push({ code: "new-factors", message: `${newFactors.length} factor(s) are new this run; last run's figures use this run's volatilities and correlations for them: ${newFactors.slice(0, 10).join(", ")}.` });
-  if (droppedFactors.length) warnings.push({ code: "dropped-factors", message: `${droppedFactors.length} factor(s) of last run are not in this run: ${droppedFactors.slice(0, 10).join(", ")}.` });
+  if (newFactors.length) warnings.push({ code: "new-factors", message: `${countOf(newFactors.length, "factor")} ${isAre(newFactors.length)} new this run; last run's figures use this run's volatilities and correlations for ${newFactors.length === 1 ? "it" : "them"}: ${listSome(newFactors, 10)}.` });
+  if (droppedFactors.length) warnings.push({ code: "dropped-factors", message: `${countOf(droppedFactors.length, "factor")} of last run ${isAre(droppedFactors.length)} not in this run: ${listSome(droppedFactors, 10)}.` });
   return {
     confidence,
     previousVar: v0,

@@ -12,7 +12,7 @@ import { formatDate, formatTimestamp } from "@/reports/format";
 import { filingSections, type Block } from "@/reports/sections";
 import { contentHash } from "@/reports/view-model";
 import { CoverNoteForm, ExplanationsForm, MarkFiledForm, NewVersionForm, PrepareButton, RequestChangesForm, SignDialog, SubmitForm, VerifyButton } from "./_components/filing-actions";
-import { FilingStatus } from "./_components/filing-status";
+import { FILING_STATE_LABELS, FilingStatus } from "./_components/filing-status";
 import { SectionComments, type SectionComment } from "./_components/section-comments";
 import { SectionTable } from "./_components/section-tables";
 
@@ -186,7 +186,7 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
         <EmptyFiling data={data} canPrepare={officer} />
       ) : (
         <div className="grid gap-10 lg:grid-cols-[minmax(0,1fr)_22rem]">
-          <article className="min-w-0 max-w-4xl text-[15px] leading-7" aria-label={`Draft filing, version ${f.version}`}>
+          <article className="min-w-0 max-w-4xl text-[15px] leading-7" aria-label={`Filing, version ${f.version} (${FILING_STATE_LABELS[f.status].toLowerCase()})`}>
             {commentsOf("general").length || mode() ? (
               <SectionComments filingId={f.id} section="general" sectionTitle="The filing as a whole" comments={commentsOf("general")} mode={mode()} />
             ) : null}
@@ -326,9 +326,11 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
                   Signed by {f.signature.signerName}, {formatTimestamp(f.signature.signedAt)}
                 </p>
               ) : (
-                <p className="mb-3 text-sm text-ink-soft">Not signed.</p>
+                <p className="text-sm text-ink-soft" data-testid="not-signed">
+                  Not signed yet: there is no signature to verify.
+                </p>
               )}
-              <VerifyButton filingId={f.id} />
+              {f.signature ? <VerifyButton filingId={f.id} /> : null}
             </Card>
 
             <Card title="Versions">
