@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { PageHeader } from "@/app/_components/page-header";
 import { pageActor } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
@@ -25,9 +26,9 @@ export default async function SettingsPage() {
         lead={admin ? "The firm's profile, its filing deadline rule, and who may do what." : "The firm's profile. Only an administrator can change it."}
       />
       <p className="-mt-2 mb-6 text-sm">
-        <a href="/settings/account" className="underline">
+        <Link href="/settings/account" className="underline">
           Your account and password
-        </a>
+        </Link>
       </p>
       <div className="grid gap-8 xl:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
         <section aria-labelledby="firm-heading">

@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { redirect } from "next/navigation";
 import { Logo } from "@/app/_components/logo";
 import { getActor } from "@/lib/auth/actor";
@@ -29,9 +30,9 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
           ) : null}
           <SignInForm next={next} expired={params.expired === "1"} />
           <p className="mt-4 text-sm">
-            <a href="/reset-password" className="underline">
+            <Link href="/reset-password" className="underline">
               Forgot your password?
-            </a>
+            </Link>
           </p>
         </div>
       </div>

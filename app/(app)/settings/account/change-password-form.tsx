@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { changePasswordSchema, type ChangePasswordInput } from "@/lib/validation/accounts";
@@ -10,6 +11,7 @@ import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
 
 /** Change one's own password with the current one; then go to sign-in (the session has ended). */
 export function ChangePasswordForm({ email }: { email: string }) {
+  const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
@@ -22,7 +24,8 @@ export function ChangePasswordForm({ email }: { email: string }) {
     setFormError(null);
     try {
       await apiFetch("/api/account/password", { method: "POST", body: values });
-      window.location.assign("/sign-in?changed=1");
+      router.replace("/sign-in?changed=1");
+      router.refresh();
     } catch (e) {
       if (e instanceof ApiError && e.fields) for (const [field, message] of Object.entries(e.fields)) setError(field as keyof ChangePasswordInput, { message });
       setFormError(e instanceof Error ? e.message : "Could not change the password.");
