@@ -18,7 +18,13 @@ const nextConfig: NextConfig = {
   turbopack: { root: path.resolve(__dirname) },
   serverExternalPackages: ["@libsql/client", "libsql", "bcryptjs", "smtp-server", "mailparser", "xlsx-populate", "docx", "@resvg/resvg-js"],
   async headers() {
-    return [{ source: "/:path*", headers: securityHeaders }];
+    // HSTS only where the browser reached Ballast over HTTPS (told by the TLS proxy in front), or always with
+    // BALLAST_HSTS=1; over plain HTTP (loopback, the demo) browsers ignore it anyway, and it would only mislead.
+    const hsts = { key: "Strict-Transport-Security", value: "max-age=31536000; includeSubDomains" };
+    return [
+      { source: "/:path*", headers: process.env.BALLAST_HSTS === "1" ? [...securityHeaders, hsts] : securityHeaders },
+      { source: "/:path*", has: [{ type: "header", key: "x-forwarded-proto", value: "https" }], headers: [hsts] },
+    ];
   },
 };
 

@@ -30,8 +30,19 @@ export function contentSecurityPolicy(nonce: string, dev = process.env.NODE_ENV 
   ].join("; ");
 }
 
+/** Whether a path's percent-encoding is broken (e.g. "/data/uploads/%%%"), which names no page. */
+export function isMalformedPath(path: string): boolean {
+  try {
+    decodeURIComponent(path);
+    return false;
+  } catch {
+    return true;
+  }
+}
+
 export const proxy = auth((request) => {
   const path = request.nextUrl.pathname;
+  if (isMalformedPath(path)) return new NextResponse("Not found: the address is not valid.", { status: 404, headers: { "content-type": "text/plain; charset=utf-8" } });
   if (!request.auth && SIGNED_IN_AREAS.some((area) => path === area || path.startsWith(`${area}/`))) {
     const url = new URL("/sign-in", request.nextUrl.origin);
     url.searchParams.set("next", path + request.nextUrl.search);

@@ -34,5 +34,6 @@ const chooseFirm = action("member", z.object({ firmId: z.string().uuid() }), asy
 });
 
 export async function switchFirmAction(formData: FormData): Promise<void> {
-  await chooseFirm({ firmId: formData.get("firmId") });
+  // A call with anything but a form (a hand-made request) is refused by the schema, not a crash.
+  await chooseFirm({ firmId: formData instanceof FormData ? formData.get("firmId") : undefined });
 }

@@ -10,6 +10,7 @@ import { getDb } from "@/db/client";
 import { memberships, users } from "@/db/schema";
 import { signInSchema } from "@/lib/validation/auth";
 import { verifyPassword, dummyHash } from "./password";
+import { endSessionsOf } from "./sessions";
 import { clientAddress, isSignInBlocked, recordSignInAttempt } from "./rate-limit";
 
 declare module "next-auth" {
@@ -70,6 +71,13 @@ export const { handlers, auth, signIn, signOut } = NextAuth({
       },
     }),
   ],
+  events: {
+    // Every sign-out path, including the library's own /api/auth/signout, ends the session on the server too.
+    async signOut(message) {
+      const token = "token" in message ? message.token : null;
+      if (token?.uid) await endSessionsOf(token.uid, token.sv ?? 1);
+    },
+  },
   callbacks: {
     jwt({ token, user }) {
       if (user) {

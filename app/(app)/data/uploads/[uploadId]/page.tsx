@@ -1,5 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { notFound } from "next/navigation";
+import { z } from "zod";
 import { QueryProvider } from "@/app/_components/query-provider";
 import { pageActor } from "@/lib/auth/page";
 import { UploadPreview } from "./upload-preview";
@@ -10,6 +12,8 @@ export default async function UploadPage({ params, searchParams }: { params: Pro
   const { uploadId } = await params;
   const { duplicate } = await searchParams;
   await pageActor();
+  // A malformed id names no upload: not found, rather than a request the API would refuse.
+  if (!z.string().uuid().safeParse(uploadId).success) notFound();
   return (
     <>
       <p className="mb-2 text-sm">
