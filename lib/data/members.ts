@@ -52,7 +52,10 @@ async function getMember(actor: Actor, memberId: string): Promise<Member> {
   return member;
 }
 
-/** Change a member's roles or deactivate/reactivate them. The firm always keeps one active administrator. */
+/**
+ * Change a member's roles or deactivate/reactivate them. The firm always keeps one active administrator, and nobody
+ * gives themselves the compliance head (signing) role: another administrator must.
+ */
 export async function updateMember(actor: Actor, memberId: string, input: MemberUpdateInput): Promise<Member> {
   const member = await getMember(actor, memberId);
   const members = await listMembers(actor);
@@ -61,6 +64,26 @@ export async function updateMember(actor: Actor, memberId: string, input: Member
   const adminsAfter = members.filter((m) => (m.id === memberId ? active && roles.includes("admin") : m.active && m.roles.includes("admin")));
   if (adminsAfter.length === 0) {
     throw new AppError("conflict:member", "The firm needs at least one active administrator; give the role to someone else first.");
+  }
+  // Nobody grants themselves the signing role: another administrator must, so that no one signs what they alone
+  // administer. The refusal is audited (and nothing else is written).
+  const grantsSelfSigning = member.userId === actor.userId && roles.includes("compliance_head") && !member.roles.includes("compliance_head");
+  if (grantsSelfSigning) {
+    const others = members.filter((m) => m.userId !== actor.userId && m.active && m.roles.includes("admin"));
+    await recordAudit(getDb(), actor, {
+      action: "member.role_change_refused",
+      entityType: "membership",
+      entityId: memberId,
+      summary: `${actor.name} tried to give themselves the compliance head role; refused (needs another administrator)`,
+      detail: { before: member.roles, asked: roles, otherAdministrators: others.length },
+    });
+    throw new AppError(
+      "forbidden:member",
+      others.length > 0
+        ? `You cannot give yourself the compliance head role; another administrator (${others.map((m) => m.name).join(", ")}) must grant it.`
+        : "You cannot give yourself the compliance head role, and the firm has no other administrator who could: add a second administrator first.",
+      { roles: "Another administrator must grant the compliance head role." },
+    );
   }
   await getDb().transaction(async (tx) => {
     await tx
