@@ -1,4 +1,5 @@
 /** Calendar inputs: the reminder schedule, the holiday list and a holiday CSV. One zod schema each, used by forms and handlers. */
+import { CONTROL_CHARACTER_MESSAGE, isCleanLine } from "@/lib/validation/text";
 import { z } from "zod";
 import Papa from "papaparse";
 import { isValid, parseISO, format } from "date-fns";
@@ -19,7 +20,7 @@ const dateField = z.string().trim().superRefine((value, ctx) => {
 
 export const holidaySchema = z.object({
   date: dateField,
-  name: z.string().trim().max(80, "A holiday name has at most 80 characters.").default(""),
+  name: z.string().trim().max(80, "A holiday name has at most 80 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE).default(""),
 });
 
 export const holidayListSchema = z

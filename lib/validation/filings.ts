@@ -3,6 +3,7 @@
  * Client-safe (no server imports): the section list is kept here, in the order of the filing (it matches
  * reports/sections.ts, checked by tests/unit/filings/validation.test.ts).
  */
+import { CONTROL_CHARACTER_MESSAGE, isCleanLine, isCleanText } from "./text";
 import { z } from "zod";
 import { isValid, parseISO } from "date-fns";
 
@@ -36,7 +37,7 @@ const isoDate = z
 /** POST /api/periods/[periodId]/filing: assemble the draft from the period's marked run (or rebuild an open draft). */
 export const prepareFilingSchema = z
   .object({
-    coverNote: z.string({ message: "The cover note is text." }).max(MAX_NOTE, "At most 20,000 characters.").optional(),
+    coverNote: z.string({ message: "The cover note is text." }).max(MAX_NOTE, "At most 20,000 characters.").refine(isCleanText, CONTROL_CHARACTER_MESSAGE).optional(),
   })
   .strict();
 export type PrepareFilingInput = z.infer<typeof prepareFilingSchema>;
@@ -44,12 +45,12 @@ export type PrepareFilingInput = z.infer<typeof prepareFilingSchema>;
 /** PATCH /api/filings/[filingId]: the compliance officer's cover note and explanations, while the filing is a draft. */
 export const updateFilingSchema = z
   .object({
-    coverNote: z.string({ message: "The cover note is text." }).max(MAX_NOTE, "At most 20,000 characters.").optional(),
+    coverNote: z.string({ message: "The cover note is text." }).max(MAX_NOTE, "At most 20,000 characters.").refine(isCleanText, CONTROL_CHARACTER_MESSAGE).optional(),
     /** explanation by exception date; "" removes an explanation */
     explanations: z
       .record(
         isoDate,
-        z.string({ message: "An explanation is text." }).max(MAX_EXPLANATION, "At most 4,000 characters."),
+        z.string({ message: "An explanation is text." }).max(MAX_EXPLANATION, "At most 4,000 characters.").refine(isCleanText, CONTROL_CHARACTER_MESSAGE),
         { message: "Explanations by exception date (yyyy-mm-dd)." },
       )
       .optional(),
@@ -61,12 +62,12 @@ export type UpdateFilingInput = z.infer<typeof updateFilingSchema>;
 /** POST /api/filings/[filingId]/submit: send the draft to review, with an optional answer to the reviewer. */
 export const submitFilingSchema = z
   .object({
-    note: z.string({ message: "The note is text." }).trim().max(MAX_EXPLANATION, "At most 4,000 characters.").default(""),
+    note: z.string({ message: "The note is text." }).trim().max(MAX_EXPLANATION, "At most 4,000 characters.").refine(isCleanText, CONTROL_CHARACTER_MESSAGE).default(""),
   })
   .strict();
 export type SubmitFilingInput = z.infer<typeof submitFilingSchema>;
 
-const commentBody = z.string({ message: "The comment is text." }).trim().min(2, "Write the comment.").max(MAX_EXPLANATION, "At most 4,000 characters.");
+const commentBody = z.string({ message: "The comment is text." }).trim().min(2, "Write the comment.").max(MAX_EXPLANATION, "At most 4,000 characters.").refine(isCleanText, CONTROL_CHARACTER_MESSAGE);
 
 /** POST /api/filings/[filingId]/comments (compliance head) and /replies (compliance officer): a note on one section. */
 export const filingCommentSchema = z
@@ -81,7 +82,7 @@ export type FilingCommentInput = z.infer<typeof filingCommentSchema>;
 export const requestChangesSchema = z
   .object({
     section: z.enum(SECTION_IDS, { message: "Choose the section the change is about." }).default("general"),
-    reason: z.string({ message: "The reason is text." }).trim().min(5, "Say what needs to change (at least 5 characters).").max(MAX_EXPLANATION, "At most 4,000 characters."),
+    reason: z.string({ message: "The reason is text." }).trim().min(5, "Say what needs to change (at least 5 characters).").max(MAX_EXPLANATION, "At most 4,000 characters.").refine(isCleanText, CONTROL_CHARACTER_MESSAGE),
   })
   .strict();
 export type RequestChangesInput = z.infer<typeof requestChangesSchema>;
@@ -91,8 +92,8 @@ export const signFilingSchema = z
   .object({
     password: z.string({ message: "Enter your password." }).min(1, "Enter your password.").max(200, "At most 200 characters."),
     attest: z.literal(true, { message: "Tick the attestation to sign." }),
-    signerName: z.string({ message: "Type your name." }).trim().min(2, "Type your full name.").max(120, "At most 120 characters."),
-    licenceReference: z.string({ message: "Enter your reference." }).trim().min(2, "Enter your licence or registration reference.").max(80, "At most 80 characters."),
+    signerName: z.string({ message: "Type your name." }).trim().min(2, "Type your full name.").max(120, "At most 120 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
+    licenceReference: z.string({ message: "Enter your reference." }).trim().min(2, "Enter your licence or registration reference.").max(80, "At most 80 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
   })
   .strict();
 export type SignFilingInput = z.infer<typeof signFilingSchema>;
@@ -100,7 +101,7 @@ export type SignFilingInput = z.infer<typeof signFilingSchema>;
 /** POST /api/filings/[filingId]/versions: a change after signing starts a new version, with the reason. */
 export const newFilingVersionSchema = z
   .object({
-    reason: z.string({ message: "The reason is text." }).trim().min(5, "Say why the signed version needs to change (at least 5 characters).").max(2000, "At most 2,000 characters."),
+    reason: z.string({ message: "The reason is text." }).trim().min(5, "Say why the signed version needs to change (at least 5 characters).").max(2000, "At most 2,000 characters.").refine(isCleanText, CONTROL_CHARACTER_MESSAGE),
   })
   .strict();
 export type NewFilingVersionInput = z.infer<typeof newFilingVersionSchema>;
@@ -109,7 +110,7 @@ export type NewFilingVersionInput = z.infer<typeof newFilingVersionSchema>;
 export const markFiledSchema = z
   .object({
     filedOn: isoDate,
-    reference: z.string({ message: "Enter the regulator's reference." }).trim().min(1, "Enter the regulator's reference.").max(100, "At most 100 characters."),
+    reference: z.string({ message: "Enter the regulator's reference." }).trim().min(1, "Enter the regulator's reference.").max(100, "At most 100 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
   })
   .strict();
 export type MarkFiledInput = z.infer<typeof markFiledSchema>;

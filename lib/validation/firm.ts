@@ -1,15 +1,16 @@
 /** Firm settings and member forms: one zod schema each, used by the form and again by the server. */
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
+import { CONTROL_CHARACTER_MESSAGE, isCleanLine } from "./text";
 
 /** ISO 4217 codes Ballast accepts as a reporting currency (the currencies a small firm is likely to report in). */
 export const REPORTING_CURRENCIES = ["EUR", "GBP", "USD", "CHF", "SEK", "NOK", "DKK", "PLN", "CZK", "JPY", "CAD", "AUD", "SGD", "HKD"] as const;
 
 export const firmSettingsSchema = z.object({
-  name: z.string().trim().min(2, "Enter the firm's name (at least 2 characters).").max(120, "At most 120 characters."),
+  name: z.string().trim().min(2, "Enter the firm's name (at least 2 characters).").max(120, "At most 120 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
   reportingCurrency: z.enum(REPORTING_CURRENCIES, { message: "Choose a reporting currency from the list." }),
-  regulatorName: z.string().trim().max(160, "At most 160 characters."),
-  licenceLabel: z.string().trim().min(2, "Name the signer's reference, e.g. \"Registration no.\"").max(60, "At most 60 characters."),
+  regulatorName: z.string().trim().max(160, "At most 160 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
+  licenceLabel: z.string().trim().min(2, "Name the signer's reference, e.g. \"Registration no.\"").max(60, "At most 60 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
   methodCoApproval: z.boolean(),
   deadlineRule: z.enum(["business-days-after", "fixed-day-next-month"], { message: "Choose a deadline rule." }),
   deadlineValue: z.coerce
@@ -30,7 +31,7 @@ const rolesField = z
   .refine((roles) => new Set(roles).size === roles.length, "Each role once.");
 
 export const newMemberSchema = z.object({
-  name: z.string().trim().min(2, "Enter the person's name.").max(120, "At most 120 characters."),
+  name: z.string().trim().min(2, "Enter the person's name.").max(120, "At most 120 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
   email: z.string().trim().toLowerCase().email("Enter a valid e-mail address.").max(200, "At most 200 characters."),
   roles: rolesField,
 });
