@@ -6,6 +6,7 @@
 import { ENGINE_VERSION } from "../version";
 import { cashKind, derivativeUnderlying, residualYears, resetYears, type UnderlyingKind } from "./classify";
 import { commodityRisk, type CommodityHolding } from "./commodities";
+import { describeStandardisedMethod } from "./describe";
 import { equityRisk, equitySpecificRate, type EquityHolding } from "./equity";
 import { fxRisk, type FxExposure } from "./fx";
 import { bandIndex, interestRateGeneral, type LadderEntry } from "./interest-rate-general";
@@ -262,6 +263,16 @@ export function computeStandardised(positions: readonly StandardisedPosition[], 
     asOf: asOf ?? null,
     reportingCurrency: reporting,
     warnings,
+    statement: describeStandardisedMethod(profile, {
+      debtIssues: specific.length,
+      currencies: byCurrency.length,
+      equityMarkets: byMarket.length,
+      rateDerivatives: positions.some((p) => p.instrumentType === "swap" || ((p.instrumentType === "future" || p.instrumentType === "forward") && derivativeUnderlying(p) === "debt")),
+      otherDerivatives: positions.some((p) => (p.instrumentType === "future" || p.instrumentType === "forward") && derivativeUnderlying(p) !== "debt"),
+      options: optionResults.length > 0,
+      commodities: byCommodity.length > 0,
+      deMinimis: { met: fxResult.deMinimis.met, applied: fxResult.deMinimis.applied },
+    }),
     engineVersion: ENGINE_VERSION,
   };
 }

@@ -348,6 +348,8 @@ export interface StandardisedResult {
   asOf: string | null;
   reportingCurrency: string;
   warnings: StandardisedWarning[];
+  /** the method statement: sentences built from the profile used and what the book held */
+  statement: string[];
   engineVersion: string;
 }
 
