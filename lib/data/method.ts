@@ -16,6 +16,8 @@ import { DEFAULT_METHOD_CONTENT, methodDraftSchema, readMethodContent, type Meth
 import { combineLimitations, diffContent, splitLimitations, type FieldChange } from "@/lib/method/describe";
 import { buildEvidence, type MethodEvidence } from "@/lib/method/evidence";
 import { priceSeries } from "./prices";
+import { methodCheckOnLatestBook } from "./runs";
+import { infeasibilityMessage } from "@/lib/runs/feasibility";
 
 export type MethodStatus = "draft" | "approved" | "superseded" | "discarded";
 
@@ -153,10 +155,13 @@ export async function getMethodVersion(actor: Actor, methodId: string): Promise<
   return present(await findRow(actor, methodId));
 }
 
-/** Whether the firm requires a compliance head to co-approve method statements. */
+/**
+ * Whether the firm requires a compliance head to co-approve method statements: yes by default; no only where the
+ * firm turned it off and stated why (firms.methodSingleApprovalReason).
+ */
 export async function coApprovalRequired(actor: Actor): Promise<boolean> {
-  const [firm] = await getDb().select({ required: firms.methodCoApproval }).from(firms).where(eq(firms.id, actor.firmId));
-  return firm?.required ?? false;
+  const [firm] = await getDb().select({ required: firms.methodCoApproval, reason: firms.methodSingleApprovalReason }).from(firms).where(eq(firms.id, actor.firmId));
+  return !firm || firm.required || firm.reason.trim() === "";
 }
 
 /**
@@ -388,6 +393,13 @@ export async function approveMethod(actor: Actor, methodId: string, input: { not
     step = "co-approve";
   }
   checkApprovable(row);
+  // choices that cannot be computed for a factor of the firm's latest book are refused, naming the class, the factor and why
+  const feasibility = await methodCheckOnLatestBook(actor, readMethodContent(row.content));
+  if (feasibility.items.length) {
+    throw new AppError("unprocessable:method_infeasible", infeasibilityMessage(feasibility.items, `Version ${row.version} cannot be approved on the book of ${feasibility.periodEnd}`), {
+      content: feasibility.items.map((i) => `${i.factor}: ${i.reason}`).join("; "),
+    });
+  }
 
   const at = now().toISOString();
   await getDb().transaction(async (tx) => {
@@ -430,7 +442,7 @@ export async function approveMethod(actor: Actor, methodId: string, input: { not
       summary:
         `${step === "co-approve" ? "Co-approved" : "Approved"} method statement version ${row.version}` +
         (superseded.length ? `; version ${superseded.join(", ")} is superseded` : ""),
-      detail: { version: row.version, note, superseded: previous.map((p) => p.id), approvedAt: at },
+      detail: { version: row.version, note, superseded: previous.map((p) => p.id), approvedAt: at, ...(step === "approve-final" ? { onePersonApproval: true } : {}) },
       at,
     });
   });

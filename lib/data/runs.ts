@@ -10,12 +10,13 @@ import { getDb } from "@/db/client";
 import { capitalRuleProfiles, methodStatements, positions, reportingPeriods, runInputs, runs, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
-import { now } from "@/lib/clock";
+import { now, today } from "@/lib/clock";
 import type { Actor } from "@/lib/auth/actor";
 import { BASEL_CAPITAL_PROFILE } from "@/lib/risk/capital/capital";
 import { explainRuns, explainVarChange } from "@/lib/risk";
 import { storedPortfolioStateOf } from "@/lib/runs/stored-state";
-import { methodContentSchema } from "@/lib/validation/method";
+import { infeasibilityMessage, methodInfeasibilities, type Infeasibility } from "@/lib/runs/feasibility";
+import { methodContentSchema, type MethodContent } from "@/lib/validation/method";
 import { alignReturns } from "@/lib/runs/align";
 import { regimeFieldsOf, storedAttributesOf } from "@/lib/runs/standardised";
 import { canonicalJson } from "@/lib/runs/canonical";
@@ -150,6 +151,73 @@ function assertOpen(period: { state: string; periodEnd: string }) {
   }
 }
 
+/** Closes of the factors a book needs, as of the period end, on the union of their dates. */
+async function closesOf(actor: Actor, stored: readonly StoredPosition[], periodEnd: string): Promise<RunInputs["prices"]> {
+  const series = await priceSeries(actor.firmId, periodEnd);
+  const needed = neededFactors(stored, actor.reportingCurrency);
+  const present = [...needed.keys()].filter((id) => series.has(id)).sort();
+  const dateSet = new Set<string>();
+  for (const id of present) for (const d of series.get(id)!.dates) dateSet.add(d);
+  const dates = [...dateSet].sort();
+  const index = new Map(dates.map((d, i) => [d, i]));
+  const factors: RunInputs["prices"]["factors"] = {};
+  for (const id of present) {
+    const s = series.get(id)!;
+    const closes: (number | null)[] = new Array(dates.length).fill(null);
+    s.dates.forEach((d, i) => (closes[index.get(d)!] = s.closes[i]));
+    const meta = needed.get(id)!;
+    factors[id] = { assetClass: meta.assetClass, currency: meta.currency, closes };
+  }
+  return { dates, factors };
+}
+
+/**
+ * Whether a method statement's choices can be computed on the firm's latest book (the newest period with confirmed
+ * positions, its closes up to the period end): the factors they cannot be computed for, with the reason. Empty when
+ * the firm has no confirmed positions yet (the run start checks again).
+ */
+export async function methodCheckOnLatestBook(actor: Actor, content: MethodContent): Promise<{ periodEnd: string | null; items: Infeasibility[] }> {
+  const db = getDb();
+  const periods = await db
+    .select({ id: reportingPeriods.id, periodEnd: reportingPeriods.periodEnd })
+    .from(reportingPeriods)
+    .where(eq(reportingPeriods.firmId, actor.firmId))
+    .orderBy(desc(reportingPeriods.periodEnd));
+  for (const p of periods) {
+    const upload = await confirmedPositionsUpload(actor, p.id);
+    if (!upload) continue;
+    const rows = await db
+      .select()
+      .from(positions)
+      .where(and(eq(positions.firmId, actor.firmId), eq(positions.uploadId, upload.id)))
+      .orderBy(positions.rowNumber);
+    const stored: StoredPosition[] = rows.map((r) => ({
+      row: r.rowNumber,
+      book: r.book,
+      instrument: r.instrumentCode,
+      name: r.instrumentName,
+      assetClass: r.assetClass,
+      currency: r.currency,
+      quantity: r.quantity,
+      price: r.price,
+      marketValue: r.marketValue,
+      deltaExposure: r.deltaExposure,
+      asOf: r.asOf,
+    }));
+    const periodEnd = p.periodEnd < today() ? p.periodEnd : today();
+    const prices = await closesOf(actor, stored, periodEnd);
+    const inputs = {
+      positions: stored,
+      prices,
+      method: { id: "", version: 0, approvedAt: null, content },
+      periodEnd,
+      reportingCurrency: actor.reportingCurrency,
+    } as unknown as RunInputs;
+    return { periodEnd, items: methodInfeasibilities(inputs, content) };
+  }
+  return { periodEnd: null, items: [] };
+}
+
 /** Gather the inputs of a new run as they stand now, or refuse naming what is missing. */
 async function gatherInputs(actor: Actor, periodId: string) {
   const period = await getPeriod(actor, periodId);
@@ -199,22 +267,7 @@ async function gatherInputs(actor: Actor, periodId: string) {
     ...storedAttributesOf(r),
   }));
 
-  // closes of the factors the book needs, as of the period end, on the union of their dates
-  const series = await priceSeries(actor.firmId, period.periodEnd);
-  const needed = neededFactors(stored, actor.reportingCurrency);
-  const present = [...needed.keys()].filter((id) => series.has(id)).sort();
-  const dateSet = new Set<string>();
-  for (const id of present) for (const d of series.get(id)!.dates) dateSet.add(d);
-  const dates = [...dateSet].sort();
-  const index = new Map(dates.map((d, i) => [d, i]));
-  const factors: RunInputs["prices"]["factors"] = {};
-  for (const id of present) {
-    const s = series.get(id)!;
-    const closes: (number | null)[] = new Array(dates.length).fill(null);
-    s.dates.forEach((d, i) => (closes[index.get(d)!] = s.closes[i]));
-    const meta = needed.get(id)!;
-    factors[id] = { assetClass: meta.assetClass, currency: meta.currency, closes };
-  }
+  const { dates, factors } = await closesOf(actor, stored, period.periodEnd);
 
   const quality = await getDataQuality(actor, periodId);
   const inputs: RunInputs = {
@@ -283,6 +336,13 @@ export async function startRun(actor: Actor, periodId: string, options: StartOpt
       `${assessment.short.length} factor(s) lack the method statement's minimum history of ${assessment.minHistory} returns: ${list}. Start the run without them (the positions on them are left out and listed), or load their price history first.`,
       { excludeShortHistory: `Leaves out ${assessment.positionsAffected.length} position(s): ${assessment.positionsAffected.join(", ")}.` },
     );
+  }
+  // a choice that cannot be computed for a factor refuses the run, naming the asset class, the factor and why
+  const infeasible = methodInfeasibilities(inputs, inputs.method.content);
+  if (infeasible.length) {
+    throw new AppError("unprocessable:method", infeasibilityMessage(infeasible, `A run cannot start with method statement version ${method.version}`), {
+      method: infeasible.map((i) => `${i.factor}: ${i.reason}`).join("; "),
+    });
   }
   const id = await insertRun(
     actor,

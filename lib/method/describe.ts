@@ -14,6 +14,27 @@ export const COVARIANCE_LABELS: Record<MethodContent["covariance"], string> = {
   "garch-ccc": "GARCH(1,1) volatilities with constant correlation",
 };
 
+export const PORTFOLIO_VOLATILITY_LABELS: Record<MethodContent["portfolioVolatility"], string> = {
+  "asset-class": "Each factor's estimator, by its asset class",
+  covariance: "One covariance model for every factor",
+};
+
+export const CORRELATION_LABELS: Record<MethodContent["correlation"]["kind"], string> = {
+  equal: "Equal weights over a window",
+  ewma: "EWMA correlation",
+  ccc: "Constant correlation of standardised returns",
+};
+
+/** The correlation choice in words. */
+export function describeCorrelation(c: MethodContent["correlation"]): string {
+  return c.kind === "equal" ? `Equal weights over ${c.window} days` : c.kind === "ewma" ? `EWMA, λ ${c.lambda}` : CORRELATION_LABELS.ccc;
+}
+
+/** The backtest refit choice in words. */
+export function describeRefit(r: MethodContent["backtestRefit"]): string {
+  return r.mode === "every" ? `Re-estimated every ${r.days} business days; each day's forecast uses only earlier data` : "Fitted once on the whole sample (the backtest is in sample)";
+}
+
 export const VAR_METHOD_LABELS: Record<MethodContent["varMethod"], string> = {
   parametric: "Parametric (variance–covariance)",
   historical: "Historical simulation",
@@ -22,7 +43,7 @@ export const VAR_METHOD_LABELS: Record<MethodContent["varMethod"], string> = {
 
 export const SCALING_LABELS: Record<MethodContent["scaling"], string> = {
   sqrt: "Square root of time from one day",
-  term: "GARCH term structure summed over the horizon",
+  term: "Each factor's variance term structure summed over the horizon",
   overlap: "Overlapping multi-day returns",
 };
 
@@ -60,17 +81,22 @@ export function estimatorKinds(content: MethodContent): EstimatorKind[] {
   return kinds;
 }
 
+/** The limitation a backtest with parameters fitted once on the whole sample carries (Ballast's own wording). */
+export const IN_SAMPLE_BACKTEST_LIMITATION =
+  "The backtest reuses model parameters fitted once on the whole sample, so every past forecast was made with parameters that had seen the day it forecasts: the backtest is in sample and can flatter the model.";
+
 /** The engine's limitations for every estimator the method uses (these cannot be removed from a version). */
 export function engineLimitations(content: MethodContent): string[] {
   const out: string[] = [];
   for (const kind of estimatorKinds(content)) for (const text of LIMITATIONS[kind]) if (!out.includes(text)) out.push(text);
+  if (content.backtestRefit?.mode === "once") out.push(IN_SAMPLE_BACKTEST_LIMITATION);
   return out;
 }
 
 /** A stored limitations list split into the engine's (for the chosen estimators) and the analyst's own. */
 export function splitLimitations(content: MethodContent, stored: readonly string[]): { engine: string[]; analyst: string[] } {
   const engine = engineLimitations(content);
-  const catalogue = new Set(Object.values(LIMITATIONS).flat());
+  const catalogue = new Set([...Object.values(LIMITATIONS).flat(), IN_SAMPLE_BACKTEST_LIMITATION]);
   return { engine: stored.filter((t) => engine.includes(t) || catalogue.has(t)), analyst: stored.filter((t) => !engine.includes(t) && !catalogue.has(t)) };
 }
 
@@ -121,9 +147,15 @@ export function methodFields(content: MethodContent): MethodField[] {
     if (e) out.push(...estimatorFields(`byAssetClass.${c}`, ASSET_CLASS_LABELS[c as AssetClass], e));
   }
   out.push(
-    { path: "covariance", label: "Covariance", value: COVARIANCE_LABELS[content.covariance] },
-    { path: "covarianceLambda", label: "Covariance λ", value: String(content.covarianceLambda) },
-    { path: "covarianceWindow", label: "Covariance window", value: `${content.covarianceWindow} days` },
+    { path: "portfolioVolatility", label: "Portfolio volatilities", value: PORTFOLIO_VOLATILITY_LABELS[content.portfolioVolatility] },
+    ...(content.portfolioVolatility === "asset-class"
+      ? [{ path: "correlation", label: "Correlation", value: describeCorrelation(content.correlation) }]
+      : [
+          { path: "covariance", label: "Covariance", value: COVARIANCE_LABELS[content.covariance] },
+          { path: "covarianceLambda", label: "Covariance λ", value: String(content.covarianceLambda) },
+          { path: "covarianceWindow", label: "Covariance window", value: `${content.covarianceWindow} days` },
+        ]),
+    { path: "backtestRefit", label: "Backtest parameters", value: describeRefit(content.backtestRefit) },
     { path: "varMethod", label: "VaR method", value: VAR_METHOD_LABELS[content.varMethod] },
     { path: "distribution", label: "Return distribution", value: DISTRIBUTION_LABELS[content.distribution] },
     { path: "confidences", label: "Confidence levels", value: content.confidences.map(formatConfidence).join(", ") },

@@ -82,11 +82,9 @@ export function engineMethodOf(content: MethodContent, capital: RunCapitalProfil
     content.portfolioVolatility === "asset-class" ? { volatility: volatilityChoiceOf(content), correlation: correlationSpecOf(content.correlation) } : {};
   return {
     ...perFactor,
-    // with one covariance model the engine's own default is today's behaviour (full-sample GARCH-CCC; EWMA and equal
-    // weights fit nothing): the refit is passed only where the statement asks for something else
-    ...(content.portfolioVolatility === "asset-class" || (content.covariance === "garch-ccc" && content.backtestRefit.mode === "every")
-      ? { backtestRefit: backtestRefitOf(content.backtestRefit) }
-      : {}),
+    // with one covariance model the engine's own rule is today's behaviour (GARCH-CCC fitted once on the whole
+    // sample; EWMA and equal weights fit nothing), and the schema allows nothing else
+    ...(content.portfolioVolatility === "asset-class" ? { backtestRefit: backtestRefitOf(content.backtestRefit) } : {}),
     ...(options.candidates ? { candidates: { include: "standard" as const } } : {}),
     methods,
     primaryMethod: content.varMethod,

@@ -5,8 +5,10 @@
  */
 import { z } from "zod";
 import { ASSET_CLASSES } from "@/lib/uploads/asset-classes";
+import { realDate } from "./dates";
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date as yyyy-mm-dd.");
+// A real day, from 1970 (early market stresses) to 2099.
+const isoDate = realDate(1970, 2099);
 
 export const estimatorSchema = z.discriminatedUnion("kind", [
   z.object({
@@ -143,6 +145,9 @@ const methodContentObject = z
     }
     if (value.portfolioVolatility === "asset-class" && value.correlation.kind === "equal" && value.correlation.window > value.minHistory) {
       ctx.addIssue({ code: "custom", path: ["correlation", "window"], message: `The correlation window (${value.correlation.window}) is longer than the minimum history (${value.minHistory}).` });
+    }
+    if (value.portfolioVolatility === "covariance" && value.covariance === "garch-ccc" && value.backtestRefit.mode === "every") {
+      ctx.addIssue({ code: "custom", path: ["backtestRefit", "mode"], message: "The one GARCH-CCC covariance is fitted once on the whole sample; for refits, take the volatilities from the asset classes." });
     }
     if (value.scaling === "overlap" && value.varMethod === "parametric") {
       ctx.addIssue({ code: "custom", path: ["scaling"], message: "Overlapping multi-day returns apply to historical or filtered simulation, not parametric VaR." });

@@ -12,7 +12,7 @@ import { apiFetch, ApiError } from "@/app/_components/api";
 import { Field, inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
 import { ASSET_CLASSES, ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
 import { ESTIMATOR_LABELS, methodDraftSchema, type EstimatorChoice, type MethodDraft } from "@/lib/validation/method";
-import { COVARIANCE_LABELS, SCALING_LABELS, VAR_METHOD_LABELS, engineLimitations } from "@/lib/method/describe";
+import { CORRELATION_LABELS, COVARIANCE_LABELS, PORTFOLIO_VOLATILITY_LABELS, SCALING_LABELS, VAR_METHOD_LABELS, engineLimitations } from "@/lib/method/describe";
 import type { MethodVersion } from "@/lib/data/method";
 import { ESTIMATOR_DEFAULTS } from "@/lib/method/defaults";
 import { EvidenceView } from "../_components/evidence-view";
@@ -208,23 +208,80 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
           </div>
         </Group>
 
-        <Group legend="Covariance and VaR">
+        <Group legend="Portfolio volatility, correlation and VaR" hint="Where each factor's volatility in VaR, expected shortfall, the backtest and capital comes from.">
           <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-            <Field id="content.covariance" label="Covariance" error={errorAt(errors, "content.covariance")}>
-              <select className={inputClass} {...a11y(errors, "content.covariance")} {...register("content.covariance")}>
-                {Object.entries(COVARIANCE_LABELS).map(([k, l]) => (
+            <Field id="content.portfolioVolatility" label="Portfolio volatilities" error={errorAt(errors, "content.portfolioVolatility")}>
+              <select className={inputClass} {...a11y(errors, "content.portfolioVolatility")} {...register("content.portfolioVolatility")}>
+                {Object.entries(PORTFOLIO_VOLATILITY_LABELS).map(([k, l]) => (
                   <option key={k} value={k}>
                     {l}
                   </option>
                 ))}
               </select>
             </Field>
-            <Field id="content.covarianceLambda" label="Covariance λ" hint="Between 0 and 1." error={errorAt(errors, "content.covarianceLambda")}>
-              <input type="text" inputMode="decimal" className={inputClass} {...a11y(errors, "content.covarianceLambda", true)} {...register("content.covarianceLambda")} />
+            {content.portfolioVolatility === "asset-class" ? (
+              <>
+                <Field id="content.correlation.kind" label="Correlation" error={errorAt(errors, "content.correlation.kind")}>
+                  <select
+                    id="content.correlation.kind"
+                    className={inputClass}
+                    value={content.correlation.kind}
+                    onChange={(e) =>
+                      setValue("content.correlation", e.target.value === "equal" ? { kind: "equal", window: 250 } : e.target.value === "ewma" ? { kind: "ewma", lambda: 0.94 } : { kind: "ccc" }, { shouldDirty: true })
+                    }
+                  >
+                    {Object.entries(CORRELATION_LABELS).map(([k, l]) => (
+                      <option key={k} value={k}>
+                        {l}
+                      </option>
+                    ))}
+                  </select>
+                </Field>
+                {content.correlation.kind === "ewma" ? (
+                  <Field id="content.correlation.lambda" label="Correlation λ" hint="Between 0 and 1, e.g. 0.94." error={errorAt(errors, "content.correlation.lambda")}>
+                    <input type="text" inputMode="decimal" className={inputClass} {...a11y(errors, "content.correlation.lambda", true)} {...register("content.correlation.lambda" as Path)} />
+                  </Field>
+                ) : content.correlation.kind === "equal" ? (
+                  <Field id="content.correlation.window" label="Correlation window (days)" error={errorAt(errors, "content.correlation.window")}>
+                    <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.correlation.window")} {...register("content.correlation.window" as Path)} />
+                  </Field>
+                ) : null}
+              </>
+            ) : (
+              <>
+                <Field id="content.covariance" label="Covariance" error={errorAt(errors, "content.covariance")}>
+                  <select className={inputClass} {...a11y(errors, "content.covariance")} {...register("content.covariance")}>
+                    {Object.entries(COVARIANCE_LABELS).map(([k, l]) => (
+                      <option key={k} value={k}>
+                        {l}
+                      </option>
+                    ))}
+                  </select>
+                </Field>
+                <Field id="content.covarianceLambda" label="Covariance λ" hint="Between 0 and 1." error={errorAt(errors, "content.covarianceLambda")}>
+                  <input type="text" inputMode="decimal" className={inputClass} {...a11y(errors, "content.covarianceLambda", true)} {...register("content.covarianceLambda")} />
+                </Field>
+                <Field id="content.covarianceWindow" label="Covariance window (days)" error={errorAt(errors, "content.covarianceWindow")}>
+                  <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.covarianceWindow")} {...register("content.covarianceWindow")} />
+                </Field>
+              </>
+            )}
+            <Field id="content.backtestRefit.mode" label="Backtest parameters" error={errorAt(errors, "content.backtestRefit.mode")}>
+              <select
+                id="content.backtestRefit.mode"
+                className={inputClass}
+                value={content.backtestRefit.mode}
+                onChange={(e) => setValue("content.backtestRefit", e.target.value === "once" ? { mode: "once" } : { mode: "every", days: 21 }, { shouldDirty: true })}
+              >
+                <option value="every">Re-estimated on a schedule (out of sample)</option>
+                <option value="once">Fitted once on the whole sample (in sample)</option>
+              </select>
             </Field>
-            <Field id="content.covarianceWindow" label="Covariance window (days)" error={errorAt(errors, "content.covarianceWindow")}>
-              <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.covarianceWindow")} {...register("content.covarianceWindow")} />
-            </Field>
+            {content.backtestRefit.mode === "every" ? (
+              <Field id="content.backtestRefit.days" label="Re-estimate every (business days)" hint="21 is about a month." error={errorAt(errors, "content.backtestRefit.days")}>
+                <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.backtestRefit.days", true)} {...register("content.backtestRefit.days" as Path)} />
+              </Field>
+            ) : null}
             <Field id="content.varMethod" label="VaR method" error={errorAt(errors, "content.varMethod")}>
               <select className={inputClass} {...a11y(errors, "content.varMethod")} {...register("content.varMethod")}>
                 {Object.entries(VAR_METHOD_LABELS).map(([k, l]) => (

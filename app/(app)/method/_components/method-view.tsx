@@ -1,7 +1,7 @@
 /** A method statement version in readable form: estimators, parameters, rationale, limitations, evidence. */
 import { ASSET_CLASSES, ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
 import { formatTimestamp } from "@/app/_components/format";
-import { COVARIANCE_LABELS, DISTRIBUTION_LABELS, SCALING_LABELS, VAR_METHOD_LABELS, describeEstimator, formatConfidence } from "@/lib/method/describe";
+import { COVARIANCE_LABELS, DISTRIBUTION_LABELS, PORTFOLIO_VOLATILITY_LABELS, SCALING_LABELS, VAR_METHOD_LABELS, describeCorrelation, describeEstimator, describeRefit, formatConfidence } from "@/lib/method/describe";
 import type { MethodVersion } from "@/lib/data/method";
 import { EvidenceView } from "./evidence-view";
 import { VersionStatus } from "./version-status";
@@ -50,7 +50,11 @@ export function EstimatorTable({ version }: { version: MethodVersion }) {
 export function ParameterList({ version }: { version: MethodVersion }) {
   const c = version.content;
   const rows: [string, string][] = [
-    ["Covariance", `${COVARIANCE_LABELS[c.covariance]} (λ ${c.covarianceLambda}, ${c.covarianceWindow}-day window)`],
+    ["Portfolio volatilities", PORTFOLIO_VOLATILITY_LABELS[c.portfolioVolatility]],
+    c.portfolioVolatility === "asset-class"
+      ? ["Correlation", describeCorrelation(c.correlation)]
+      : ["Covariance", `${COVARIANCE_LABELS[c.covariance]} (λ ${c.covarianceLambda}, ${c.covarianceWindow}-day window); the estimators above give the factor volatility report only`],
+    ["Backtest parameters", describeRefit(c.backtestRefit)],
     ["VaR method", VAR_METHOD_LABELS[c.varMethod]],
     ["Return distribution", DISTRIBUTION_LABELS[c.distribution]],
     ["Confidence levels", c.confidences.map(formatConfidence).join(", ")],
