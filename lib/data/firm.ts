@@ -21,6 +21,7 @@ export async function getFirmSettings(actor: Actor) {
     regulatorName: firm.regulatorName,
     licenceLabel: firm.licenceLabel,
     methodCoApproval: firm.methodCoApproval,
+    methodSingleApprovalReason: firm.methodSingleApprovalReason,
     deadlineRule: (calendar?.deadlineRule ?? "business-days-after") as FirmSettingsInput["deadlineRule"],
     deadlineValue: calendar?.deadlineValue ?? 15,
   };
@@ -39,6 +40,8 @@ export async function updateFirmSettings(actor: Actor, input: FirmSettingsInput)
         regulatorName: input.regulatorName,
         licenceLabel: input.licenceLabel,
         methodCoApproval: input.methodCoApproval,
+        // the stated reason stands only while one-person approval is allowed
+        methodSingleApprovalReason: input.methodCoApproval ? "" : (input.methodSingleApprovalReason ?? ""),
       })
       .where(eq(firms.id, actor.firmId));
     const [existing] = await tx.select().from(calendarSettings).where(eq(calendarSettings.firmId, actor.firmId));

@@ -12,6 +12,8 @@ export const firmSettingsSchema = z.object({
   regulatorName: z.string().trim().max(160, "At most 160 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
   licenceLabel: z.string().trim().min(2, "Name the signer's reference, e.g. \"Registration no.\"").max(60, "At most 60 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
   methodCoApproval: z.boolean(),
+  /** why the firm lets one person approve its method statement; required when methodCoApproval is off */
+  methodSingleApprovalReason: z.string().trim().max(500, "At most 500 characters.").optional().default(""),
   deadlineRule: z.enum(["business-days-after", "fixed-day-next-month"], { message: "Choose a deadline rule." }),
   deadlineValue: z.coerce
     .number({ message: "Enter a whole number." })
@@ -19,6 +21,9 @@ export const firmSettingsSchema = z.object({
     .min(1, "Between 1 and 60.")
     .max(60, "Between 1 and 60."),
 }).superRefine((value, ctx) => {
+  if (!value.methodCoApproval && (value.methodSingleApprovalReason ?? "").length < 10) {
+    ctx.addIssue({ code: "custom", path: ["methodSingleApprovalReason"], message: "Say why one person may approve the method statement (at least 10 characters), or keep the co-approval." });
+  }
   if (value.deadlineRule === "fixed-day-next-month" && value.deadlineValue > 31) {
     ctx.addIssue({ code: "custom", path: ["deadlineValue"], message: "A day of the month is between 1 and 31." });
   }

@@ -27,11 +27,13 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
       regulatorName: initial.regulatorName,
       licenceLabel: initial.licenceLabel,
       methodCoApproval: initial.methodCoApproval,
+      methodSingleApprovalReason: initial.methodSingleApprovalReason,
       deadlineRule: initial.deadlineRule,
       deadlineValue: initial.deadlineValue,
     },
   });
   const rule = useWatch({ control, name: "deadlineRule" });
+  const coApproval = useWatch({ control, name: "methodCoApproval" });
 
   const onSubmit = handleSubmit(async (values) => {
     setStatus(null);
@@ -90,8 +92,18 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
         </div>
         <label className="flex items-start gap-2 text-sm">
           <input type="checkbox" className="mt-1" {...register("methodCoApproval")} />
-          <span>A compliance head must co-approve each method statement version.</span>
+          <span>A compliance head must co-approve each method statement version (recommended: a second person checks every method change).</span>
         </label>
+        {!coApproval ? (
+          <Field
+            id="methodSingleApprovalReason"
+            label="Why one person may approve the method statement"
+            hint="Recorded in the audit trail and shown beside each one-person approval."
+            error={errors.methodSingleApprovalReason?.message}
+          >
+            <textarea id="methodSingleApprovalReason" rows={2} className={inputClass} {...err("methodSingleApprovalReason")} {...register("methodSingleApprovalReason")} />
+          </Field>
+        ) : null}
       </fieldset>
       {editable ? (
         <div className="flex items-center gap-3">

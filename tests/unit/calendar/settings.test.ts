@@ -73,7 +73,7 @@ describe("reminder schedule and deadline rule", () => {
     expect(issue.path).toEqual(["reminderOffsets", 1]);
     expect(issue.message).toBe("Between 1 and 60.");
     expect(parseOffsetList("10, 5 2,x")).toEqual([10, 5, 2, "x"]);
-    const rule = { name: "Northmoor", reportingCurrency: "EUR", regulatorName: "", licenceLabel: "Reg. no.", methodCoApproval: false, deadlineRule: "business-days-after" };
+    const rule = { name: "Northmoor", reportingCurrency: "EUR", regulatorName: "", licenceLabel: "Reg. no.", methodCoApproval: true, deadlineRule: "business-days-after" };
     expect(firmSettingsSchema.safeParse({ ...rule, deadlineValue: 0 }).success).toBe(false);
     expect(firmSettingsSchema.safeParse({ ...rule, deadlineValue: 61 }).error!.issues[0]).toMatchObject({ path: ["deadlineValue"], message: "Between 1 and 60." });
     expect(firmSettingsSchema.safeParse({ ...rule, deadlineValue: 60 }).success).toBe(true);

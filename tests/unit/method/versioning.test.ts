@@ -43,11 +43,13 @@ beforeAll(async () => {
 });
 
 describe("the seeded first version", () => {
-  it("is approved by the risk analyst, with evidence, the engine's limitations and the audit trail", async () => {
+  it("is approved by the risk analyst and co-approved by the compliance head, with evidence, the engine's limitations and the audit trail", async () => {
     const current = await currentMethod(analyst);
     expect(current).toMatchObject({ version: 1, status: "approved", awaitingCoApproval: false, previousId: null });
     expect(current!.approvedBy?.name).toBe("Priya Castell");
-    expect(current!.approvedAt).toBe("2026-12-01T09:00:00.000Z");
+    expect(current!.coApprovedBy?.name).toBe("Helen Marsh");
+    // the demo's history: approved in mid-September, stamped at the co-approval
+    expect(current!.approvedAt).toBe("2026-09-15T14:00:00.000Z");
     expect(current!.content.byAssetClass.equity).toMatchObject({ kind: "garch", distribution: "t", fallback: "ewma" });
     // EWMA (default and fallback) and GARCH chosen: both catalogues are on the version, first, and marked as the engine's.
     for (const text of [...LIMITATIONS.ewma, ...LIMITATIONS.garch]) expect(current!.engineLimitations).toContain(text);
@@ -56,7 +58,7 @@ describe("the seeded first version", () => {
     expect(current!.limitations.slice(0, current!.engineLimitations.length)).toEqual(current!.engineLimitations);
     expect(current!.evidence?.classes.length).toBeGreaterThan(0);
     const actions = (await db.select().from(auditEvents).where(eq(auditEvents.entityId, current!.id))).map((e) => e.action);
-    expect(actions).toEqual(["method.draft", "method.update", "method.evidence", "method.approve"]);
+    expect(actions).toEqual(["method.draft", "method.update", "method.evidence", "method.approve", "method.co_approve"]);
   });
 });
 
@@ -106,16 +108,28 @@ describe("a new version", () => {
     expect((await refusal(approveMethod(head, draft.id))).code).toBe("conflict:method_approval");
   });
 
-  it("is approved by the analyst; the earlier version becomes superseded, in one transaction with the audit record", async () => {
+  it("needs a second person by default: with co-approval turned off but no reason stated, the analyst's approval still waits", async () => {
     const [draft] = (await listMethodVersions(analyst)).filter((v) => v.status === "draft");
     await attachEvidence(analyst, draft.id);
+    await db.update(firms).set({ methodCoApproval: false, methodSingleApprovalReason: "" }).where(eq(firms.id, analyst.firmId));
+    expect((await approveMethod(analyst, draft.id)).awaitingCoApproval).toBe(true);
+    // saving withdraws the pending approval, so the next test starts from a plain draft
+    await updateMethodDraft(analyst, draft.id, { ...NORTHMOOR_METHOD, reason: "Use ARCH(2) for the bonds." });
+  });
+
+  it("is approved by the analyst alone where the firm allows it with a stated reason; the earlier version becomes superseded, in one transaction with the audit record", async () => {
+    const [draft] = (await listMethodVersions(analyst)).filter((v) => v.status === "draft");
+    await attachEvidence(analyst, draft.id);
+    await db.update(firms).set({ methodCoApproval: false, methodSingleApprovalReason: "A two-person firm: the compliance head drafts the statement with the analyst." }).where(eq(firms.id, analyst.firmId));
     const v1 = (await currentMethod(analyst))!;
     const approved = await approveMethod(analyst, draft.id, { note: "Reviewed." });
     expect(approved).toMatchObject({ version: 2, status: "approved", approvedBy: { name: "Priya Castell" }, coApprovedBy: null });
     expect((await getMethodVersion(analyst, v1.id)).status).toBe("superseded");
     expect((await currentMethod(analyst))!.id).toBe(draft.id);
-    const [event] = await db.select().from(auditEvents).where(and(eq(auditEvents.entityId, draft.id), eq(auditEvents.action, "method.approve")));
+    // the last approval record (the earlier one was the withdrawn approval of the test before)
+    const event = (await db.select().from(auditEvents).where(and(eq(auditEvents.entityId, draft.id), eq(auditEvents.action, "method.approve")))).at(-1)!;
     expect(event.summary).toBe("Approved method statement version 2; version 1 is superseded");
+    expect(event.detail).toMatchObject({ onePersonApproval: true });
   });
 
   it("an approved version can no longer be edited, given evidence, approved again or discarded", async () => {
@@ -170,9 +184,14 @@ describe("co-approval, where the firm requires it", () => {
   });
 
   it("a compliance head, a different person, co-approves: the version is approved and the previous one superseded", async () => {
+    const startedAt = Date.now();
     const approved = await approveMethod(head, draftId, { note: "Agreed." });
     expect(approved).toMatchObject({ status: "approved", approvedBy: { name: "Priya Castell" }, coApprovedBy: { name: "Helen Marsh" }, awaitingCoApproval: false });
-    expect(approved.approvedAt).toBe("2026-12-01T09:00:00.000Z");
+    // the real time of the act, not the pinned business day, and the audit record carries the same instant
+    expect(Date.parse(approved.approvedAt!)).toBeGreaterThanOrEqual(startedAt);
+    expect(Date.parse(approved.approvedAt!)).toBeLessThanOrEqual(Date.now());
+    const [coEvent] = await db.select().from(auditEvents).where(and(eq(auditEvents.entityId, draftId), eq(auditEvents.action, "method.co_approve")));
+    expect(coEvent.at).toBe(approved.approvedAt);
     const statuses = (await listMethodVersions(analyst)).map((v) => [v.version, v.status]);
     expect(statuses).toEqual([[5, "approved"], [4, "discarded"], [3, "discarded"], [2, "superseded"], [1, "superseded"]]);
     const actions = (await db.select().from(auditEvents).where(eq(auditEvents.entityId, draftId))).map((e) => e.action);

@@ -3,7 +3,7 @@
 import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { apiFetch } from "@/app/_components/api";
-import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
 import type { MethodVersion } from "@/lib/data/method";
 
 /**
@@ -28,13 +28,16 @@ export function ApprovalPanel({
   const router = useRouter();
   const [pending, setPending] = useState<null | "approve" | "discard">(null);
   const [confirmDiscard, setConfirmDiscard] = useState(false);
+  const [confirmApprove, setConfirmApprove] = useState(false);
+  const [note, setNote] = useState("");
   const [error, setError] = useState<string | null>(null);
 
   async function call(kind: "approve" | "discard") {
     setPending(kind);
     setError(null);
     try {
-      await apiFetch(`/api/method/${version.id}/${kind}`, { method: "POST", body: {} });
+      await apiFetch(`/api/method/${version.id}/${kind}`, { method: "POST", body: kind === "approve" ? { note } : {} });
+      setConfirmApprove(false);
       if (kind === "discard") router.push("/method");
       router.refresh();
     } catch (e) {
@@ -61,14 +64,9 @@ export function ApprovalPanel({
             : "Once approved, this version cannot change and replaces the current one for new runs."}
       </p>
       <div className="flex flex-wrap items-center gap-3">
-        {analystStep ? (
-          <button type="button" className={primaryButtonClass} disabled={pending !== null || blockers.length > 0} onClick={() => call("approve")}>
-            {pending === "approve" ? "Approving…" : `Approve version ${version.version}`}
-          </button>
-        ) : null}
-        {coStep ? (
-          <button type="button" className={primaryButtonClass} disabled={pending !== null} onClick={() => call("approve")}>
-            {pending === "approve" ? "Co-approving…" : `Co-approve version ${version.version}`}
+        {(analystStep || coStep) && !confirmApprove ? (
+          <button type="button" className={primaryButtonClass} disabled={pending !== null || (analystStep && blockers.length > 0)} onClick={() => setConfirmApprove(true)}>
+            {coStep ? `Co-approve version ${version.version}…` : `Approve version ${version.version}…`}
           </button>
         ) : null}
         {canDiscard ? (
@@ -95,6 +93,34 @@ export function ApprovalPanel({
           </p>
         ) : null}
       </div>
+      {confirmApprove && (analystStep || coStep) ? (
+        <div role="group" aria-labelledby="confirm-approval" className="mt-4 rounded-md border border-brass/40 bg-paper p-4">
+          <p id="confirm-approval" className="font-medium">
+            {coStep
+              ? `Co-approve version ${version.version}, approved by ${version.approvedBy?.name}?`
+              : coApprovalRequired
+                ? `Approve version ${version.version}? A compliance head then co-approves before it takes effect.`
+                : `Approve version ${version.version}? It takes effect at once: the firm allows one-person approval.`}
+          </p>
+          <p className="mt-1 text-sm text-ink-soft">
+            {coStep || !coApprovalRequired
+              ? "From then on it cannot change; new runs use it and the version it replaces is kept as superseded."
+              : "Until then it stays a draft; saving a change withdraws your approval."}
+          </p>
+          <label htmlFor="approval-note" className="mt-3 block text-sm font-medium">
+            Note for the audit trail (optional)
+          </label>
+          <textarea id="approval-note" rows={2} maxLength={1000} className={`${inputClass} mt-1 w-full`} value={note} onChange={(e) => setNote(e.target.value)} autoFocus />
+          <div className="mt-3 flex flex-wrap gap-3">
+            <button type="button" className={primaryButtonClass} disabled={pending !== null} onClick={() => call("approve")}>
+              {pending === "approve" ? (coStep ? "Co-approving…" : "Approving…") : coStep ? "Yes, co-approve" : "Yes, approve"}
+            </button>
+            <button type="button" className={secondaryButtonClass} disabled={pending !== null} onClick={() => setConfirmApprove(false)}>
+              Cancel
+            </button>
+          </div>
+        </div>
+      ) : null}
       {error ? (
         <p role="alert" className="mt-2 text-sm text-alert">
           {error}
