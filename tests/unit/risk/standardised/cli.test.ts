@@ -84,6 +84,20 @@ describe("engine standardised", () => {
     expect(() => run(["--positions", book, "--reporting-currency", "EUR", "--profile", badProfile, "--json"])).toThrow(/unknown setting profile.fx.rat/);
     expect(() => run(["--positions", book, "--reporting-currency", "EUR", "--method", "ladder"])).toThrow(/--method must be one of maturity\|duration/);
   });
+  it("the README's example book: every block charged, figures that can be followed by hand", () => {
+    const fixture = path.join(__dirname, "fixtures", "book.csv");
+    const out = JSON.parse(run(["--positions", fixture, "--as-of", "2026-11-30", "--reporting-currency", "EUR", "--json"]));
+    expect(Object.values(out.blocks as Record<string, number>).every((v) => v > 0)).toBe(true);
+    // specific: qualifying 850,000 at exactly 24 months × 1 % + other 400,000 × 8 %
+    expect(out.blocks.interestRateSpecific).toBeCloseTo(850_000 * 0.01 + 400_000 * 0.08, 6);
+    // FX: GBP 620,000; USD 400,000 − 12,500 + 310,000 − 250,000 (gold priced in USD apart) = 447,500; + gold 90,000; × 8 %
+    expect(out.fx.netLong).toBeCloseTo(620_000 + 447_500, 6);
+    expect(out.fx.charge).toBeCloseTo(0.08 * (1_067_500 + 90_000), 6);
+    // the put on 4,000 Alder shares at 161.99 carves 647,960 out of the long 2,016,775.50
+    expect(out.options[0].underlyingValue).toBeCloseTo(647_960, 6);
+    expect(out.equity.byMarket.find((m: { market: string }) => m.market === "DE").gross).toBeCloseTo(2_016_775.5 - 647_960, 6);
+    expect(out.caution).toMatch(/^Draft computed under the stated method/);
+  });
   it("through npm run engine: exit 1 and exactly one line on stderr", () => {
     const bad = file("bad3.csv", `${HEADER}\nGB,government_bond,bond,1000,EUR,,,2.25,,,,,3,\n`);
     const r = spawnSync("npx", ["tsx", "lib/engine-cli.ts", "standardised", "--positions", bad, "--json"], { encoding: "utf8" });
