@@ -4,8 +4,8 @@
  * reports/sections.ts, checked by tests/unit/filings/validation.test.ts).
  */
 import { CONTROL_CHARACTER_MESSAGE, isCleanLine, isCleanText } from "./text";
+import { realDate } from "./dates";
 import { z } from "zod";
-import { isValid, parseISO } from "date-fns";
 
 /** The sections a review comment can be about, in the filing's order, with "general" for the filing as a whole. */
 export const FILING_SECTIONS = [
@@ -29,10 +29,7 @@ export const sectionLabel = (id: string): string => FILING_SECTIONS.find((s) => 
 const MAX_NOTE = 20_000;
 const MAX_EXPLANATION = 4_000;
 
-const isoDate = z
-  .string({ message: "A date as yyyy-mm-dd." })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, "A date as yyyy-mm-dd.")
-  .refine((d) => isValid(parseISO(d)), "That date does not exist.");
+const isoDate = realDate(2000, 2099);
 
 /** POST /api/periods/[periodId]/filing: assemble the draft from the period's marked run (or rebuild an open draft). */
 export const prepareFilingSchema = z
