@@ -41,6 +41,7 @@ import { fragment } from "@/reports/sections";
 import { buildWordPack } from "@/reports/docx/filing-pack";
 import { buildWorkbookPack } from "@/reports/xlsx/filing-pack";
 import { filingRunOf, getRun, getRunInputs, runChange } from "./runs";
+import { assertRunFresh, runFreshnessOf, type RunFreshness } from "./run-freshness";
 
 /** A filing version's stored status: the workflow states, and "superseded" for a signed version a later one replaced. */
 export type FilingRowStatus = FilingStatus | "superseded";
@@ -128,7 +129,7 @@ export interface FilingVersionSummary {
 /** Everything the filing page of a period needs. */
 export interface PeriodFiling {
   period: { id: string; periodEnd: string; deadline: string; state: string; label: string };
-  markedRun: { id: string; status: string; startedAt: string; startedByName: string; finishedAt: string | null } | null;
+  markedRun: { id: string; status: string; startedAt: string; startedByName: string; finishedAt: string | null; freshness: RunFreshness } | null;
   current: FilingDetail | null;
   versions: FilingVersionSummary[];
   /** the signer's last licence reference at this firm, to fill the sign dialog */
@@ -347,7 +348,7 @@ export async function periodFiling(actor: Actor, periodId: string): Promise<Peri
     .limit(1);
   return {
     period: { id: period.id, periodEnd: period.periodEnd, deadline: period.deadline, state: period.state, label: formatMonth(period.periodEnd) },
-    markedRun: marked ? { id: marked.id, status: marked.status, startedAt: marked.startedAt, startedByName: marked.startedByName, finishedAt: marked.finishedAt } : null,
+    markedRun: marked ? { id: marked.id, status: marked.status, startedAt: marked.startedAt, startedByName: marked.startedByName, finishedAt: marked.finishedAt, freshness: await runFreshnessOf(actor, marked.id) } : null,
     current: row ? await detail(actor, row) : null,
     versions,
     lastLicenceReference: last?.reference ?? null,
@@ -548,6 +549,7 @@ async function markedCompletedRun(actor: Actor, period: PeriodRow): Promise<RunR
   if (run.status !== "completed" || !run.results) {
     throw new AppError("conflict:filing_run", `The run marked for the filing of the period ending ${period.periodEnd} has not completed (it is ${run.status}); a draft filing is assembled from a completed run only.`);
   }
+  await assertRunFresh(actor, run.id, "be assembled into the draft filing");
   return run;
 }
 
@@ -727,6 +729,7 @@ export async function submitFiling(actor: Actor, filingId: string, input: Submit
         : `The period ending ${period.periodEnd} no longer has a run marked for its filing; the risk analyst marks one, then rebuild the draft before submitting it.`,
     );
   }
+  await assertRunFresh(actor, marked.id, "be submitted for review");
   const content = await rebuild(actor, row, { run: marked, status: "in_review", submittedBy: actor.userId });
   const note = input.note.trim();
   await getDb().transaction(async (tx) => {
@@ -893,6 +896,7 @@ export async function signFiling(actor: Actor, filingId: string, input: SignFili
   if (!marked || marked.id !== row.runId) {
     throw new AppError("conflict:filing_run", "The run marked for the period's filing changed after this version was submitted. Request changes so that the compliance officer rebuilds it from the marked run.");
   }
+  await assertRunFresh(actor, marked.id, "be signed");
 
   // the content exactly as stored, signed over its canonical form
   const stored = row.content as unknown as FilingViewModel;

@@ -8,6 +8,8 @@ import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
 import type { Role } from "@/lib/auth/roles";
 import { businessDaysBetween, deadlineFor, type DeadlineRule } from "@/lib/calendar/deadline";
+import { staleSummary, type RunFreshness } from "@/lib/runs/freshness";
+import { freshnessForPeriod } from "./run-freshness";
 import { today } from "@/lib/clock";
 import { earliestPeriodMonth, periodEndOf } from "@/lib/validation/periods";
 
@@ -34,8 +36,10 @@ export async function getCalendar(firmId: string): Promise<{ rule: DeadlineRule;
   return { rule, holidays: new Set(rows.map((r) => r.date)) };
 }
 
-/** Which steps of a period are done, from what is stored. */
-async function stepStatus(firmId: string, periodId: string, periodState: string): Promise<Record<StepKey, boolean>> {
+/** Which steps of a period are done, from what is stored; a stale run does not count, and the step says why. */
+async function stepStatus(firmId: string, period: typeof reportingPeriods.$inferSelect): Promise<{ done: Record<StepKey, boolean>; notes: Partial<Record<StepKey, string>> }> {
+  const periodId = period.id;
+  const periodState = period.state;
   const db = getDb();
   const confirmed = await db
     .select({ id: uploads.id })
@@ -47,25 +51,35 @@ async function stepStatus(firmId: string, periodId: string, periodState: string)
     .from(methodStatements)
     .where(and(eq(methodStatements.firmId, firmId), eq(methodStatements.status, "approved")))
     .limit(1);
-  const completed = await db
-    .select({ id: runs.id })
+  const completedRuns = await db
+    .select({ id: runs.id, isFilingRun: runs.isFilingRun })
     .from(runs)
-    .where(and(eq(runs.firmId, firmId), eq(runs.periodId, periodId), eq(runs.status, "completed")))
-    .limit(1);
+    .where(and(eq(runs.firmId, firmId), eq(runs.periodId, periodId), eq(runs.status, "completed")));
+  const freshness = completedRuns.length ? await freshnessForPeriod(firmId, period) : new Map<string, RunFreshness>();
+  const fresh = completedRuns.filter((r) => !freshness.get(r.id)?.stale);
+  const notes: Partial<Record<StepKey, string>> = {};
+  if (completedRuns.length > 0 && fresh.length === 0) {
+    notes.run = `Every completed run is stale: ${staleSummary(freshness.get(completedRuns[0].id)!)} Start a new run.`;
+  }
+  const filingRun = completedRuns.find((r) => r.isFilingRun);
+  if (filingRun && freshness.get(filingRun.id)?.stale) {
+    notes.filing = `The run chosen for the filing is stale (${staleSummary(freshness.get(filingRun.id)!)}): choose a current run before submitting.`;
+  }
   const periodFilings = await db
     .select({ status: filings.status })
     .from(filings)
     .where(and(eq(filings.firmId, firmId), eq(filings.periodId, periodId)));
   const statuses = new Set(periodFilings.map((f) => f.status));
   const signed = statuses.has("signed") || statuses.has("filed") || periodState === "signed" || periodState === "filed";
-  return {
+  const done = {
     positions: confirmed.length > 0,
     method: approved.length > 0,
-    run: completed.length > 0,
+    run: fresh.length > 0,
     filing: statuses.has("in_review") || signed,
     signoff: signed,
     file: periodState === "filed" || statuses.has("filed"),
   };
+  return { done, notes };
 }
 
 export interface PeriodSummary {
@@ -75,14 +89,14 @@ export interface PeriodSummary {
   state: string;
   businessDaysLeft: number;
   overdue: boolean;
-  steps: { key: StepKey; label: string; owner: Role; done: boolean }[];
+  steps: { key: StepKey; label: string; owner: Role; done: boolean; note?: string }[];
   nextStep: { key: StepKey; label: string; owner: Role } | null;
   filingReference: string | null;
 }
 
 async function summarise(firmId: string, period: typeof reportingPeriods.$inferSelect, holidaySet: Set<string>): Promise<PeriodSummary> {
-  const done = await stepStatus(firmId, period.id, period.state);
-  const steps = STEPS.map((s) => ({ ...s, done: done[s.key] }));
+  const { done, notes } = await stepStatus(firmId, period);
+  const steps = STEPS.map((s) => ({ ...s, done: done[s.key], ...(notes[s.key] ? { note: notes[s.key] } : {}) }));
   const next = steps.find((s) => !s.done) ?? null;
   const left = businessDaysBetween(today(), period.deadline, holidaySet);
   return {

@@ -28,6 +28,7 @@ import type { RunChange, RunInputHashes, RunInputs, RunListItem, RunRecord, RunR
 import { confirmedPositionsUpload, getDataQuality } from "./data-quality";
 import { getPeriod } from "./periods";
 import { priceSeries } from "./prices";
+import { assertRunFresh, periodRunFreshness } from "./run-freshness";
 
 type RunRow = typeof runs.$inferSelect;
 
@@ -85,14 +86,15 @@ export async function getRun(actor: Actor, runId: string): Promise<RunRecord> {
   return toRecord(row);
 }
 
-/** Every run of a period, newest first, without the stored results (the headline figures instead). */
+/** Every run of a period, newest first, without the stored results (the headline figures instead), each with its freshness. */
 export async function listRuns(actor: Actor, periodId: string): Promise<RunListItem[]> {
   await getPeriod(actor, periodId);
   await markIfInterrupted(actor.firmId, { periodId });
   const rows = await selectRuns(actor.firmId, and(eq(runs.firmId, actor.firmId), eq(runs.periodId, periodId)));
+  const freshness = await periodRunFreshness(actor, periodId);
   return rows.map((row) => {
     const { results, ...rest } = toRecord(row);
-    return { ...rest, headline: headlineOf(results) };
+    return { ...rest, headline: headlineOf(results), freshness: freshness.get(row.run.id) ?? null };
   });
 }
 
@@ -385,6 +387,7 @@ export async function useForFiling(actor: Actor, runId: string): Promise<RunReco
   const period = await getPeriod(actor, run.periodId);
   assertOpen(period);
   if (run.isFilingRun) return run;
+  await assertRunFresh(actor, runId, "be chosen for the filing");
   await getDb().transaction(async (tx) => {
     const previous = await tx
       .update(runs)

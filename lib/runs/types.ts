@@ -6,6 +6,7 @@ import type { EngineWarning, EstimatorKind } from "@/lib/risk/types";
 import type { MonthEndMethod, MonthEndResult, VarExplanation } from "@/lib/risk";
 import type { CapitalProfile } from "@/lib/risk/capital/capital";
 import type { QualityReport } from "@/lib/uploads/data-quality";
+import type { RunFreshness } from "./freshness";
 import type { EstimatorChoice, MethodContent } from "@/lib/validation/method";
 import type { CapitalRegime, RegimeChoice } from "@/lib/validation/capital-profile";
 import type { StandardisedProfile } from "@/lib/risk/standardised";
@@ -217,6 +218,8 @@ export interface RunRecord {
 /** A run in a list: everything but the results, plus the headline figures. */
 export interface RunListItem extends Omit<RunRecord, "results"> {
   headline: { var1d: number; var10d: number; es10d: number; confidence: number; capital: number; zone: string } | null;
+  /** whether the run's inputs are still the period's current ones (lib/runs/freshness.ts) */
+  freshness?: RunFreshness | null;
 }
 
 /** The exact inputs of a run, stored compactly beside it so it can be reproduced without today's data. */

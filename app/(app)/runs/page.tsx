@@ -6,6 +6,7 @@ import { formatDate, formatMonth, formatTimestamp } from "@/app/_components/form
 import { pageActor } from "@/lib/auth/page";
 import { listPeriods } from "@/lib/data/periods";
 import { listRuns } from "@/lib/data/runs";
+import { StaleRunBadge } from "../periods/[periodId]/runs/_components/stale-run";
 
 export const metadata: Metadata = { title: "Runs" };
 
@@ -50,6 +51,13 @@ export default async function AllRunsPage() {
                     <span className="text-ink-muted">No run yet</span>
                   )}
                   {filing ? <StatusBadge tone="ok">Filing run chosen</StatusBadge> : null}
+                  {filing?.freshness?.stale ? (
+                    <>
+                      <span className="text-ink-soft">the filing run is</span> <StaleRunBadge freshness={filing.freshness} />
+                    </>
+                  ) : latest ? (
+                    <StaleRunBadge freshness={latest.freshness} />
+                  ) : null}
                 </div>
               </li>
             );

@@ -39,8 +39,15 @@ export default async function PeriodPage({ params }: { params: Promise<{ periodI
                 {i + 1}. {step.label}
               </p>
               <p className="text-sm text-ink-muted">{ROLE_LABELS[step.owner]}</p>
+              {step.note ? (
+                <p className="mt-1 text-sm text-caution" data-testid={`step-note-${step.key}`}>
+                  {step.note}
+                </p>
+              ) : null}
             </div>
-            {step.done ? (
+            {step.note && step.key === "run" && !step.done ? (
+              <StatusBadge tone="caution">Stale run</StatusBadge>
+            ) : step.done ? (
               <StatusBadge tone="ok">Done</StatusBadge>
             ) : period.nextStep?.key === step.key ? (
               <StatusBadge tone="caution">Next</StatusBadge>

@@ -15,6 +15,7 @@ import { CoverNoteForm, ExplanationsForm, MarkFiledForm, NewVersionForm, Prepare
 import { FILING_STATE_LABELS, FilingStatus } from "./_components/filing-status";
 import { SectionComments, type SectionComment } from "./_components/section-comments";
 import { SectionTable } from "./_components/section-tables";
+import { StaleRunNotice } from "../runs/_components/stale-run";
 
 export const metadata: Metadata = { title: "Filing" };
 
@@ -182,6 +183,9 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
         actions={f ? <FilingStatus status={f.status} /> : null}
       />
       <DraftCaution className="mb-6" />
+      {data.markedRun && (!f || (f.runIsMarked && f.status !== "signed" && f.status !== "filed")) ? (
+        <StaleRunNotice freshness={data.markedRun.freshness} what={f ? `The run this draft (version ${f.version}) was assembled from` : "The run marked for the filing"} />
+      ) : null}
       {!f || !vm ? (
         <EmptyFiling data={data} canPrepare={officer} />
       ) : (

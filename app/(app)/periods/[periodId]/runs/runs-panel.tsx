@@ -13,6 +13,7 @@ import type { RunListItem } from "@/lib/runs/types";
 import { confidence, money } from "./_components/run-format";
 import { RunProgress } from "./_components/run-progress";
 import { RunStatusBadge } from "./_components/run-state";
+import { StaleRunBadge } from "./_components/stale-run";
 import { isActive } from "./_components/use-run";
 
 const column = createColumnHelper<RunListItem>();
@@ -60,6 +61,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
           <RunStatusBadge status={c.getValue()} />
           {c.row.original.isFilingRun ? <StatusBadge tone="ok">Used for the filing</StatusBadge> : null}
           {c.row.original.reproducesRunId ? <StatusBadge tone="neutral">Reproduction</StatusBadge> : null}
+          <StaleRunBadge freshness={c.row.original.freshness} />
         </span>
       ),
     }),

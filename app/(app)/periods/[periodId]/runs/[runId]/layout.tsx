@@ -8,6 +8,7 @@ import { getPeriod } from "@/lib/data/periods";
 import { listRuns } from "@/lib/data/runs";
 import { AppError } from "@/lib/errors";
 import { RunTabs } from "../_components/run-tabs";
+import { StaleRunBadge, StaleRunNotice } from "../_components/stale-run";
 
 /** The frame of one run's pages: where it belongs, when it started, and the tabs. */
 export default async function RunLayout({ children, params }: { children: React.ReactNode; params: Promise<{ periodId: string; runId: string }> }) {
@@ -37,7 +38,9 @@ export default async function RunLayout({ children, params }: { children: React.
             {run.reproducesRunId ? " · a reproduction of an earlier run from its stored inputs" : ""}
           </>
         }
+        actions={<StaleRunBadge freshness={run.freshness} />}
       />
+      <StaleRunNotice freshness={run.freshness} />
       <RunTabs base={base} />
       <QueryProvider>{children}</QueryProvider>
     </>

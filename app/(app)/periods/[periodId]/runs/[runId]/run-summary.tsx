@@ -11,6 +11,7 @@ import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunRecord, RunResults } from "@/lib/runs/types";
 import { confidence, METHOD_WORDS, money, num, pct } from "../_components/run-format";
 import { CompletedRun, RunStatusBadge } from "../_components/run-state";
+import { useRun } from "../_components/use-run";
 
 function Card({ title, id, children, className = "" }: { title: string; id: string; children: React.ReactNode; className?: string }) {
   return (
@@ -196,14 +197,26 @@ function Actions({ run, periodId, canReproduce, canChooseForFiling }: { run: Run
     },
   });
   const error = reproduce.error ?? filing.error;
+  const stale = useRun(run.id).data?.freshness?.stale ?? false;
   return (
     <div className="flex flex-col gap-2">
       <div className="flex flex-wrap items-center gap-2">
         {run.isFilingRun ? <StatusBadge tone="ok">Used for the filing</StatusBadge> : null}
         {canChooseForFiling && !run.isFilingRun ? (
-          <button type="button" className={primaryButtonClass} disabled={filing.isPending} onClick={() => filing.mutate()}>
+          <button
+            type="button"
+            className={primaryButtonClass}
+            disabled={filing.isPending || stale}
+            aria-describedby={stale ? "stale-choice-note" : undefined}
+            onClick={() => filing.mutate()}
+          >
             {filing.isPending ? "Marking…" : "Use for the filing"}
           </button>
+        ) : null}
+        {canChooseForFiling && !run.isFilingRun && stale ? (
+          <span id="stale-choice-note" className="text-sm text-caution" data-testid="stale-choice-note">
+            A stale run cannot be chosen for the filing: start a new run on the current inputs.
+          </span>
         ) : null}
         {canReproduce ? (
           <button type="button" className={secondaryButtonClass} disabled={reproduce.isPending} onClick={() => reproduce.mutate()}>

@@ -3,10 +3,13 @@
 import { useQuery } from "@tanstack/react-query";
 import { apiFetch } from "@/app/_components/api";
 import type { RunRecord } from "@/lib/runs/types";
+import type { RunFreshness } from "@/lib/runs/freshness";
 
 export interface RunResponse {
   run: RunRecord;
   reportingCurrency: string;
+  /** whether the run's inputs are still the period's current ones */
+  freshness?: RunFreshness;
 }
 
 export const isActive = (status: string | undefined) => status === "queued" || status === "running";

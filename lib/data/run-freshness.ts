@@ -1,0 +1,127 @@
+/**
+ * Staleness of a period's runs, in one place: each run's stored input ids and closes against the period's current
+ * confirmed positions, approved method statement, capital rule profile and price history (lib/runs/freshness.ts).
+ * Every page that shows a run, and the filing choice, read it from here.
+ */
+import "server-only";
+import { gunzipSync } from "node:zlib";
+import { and, count, desc, eq, inArray, lte, max } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { capitalRuleProfiles, methodStatements, pricePoints, runInputs, runs, uploads } from "@/db/schema";
+import { AppError } from "@/lib/errors";
+import type { Actor } from "@/lib/auth/actor";
+import { neededFactors } from "@/lib/runs/compute";
+import { priceChanges, runFreshness, staleSummary, type CurrentInputs, type InputChange, type RunFreshness } from "@/lib/runs/freshness";
+import type { RunInputs } from "@/lib/runs/types";
+import { getPeriod } from "./periods";
+import { priceSeries } from "./prices";
+
+export type { RunFreshness } from "@/lib/runs/freshness";
+
+/** The period's current inputs: confirmed positions, approved method statement, capital rule profile in force. */
+export async function currentInputs(actor: Actor, periodId: string): Promise<CurrentInputs> {
+  return currentInputsOfFirm(actor.firmId, periodId);
+}
+
+async function currentInputsOfFirm(firmId: string, periodId: string): Promise<CurrentInputs> {
+  const db = getDb();
+  const [upload] = await db
+    .select()
+    .from(uploads)
+    .where(and(eq(uploads.firmId, firmId), eq(uploads.periodId, periodId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")));
+  const [method] = await db
+    .select({ id: methodStatements.id, version: methodStatements.version })
+    .from(methodStatements)
+    .where(and(eq(methodStatements.firmId, firmId), eq(methodStatements.status, "approved")))
+    .orderBy(desc(methodStatements.version))
+    .limit(1);
+  const [profile] = await db
+    .select({ id: capitalRuleProfiles.id, name: capitalRuleProfiles.name })
+    .from(capitalRuleProfiles)
+    .where(and(eq(capitalRuleProfiles.firmId, firmId), eq(capitalRuleProfiles.active, true)))
+    .orderBy(desc(capitalRuleProfiles.createdAt))
+    .limit(1);
+  return {
+    positions: upload ? { uploadId: upload.id, fileName: upload.fileName, confirmedAt: upload.confirmedAt } : null,
+    method: method ?? null,
+    capitalProfile: profile ?? null,
+  };
+}
+
+// Price comparisons are the costly part (the run's stored closes against the held ones): kept per run and state of
+// the firm's price history up to the period end (how many closes, the newest row), so a page view recomputes only
+// after a price upload.
+const priceCache = new Map<string, InputChange[]>();
+function rememberPrices(key: string, value: InputChange[]): InputChange[] {
+  priceCache.set(key, value);
+  while (priceCache.size > 200) priceCache.delete(priceCache.keys().next().value!);
+  return value;
+}
+
+async function priceState(firmId: string, periodEnd: string): Promise<string> {
+  const [row] = await getDb()
+    .select({ n: count(), newest: max(pricePoints.createdAt) })
+    .from(pricePoints)
+    .where(and(eq(pricePoints.firmId, firmId), lte(pricePoints.date, periodEnd)));
+  return `${row?.n ?? 0}:${row?.newest ?? ""}`;
+}
+
+/** The freshness of each run of an open period (none for a signed or filed one), by run id. */
+export async function periodRunFreshness(actor: Actor, periodId: string, onlyRunIds?: readonly string[]): Promise<Map<string, RunFreshness>> {
+  const period = await getPeriod(actor, periodId);
+  return freshnessForPeriod(actor.firmId, period, onlyRunIds);
+}
+
+/**
+ * The same for a period already read (the period's step list uses it; it must not read the period again). Firm-scoped:
+ * every query filters on `firmId`.
+ */
+export async function freshnessForPeriod(firmId: string, period: { id: string; periodEnd: string; state: string }, onlyRunIds?: readonly string[]): Promise<Map<string, RunFreshness>> {
+  const periodId = period.id;
+  // A signed or filed period's inputs are frozen with it: later changes belong to later periods.
+  if (period.state === "signed" || period.state === "filed") return new Map();
+  const db = getDb();
+  const conditions = [eq(runs.firmId, firmId), eq(runs.periodId, periodId)];
+  if (onlyRunIds) conditions.push(inArray(runs.id, [...onlyRunIds]));
+  const rows = await db
+    .select({ id: runs.id, positionsUploadId: runs.positionsUploadId, methodStatementId: runs.methodStatementId, capitalProfileId: runs.capitalProfileId })
+    .from(runs)
+    .where(and(...conditions));
+  const out = new Map<string, RunFreshness>();
+  if (rows.length === 0) return out;
+  const current = await currentInputsOfFirm(firmId, periodId);
+  const state = await priceState(firmId, period.periodEnd);
+  let series: Awaited<ReturnType<typeof priceSeries>> | null = null;
+  for (const run of rows) {
+    const key = `${run.id}:${state}`;
+    let prices = priceCache.get(key);
+    if (!prices) {
+      const [stored] = await db
+        .select({ data: runInputs.data })
+        .from(runInputs)
+        .where(and(eq(runInputs.runId, run.id), eq(runInputs.firmId, firmId)));
+      if (stored) {
+        const inputs = JSON.parse(gunzipSync(Buffer.from(stored.data)).toString("utf8")) as RunInputs;
+        series ??= await priceSeries(firmId, period.periodEnd);
+        prices = rememberPrices(key, priceChanges(inputs.prices, series, [...neededFactors(inputs.positions, inputs.reportingCurrency).keys()]));
+      } else prices = [];
+    }
+    out.set(run.id, runFreshness(run, current, prices));
+  }
+  return out;
+}
+
+/** The freshness of one run of the actor's firm. */
+export async function runFreshnessOf(actor: Actor, runId: string): Promise<RunFreshness> {
+  const [row] = await getDb().select({ periodId: runs.periodId }).from(runs).where(and(eq(runs.id, runId), eq(runs.firmId, actor.firmId)));
+  if (!row) throw new AppError("not_found:run", "No such run.");
+  return (await periodRunFreshness(actor, row.periodId, [runId])).get(runId) ?? { stale: false, changes: [] };
+}
+
+/** Refuse, naming what changed, when a run's inputs are no longer the period's current ones. */
+export async function assertRunFresh(actor: Actor, runId: string, doing: string): Promise<void> {
+  const freshness = await runFreshnessOf(actor, runId);
+  if (freshness.stale) {
+    throw new AppError("conflict:run", `This run is stale, so it cannot ${doing}: ${staleSummary(freshness)} Start a new run on the current inputs.`, { run: staleSummary(freshness) });
+  }
+}
