@@ -71,7 +71,8 @@ export interface CommentView {
   id: string;
   section: string;
   sectionLabel: string;
-  kind: "comment" | "changes_requested" | "reply";
+  /** "submission_note": the note the compliance officer sent with a submission (older ones are stored as replies) */
+  kind: "comment" | "changes_requested" | "reply" | "submission_note";
   body: string;
   author: PersonRef;
   createdAt: string;
@@ -739,7 +740,7 @@ export async function submitFiling(actor: Actor, filingId: string, input: Submit
       .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId), eq(filings.status, row.status)))
       .returning({ id: filings.id });
     if (!updated.length) throw raced();
-    if (note) await tx.insert(reviewComments).values({ firmId: actor.firmId, filingId: row.id, section: "general", body: note, kind: "reply", authorId: actor.userId });
+    if (note) await tx.insert(reviewComments).values({ firmId: actor.firmId, filingId: row.id, section: "general", body: note, kind: "submission_note", authorId: actor.userId });
     await tx.update(reportingPeriods).set({ state: "in_review" }).where(and(eq(reportingPeriods.id, row.periodId), eq(reportingPeriods.firmId, actor.firmId)));
     await recordAudit(tx, actor, {
       action: "filing.submit",

@@ -43,10 +43,10 @@ test.describe("runs and results", () => {
     await page.screenshot({ path: `${SCREENS}/runs-refused.png`, fullPage: true });
 
     await page.getByRole("button", { name: "Start without these factors" }).click();
-    // the run is on the server: the list shows it in progress or already completed, and so does a reload
-    await expect(page.getByTestId("run-row")).toHaveCount(before + 1);
+    // starting a run opens it; the run is on the server: the list shows it in progress or already completed
+    await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
     await page.screenshot({ path: `${SCREENS}/runs-progress.png`, fullPage: true });
-    await page.reload();
+    await page.goto(`/periods/${periodId}/runs`);
     await expect(page.getByTestId("run-row")).toHaveCount(before + 1);
     const newest = page.getByTestId("run-row").first();
     await expect(newest.getByText("Completed")).toBeVisible({ timeout: 45_000 });

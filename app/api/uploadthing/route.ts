@@ -3,4 +3,6 @@
 import { createRouteHandler } from "uploadthing/next";
 import { uploadRouter } from "./core";
 
-export const { GET, POST } = createRouteHandler({ router: uploadRouter });
+// Warnings and errors only: at the library's default ("Info") every upload logs its presigned URLs, which carry
+// their signatures, into the server log.
+export const { GET, POST } = createRouteHandler({ router: uploadRouter, config: { logLevel: "Warning" } });

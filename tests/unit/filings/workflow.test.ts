@@ -105,7 +105,7 @@ describe("each state refuses what does not belong to it", () => {
     const submitted = await submitFiling(w.officer, filingId, { note: "Ready for review." });
     expect(submitted.status).toBe("in_review");
     expect(submitted.submittedBy?.name).toBe("Tomas Reyne");
-    expect(submitted.comments.map((c) => [c.kind, c.body])).toEqual([["reply", "Ready for review."]]);
+    expect(submitted.comments.map((c) => [c.kind, c.body])).toEqual([["submission_note", "Ready for review."]]);
     await refusesAllBut(filingId, ["comment", "reply", "requestChanges", "sign"], {
       prepare: /is in review with the compliance head/,
       update: /is in review; the compliance head requests changes before it can be edited again/,
@@ -121,7 +121,7 @@ describe("each state refuses what does not belong to it", () => {
     const sent = await requestChanges(w.head, filingId, { section: "backtest", reason: "Explain the exceptions." });
     expect(sent.status).toBe("changes_requested");
     expect(sent.comments.map((c) => [c.section, c.kind])).toEqual([
-      ["general", "reply"],
+      ["general", "submission_note"],
       ["capital", "comment"],
       ["backtest", "changes_requested"],
     ]);

@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useState } from "react";
+import { useRouter } from "next/navigation";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { apiFetch, ApiError } from "@/app/_components/api";
@@ -26,6 +27,7 @@ function zoneBadge(zone: string) {
 
 export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: string; currency: string; canStart: boolean; locked: boolean }) {
   const queryClient = useQueryClient();
+  const router = useRouter();
   const key = ["runs", periodId];
   const { data, error, isLoading } = useQuery({
     queryKey: key,
@@ -36,7 +38,11 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
   const start = useMutation({
     mutationFn: (excludeShortHistory: boolean) => apiFetch<{ run: RunListItem }>(`/api/periods/${periodId}/runs`, { method: "POST", body: { excludeShortHistory } }),
     onMutate: () => setRefusal(null),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: key }),
+    // a started run opens at once: its page follows the progress and shows the figures when it completes
+    onSuccess: ({ run }) => {
+      void queryClient.invalidateQueries({ queryKey: key });
+      router.push(`/periods/${periodId}/runs/${run.id}`);
+    },
     onError: (e) => {
       setRefusal(e instanceof ApiError ? e : new ApiError(String(e), 500, "unknown"));
       void queryClient.invalidateQueries({ queryKey: key });

@@ -1,6 +1,6 @@
 "use client";
 
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { useRouter } from "next/navigation";
 import { apiFetch, ApiError } from "@/app/_components/api";
 import { inputClass, secondaryButtonClass } from "@/app/_components/field";
@@ -8,13 +8,13 @@ import { formatTimestamp } from "@/reports/format";
 
 export interface SectionComment {
   id: string;
-  kind: "comment" | "changes_requested" | "reply";
+  kind: "comment" | "changes_requested" | "reply" | "submission_note";
   body: string;
   authorName: string;
   createdAt: string;
 }
 
-const KIND_LABEL: Record<SectionComment["kind"], string> = { comment: "Review comment", changes_requested: "Changes requested", reply: "Answer" };
+const KIND_LABEL: Record<SectionComment["kind"], string> = { comment: "Review comment", changes_requested: "Changes requested", reply: "Answer", submission_note: "Note with the submission" };
 
 /** The review notes on one section, and the form to add one (a comment for the compliance head, an answer for the officer). */
 export function SectionComments({ filingId, section, sectionTitle, comments, mode }: { filingId: string; section: string; sectionTitle: string; comments: SectionComment[]; mode: "comment" | "reply" | null }) {
@@ -23,6 +23,15 @@ export function SectionComments({ filingId, section, sectionTitle, comments, mod
   const [body, setBody] = useState("");
   const [error, setError] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
+  const box = useRef<HTMLTextAreaElement>(null);
+  const opener = useRef<HTMLButtonElement>(null);
+  const wasOpen = useRef(false);
+  // opening the form puts the cursor in the box; closing it gives focus back to the button that opened it
+  useEffect(() => {
+    if (open) box.current?.focus();
+    else if (wasOpen.current) opener.current?.focus();
+    wasOpen.current = open;
+  }, [open]);
   if (!comments.length && !mode) return null;
   const id = `comment-${section}`;
   return (
@@ -33,7 +42,7 @@ export function SectionComments({ filingId, section, sectionTitle, comments, mod
             <li key={c.id} className="text-sm">
               <p className="text-xs text-ink-muted">
                 <span className={c.kind === "changes_requested" ? "font-semibold text-alert" : "font-medium text-ink-soft"}>
-                  <span aria-hidden="true">{c.kind === "changes_requested" ? "! " : c.kind === "reply" ? "↳ " : "• "}</span>
+                  <span aria-hidden="true">{c.kind === "changes_requested" ? "! " : c.kind === "reply" ? "↳ " : c.kind === "submission_note" ? "✉ " : "• "}</span>
                   {KIND_LABEL[c.kind]}
                 </span>{" "}
                 · {c.authorName} · {formatTimestamp(c.createdAt)}
@@ -66,7 +75,7 @@ export function SectionComments({ filingId, section, sectionTitle, comments, mod
             <label htmlFor={id} className="text-sm font-medium">
               {mode === "comment" ? `Comment on ${sectionTitle}` : `Answer on ${sectionTitle}`}
             </label>
-            <textarea id={id} rows={3} className={inputClass} value={body} onChange={(e) => setBody(e.target.value)} aria-invalid={Boolean(error)} />
+            <textarea ref={box} id={id} rows={3} className={inputClass} value={body} onChange={(e) => setBody(e.target.value)} aria-invalid={Boolean(error)} />
             {error ? (
               <p role="alert" className="text-sm text-alert">
                 {error}
@@ -82,7 +91,7 @@ export function SectionComments({ filingId, section, sectionTitle, comments, mod
             </div>
           </form>
         ) : (
-          <button type="button" className={`text-sm font-medium underline ${comments.length ? "mt-3" : ""}`} onClick={() => setOpen(true)}>
+          <button ref={opener} type="button" className={`text-sm font-medium underline ${comments.length ? "mt-3" : ""}`} onClick={() => setOpen(true)}>
             {mode === "comment" ? `Comment on ${sectionTitle.toLowerCase()}` : `Answer on ${sectionTitle.toLowerCase()}`}
           </button>
         )
