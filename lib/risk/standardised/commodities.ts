@@ -69,7 +69,7 @@ export function commodityLadder(holdings: readonly CommodityHolding[], rules: St
 
 /**
  * Commodity charge per commodity under the profile's method.
- * @example commodityRisk([{ commodity: "copper", amount: 2720 }, { commodity: "copper", amount: -3400 }], rules)[0].charge // → 15 % × 680 + 3 % × 6120
+ * @example commodityRisk([{ commodity: "copper", amount: 2720 }, { commodity: "copper", amount: -3400 }], rules)[0].charge // → 285.6 (15 % × 680 + 3 % × 6,120)
  */
 export function commodityRisk(holdings: readonly CommodityHolding[], rules: StandardisedProfile["commodities"]): CommodityResult[] {
   const by = new Map<string, CommodityHolding[]>();

@@ -68,9 +68,10 @@ export function computeStandardised(positions: readonly StandardisedPosition[], 
   const cashNet = new Map<string, { net: number; first: StandardisedPosition }>();
   for (const p of positions) {
     if (!cashKind(p.instrumentType)) continue;
-    const c = cashNet.get(p.instrument);
+    const id = p.instrument.trim();
+    const c = cashNet.get(id);
     if (c) c.net += p.marketValue;
-    else cashNet.set(p.instrument, { net: p.marketValue, first: p });
+    else cashNet.set(id, { net: p.marketValue, first: p });
   }
   const covered = new Map<string, number>(); // instrument → covered amount (≥ 0)
   const optionResults: OptionResult[] = [];
@@ -101,7 +102,7 @@ export function computeStandardised(positions: readonly StandardisedPosition[], 
           specificRate: rates.specific,
           generalRate: rates.general,
           inTheMoney: itm,
-          optionValue: p.marketValue,
+          optionValue: p.marketValue * (value / optionValueUnits),
           charge: hedgedOptionCharge(value, rates.specific, rates.general, itm),
         });
         if (value < optionValueUnits - 1e-9) {
@@ -147,9 +148,10 @@ export function computeStandardised(positions: readonly StandardisedPosition[], 
   }
   /** A cash row's amount left for the ordinary blocks after the carve-out. */
   const remaining = (p: StandardisedPosition): number => {
-    const c = covered.get(p.instrument);
+    const id = p.instrument.trim();
+    const c = covered.get(id);
     if (!c) return p.marketValue;
-    const net = cashNet.get(p.instrument)!.net;
+    const net = cashNet.get(id)!.net;
     return p.marketValue * (1 - c / Math.abs(net));
   };
 

@@ -3,7 +3,8 @@
  * (the hedge carve-out): market value of the underlying covered × (its specific + general rate), less the amount
  * the option is in the money, floored at zero; the covered part of the cash position leaves the other blocks.
  * A bought option without such a hedge: the lesser of the underlying's value × (specific + general rate) and
- * the option's market value.
+ * the option's market value. A carved-out holding in a foreign currency keeps its currency in the FX block
+ * (the carve-out replaces its position risk, not its currency); a carved-out currency or gold holding leaves FX.
  */
 import type { OptionKind } from "./types";
 
