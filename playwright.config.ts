@@ -17,6 +17,7 @@ process.env.E2E_DB_FILE = E2E_DB_FILE;
 const MAIL_SMTP_PORT = Number(process.env.E2E_MAIL_SMTP_PORT ?? 4125);
 const MAIL_HTTP_PORT = Number(process.env.E2E_MAIL_HTTP_PORT ?? 4126);
 process.env.E2E_REMINDERS_SECRET ??= randomBytes(24).toString("base64url");
+process.env.E2E_MAIL_SECRET ??= randomBytes(24).toString("base64url");
 export const E2E_ENV = {
   UPLOADTHING_TOKEN: uploadToken,
   UPLOADTHING_INGEST_URL: `http://127.0.0.1:${UPLOAD_PORT}`,
@@ -36,6 +37,10 @@ export const E2E_ENV = {
   MAIL_LISTENER_SMTP_PORT: String(MAIL_SMTP_PORT),
   MAIL_LISTENER_HTTP_PORT: String(MAIL_HTTP_PORT),
   MAIL_LISTENER_URL: `http://127.0.0.1:${MAIL_HTTP_PORT}`,
+  // Only the app may send to the listener: it authenticates with this run's secret.
+  MAIL_LISTENER_SECRET: process.env.E2E_MAIL_SECRET,
+  SMTP_USER: "ballast",
+  SMTP_PASS: process.env.E2E_MAIL_SECRET,
   REMINDERS_SECRET: process.env.E2E_REMINDERS_SECRET,
   BALLAST_URL: `http://localhost:${PORT}`,
 };

@@ -1,13 +1,14 @@
 /**
  * The local SMTP listener for the demo, development and browser tests: SMTP on MAIL_LISTENER_SMTP_PORT (2525) and
- * what it received as JSON on MAIL_LISTENER_HTTP_PORT (2526), both on 127.0.0.1 only.
+ * what it received as JSON on MAIL_LISTENER_HTTP_PORT (2526), both on 127.0.0.1 only. Mail is accepted only from a
+ * client that authenticates with MAIL_LISTENER_SECRET (the app, as SMTP_USER=ballast / SMTP_PASS).
  *
  *   npm run mail-listener        run it on its own (the browser tests do)
  *   startLocalMail()             start it inside the demo or dev process and point the app at it
  */
 import path from "node:path";
 import { randomBytes } from "node:crypto";
-import { startMailListener } from "../lib/mail/listener";
+import { MAIL_LISTENER_USER, startMailListener } from "../lib/mail/listener";
 
 const smtpPort = () => Number(process.env.MAIL_LISTENER_SMTP_PORT ?? 2525);
 const httpPort = () => Number(process.env.MAIL_LISTENER_HTTP_PORT ?? 2526);
@@ -22,16 +23,22 @@ export async function startLocalMail(): Promise<void> {
     console.log(`Mail goes to ${process.env.SMTP_HOST}:${process.env.SMTP_PORT ?? 587} (SMTP_HOST is set); no local listener.`);
     return;
   }
-  const listener = await startMailListener({ smtpPort: smtpPort(), httpPort: httpPort() });
+  // Only the app's own transport may send: it authenticates with a secret made here for this run.
+  process.env.MAIL_LISTENER_SECRET ||= randomBytes(24).toString("base64url");
+  const listener = await startMailListener({ smtpPort: smtpPort(), httpPort: httpPort(), secret: process.env.MAIL_LISTENER_SECRET });
   process.env.SMTP_HOST = "127.0.0.1";
   process.env.SMTP_PORT = String(listener.smtpPort);
+  process.env.SMTP_USER = MAIL_LISTENER_USER;
+  process.env.SMTP_PASS = process.env.MAIL_LISTENER_SECRET;
   process.env.MAIL_LISTENER_URL = `http://127.0.0.1:${listener.httpPort}`;
   process.env.SMTP_FROM ||= "Ballast reminders <reminders@ballast.example>";
   console.log(`Local mail listener: SMTP on 127.0.0.1:${listener.smtpPort}; an administrator sees what it received under Settings → Mail received.`);
 }
 
 if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename)) {
-  startMailListener({ smtpPort: smtpPort(), httpPort: httpPort() })
+  // On its own (the browser tests): MAIL_LISTENER_SECRET, shared with the app as SMTP_PASS, is required to send.
+  if (!process.env.MAIL_LISTENER_SECRET) console.warn("mail listener: MAIL_LISTENER_SECRET is not set; any local process may send mail to it.");
+  startMailListener({ smtpPort: smtpPort(), httpPort: httpPort(), secret: process.env.MAIL_LISTENER_SECRET || undefined })
     .then((listener) => {
       console.log(`mail listener: SMTP on 127.0.0.1:${listener.smtpPort}, messages at http://127.0.0.1:${listener.httpPort}/messages`);
       for (const signal of ["SIGINT", "SIGTERM"] as const) {

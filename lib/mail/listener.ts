@@ -7,6 +7,10 @@ import { createServer as createHttpServer, type Server as HttpServer } from "nod
 import type { AddressInfo } from "node:net";
 import { SMTPServer } from "smtp-server";
 import { simpleParser } from "mailparser";
+import { timingSafeEqual } from "node:crypto";
+
+/** The SMTP user name the app's transport uses with the listener's secret (SMTP_USER). */
+export const MAIL_LISTENER_USER = "ballast";
 
 export interface ReceivedMessage {
   id: number;
@@ -36,15 +40,35 @@ export async function startMailListener(options: {
   /** a port for the JSON endpoint; omit for none */
   httpPort?: number;
   refuseFirst?: number;
+  /**
+   * When set, only the app's own client is accepted: a session must authenticate (SMTP AUTH, user "ballast",
+   * this password) before it may send, so no other local process can file mail under a firm's header.
+   */
+  secret?: string;
 } = {}): Promise<MailListener> {
   const host = options.host ?? "127.0.0.1";
   const messages: ReceivedMessage[] = [];
   let nextId = 1;
   const state = { refused: 0 };
 
+  const secret = options.secret;
   const smtp = new SMTPServer({
-    authOptional: true,
+    authOptional: !secret,
+    // Loopback only, so AUTH in plain text is acceptable here; without a secret any credentials are taken.
+    allowInsecureAuth: true,
+    authMethods: ["PLAIN", "LOGIN"],
     disabledCommands: ["STARTTLS"],
+    onAuth(auth, _session, callback) {
+      if (!secret) return callback(null, { user: String(auth.username ?? "") });
+      const given = Buffer.from(String(auth.password ?? ""));
+      const wanted = Buffer.from(secret ?? "");
+      if (secret && auth.username === MAIL_LISTENER_USER && given.length === wanted.length && timingSafeEqual(given, wanted)) {
+        return callback(null, { user: MAIL_LISTENER_USER });
+      }
+      const error = new Error("Authentication refused: only Ballast itself may send here") as Error & { responseCode: number };
+      error.responseCode = 535;
+      return callback(error);
+    },
     logger: false,
     banner: "Ballast local mail listener",
     onConnect(_session, callback) {
