@@ -148,11 +148,20 @@ describe("options: the simplified approach", () => {
     expect(r.options[0].charge).toBe(50); // the lesser of 1,000 × 16 % and the option's value 50
     expect(r.equity.byMarket[0].gross).toBe(3000);
   });
+  it("a put on more shares than the book holds: the covered part is hedged, the rest charged as bought", () => {
+    const half: StandardisedPosition = { ...share, marketValue: 500 };
+    const r = computeStandardised([half, put(100, "put", 60)], { reportingCurrency: "EUR" });
+    expect(r.options.map((o) => [o.treatment, o.underlyingValue, o.optionValue])).toEqual([["hedged", 500, 30], ["bought", 500, 30]]);
+    expect(r.options[0].charge).toBeCloseTo(80, 9); // 500 × 16 %, out of the money
+    expect(r.options[1].charge).toBe(30); // the lesser of 500 × 16 % and its share of the option's value
+    expect(r.equity.byMarket[0].gross).toBe(0);
+  });
   it("a written option is refused", () => {
     expect(() => computeStandardised([share, put(100, "put", -50)], { reportingCurrency: "EUR" })).toThrow(/written \(sold\) option/);
   });
 });
 
+// The commodity maturity ladder's rates (1.5 % spread, 0.6 % carry, 15 % outright) are from memory of the 1996 amendment.
 describe("commodities: the maturity ladder", () => {
   it("matched in a band: spread on both sides; carried to a later band: carry per band moved; the rest outright", () => {
     const rules = P.commodities.ladder;
