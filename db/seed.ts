@@ -130,6 +130,8 @@ if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename
       else process.env.BALLAST_CLOCK = pinnedToday;
     }
     await (await import("./seed-history")).seedDemoHistory(db);
+    // After the October filing, the compliance officer set the profile to file the standardised figure (version 2).
+    await (await import("./seed-capital")).seedDemoCapitalProfile(db);
     setStampClock(null);
     db.$client.close();
     console.log(`seeded the demo firms into ${databaseUrl()}`);

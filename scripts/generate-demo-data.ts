@@ -47,7 +47,7 @@ export const NOVEMBER_AS_OF = "2026-11-30";
 /** The invented EUR value of one Norwegian krone used for the NOK position's market value (there is no series). */
 export const NOK_EUR_RATE = 0.0855;
 
-type Kind = "equity" | "etf" | "government_bond" | "commodity_future" | "fx";
+type Kind = "equity" | "etf" | "government_bond" | "corporate_bond" | "commodity_future" | "fx";
 type Factor = "equity" | "bond" | "commodity" | "fx";
 
 interface ClassParams {
@@ -70,6 +70,7 @@ export const CLASS_PARAMS: Record<Kind, ClassParams> = {
   equity: { global: 0.55, factor: "equity", loading: 0.35, alpha: 0.06, beta: 0.92, drift: 0.0003, stressDrift: -0.0045, reversion: 0 },
   etf: { global: 0.7, factor: "equity", loading: 0.45, alpha: 0.05, beta: 0.93, drift: 0.00025, stressDrift: -0.0035, reversion: 0 },
   government_bond: { global: -0.25, factor: "bond", loading: 0.85, alpha: 0.04, beta: 0.94, drift: 0, stressDrift: 0.0004, reversion: 0.004 },
+  corporate_bond: { global: -0.1, factor: "bond", loading: 0.7, alpha: 0.05, beta: 0.93, drift: 0, stressDrift: -0.0002, reversion: 0.004 },
   commodity_future: { global: 0.35, factor: "commodity", loading: 0.5, alpha: 0.05, beta: 0.93, drift: 0, stressDrift: -0.003, reversion: 0.003 },
   fx: { global: 0.15, factor: "fx", loading: 0.5, alpha: 0.03, beta: 0.95, drift: 0, stressDrift: 0, reversion: 0.004 },
 };
@@ -89,6 +90,8 @@ interface Spec {
   stressDrift?: number;
   /** units the quantity is counted in, for the README */
   unit?: string;
+  /** the asset class the positions file writes, when it differs from the simulation kind (the swap: "other") */
+  fileClass?: string;
 }
 
 const eq = (id: string, name: string, currency: string, start: number, vol: number, decimals = 2): Spec => ({ id: `NMB-EQ-${id}`, name, kind: "equity", currency, start, vol, decimals });
@@ -140,6 +143,22 @@ export const NORTHMOOR_SERIES: Spec[] = [
   { id: "USDEUR", name: "EUR per US dollar", kind: "fx", currency: "EUR", start: 0.9214, vol: 0.005, decimals: 5, global: -0.15, stressDrift: 0.0005 },
   { id: "GBPEUR", name: "EUR per pound sterling", kind: "fx", currency: "EUR", start: 1.1712, vol: 0.0045, decimals: 5, global: 0.15, stressDrift: -0.0002 },
   { id: "CHFEUR", name: "EUR per Swiss franc", kind: "fx", currency: "EUR", start: 1.0496, vol: 0.004, decimals: 5, global: -0.2, stressDrift: 0.0006 },
+];
+
+/**
+ * Instruments Northmoor added in November for the standardised building blocks: bills and corporate bonds across the
+ * maturity ladder, a bond future and an interest-rate swap. Simulated with their own seed (SEED + 2) so that every
+ * earlier series keeps its exact closes; the swap's series is the value of its fixed leg per 100 notional.
+ */
+export const NORTHMOOR_ADDED_SERIES: Spec[] = [
+  { id: "NMB-TB-AUR-2026-12", name: "Republic of Aurenia bill 18 Dec 2026", kind: "government_bond", currency: "EUR", start: 99.62, vol: 0.0002, decimals: 3, unit: "units of 100 nominal" },
+  { id: "NMB-TB-AUR-2027-02", name: "Republic of Aurenia bill 26 Feb 2027", kind: "government_bond", currency: "EUR", start: 99.24, vol: 0.0003, decimals: 3, unit: "units of 100 nominal" },
+  { id: "NMB-TB-AUR-2027-08", name: "Republic of Aurenia bill 27 Aug 2027", kind: "government_bond", currency: "EUR", start: 98.41, vol: 0.0005, decimals: 3, unit: "units of 100 nominal" },
+  { id: "NMB-CB-KITTIWAKE-2027", name: "Kittiwake Aero Components 4.10% 2027", kind: "corporate_bond", currency: "EUR", start: 100.8, vol: 0.0012, decimals: 3, unit: "units of 100 nominal" },
+  { id: "NMB-CB-LOWMOOR-2036", name: "Lowmoor Grid Utilities 3.60% 2036", kind: "corporate_bond", currency: "EUR", start: 97.3, vol: 0.004, decimals: 3, unit: "units of 100 nominal" },
+  { id: "NMB-CB-JESSAMY-2029", name: "Jessamy Retail Group 6.50% 2029", kind: "corporate_bond", currency: "EUR", start: 102.1, vol: 0.0035, decimals: 3, unit: "units of 100 nominal" },
+  { id: "NMB-BF-AUR10-2027-03", name: "Aurenia 10-year bond future, March 2027", kind: "government_bond", currency: "EUR", start: 131.2, vol: 0.0045, decimals: 2, unit: "units of 100 nominal" },
+  { id: "NMB-IRS-EUR-2031", name: "Receive-fixed EUR interest-rate swap 2.40% Nov 2031", kind: "government_bond", currency: "EUR", start: 100.4, vol: 0.0035, decimals: 3, unit: "units of 100 notional (fixed-leg value)", fileClass: "other" },
 ];
 
 /** Pellam Capital Partners (reporting GBP): a smaller firm, no planted problems. */
@@ -257,7 +276,60 @@ function csv(header: readonly string[], rows: readonly (readonly string[])[]): s
 
 // ---------------------------------------------------------------------------------------------- positions
 
-export const POSITIONS_HEADER = ["as_of", "book", "instrument_id", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure", "market_value_note"] as const;
+export const POSITIONS_HEADER = [
+  "as_of", "book", "instrument_id", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure", "market_value_note",
+  // the optional columns the standardised building blocks read
+  "instrument_type", "issuer_category", "maturity_date", "coupon", "next_reset_date", "national_market", "commodity", "notional", "underlying_maturity_years",
+] as const;
+
+/** Position names where the instrument's series name does not say what is held (currency positions on their rate series). */
+const POSITION_NAMES: Record<string, string> = { USDEUR: "US dollar cash balance", GBPEUR: "Sterling overdraft" };
+
+/** The standardised attributes of a Northmoor instrument, as the positions file writes them (invented terms). */
+interface Attributes {
+  instrument_type?: string;
+  issuer_category?: string;
+  maturity_date?: string;
+  coupon?: string;
+  next_reset_date?: string;
+  national_market?: string;
+  commodity?: string;
+  /** "mv": the position's market value (a delta of 1); "nominal": quantity × 100 (units of 100 notional) */
+  notional?: "mv" | "nominal";
+  underlying_maturity_years?: string;
+}
+
+const bond = (issuer: "government" | "qualifying" | "other", maturity: string, coupon: string): Attributes => ({ instrument_type: "bond", issuer_category: issuer, maturity_date: maturity, coupon });
+const bill = (maturity: string): Attributes => ({ instrument_type: "bill", issuer_category: "government", maturity_date: maturity, coupon: "0" });
+const share = (market: string): Attributes => ({ instrument_type: "equity", national_market: market });
+const fund = (market: string): Attributes => ({ instrument_type: "fund", national_market: market });
+const commodityFuture = (commodity: string): Attributes => ({ instrument_type: "future", commodity, notional: "mv" });
+
+/** Every Northmoor instrument's standardised attributes (the Pellam files leave the columns empty: it files internal models). */
+export const NORTHMOOR_ATTRIBUTES: Record<string, Attributes> = {
+  "NMB-EQ-ALDER": share("DE"), "NMB-EQ-BRACKEN": share("DE"), "NMB-EQ-CALDER": share("NL"), "NMB-EQ-DRUMLIN": share("FR"),
+  "NMB-EQ-ELMSTEAD": share("DE"), "NMB-EQ-FARTHING": share("DE"), "NMB-EQ-GORSE": share("FR"), "NMB-EQ-HALVARD": share("DE"),
+  "NMB-EQ-IVERN": share("NL"), "NMB-EQ-JESSAMY": share("FR"), "NMB-EQ-KITTIWAKE": share("DE"), "NMB-EQ-LOWMOOR": share("FR"),
+  "NMB-EQ-MARROW": share("NL"), "NMB-EQ-ORRERY": share("US"), "NMB-EQ-PINNOCK": share("US"), "NMB-EQ-QUARROW": share("US"),
+  "NMB-EQ-ROOKWELL": share("GB"), "NMB-EQ-SALTMARSH": share("GB"), "NMB-EQ-TESSIN": share("CH"), "NMB-EQ-URIBACH": share("CH"),
+  "NMB-EQ-VARGFJELL": share("NO"), "NMB-EQ-WYNCOTE": share("DE"),
+  "NMB-ETF-EUROLC": fund("DE"), "NMB-ETF-WORLD": fund("DE"), "NMB-ETF-SMALLCAP": fund("DE"), "NMB-ETF-DIVIDEND": fund("DE"),
+  "NMB-ETF-TECH": fund("DE"), "NMB-ETF-HEALTH": fund("DE"), "NMB-ETF-USLC": fund("US"), "NMB-ETF-UKMID": fund("GB"),
+  "NMB-GB-AUR-2028": bond("government", "2028-03-15", "1.5"), "NMB-GB-AUR-2031": bond("government", "2031-06-15", "2.25"),
+  "NMB-GB-VAL-2029": bond("government", "2029-09-01", "3"), "NMB-GB-VAL-2034": bond("government", "2034-02-15", "2.75"),
+  "NMB-GB-OST-2027": bond("government", "2027-04-15", "0.5"), "NMB-GB-OST-2033": bond("government", "2033-10-15", "3.25"),
+  "NMB-GB-CAR-2030": bond("government", "2030-12-07", "4"), "NMB-GB-EST-2032": bond("government", "2032-05-15", "4.25"),
+  "NMB-CF-CRUDE": commodityFuture("crude oil"), "NMB-CF-NATGAS": commodityFuture("natural gas"), "NMB-CF-COPPER": commodityFuture("copper"),
+  "NMB-CF-GOLD": commodityFuture("gold"), "NMB-CF-WHEAT": commodityFuture("wheat"),
+  // added in November for the standardised blocks (their series are in NORTHMOOR_ADDED_SERIES)
+  "NMB-TB-AUR-2026-12": bill("2026-12-18"), "NMB-TB-AUR-2027-02": bill("2027-02-26"), "NMB-TB-AUR-2027-08": bill("2027-08-27"),
+  "NMB-CB-KITTIWAKE-2027": bond("qualifying", "2027-09-15", "4.1"), "NMB-CB-LOWMOOR-2036": bond("qualifying", "2036-03-14", "3.6"),
+  "NMB-CB-JESSAMY-2029": bond("other", "2029-05-15", "6.5"),
+  "NMB-BF-AUR10-2027-03": { instrument_type: "future", issuer_category: "government", maturity_date: "2027-03-08", coupon: "6", notional: "mv", underlying_maturity_years: "9.5" },
+  "NMB-IRS-EUR-2031": { instrument_type: "swap", maturity_date: "2031-11-28", coupon: "2.4", next_reset_date: "2027-02-26", notional: "nominal" },
+  USDEUR: { instrument_type: "currency" },
+  GBPEUR: { instrument_type: "currency" },
+};
 
 /** Why the NOK position's market value stands without a NOKEUR series (the upload refuses it without a reason). */
 export const NOK_VALUE_NOTE = `No NOKEUR series loaded: valued at ${NOK_EUR_RATE} EUR per NOK from the broker statement`;
@@ -313,6 +385,17 @@ const NORTHMOOR_HOLDINGS: Holding[] = [
   { book: "HEDGE", id: "NMB-CF-WHEAT", target: -350_000, lot: LOTS["NMB-CF-WHEAT"] },
   { book: "HEDGE", id: "NMB-ETF-EUROLC", target: -1_200_000, lot: 10 },
   { book: "HEDGE", id: "NMB-ETF-SMALLCAP", target: -400_000, lot: 10 },
+  // added in November for the standardised blocks: bills and bonds over the ladder, a bond future, a swap, currency positions
+  { book: "TREASURY", id: "NMB-TB-AUR-2026-12", target: 1_500_000, lot: 100, only: "nov" },
+  { book: "TREASURY", id: "NMB-TB-AUR-2027-02", target: 2_000_000, lot: 100, only: "nov" },
+  { book: "TREASURY", id: "NMB-TB-AUR-2027-08", target: 1_200_000, lot: 100, only: "nov" },
+  { book: "TRADING", id: "NMB-CB-KITTIWAKE-2027", target: 800_000, lot: 100, only: "nov" },
+  { book: "TRADING", id: "NMB-CB-LOWMOOR-2036", target: 600_000, lot: 100, only: "nov" },
+  { book: "TRADING", id: "NMB-CB-JESSAMY-2029", target: 400_000, lot: 100, only: "nov" },
+  { book: "HEDGE", id: "NMB-BF-AUR10-2027-03", target: -1_500_000, lot: 10, only: "nov" },
+  { book: "TREASURY", id: "NMB-IRS-EUR-2031", target: 4_000_000, lot: 100, only: "nov" },
+  { book: "TREASURY", id: "USDEUR", target: 450_000, lot: 1000, only: "nov" },
+  { book: "TREASURY", id: "GBPEUR", target: -300_000, lot: 1000, only: "nov" },
 ];
 
 const PELLAM_HOLDINGS: Holding[] = [
@@ -346,7 +429,12 @@ interface PositionRow {
 function positionCells(p: PositionRow): string[] {
   const mv = fmt(p.marketValue, 2);
   const note = p.currency === "NOK" && p.marketValue !== 0 ? NOK_VALUE_NOTE : "";
-  return [p.asOf, p.book, p.id, p.name, p.assetClass, p.currency, String(p.quantity), fmt(p.price, p.decimals), mv, p.delta ? mv : "", note];
+  const a = NORTHMOOR_ATTRIBUTES[p.id] ?? {};
+  const notional = a.notional === "mv" ? mv : a.notional === "nominal" ? fmt(p.quantity * 100, 2) : "";
+  return [
+    p.asOf, p.book, p.id, p.name, p.assetClass, p.currency, String(p.quantity), fmt(p.price, p.decimals), mv, p.delta ? mv : "", note,
+    a.instrument_type ?? "", a.issuer_category ?? "", a.maturity_date ?? "", a.coupon ?? "", a.next_reset_date ?? "", a.national_market ?? "", a.commodity ?? "", notional, a.underlying_maturity_years ?? "",
+  ];
 }
 
 interface World {
@@ -399,14 +487,14 @@ function buildPositions(world: World, holdings: readonly Holding[], month: "oct"
       asOf,
       book: h.book,
       id: h.id,
-      name: facts.name,
-      assetClass: facts.kind,
+      name: POSITION_NAMES[h.id] ?? facts.name,
+      assetClass: (facts as Partial<Spec>).fileClass ?? facts.kind,
       currency: facts.currency,
       quantity,
       price,
       decimals: facts.decimals,
       marketValue,
-      delta: facts.kind === "commodity_future",
+      delta: facts.kind === "commodity_future" || NORTHMOOR_ATTRIBUTES[h.id]?.notional === "mv",
     });
   }
   return rows;
@@ -501,9 +589,10 @@ function mistyped(close: number, decimals: number): number {
 function build(seed: number): Generated {
   const days = businessDays(FIRST_DAY, LAST_DAY);
   const northmoor: World = {
-    specs: new Map(NORTHMOOR_SERIES.map((s) => [s.id, s])),
+    specs: new Map([...NORTHMOOR_SERIES, ...NORTHMOOR_ADDED_SERIES].map((s) => [s.id, s])),
     days,
-    closes: simulate(NORTHMOOR_SERIES, days, seed),
+    // the added series draw from their own stream, so every earlier series keeps its exact closes
+    closes: new Map([...simulate(NORTHMOOR_SERIES, days, seed), ...simulate(NORTHMOOR_ADDED_SERIES, days, seed + 2)]),
     reporting: "EUR",
   };
   const pellam: World = {
@@ -667,6 +756,18 @@ Closes are rounded to the decimals below.
 ### Northmoor instruments
 
 ${specTable(NORTHMOOR_SERIES)}
+
+Added in November for the standardised building blocks, simulated with their own seed (${seed + 2}) so the series
+above keep their exact closes (the swap's series is its fixed leg's value per 100 notional; its \`asset_class\` is other):
+
+${specTable(NORTHMOOR_ADDED_SERIES)}
+
+The November file's optional columns give each position what the standardised blocks read: \`instrument_type\`,
+\`issuer_category\`, \`maturity_date\`, \`coupon\`, \`next_reset_date\` (the swap's floating leg), \`national_market\`
+(equities and funds), \`commodity\` and \`notional\` (futures: the market value, a delta of 1; the swap: quantity × 100,
+receive fixed), \`underlying_maturity_years\` (the bond future's deliverable). The currency positions are held on their
+rate series (USDEUR, GBPEUR: quantity in the foreign currency, price the rate, \`instrument_type\` currency). Maturities
+and coupons are invented; Pellam's files leave these columns empty (it files the internal-models figure).
 
 Without price history: NMB-EQ-WYNCOTE, Wyncote Battery Systems SE (EUR, new position in November, invented price ${NO_HISTORY["NMB-EQ-WYNCOTE"].price.toFixed(2)}).
 

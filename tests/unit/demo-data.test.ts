@@ -11,6 +11,8 @@ import {
   LAST_DAY,
   MAIN_PRICES_END,
   NOK_EUR_RATE,
+  NORTHMOOR_ADDED_SERIES,
+  NORTHMOOR_SERIES,
   NOVEMBER_AS_OF,
   OCTOBER_AS_OF,
   PLANTED,
@@ -23,6 +25,8 @@ import { readCsvText } from "@/lib/uploads/read-table";
 import { POSITION_FIELDS, parsePositions, type PositionRow } from "@/lib/uploads/parse-positions";
 import { checkSeries, dataQualityReport } from "@/lib/uploads/data-quality";
 import { searchStressWindow } from "@/lib/risk/var/stressed";
+import { STANDARDISED_1996_PROFILE, computeStandardised } from "@/lib/risk/standardised";
+import { standardisedPositionOf } from "@/lib/uploads/position-attributes";
 
 const DEMO = path.resolve(__dirname, "../../templates/demo");
 const text = (file: string) => readFileSync(path.join(DEMO, file), "utf8");
@@ -69,10 +73,16 @@ function fxOn(series: Map<string, Series>, reporting: string, day: string): Reco
   return rates;
 }
 
-function positions(file: string, reporting: string, asOf: string, series: Map<string, Series>): { rows: PositionRow[]; problems: unknown[] } {
+function positions(file: string, reporting: string, asOf: string, series: Map<string, Series>, filesStandardised = false): { rows: PositionRow[]; problems: unknown[] } {
   const fx = fxOn(series, reporting, asOf);
   if (reporting === "EUR") fx.NOK = NOK_EUR_RATE;
-  return parsePositions(raw(file), { numberFormat: "plain" }, { today: "2026-12-01", reportingCurrency: reporting, periodEnd: asOf, fxToReporting: fx });
+  return parsePositions(raw(file), { numberFormat: "plain" }, {
+    today: "2026-12-01",
+    reportingCurrency: reporting,
+    periodEnd: asOf,
+    fxToReporting: fx,
+    ...(filesStandardised ? { filedStandardisedProfile: STANDARDISED_1996_PROFILE } : {}),
+  });
 }
 
 describe("committed demo files", () => {
@@ -88,7 +98,8 @@ describe("committed demo files", () => {
   });
 
   it("northmoor-prices.csv holds every business day to 2026-11-20 for every series but the planted gap", () => {
-    expect(main.size).toBe(45);
+    expect(main.size).toBe(NORTHMOOR_SERIES.length + NORTHMOOR_ADDED_SERIES.length);
+    expect(main.size).toBe(53);
     for (const [id, s] of main) {
       const expected = id === PLANTED.gap.instrument ? MAIN_DAYS.filter((d) => d < PLANTED.gap.from || d > PLANTED.gap.to) : MAIN_DAYS;
       expect(s.dates, id).toEqual(expected);
@@ -146,7 +157,9 @@ describe("committed demo files", () => {
     expect(books.size).toBeGreaterThanOrEqual(2);
     expect(books.size).toBeLessThanOrEqual(3);
     expect(rows.filter((r) => Number(r[6]) < 0).length).toBeGreaterThanOrEqual(2);
-    for (const r of rows) expect(r[9] !== "", r[2]).toBe(r[4] === "commodity_future");
+    // futures (commodity futures and the bond future) carry a delta-equivalent exposure, nothing else does
+    const type = POSITIONS_HEADER.indexOf("instrument_type");
+    for (const r of rows) expect(r[9] !== "", r[2]).toBe(r[type] === "future");
 
     const noHistory = rows.filter((r) => r[2] === PLANTED.noHistory.instrument);
     expect(noHistory).toHaveLength(1);
@@ -181,6 +194,32 @@ describe("committed demo files", () => {
     expect(table("pellam-positions-2026-11.csv").rows.length).toBeGreaterThanOrEqual(8);
     expect(pellam.size).toBeGreaterThanOrEqual(8);
     expect(pellam.size).toBeLessThanOrEqual(12);
+  });
+
+  it("the November book holds what the standardised blocks need: bills and bonds over the ladder, a bond future, a swap, equities on several markets, commodities, currency positions", () => {
+    const col = (name: (typeof POSITIONS_HEADER)[number]) => POSITIONS_HEADER.indexOf(name);
+    const rows = novemberTable.rows;
+    const ofType = (t: string) => rows.filter((r) => r[col("instrument_type")] === t);
+    expect(ofType("bill").length).toBeGreaterThanOrEqual(3);
+    expect(ofType("bond").length).toBeGreaterThanOrEqual(8);
+    expect(new Set(ofType("bond").map((r) => r[col("issuer_category")]))).toEqual(new Set(["government", "qualifying", "other"]));
+    expect(ofType("future").filter((r) => r[col("asset_class")] === "government_bond")).toHaveLength(1);
+    expect(ofType("swap")).toHaveLength(1);
+    expect(new Set(ofType("equity").map((r) => r[col("national_market")])).size).toBeGreaterThanOrEqual(2);
+    expect(ofType("future").filter((r) => r[col("commodity")] !== "").length).toBeGreaterThanOrEqual(1);
+    expect(ofType("currency").length).toBeGreaterThanOrEqual(2);
+    // a firm filing the standardised figure can confirm the file as it stands
+    const parsed = positions("northmoor-positions-2026-11.csv", "EUR", NOVEMBER_AS_OF, all, true);
+    expect(parsed.problems).toEqual([]);
+    // and the bills and bonds spread over the ladder: every zone of the EUR ladder holds a position
+    const result = computeStandardised(
+      parsed.rows.map((r) => standardisedPositionOf(r, "EUR")),
+      { reportingCurrency: "EUR", asOf: NOVEMBER_AS_OF, profile: STANDARDISED_1996_PROFILE },
+    );
+    const eur = result.interestRate.byCurrency.find((c) => c.currency === "EUR")!;
+    for (const zone of [1, 2, 3]) expect(eur.bands.filter((b) => b.zone === zone && (b.long !== 0 || b.short !== 0)).length, `zone ${zone}`).toBeGreaterThan(0);
+    expect(result.equity.byMarket.length).toBeGreaterThanOrEqual(2);
+    expect(result.fx.byCurrency.some((c) => c.fromCurrencyPositions !== 0)).toBe(true);
   });
 
   it("October differs from November by a few added, closed and resized positions", () => {
