@@ -1,6 +1,6 @@
 /**
  * A month-end run: positions and aligned factor returns in, every figure a filing reports out, in one plain
- * object — VaR and ES at one and ten days per confidence and method, component VaR by position, asset class
+ * object — VaR and ES at one day and the method's horizon per confidence and method, component VaR by position, asset class
  * and currency, stand-alone VaR by asset class and the diversification benefit, stressed VaR with its window,
  * the VaR history of the last 60 days, the 250-day backtest, capital with every term, and the warnings,
  * limitations and choices that apply. Pure: no I/O, no clock, no randomness.
@@ -19,10 +19,18 @@ import { describeScaling, garchHorizonVariance, overlappingSums, type HorizonSca
 import { searchStressWindow } from "../var/stressed";
 import { equalWeightCovariance, ewmaCovariance, standardisedCorrelation } from "./covariance";
 import { allocateToPositions, type PositionLoadings } from "./decomposition";
-import { correlationToCovariance, matVec, type SymmetricMatrix } from "./matrix";
+import { correlationToCovariance, covarianceToCorrelation, matVec, matrixToRows, type SymmetricMatrix } from "./matrix";
 import { checkPsd, repairPsd, type PsdCheck, type PsdRepair } from "./psd";
 import { positionsToExposures, type Position } from "./exposures";
-import type { BacktestRefit, CandidateEvidence, CandidateMethod, CorrelationSpec, ResolvedModel, StoredBacktestSeries, StoredCorrelation, VolatilityChoice } from "../process/types";
+import type { BacktestRefit, CandidateEvidence, CandidateMethod, CorrelationSpec, ProcessFit, ResolvedCorrelation, ResolvedFactorModel, ResolvedModel, StoredBacktestSeries, StoredCorrelation, VolatilityChoice } from "../process/types";
+import { nearestCorrelation } from "./nearest-correlation";
+import {
+  correlationForm, correlationOf, describeCorrelation, describeRefit, factorHorizonVariance, firstDefinedDay, fitFactor, forEachBlock, forEachDailyCovariance,
+  matrixForm, neededReturns, refitBlocks, resolveCorrelation, resolveFactorSpecs, resolvedFactor, type FactorSpec,
+} from "./per-factor";
+import { specLabel, specStartUp } from "../process/registry";
+import { describeInit, type InitRule } from "../estimators/initial-variance";
+import { candidateRows, failedRow, methodOfCandidate, rowFromSeries, standardCandidates, type CandidateContext } from "./candidates";
 
 export type VarMethod = "parametric" | "historical" | "filtered";
 export type CovarianceChoice = "equal" | "ewma" | "garch-ccc";
@@ -300,6 +308,21 @@ interface VolatilityModel {
   paramsOut: Record<string, number>[];
 }
 
+/** The per-factor (D·R·D) state of a run whose method gives `volatility`. */
+export interface PerFactorState {
+  specs: FactorSpec[];
+  /** today's fits, one per factor */
+  fits: ProcessFit[];
+  correlationSpec: CorrelationSpec;
+  correlationInfo: ResolvedCorrelation;
+  /** first day every factor's variance path is defined */
+  firstDefined: number;
+  /** horizon rule: each factor's own term structure (true) or square-root-of-time */
+  term: boolean;
+  /** today's variance over the horizon, per factor */
+  horizonVariance: Float64Array;
+}
+
 /** Everything a run derives from its inputs before computing figures (shared by runMonthEnd and explain). */
 export interface PreparedRun {
   dates: string[];
@@ -313,8 +336,17 @@ export interface PreparedRun {
   /** correlation behind the covariance where the choice is garch-ccc */
   correlation: SymmetricMatrix | null;
   volatility: VolatilityModel | null;
+  /** set when the method gives per-factor volatility processes */
+  perFactor: PerFactorState | null;
   psd: MonthEndResult["covarianceCheck"];
-  method: Required<Omit<MonthEndMethod, "nu" | "stressWindow">> & { nu?: number; stressWindow: MonthEndMethod["stressWindow"] };
+  method: Required<Omit<MonthEndMethod, "nu" | "stressWindow" | "volatility" | "correlation" | "backtestRefit" | "candidates">> & {
+    nu?: number;
+    stressWindow: MonthEndMethod["stressWindow"];
+    volatility?: VolatilityChoice;
+    correlation?: CorrelationSpec;
+    backtestRefit: BacktestRefit;
+    candidates?: MonthEndMethod["candidates"];
+  };
   excludedFactors: { factor: string; reason: string }[];
   excludedPositions: { instrument: string; marketValue: number; reason: string }[];
   warnings: EngineWarning[];
@@ -341,7 +373,16 @@ function withDefaults(m: MonthEndMethod = {}): PreparedRun["method"] {
     historyDays: m.historyDays ?? 60,
     backtestDays: m.backtestDays ?? 250,
     startupDays: m.startupDays ?? 30,
+    volatility: m.volatility,
+    correlation: m.volatility ? resolveCorrelation(m.correlation, m.lambda ?? 0.94) : undefined,
+    backtestRefit: m.backtestRefit ?? (m.volatility ? { mode: "rolling", everyDays: 21 } : { mode: "full-sample" }),
+    candidates: m.candidates,
   } as PreparedRun["method"];
+  if (!m.volatility && m.correlation) throw new RangeError("runMonthEnd: a correlation estimator applies with per-factor volatility processes (method.volatility)");
+  if (m.volatility && !m.volatility.default) throw new RangeError("runMonthEnd: method.volatility needs a default process");
+  const refit = method.backtestRefit;
+  if (refit.mode === "rolling" ? !(Number.isInteger(refit.everyDays) && refit.everyDays >= 1) : refit.mode !== "full-sample") throw new RangeError('runMonthEnd: backtestRefit is { mode: "rolling", everyDays: a whole number >= 1 } or { mode: "full-sample" }');
+  if (refit.mode === "rolling" && !m.volatility && method.covariance === "garch-ccc") throw new RangeError("runMonthEnd: rolling refits need per-factor volatility processes (method.volatility); the legacy garch-ccc covariance is fitted once on the whole sample");
   if (!method.methods.includes(method.primaryMethod)) method.methods = [...method.methods, method.primaryMethod];
   if (!["equal", "ewma", "garch-ccc"].includes(method.covariance)) throw new RangeError(`runMonthEnd: unknown covariance "${method.covariance}"`);
   if (!(method.lambda > 0 && method.lambda < 1)) throw new RangeError("runMonthEnd requires 0 < lambda < 1");
@@ -351,7 +392,7 @@ function withDefaults(m: MonthEndMethod = {}): PreparedRun["method"] {
     if (!(Number.isInteger(v) && v >= 2)) throw new RangeError(`runMonthEnd requires ${name} to be a whole number >= 2`);
   }
   if (!["sqrt", "term", "overlap"].includes(method.scaling)) throw new RangeError(`runMonthEnd: unknown scaling "${method.scaling}"`);
-  if (method.scaling === "term" && method.covariance !== "garch-ccc") throw new RangeError('runMonthEnd: scaling "term" needs the garch-ccc covariance');
+  if (method.scaling === "term" && method.covariance !== "garch-ccc" && !method.volatility) throw new RangeError('runMonthEnd: scaling "term" needs per-factor volatility processes (or the garch-ccc covariance)');
   if (method.distribution === "t" && !((method.nu ?? 0) > 2)) throw new RangeError("runMonthEnd requires nu > 2 for the t distribution");
   return method;
 }
@@ -359,8 +400,12 @@ function withDefaults(m: MonthEndMethod = {}): PreparedRun["method"] {
 function minimumDays(method: PreparedRun["method"]): number {
   let need = 2;
   for (const m of method.methods) {
-    if (m === "parametric") need = Math.max(need, method.covariance === "equal" ? method.covarianceWindow : method.covariance === "garch-ccc" ? 100 : method.startupDays);
-    else need = Math.max(need, method.historicalWindow);
+    if (m === "parametric") {
+      if (method.volatility) {
+        const c = method.correlation as CorrelationSpec;
+        need = Math.max(need, c.kind === "equal" ? c.window : c.kind === "ewma" ? (c.startupDays ?? 30) : 2);
+      } else need = Math.max(need, method.covariance === "equal" ? method.covarianceWindow : method.covariance === "garch-ccc" ? 100 : method.startupDays);
+    } else need = Math.max(need, method.historicalWindow);
   }
   return need;
 }
@@ -378,17 +423,46 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
     if (values.length !== T) throw new RangeError(`runMonthEnd requires aligned returns: factor "${id}" has ${values.length} values for ${T} dates`);
   }
   if (input.positions.length === 0) throw new RangeError("runMonthEnd requires at least one position");
-  const need = minimumDays(method);
+  const baseNeed = minimumDays(method);
+  // each factor's class: its positions' asset class, "fx" for an exchange-rate factor
+  const fxOf = input.fxFactorId ?? ((c: string, r: string) => `${c}${r}`);
+  const classes = new Map<string, string | null>();
+  for (const p of input.positions) {
+    const id = p.factor ?? p.instrument;
+    if (!classes.has(id)) classes.set(id, p.assetClass ?? null);
+  }
+  for (const p of input.positions) {
+    const c = p.currency ?? input.reportingCurrency;
+    if (c !== input.reportingCurrency) {
+      const fx = fxOf(c, input.reportingCurrency);
+      if (!classes.has(fx)) classes.set(fx, "fx");
+    }
+  }
+  const classOf = (id: string): string | null => classes.get(id) ?? null;
+  const specOf = new Map<string, FactorSpec>();
+  const factorSpec = (id: string): FactorSpec => {
+    let fs = specOf.get(id);
+    if (!fs) {
+      fs = resolveFactorSpecs([id], classOf, method.volatility as VolatilityChoice)[0];
+      specOf.set(id, fs);
+    }
+    return fs;
+  };
+  const needOf = (id: string): number => (method.volatility ? Math.max(baseNeed, neededReturns(factorSpec(id).spec)) : baseNeed);
   const runs = new Map<string, number>();
   const excludedFactors: { factor: string; reason: string }[] = [];
   const usable = (id: string): boolean => {
     const values = input.returns.factors[id];
     if (!values) return false;
     let run = runs.get(id);
+    const need = needOf(id);
     if (run === undefined) {
       run = trailingRun(values);
       runs.set(id, run);
-      if (run < need) excludedFactors.push({ factor: id, reason: run === 0 ? "no price history up to the last date" : `only ${run} days of returns up to the last date; the method needs ${need}` });
+      if (run < need) {
+        const why = method.volatility ? ` (${factorSpec(id).spec.kind === "ma" ? "its moving-average window" : "its volatility process"}${classOf(id) ? `, asset class ${classOf(id)}` : ""})` : "";
+        excludedFactors.push({ factor: id, reason: run === 0 ? "no price history up to the last date" : `only ${run} days of returns up to the last date; the method needs ${need}${why}` });
+      }
     }
     return run >= need;
   };
@@ -416,6 +490,8 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
   const returns = ex.factors.map((id) => Float64Array.from(Array.prototype.slice.call(input.returns.factors[id], T - L) as number[]));
   const k = ex.factors.length;
   onProgress?.("exposures", 1);
+
+  if (method.volatility) return preparePerFactor({ method, dates, factorIds: ex.factors, returns, exposures: ex.exposures, loadings: ex.loadings, positions: ex.positionIndex.map((j) => input.positions[j]), excludedFactors, excludedPositions: ex.excluded.map((e) => ({ instrument: e.instrument, marketValue: e.marketValue, reason: e.reason })), warnings, specs: ex.factors.map(factorSpec), onProgress });
 
   // per-factor volatility: GARCH(1,1) for garch-ccc, EWMA where filtering needs it
   let volatility: VolatilityModel | null = null;
@@ -500,7 +576,7 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
     const check = checkPsd(correlation);
     let repair: PsdRepair | null = null;
     if (check.status === "indefinite") {
-      repair = repairPsd(correlation, { keepUnitDiagonal: true });
+      repair = nearestCorrelationRepair(correlation);
       correlation = repair.matrix;
     }
     covariance = correlationToCovariance(correlation, volatility.current.map(Math.sqrt));
@@ -518,22 +594,134 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
     }
     psd = { matrix: "covariance", check, repair: repair && stripMatrix(repair) };
   }
+  psdWarnings(psd, warnings);
+  onProgress?.("covariance", 1);
+  const included = ex.positionIndex.map((j) => input.positions[j]);
+  return {
+    dates, factorIds: ex.factors, returns, exposures: ex.exposures, loadings: ex.loadings, positions: included, covariance, correlation, volatility, perFactor: null, psd, method,
+    excludedFactors,
+    excludedPositions: ex.excluded.map((e) => ({ instrument: e.instrument, marketValue: e.marketValue, reason: e.reason })),
+    warnings,
+  };
+}
+
+/** The warnings a PSD check and repair give, each sentence true of what was done. */
+function psdWarnings(psd: PreparedRun["psd"], warnings: EngineWarning[]): void {
   if (psd.repair) {
+    const how =
+      psd.matrix === "correlation"
+        ? "it was replaced by the nearest correlation matrix in the Frobenius norm (Higham 2002, alternating projections with Dykstra's correction)"
+        : "it was replaced by the nearest positive semi-definite matrix in the Frobenius norm (negative eigenvalues set to zero, Higham 1988)";
     warnings.push({
       code: "matrix-repaired",
-      message: `The ${psd.matrix} matrix was not positive semi-definite (${psd.repair.negativeEigenvalues} negative eigenvalue(s), smallest ${psd.repair.minEigenvalueBefore.toExponential(3)}); it was repaired to the nearest valid matrix, a change of ${psd.repair.frobeniusChange.toExponential(3)} in the Frobenius norm (${(psd.repair.relativeChange * 100).toFixed(4)} % relative, largest element change ${psd.repair.maxElementChange.toExponential(3)}).`,
+      message: `The ${psd.matrix} matrix was not positive semi-definite (${psd.repair.negativeEigenvalues} negative eigenvalue(s), smallest ${psd.repair.minEigenvalueBefore.toExponential(3)}); ${how}, a distance of ${psd.repair.frobeniusChange.toExponential(3)} in the Frobenius norm (${(psd.repair.relativeChange * 100).toFixed(4)} % relative, largest element change ${psd.repair.maxElementChange.toExponential(3)}).`,
     });
   }
   if (psd.check.status === "positive-semidefinite") {
     warnings.push({ code: "matrix-singular", message: `The ${psd.matrix} matrix is positive semi-definite but singular (${psd.check.zeroPivots} zero pivot(s)): some factor combinations have no variance in the sample, typically when there are more factors than days.` });
   }
-  onProgress?.("covariance", 1);
-  const included = ex.positionIndex.map((j) => input.positions[j]);
+}
+
+/** The constant correlation of standardised residuals over [first, end), repaired if need be (a refit's R). */
+function cccAt(returns: readonly Float64Array[], paths: readonly Float64Array[], first: number, end: number): SymmetricMatrix {
+  const r = standardisedCorrelation(returns, paths, first, end);
+  return checkPsd(r).status === "indefinite" ? nearestCorrelation(r).matrix : r;
+}
+
+/** The nearest correlation matrix as a PsdRepair record (with the matrix). */
+function nearestCorrelationRepair(r: SymmetricMatrix): PsdRepair {
+  const near = nearestCorrelation(r);
+  let norm = 0;
+  let maxElement = 0;
+  for (let i = 0; i < r.values.length; i++) {
+    norm += r.values[i] * r.values[i];
+    maxElement = Math.max(maxElement, Math.abs(near.matrix.values[i] - r.values[i]));
+  }
   return {
-    dates, factorIds: ex.factors, returns, exposures: ex.exposures, loadings: ex.loadings, positions: included, covariance, correlation, volatility, psd, method,
-    excludedFactors,
-    excludedPositions: ex.excluded.map((e) => ({ instrument: e.instrument, marketValue: e.marketValue, reason: e.reason })),
-    warnings,
+    matrix: near.matrix,
+    repaired: near.negativeEigenvaluesBefore > 0,
+    minEigenvalueBefore: near.minEigenvalueBefore,
+    negativeEigenvalues: near.negativeEigenvaluesBefore,
+    frobeniusChange: near.frobeniusDistance,
+    relativeChange: norm > 0 ? near.frobeniusDistance / Math.sqrt(norm) : 0,
+    maxElementChange: maxElement,
+    method: `${near.method}; ${near.iterations} iteration(s)${near.converged ? "" : ", stopped at the iteration limit"}`,
+  };
+}
+
+interface PerFactorInput {
+  method: PreparedRun["method"];
+  dates: string[];
+  factorIds: string[];
+  returns: Float64Array[];
+  exposures: Float64Array;
+  loadings: PositionLoadings[];
+  positions: Position[];
+  excludedFactors: PreparedRun["excludedFactors"];
+  excludedPositions: PreparedRun["excludedPositions"];
+  warnings: EngineWarning[];
+  specs: FactorSpec[];
+  onProgress?: ProgressCallback;
+}
+
+/** Prepare a run with per-factor processes: today's fits, R by the chosen estimator (repaired if need be), D·R·D. */
+function preparePerFactor(x: PerFactorInput): PreparedRun {
+  const { method, returns, specs, warnings } = x;
+  const k = returns.length;
+  const L = x.dates.length;
+  const H = method.horizonDays;
+  const fits: ProcessFit[] = [];
+  for (let i = 0; i < k; i++) {
+    fits.push(fitFactor(returns[i], specs[i]));
+    if (i % 25 === 0) x.onProgress?.("volatility", i / k);
+  }
+  // warnings of the fits, grouped by code
+  const byCode = new Map<string, string[]>();
+  const fellBack: string[] = [];
+  fits.forEach((f, i) => {
+    if (f.fallback) fellBack.push(`${x.factorIds[i]} (${f.fallback.reason})`);
+    for (const w of f.fit.warnings) {
+      if (w.code === "fallback-used" || (f.fallback && (w.code === "near-integrated" || w.code === "not-converged"))) continue;
+      const list = byCode.get(w.code) ?? [];
+      list.push(x.factorIds[i]);
+      byCode.set(w.code, list);
+    }
+  });
+  if (fellBack.length) warnings.push({ code: "volatility-fallback", message: `The chosen process failed or was near-integrated for ${fellBack.length} factor(s); its stated EWMA fallback is used for them: ${fellBack.slice(0, 10).join(", ")}${fellBack.length > 10 ? ", …" : ""}.` });
+  for (const [code, list] of byCode) warnings.push({ code: `volatility-${code}`, message: `Volatility fit warning "${code}" for ${list.length} factor(s): ${list.slice(0, 10).join(", ")}${list.length > 10 ? ", …" : ""}.` });
+  x.onProgress?.("volatility", 1);
+
+  const firstDefined = firstDefinedDay(specs);
+  const term = method.scaling === "term";
+  const variance = fits.map((f) => f.variance);
+  const current = Float64Array.from(fits, (f) => f.nextVariance);
+  const horizonVariance = Float64Array.from(fits, (f, i) => factorHorizonVariance(f, f.nextVariance, returns[i], L, H, term));
+  const corrSpec = method.correlation as CorrelationSpec;
+  if (corrSpec.kind === "ccc" && L - firstDefined < 2) throw new RangeError(`runMonthEnd: the constant correlation needs at least 2 days after the longest moving-average window (${firstDefined} days)`);
+  const raw = correlationOf(corrSpec, returns, variance, L, firstDefined);
+  const check = checkPsd(raw);
+  const repair = check.status === "indefinite" ? nearestCorrelationRepair(raw) : null;
+  const correlation = repair ? repair.matrix : raw;
+  const covariance = correlationToCovariance(correlation, current.map(Math.sqrt));
+  const psd: PreparedRun["psd"] = { matrix: "correlation", check, repair: repair && stripMatrix(repair) };
+  psdWarnings(psd, warnings);
+  x.onProgress?.("covariance", 1);
+  const desc = describeCorrelation(corrSpec, L);
+  const correlationInfo: ResolvedCorrelation = {
+    spec: corrSpec, label: desc.label, statement: desc.statement, check: check.status,
+    repair: repair && { method: repair.method, frobeniusDistance: repair.frobeniusChange, iterations: 0, negativeEigenvaluesBefore: repair.negativeEigenvalues, minEigenvalueBefore: repair.minEigenvalueBefore },
+  };
+  const volatility: VolatilityModel = {
+    variance,
+    current,
+    params: fits.map((f) => ({ omega: f.params.omega ?? 0, alpha: f.params.alpha ?? 0, beta: f.params.beta ?? 0 })),
+    labels: fits.map((f) => f.label),
+    paramsOut: fits.map((f) => ({ ...f.params })),
+  };
+  return {
+    dates: x.dates, factorIds: x.factorIds, returns, exposures: x.exposures, loadings: x.loadings, positions: x.positions, covariance, correlation, volatility,
+    perFactor: { specs, fits, correlationSpec: corrSpec, correlationInfo, firstDefined, term, horizonVariance },
+    psd, method, excludedFactors: x.excludedFactors, excludedPositions: x.excludedPositions, warnings,
   };
 }
 
@@ -572,9 +760,11 @@ function varCore(input: MonthEndInput, onProgress?: ProgressCallback) {
     for (let m = 0; m < l.factorIndices.length; m++) v[l.factorIndices[m]] += l.amounts[m];
   });
 
-  // ten-day covariance from the GARCH term structure, when chosen
+  // horizon covariance from the term structures, when chosen
   let covariance10: SymmetricMatrix | null = null;
-  if (method.scaling === "term" && volatility && correlation) {
+  if (prepared.perFactor) {
+    if (prepared.perFactor.term) covariance10 = correlationToCovariance(correlation as SymmetricMatrix, prepared.perFactor.horizonVariance.map(Math.sqrt));
+  } else if (method.scaling === "term" && volatility && correlation) {
     const vols10 = new Float64Array(k);
     for (let i = 0; i < k; i++) vols10[i] = Math.sqrt(garchHorizonVariance(volatility.current[i], volatility.params[i], H));
     covariance10 = correlationToCovariance(correlation, vols10);
@@ -589,6 +779,9 @@ function varCore(input: MonthEndInput, onProgress?: ProgressCallback) {
     if (method.scaling === "overlap") return m === "parametric" ? "sqrt" : "overlap";
     return "sqrt";
   };
+  if (prepared.perFactor && method.methods.includes("filtered") && L - W < prepared.perFactor.firstDefined) {
+    throw new RangeError(`runMonthEnd: filtered historical simulation over ${W} days needs each factor's variance on every day of the window; the longest moving-average window (${prepared.perFactor.firstDefined} days) leaves only ${L - prepared.perFactor.firstDefined}`);
+  }
   const filteredScenarios = (at: number, start: number, end: number): Scenarios => {
     const vm = volatility as VolatilityModel;
     const x = returns.map((r, i) => {
@@ -679,10 +872,10 @@ function varCore(input: MonthEndInput, onProgress?: ProgressCallback) {
         diversificationBenefit10d: standAloneSum10 - ten.var,
       };
     });
-    methodFigures.push({ method: m, portfolioVolatility: ev.sigma, scaling: scalingFor(m), scalingStatement: describeScaling(scalingFor(m), H), scenarios: ev.scenarios, byConfidence });
+    methodFigures.push({ method: m, portfolioVolatility: ev.sigma, scaling: scalingFor(m), scalingStatement: describeScaling(scalingFor(m), H, !!prepared.perFactor), scenarios: ev.scenarios, byConfidence });
     onProgress?.("var", (mi + 1) / method.methods.length);
   });
-  return { prepared, dates, factorIds, returns, exposures, loadings, positions, covariance, correlation, volatility, method, warnings, L, k, H, profile, confidences, paramOptions, pnl, W, scalingFor, windowScenarios, overlapScenarios, methodFigures };
+  return { prepared, dates, factorIds, returns, exposures, loadings, positions, covariance, covariance10, correlation, volatility, method, warnings, L, k, H, profile, confidences, paramOptions, pnl, W, scalingFor, windowScenarios, overlapScenarios, methodFigures };
 }
 
 /** The VaR and ES figures of a book without the stressed VaR, history, backtest and capital (the `var` command). */
@@ -733,7 +926,7 @@ export function portfolioVar(input: MonthEndInput): PortfolioVarResult {
  */
 export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback): MonthEndResult {
   const core = varCore(input, onProgress);
-  const { prepared, dates, factorIds, returns, exposures, loadings, correlation, volatility, method, warnings, L, k, H, profile, confidences, paramOptions, pnl, W, scalingFor, windowScenarios, methodFigures } = core;
+  const { prepared, dates, factorIds, returns, exposures, loadings, covariance, covariance10, correlation, volatility, method, warnings, L, k, H, profile, confidences, paramOptions, pnl, W, scalingFor, windowScenarios, methodFigures } = core;
   void loadings;
   // stressed VaR: the primary method on a stress window, chosen or searched
   const primary = method.primaryMethod;
@@ -790,15 +983,25 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
     byConfidence: stressedByConfidence,
     statement:
       primary === "parametric"
-        ? `Stressed VaR: parametric VaR of today's book with the equal-weight, zero-mean covariance of the stress window (a recursive or GARCH estimate over one window would depend on its start-up); ten days by ${scalingFor(primary) === "term" ? "square-root-of-time (the term structure does not apply to a window estimate)" : "square-root-of-time"}.`
-        : `Stressed VaR: historical simulation of today's book over the stress window's returns, unfiltered (filtering would rescale the stress away); ten days by ${scalingFor(primary) === "overlap" ? "overlapping ten-day returns" : "square-root-of-time"}.`,
+        ? `Stressed VaR: parametric VaR of today's book with the equal-weight, zero-mean covariance of the stress window (a recursive or GARCH estimate over one window would depend on its start-up); ${H} days by ${scalingFor(primary) === "term" ? "square-root-of-time (the term structure does not apply to a window estimate)" : "square-root-of-time"}.`
+        : `Stressed VaR: historical simulation of today's book over the stress window's returns, unfiltered (filtering would rescale the stress away); ${H} days by ${scalingFor(primary) === "overlap" ? `overlapping ${H}-day returns` : "square-root-of-time"}.`,
   };
   onProgress?.("stressed", 1);
 
   // VaR history: forecasts f_s for day s made with data up to s − 1, for s = from..L (s = L is today's figure)
   const B = method.backtestDays;
   const Hd = method.historyDays;
-  const needBefore = primary === "parametric" ? (method.covariance === "equal" ? Math.min(method.covarianceWindow, L) : 1) : W;
+  const pfState = prepared.perFactor;
+  let needBefore = primary === "parametric" ? (method.covariance === "equal" ? Math.min(method.covarianceWindow, L) : 1) : W;
+  if (pfState && primary !== "historical") {
+    const c = pfState.correlationSpec;
+    // the correlation's own window, the variance paths' start, and (rolling) the earliest refit's data
+    needBefore = primary === "parametric" ? (c.kind === "equal" ? c.window : c.kind === "ccc" ? pfState.firstDefined + 2 : 1) : W + pfState.firstDefined;
+    if (method.backtestRefit.mode === "rolling") {
+      const most = Math.max(...pfState.specs.map((f) => neededReturns(f.spec)));
+      needBefore = Math.max(needBefore, most + method.backtestRefit.everyDays - 1);
+    }
+  }
   let span = Math.max(B, Hd - 1);
   if (L - span < needBefore) {
     span = Math.max(0, L - needBefore);
@@ -813,10 +1016,60 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
   const qEs = confidences.map((c) => esMultiplier(c, paramOptions));
   const sqrtH = Math.sqrt(H);
   const scalingPrimary = scalingFor(primary);
+  const blocks = pfState && primary !== "historical" ? refitBlocks(L, from, method.backtestRefit) : [];
   if (primary === "parametric") {
     const sigma1 = new Float64Array(count);
     const sigma10 = new Float64Array(count);
-    if (method.covariance === "equal") {
+    if (pfState) {
+      // D from each factor's process as fitted on the stated schedule; R by the chosen estimator, data up to s − 1
+      const term = pfState.term;
+      const hist = Array.from({ length: k }, () => new Float64Array(count));
+      const hist10 = term ? Array.from({ length: k }, () => new Float64Array(count)) : null;
+      const corr = pfState.correlationSpec;
+      const w = new Float64Array(k);
+      const w10 = new Float64Array(k);
+      const scratch = new Float64Array(k);
+      let done = 0;
+      forEachBlock(returns, pfState.specs, pfState.fits, blocks, dates, (block, { fits, paths }) => {
+        let R: SymmetricMatrix | null = null;
+        if (corr.kind === "ccc") {
+          R = block.tau === L || method.backtestRefit.mode === "full-sample" ? (correlation as SymmetricMatrix) : cccAt(returns, paths, pfState.firstDefined, block.tau);
+        }
+        for (let s = block.start; s < block.end; s++) {
+          if (s >= L) continue;
+          const n = s - from;
+          for (let i = 0; i < k; i++) {
+            const h = paths[i][s];
+            hist[i][n] = h;
+            if (hist10) hist10[i][n] = factorHorizonVariance(fits[i], h, returns[i], s, H, true);
+          }
+          if (R) {
+            for (let i = 0; i < k; i++) {
+              w[i] = exposures[i] * Math.sqrt(hist[i][n]);
+              if (hist10) w10[i] = exposures[i] * Math.sqrt(hist10[i][n]);
+            }
+            sigma1[n] = Math.sqrt(Math.max(0, matrixForm(R, w)));
+            if (hist10) sigma10[n] = Math.sqrt(Math.max(0, matrixForm(R, w10)));
+          }
+        }
+        done += block.end - block.start;
+        onProgress?.("history", Math.min(1, done / count));
+      });
+      if (corr.kind !== "ccc") {
+        forEachDailyCovariance(corr, returns, from, L, (s, cov) => {
+          const n = s - from;
+          for (let i = 0; i < k; i++) w[i] = exposures[i] * Math.sqrt(hist[i][n]);
+          sigma1[n] = Math.sqrt(Math.max(0, correlationForm(cov, w, k, scratch)));
+          if (hist10) {
+            for (let i = 0; i < k; i++) w10[i] = exposures[i] * Math.sqrt(hist10[i][n]);
+            sigma10[n] = Math.sqrt(Math.max(0, correlationForm(cov, w10, k, scratch)));
+          }
+        });
+      }
+      // today's point: exactly today's figures
+      sigma1[L - from] = evaluateParametric(covariance, exposures, 0.99, paramOptions).sigma;
+      if (covariance10) sigma10[L - from] = evaluateParametric(covariance10, exposures, 0.99, paramOptions).sigma;
+    } else if (method.covariance === "equal") {
       const C = Math.min(method.covarianceWindow, L);
       for (let s = from; s <= L; s++) {
         let ss = 0;
@@ -860,7 +1113,38 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
     const scratch10 = new Float64Array(W);
     const vm = volatility;
     const p = new Float64Array(W);
-    for (let s = from; s <= L; s++) {
+    const tails = (n: number): void => {
+      const sorted = sortedLosses(p, 0, W, scratch);
+      let sorted10: Float64Array | null = null;
+      if (scalingPrimary === "overlap") sorted10 = sortedLosses(overlappingSums(p, H), 0, W - H + 1, scratch10);
+      for (let c = 0; c < cCount; c++) {
+        const t1 = tailOfSorted(sorted, confidences[c]);
+        var1[c][n] = t1.var; es1[c][n] = t1.es;
+        if (sorted10) {
+          const t10 = tailOfSorted(sorted10, confidences[c]);
+          var10[c][n] = t10.var; es10[c][n] = t10.es;
+        } else { var10[c][n] = t1.var * sqrtH; es10[c][n] = t1.es * sqrtH; }
+      }
+    };
+    if (pfState && primary === "filtered") {
+      // each factor rescaled by its own process, as fitted on the stated schedule (today's point: today's fits)
+      let done = 0;
+      forEachBlock(returns, pfState.specs, pfState.fits, blocks, dates, (block, { paths }) => {
+        for (let s = block.start; s < block.end; s++) {
+          p.fill(0);
+          for (let i = 0; i < k; i++) {
+            const r = returns[i];
+            const hv = s >= L ? (vm as VolatilityModel).variance[i] : paths[i];
+            const now = s >= L ? (vm as VolatilityModel).current[i] : paths[i][s];
+            const e = exposures[i];
+            for (let u = 0; u < W; u++) p[u] += e * r[s - W + u] * Math.sqrt(now / hv[s - W + u]);
+          }
+          tails(s - from);
+        }
+        done += block.end - block.start;
+        onProgress?.("history", Math.min(1, done / count));
+      });
+    } else for (let s = from; s <= L; s++) {
       const n = s - from;
       if (primary === "historical") for (let u = 0; u < W; u++) p[u] = pnl[s - W + u];
       else {
@@ -873,17 +1157,7 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
           for (let u = 0; u < W; u++) p[u] += e * r[s - W + u] * Math.sqrt(now / hv[s - W + u]);
         }
       }
-      const sorted = sortedLosses(p, 0, W, scratch);
-      let sorted10: Float64Array | null = null;
-      if (scalingPrimary === "overlap") sorted10 = sortedLosses(overlappingSums(p, H), 0, W - H + 1, scratch10);
-      for (let c = 0; c < cCount; c++) {
-        const t1 = tailOfSorted(sorted, confidences[c]);
-        var1[c][n] = t1.var; es1[c][n] = t1.es;
-        if (sorted10) {
-          const t10 = tailOfSorted(sorted10, confidences[c]);
-          var10[c][n] = t10.var; es10[c][n] = t10.es;
-        } else { var10[c][n] = t1.var * sqrtH; es10[c][n] = t1.es * sqrtH; }
-      }
+      tails(n);
       if (n % 25 === 0) onProgress?.("history", n / count);
     }
   }
@@ -929,6 +1203,44 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
   };
 
 
+  // the backtest day by day, the resolved model and the correlation, stored with the run
+  const backtestSeries: StoredBacktestSeries = { confidence: profile.confidence, method: primary, dates: [], pnl: [], var: [], exception: [] };
+  for (let s = btFrom; s < L; s++) {
+    backtestSeries.dates.push(dates[s]);
+    backtestSeries.pnl.push(pnl[s]);
+    backtestSeries.var.push(var1[ci][s - from]);
+    backtestSeries.exception.push(-pnl[s] > var1[ci][s - from]);
+  }
+  const model = resolveModel(prepared, scalingFor, L, H);
+  limitations.push(...modelLimitations(model, prepared));
+
+  // candidate-method evidence on the book, when asked for
+  let candidates: CandidateEvidence | undefined;
+  const ask = method.candidates;
+  if (ask && (ask.include === "standard" || (ask.extra?.length ?? 0) > 0)) {
+    const list = [...(ask.include === "standard" ? standardCandidates(ask.archOrder ?? 5) : []), ...(ask.extra ?? [])];
+    const ctx: CandidateContext = {
+      dates, pnl, backtestFrom: btFrom, refit: method.backtestRefit.mode === "full-sample" && !prepared.perFactor ? { mode: "rolling", everyDays: 21 } : method.backtestRefit,
+      confidence: profile.confidence, profile, stressedVar: profile.includeStressed ? sVar : null, term: method.scaling === "term",
+    };
+    const ownRow = rowFromSeries({ id: "this-method", label: `This run's method: ${model.statements[0] ?? primary}`, basis: "method" }, ctx, btVar, capVars);
+    const given = list.filter((c) => c.basis === "method").map((c) => {
+      try {
+        const other = runMonthEnd({ ...input, method: methodOfCandidate(input.method, c) });
+        const ci2 = other.confidences.indexOf(profile.confidence);
+        const pts = other.varHistory.points;
+        const cap2 = pts.slice(-profile.averagingDays).map((p) => (profile.horizonDays === 1 ? p.var1d[ci2] : profile.horizonDays === other.horizonDays ? p.var10d[ci2] : p.var1d[ci2] * Math.sqrt(profile.horizonDays)));
+        const series = other.backtestSeries as StoredBacktestSeries;
+        if (series.dates.length !== btVar.length || series.dates[0] !== dates[btFrom]) throw new RangeError(`its backtest covers ${series.dates.length} days from ${series.dates[0]}, not the run's ${btVar.length} from ${dates[btFrom]}`);
+        return rowFromSeries(c, ctx, series.var, cap2);
+      } catch (error) {
+        return failedRow(c, (error as Error).message);
+      }
+    });
+    candidates = candidateRows(ctx, list, [ownRow, ...given]);
+    onProgress?.("candidates", 1);
+  }
+
   return {
     engineVersion: ENGINE_VERSION,
     asOf: dates[L - 1],
@@ -951,10 +1263,168 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
     choices,
     warnings,
     limitations,
+    model,
+    correlation: storedCorrelation(prepared),
+    backtestSeries,
+    ...(candidates ? { candidates } : {}),
   };
 }
 
 type Scaler = (m: VarMethod) => HorizonScaling;
+
+/** The correlation behind the parametric figures, as stored with a run. */
+export function storedCorrelation(prepared: PreparedRun): StoredCorrelation {
+  const m = prepared.correlation ?? covarianceToCorrelation(prepared.covariance).correlation;
+  const method = prepared.method;
+  const L = prepared.dates.length;
+  const basis = prepared.perFactor
+    ? describeCorrelation(prepared.perFactor.correlationSpec, L).label
+    : method.covariance === "garch-ccc"
+      ? "Constant correlation of the GARCH(1,1)-standardised returns"
+      : method.covariance === "ewma"
+        ? `EWMA covariance (λ = ${method.lambda}, zero mean) scaled to correlations`
+        : `Equal-weight covariance over ${Math.min(method.covarianceWindow, L)} days (zero mean) scaled to correlations`;
+  return { factors: [...prepared.factorIds], matrix: matrixToRows(m), basis };
+}
+
+/** The factor records of the legacy single-covariance paths. */
+function legacyFactors(prepared: PreparedRun, H: number, term: boolean): ResolvedFactorModel[] {
+  const method = prepared.method;
+  const L = prepared.dates.length;
+  const k = prepared.factorIds.length;
+  const cov = prepared.covariance;
+  const vm = prepared.volatility;
+  return prepared.factorIds.map((factor, i) => {
+    let spec: ResolvedFactorModel["spec"];
+    let label: string;
+    let params: Record<string, number>;
+    let variance = cov.values[i * k + i];
+    let process: ResolvedFactorModel["process"];
+    let fallback: ResolvedFactorModel["fallback"] = null;
+    let horizon = H * variance;
+    if (method.covariance === "garch-ccc" && vm) {
+      spec = { kind: "garch", distribution: "normal", mean: "zero", targeting: false, fallback: "ewma", fallbackLambda: 0.94, init: "sample" };
+      variance = vm.current[i];
+      params = { ...vm.paramsOut[i] };
+      process = vm.labels[i].startsWith("garch") ? "garch" : "ewma";
+      label = process === "garch" ? specLabel(spec, params) : `EWMA, λ = ${params.lambda ?? method.lambda}, zero mean (${vm.labels[i].includes("failed") ? "GARCH(1,1) could not be fitted" : "fallback from GARCH(1,1)"})`;
+      if (process === "ewma") fallback = { from: "garch", reason: vm.labels[i].includes("failed") ? "not-converged" : "near-integrated", label: specLabel(spec) };
+      horizon = term ? garchHorizonVariance(variance, vm.params[i], H) : H * variance;
+    } else if (method.covariance === "equal") {
+      const w = Math.min(method.covarianceWindow, L);
+      spec = { kind: "ma", window: w, divisor: "m", mean: "zero" };
+      process = "ma";
+      label = specLabel(spec);
+      params = { window: w };
+    } else {
+      spec = { kind: "ewma", lambda: method.lambda, fit: false, init: { firstReturns: Math.min(method.startupDays, L) } };
+      process = "ewma";
+      label = specLabel(spec);
+      params = { lambda: method.lambda };
+    }
+    return {
+      factor, assetClass: null, source: "legacy", spec, process, label, params, parameterNames: Object.keys(params),
+      startUp: spec.kind === "ma" ? specStartUp(spec) : describeInit((spec as { init: InitRule }).init),
+      fallback, variance, horizonVariance: horizon, longRunVariance: null, logLikelihood: null, warnings: [], limitations: [],
+    };
+  });
+}
+
+/** Group factors by label for a sentence: "GARCH(1,1), … for 3 factors (equity: A, B, C)". */
+function volatilitySentence(factors: readonly ResolvedFactorModel[]): string {
+  const groups = new Map<string, ResolvedFactorModel[]>();
+  for (const f of factors) {
+    const key = `${specLabel(f.spec)}|${f.startUp}`;
+    const list = groups.get(key) ?? [];
+    list.push(f);
+    groups.set(key, list);
+  }
+  const parts = [...groups.values()].map((list) => {
+    const classes = [...new Set(list.map((f) => f.assetClass ?? "unclassified"))];
+    const names = list.slice(0, 6).map((f) => f.factor).join(", ") + (list.length > 6 ? ", …" : "");
+    return `${specLabel(list[0].spec)} (start-up: ${list[0].startUp}) for ${list.length} factor(s) (${classes.join(", ")}: ${names})`;
+  });
+  const fell = factors.filter((f) => f.fallback);
+  const fallback = fell.length ? ` The stated EWMA fallback was used for ${fell.length} factor(s): ${fell.slice(0, 6).map((f) => `${f.factor} (${f.fallback!.reason})`).join(", ")}${fell.length > 6 ? ", …" : ""}.` : "";
+  return `Volatility: ${parts.join("; ")}.${fallback}`;
+}
+
+/** The resolved model configuration of a prepared run: the one source for sentences about the method. */
+export function resolveModel(prepared: PreparedRun, scalingFor: Scaler, L: number, H: number): ResolvedModel {
+  const method = prepared.method;
+  const pf = prepared.perFactor;
+  const term = method.scaling === "term";
+  const factors = pf ? pf.specs.map((fs, i) => resolvedFactor(fs, pf.fits[i], pf.horizonVariance[i])) : legacyFactors(prepared, H, term);
+  let correlation: ResolvedCorrelation;
+  if (pf) correlation = pf.correlationInfo;
+  else {
+    const repair = prepared.psd.repair;
+    const label = storedCorrelation(prepared).basis;
+    correlation = {
+      spec: method.covariance === "garch-ccc" ? { kind: "ccc" } : null,
+      label,
+      statement:
+        method.covariance === "garch-ccc"
+          ? "Correlation: constant correlation of the GARCH(1,1)-standardised returns over the whole sample."
+          : `Covariance: one ${method.covariance === "ewma" ? `EWMA covariance of the factor returns (λ = ${method.lambda}, zero mean, started from the equal-weight covariance of the first ${Math.min(method.startupDays, L)} days)` : `equal-weight covariance of the factor returns over the last ${Math.min(method.covarianceWindow, L)} days (zero mean)`}; each factor's volatility and the correlations come from the same matrix.`,
+      check: prepared.psd.check.status,
+      repair: repair ? { method: repair.method, frobeniusDistance: repair.frobeniusChange, iterations: 0, negativeEigenvaluesBefore: repair.negativeEigenvalues, minEigenvalueBefore: repair.minEigenvalueBefore } : null,
+    };
+  }
+  const scalings = method.methods.map((m) => scalingFor(m));
+  const horizonStatement =
+    H === 1
+      ? "One-day figures only: no horizon scaling."
+      : term
+        ? `${H}-day parametric figures: each factor's own variance forecast summed over the ${H} days (GARCH(1,1) and ARCH forecasts revert towards their long-run level; EWMA and moving-average forecasts are flat), combined with the correlation; historical figures use square-root-of-time.`
+        : method.scaling === "overlap"
+          ? `${H}-day figures: overlapping ${H}-day P&L sums for historical simulation; square-root-of-time (√${H} × one-day) for parametric VaR.`
+          : `${H}-day figures: square-root-of-time, √${H} × the one-day figure.`;
+  let backtest: ResolvedModel["backtest"];
+  if (pf) {
+    const d = describeRefit(method.backtestRefit);
+    const corrNote =
+      pf.correlationSpec.kind === "ccc"
+        ? method.backtestRefit.mode === "rolling" ? " The constant correlation is re-estimated at each refit from that fit's standardised residuals." : " The constant correlation is the whole-sample estimate."
+        : " The correlation on each day uses the returns up to the day before.";
+    backtest = { refit: method.backtestRefit, statement: d.statement + corrNote, limitation: d.limitation };
+  } else if (method.covariance === "garch-ccc") {
+    backtest = { refit: { mode: "full-sample" }, ...describeRefit({ mode: "full-sample" }) };
+  } else {
+    backtest = { refit: method.backtestRefit, statement: `Backtest and VaR history: out of sample. The ${method.covariance === "ewma" ? `EWMA recursion (λ = ${method.lambda}, fixed)` : "equal-weight window"} uses only data up to the day before; nothing is estimated from the tested days.`, limitation: null };
+  }
+  const corrSentence = correlation.statement + (correlation.repair ? ` It was not positive semi-definite and was replaced by the nearest correlation matrix (Higham 2002), a Frobenius distance of ${correlation.repair.frobeniusDistance.toExponential(3)}.` : "");
+  const statements = [pf || method.covariance === "garch-ccc" ? volatilitySentence(factors) : corrSentence, ...(pf || method.covariance === "garch-ccc" ? [corrSentence] : []), horizonStatement, backtest.statement];
+  return {
+    covariance: pf ? "per-factor" : method.covariance,
+    factors,
+    correlation,
+    horizon: { days: H, rule: term ? "term" : "sqrt", scaling: scalings, statement: horizonStatement },
+    backtest,
+    statements,
+  };
+}
+
+/** Limitations that follow from the resolved model (per-factor processes, correlation, refit rule). */
+function modelLimitations(model: ResolvedModel, prepared: PreparedRun): string[] {
+  if (!prepared.perFactor) return [];
+  const out: string[] = [];
+  const seen = new Set<string>();
+  for (const f of model.factors) {
+    for (const l of f.limitations) {
+      const key = `${f.process}: ${l}`;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      out.push(`${specLabel(f.spec)}: ${l}`);
+    }
+  }
+  const c = prepared.perFactor.correlationSpec;
+  if (c.kind === "ccc") out.push("Constant correlation: the correlation between factors is one number for the sample; correlations that rise in a crisis are not modelled.");
+  else if (c.kind === "ewma") out.push(`EWMA correlation: λ = ${c.lambda} is chosen, not estimated; it reacts to recent co-movements and forgets older ones.`);
+  else out.push(`Equal-weight correlation over ${c.window} days: a joint large move counts fully for ${c.window} days and then drops out abruptly.`);
+  if (model.backtest.limitation) out.push(model.backtest.limitation);
+  return out;
+}
 
 function describeLimitations(method: PreparedRun["method"], scalingFor: Scaler, L: number, W: number, H: number): string[] {
   const limitations = [
@@ -965,7 +1435,8 @@ function describeLimitations(method: PreparedRun["method"], scalingFor: Scaler, 
   ];
   if (method.methods.includes("parametric")) limitations.push(method.distribution === "normal" ? "Parametric VaR assumes normally distributed P&L and understates extreme losses when returns have fat tails." : `Parametric VaR assumes Student-t P&L with ν = ${method.nu}; skew is not captured.`);
   if (method.methods.some((m) => m !== "parametric")) limitations.push(`Historical simulation sees only the ${W} days of its window; at 99 % only about ${(W * 0.01).toFixed(1)} observations lie beyond the VaR.`);
-  if (method.methods.some((m) => scalingFor(m) === "sqrt") && H > 1) limitations.push(`Ten-day figures use square-root-of-time where stated: ${SQRT_STATEMENT}.`);
+  if (method.methods.some((m) => scalingFor(m) === "sqrt") && H > 1) limitations.push(`${H}-day figures use square-root-of-time where stated: ${SQRT_STATEMENT}.`);
+  if (method.volatility) return limitations; // the per-factor processes' own limitations follow from the resolved model
   if (method.covariance === "garch-ccc") limitations.push("GARCH-CCC: the correlation is constant; correlations that rise in a crisis are not modelled. GARCH parameters are fitted once on the whole sample and reused for the past days' forecasts, so the backtest is in-sample for those parameters.");
   if (method.covariance === "ewma") limitations.push(`EWMA: λ = ${method.lambda} is chosen, not estimated; the forecast is flat over the horizon (no mean reversion).`);
   if (method.covariance === "equal") limitations.push(`Equal weights over ${Math.min(method.covarianceWindow, L)} days: a large return moves VaR for exactly that long and then drops out abruptly.`);
@@ -974,6 +1445,22 @@ function describeLimitations(method: PreparedRun["method"], scalingFor: Scaler, 
 }
 
 function describeChoices(method: PreparedRun["method"], scalingFor: Scaler, L: number, W: number, H: number, confidences: number[]): MonthEndResult["choices"] {
+  if (method.volatility) {
+    const c = method.correlation as CorrelationSpec;
+    return {
+      methods: method.methods,
+      covariance: `D·R·D: each factor's volatility from its own process (as the method assigns by factor, asset class or default), correlation ${describeCorrelation(c, L).label}`,
+      filteringVolatility: method.methods.includes("filtered") ? "each factor's own process" : "not used",
+      historicalWindowDays: method.methods.some((m) => m !== "parametric") ? W : "not used",
+      quantileConvention: method.methods.some((m) => m !== "parametric") ? HISTORICAL_QUANTILE_CONVENTION : "not used",
+      confidences,
+      horizonDays: H,
+      scaling: method.methods.map((m) => `${m}: ${describeScaling(scalingFor(m), H, true)}`),
+      distribution: method.distribution === "t" ? `Student-t, ν = ${method.nu}, scaled to unit variance` : "normal",
+      backtestRefit: method.backtestRefit.mode === "rolling" ? `every ${method.backtestRefit.everyDays} business days, out of sample` : "fitted once on the whole sample (in-sample)",
+      exposureRule: "exposure to the price factor = delta-equivalent exposure where given, otherwise market value; foreign positions add their market value as exposure to the exchange-rate factor",
+    };
+  }
   return {
     methods: method.methods,
     covariance: method.covariance === "garch-ccc" ? "GARCH(1,1) per factor (zero mean, normal, sample start-up; EWMA fallback), constant correlation of standardised residuals" : method.covariance === "ewma" ? `EWMA, λ = ${method.lambda}, zero mean, started from the equal-weight covariance of the first ${Math.min(method.startupDays, L)} days` : `equal weights over the last ${Math.min(method.covarianceWindow, L)} days, zero mean`,

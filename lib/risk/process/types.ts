@@ -171,7 +171,7 @@ export interface CandidateRow {
   /** null when the candidate could not be computed (then `error` says why) */
   days: number | null;
   exceptions: number | null;
-  zone: "green" | "amber" | "red" | null;
+  zone: "green" | "yellow" | "red" | null;
   kupiecPValue: number | null;
   christoffersenIndependencePValue: number | null;
   christoffersenPValue: number | null;

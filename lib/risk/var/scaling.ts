@@ -7,9 +7,10 @@ import type { Garch11Params } from "../estimators/garch11-variance";
 export type HorizonScaling = "sqrt" | "term" | "overlap";
 
 /** Plain-words statement of a scaling choice. */
-export function describeScaling(scaling: HorizonScaling, horizonDays: number): string {
+export function describeScaling(scaling: HorizonScaling, horizonDays: number, perFactor = false): string {
   if (horizonDays === 1) return "one-day figures, no scaling";
   if (scaling === "sqrt") return `square-root-of-time: ${horizonDays}-day = √${horizonDays} × one-day (assumes independent, identically distributed returns)`;
+  if (scaling === "term" && perFactor) return `each factor's own variance term structure: ${horizonDays}-day variance = sum of its forecast daily variances for days 1..${horizonDays} (reverting for GARCH(1,1) and ARCH, flat for EWMA and the moving average), with the correlation`;
   if (scaling === "term") return `GARCH variance term structure: ${horizonDays}-day variance = sum of the forecast daily variances for days 1..${horizonDays}, per factor, with the constant correlation`;
   return `overlapping ${horizonDays}-day P&L: sums of ${horizonDays} consecutive daily P&L over the window (overlapping scenarios are not independent)`;
 }
