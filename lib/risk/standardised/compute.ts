@@ -6,7 +6,7 @@
 import { ENGINE_VERSION } from "../version";
 import { cashKind, derivativeUnderlying, residualYears, resetYears, type UnderlyingKind } from "./classify";
 import { commodityRisk, type CommodityHolding } from "./commodities";
-import { describeStandardisedMethod } from "./describe";
+import { describeStandardisedMethod, STANDARDISED_LIMITATIONS } from "./describe";
 import { equityRisk, equitySpecificRate, type EquityHolding } from "./equity";
 import { fxRisk, type FxExposure } from "./fx";
 import { bandIndex, interestRateGeneral, type LadderEntry } from "./interest-rate-general";
@@ -275,6 +275,7 @@ export function computeStandardised(positions: readonly StandardisedPosition[], 
       commodities: byCommodity.length > 0,
       deMinimis: { met: fxResult.deMinimis.met, applied: fxResult.deMinimis.applied },
     }),
+    limitations: [...STANDARDISED_LIMITATIONS],
     engineVersion: ENGINE_VERSION,
   };
 }

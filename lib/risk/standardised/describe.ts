@@ -104,3 +104,13 @@ export function describeStandardisedMethod(profile: StandardisedProfile, facts: 
   }
   return s;
 }
+
+/** What the standardised engine does not do, in plain words, for method statements and packs. */
+export const STANDARDISED_LIMITATIONS: readonly string[] = [
+  "Debt specific risk uses the three issuer categories of the 1996 rules (government, qualifying, other), not a ratings table.",
+  "Equity futures and forwards carry the full equity specific-risk rate; no reduced rate for diversified index contracts is applied.",
+  "The interest-rate legs of equity, commodity and currency futures and forwards are not put on the ladders.",
+  "Options: only bought options are covered (the simplified approach); written options are refused, and no delta-plus or scenario approach is offered.",
+  "Funds are treated as equities in the national market given for them.",
+  "In the duration method a zero-coupon leg's modified duration is taken as its time to maturity.",
+];

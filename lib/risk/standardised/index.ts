@@ -17,5 +17,5 @@ export type { CommodityHolding } from "./commodities";
 export { inTheMoneyAmount, hedgedOptionCharge, boughtOptionCharge, isCarveOutHedge } from "./options";
 export { derivativeUnderlying, cashKind, residualYears, resetYears } from "./classify";
 export type { UnderlyingKind } from "./classify";
-export { describeStandardisedMethod, pct } from "./describe";
+export { describeStandardisedMethod, pct, STANDARDISED_LIMITATIONS } from "./describe";
 export type { StatementFacts } from "./describe";

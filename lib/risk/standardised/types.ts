@@ -350,6 +350,8 @@ export interface StandardisedResult {
   warnings: StandardisedWarning[];
   /** the method statement: sentences built from the profile used and what the book held */
   statement: string[];
+  /** what the engine does not do (STANDARDISED_LIMITATIONS) */
+  limitations: string[];
   engineVersion: string;
 }
 

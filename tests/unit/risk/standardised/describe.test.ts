@@ -44,4 +44,8 @@ describe("the method statement says what was computed, with the profile's own ra
     expect(statement([swap])).toMatch(/Interest-rate derivatives as notional legs/);
     expect(statement([equity])).not.toMatch(/Bought options/);
   });
+  it("the result lists what the engine does not do", () => {
+    const r = computeStandardised([equity], { reportingCurrency: "EUR" });
+    expect(r.limitations.some((l) => /written options are refused/.test(l))).toBe(true);
+  });
 });
