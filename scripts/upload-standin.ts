@@ -66,15 +66,54 @@ async function readBody(req: http.IncomingMessage): Promise<string> {
   return Buffer.concat(chunks).toString("utf8");
 }
 
-const CORS = {
-  "access-control-allow-origin": "*",
-  "access-control-allow-methods": "GET, HEAD, PUT, POST, OPTIONS",
-  "access-control-allow-headers": "content-type, range, x-uploadthing-version, b3, traceparent, x-uploadthing-api-key",
-  "access-control-expose-headers": "x-ut-range-start",
-};
+/**
+ * CORS only for the app's own pages: the origins named in UPLOAD_STANDIN_APP_ORIGINS / BALLAST_URL and those of the
+ * callback addresses the app registers (it registers before any browser may send bytes). Never "*".
+ */
+const appOrigins = new Set<string>(
+  [...(process.env.UPLOAD_STANDIN_APP_ORIGINS ?? "").split(","), process.env.BALLAST_URL ?? ""]
+    .map((v) => v.trim())
+    .filter(Boolean)
+    .flatMap((v) => {
+      try {
+        return [new URL(v).origin];
+      } catch {
+        return [];
+      }
+    }),
+);
+
+/** Learn the app's origin from a callback address it registered with the API key. */
+function rememberAppOrigin(callbackUrl: string): void {
+  try {
+    appOrigins.add(new URL(callbackUrl).origin);
+  } catch {
+    // not an address: nothing to learn
+  }
+}
+
+/** The CORS headers for a request: the caller's origin echoed only when it is one of the app's. */
+function corsFor(req: http.IncomingMessage): Record<string, string> {
+  const origin = req.headers.origin;
+  if (!origin || !appOrigins.has(origin)) return { vary: "Origin" };
+  return {
+    "access-control-allow-origin": origin,
+    "access-control-allow-methods": "GET, HEAD, PUT, POST, OPTIONS",
+    "access-control-allow-headers": "content-type, range, x-uploadthing-version, b3, traceparent, x-uploadthing-api-key",
+    "access-control-expose-headers": "x-ut-range-start",
+    vary: "Origin",
+  };
+}
+
+/** Bytes a multipart body may carry beyond the file it declares (boundaries and part headers). */
+const MULTIPART_OVERHEAD = 16 * 1024;
+
+/** Each response's request, so that every answer carries that request's CORS headers. */
+const requestOf = new WeakMap<http.ServerResponse, http.IncomingMessage>();
 
 function json(res: http.ServerResponse, status: number, body: unknown) {
-  res.writeHead(status, { ...CORS, "content-type": "application/json" });
+  const req = requestOf.get(res);
+  res.writeHead(status, { ...(req ? corsFor(req) : {}), "content-type": "application/json" });
   res.end(JSON.stringify(body));
 }
 
@@ -128,10 +167,15 @@ export async function startUploadStandIn(options: { token: string; port?: number
 
   const server = http.createServer(async (req, res) => {
     try {
+      requestOf.set(res, req);
       const url = new URL(req.url ?? "/", base || "http://127.0.0.1");
       if (req.method === "OPTIONS") {
-        res.writeHead(204, CORS);
+        res.writeHead(204, corsFor(req));
         return res.end();
+      }
+      // A browser on another site gets no CORS headers; its writes are refused outright.
+      if (req.headers.origin && !appOrigins.has(req.headers.origin) && req.method !== "GET" && req.method !== "HEAD") {
+        return json(res, 403, { error: "this upload service answers only Ballast's own pages" });
       }
 
       if (req.method === "POST" && (url.pathname === "/route-metadata" || url.pathname.startsWith("/v6/") || url.pathname === "/callback-result")) {
@@ -146,8 +190,10 @@ export async function startUploadStandIn(options: { token: string; port?: number
           isDev: Boolean(body.isDev),
           callbackUrl: String(body.callbackUrl),
           callbackSlug: String(body.callbackSlug),
+          // (the registration is authenticated by the API key: its callback names the app's origin)
           awaitServerData: body.awaitServerData !== false,
         };
+        rememberAppOrigin(reg.callbackUrl);
         for (const fileKey of body.fileKeys ?? []) registrations.set(String(fileKey), reg);
         if (reg.isDev) {
           reg.devStream = res;
@@ -190,7 +236,7 @@ export async function startUploadStandIn(options: { token: string; port?: number
         const key = url.pathname.slice(3);
         if (!safeKey(key) || !existsSync(sidecar(key))) return json(res, 404, { error: "not found" });
         const meta = JSON.parse(readFileSync(sidecar(key), "utf8")) as StoredFile;
-        res.writeHead(200, { ...CORS, "content-type": meta.type || "application/octet-stream", "content-length": meta.size });
+        res.writeHead(200, { ...corsFor(req), "content-type": meta.type || "application/octet-stream", "content-length": meta.size });
         return req.method === "HEAD" ? res.end() : res.end(readFileSync(blob(key)));
       }
 
@@ -203,18 +249,40 @@ export async function startUploadStandIn(options: { token: string; port?: number
         if (at < 0 || !sameSignature(sign(raw.slice(0, at), apiKey), given)) return json(res, 403, { error: "invalid signature" });
         if (Number(url.searchParams.get("expires")) < Date.now()) return json(res, 403, { error: "upload URL expired" });
         if (req.method === "HEAD") {
-          res.writeHead(200, { ...CORS, "x-ut-range-start": "0" });
+          res.writeHead(200, { ...corsFor(req), "x-ut-range-start": "0" });
           return res.end();
         }
+        // The signed URL states the file's size; more bytes than that are refused, counted as they arrive.
+        const declared = Number(url.searchParams.get("x-ut-file-size"));
+        if (!Number.isSafeInteger(declared) || declared < 0) return json(res, 400, { error: "the upload URL does not state the file's size" });
+        const limit = declared + MULTIPART_OVERHEAD;
+        if (Number(req.headers["content-length"] ?? 0) > limit) return json(res, 413, { error: `the file is larger than the ${declared} bytes declared` });
+        let received = 0;
+        const capped = Readable.from(
+          (async function* () {
+            for await (const chunk of req) {
+              received += (chunk as Buffer).length;
+              if (received > limit) throw new RangeError("larger than declared");
+              yield chunk as Buffer;
+            }
+          })(),
+        );
         const request = new Request(`${base}${req.url}`, {
           method: "PUT",
           headers: req.headers as Record<string, string>,
-          body: Readable.toWeb(req) as ReadableStream,
+          body: Readable.toWeb(capped) as ReadableStream,
           duplex: "half",
         } as RequestInit);
-        const form = await request.formData();
+        let form: FormData;
+        try {
+          form = await request.formData();
+        } catch {
+          if (received > limit) return json(res, 413, { error: `the file is larger than the ${declared} bytes declared` });
+          return json(res, 400, { error: "the upload body could not be read" });
+        }
         const file = form.get("file");
         if (!(file instanceof Blob)) return json(res, 400, { error: "multipart field 'file' missing" });
+        if (file.size !== declared) return json(res, file.size > declared ? 413 : 400, { error: `the file has ${file.size} bytes, not the ${declared} declared` });
         const bytes = Buffer.from(await file.arrayBuffer());
         const decode = (name: string) => decodeURIComponent(url.searchParams.get(name) ?? "");
         const stored: StoredFile = {

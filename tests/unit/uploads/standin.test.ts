@@ -20,10 +20,10 @@ let app: http.Server;
 let appUrl: string;
 const callbacks: { body: string; signature: string | undefined }[] = [];
 
-function signedUrl(key: string, name: string, expires = Date.now() + 60_000): string {
+function signedUrl(key: string, name: string, expires = Date.now() + 60_000, size = 5): string {
   const url = new URL(`${standIn.url}/${key}`);
   url.searchParams.append("expires", String(expires));
-  for (const [k, v] of Object.entries({ "x-ut-identifier": "app", "x-ut-file-name": name, "x-ut-file-size": "5", "x-ut-file-type": "text/csv", "x-ut-slug": "positions" })) {
+  for (const [k, v] of Object.entries({ "x-ut-identifier": "app", "x-ut-file-name": name, "x-ut-file-size": String(size), "x-ut-file-type": "text/csv", "x-ut-slug": "positions" })) {
     url.searchParams.append(k, encodeURIComponent(v));
   }
   url.searchParams.append("signature", hmac(url.toString()));
@@ -105,7 +105,7 @@ describe("upload service stand-in", () => {
     const head = await fetch(signedUrl(key, "good file.csv"), { method: "HEAD" });
     expect(head.headers.get("x-ut-range-start")).toBe("0");
     const { body, type } = multipart("a,b\n1,2\n", "good file.csv");
-    const response = await fetch(signedUrl(key, "good file.csv"), { method: "PUT", body, headers: { "content-type": type } });
+    const response = await fetch(signedUrl(key, "good file.csv", undefined, 8), { method: "PUT", body, headers: { "content-type": type } });
     const reply = await response.json();
     expect(reply).toMatchObject({ ufsUrl: `${standIn.url}/f/${key}`, serverData: { uploadId: "u-1" } });
     expect(reply.error).toBeUndefined();
@@ -113,6 +113,36 @@ describe("upload service stand-in", () => {
     expect(callback.signature).toBe(hmac(callback.body));
     expect(JSON.parse(callback.body)).toMatchObject({ status: "uploaded", file: { key, name: "good file.csv", size: 8 }, metadata: { firmId: "f" } });
     expect(await (await fetch(`${standIn.url}/f/${key}`)).text()).toBe("a,b\n1,2\n");
+  });
+
+  it("refuses more bytes than the signed URL declares, storing nothing, and answers CORS only for the app's origin", async () => {
+    const key = "key-too-big";
+    const headers = { "content-type": "application/json", "x-uploadthing-api-key": apiKey };
+    await fetch(`${standIn.url}/route-metadata`, { method: "POST", headers, body: JSON.stringify({ fileKeys: [key], metadata: {}, isDev: false, callbackUrl: appUrl, callbackSlug: "positions" }) });
+    const { body, type } = multipart("0123456789".repeat(10), "big.csv");
+    const response = await fetch(signedUrl(key, "big.csv", undefined, 5), { method: "PUT", body, headers: { "content-type": type } });
+    expect(response.status).toBe(413);
+    expect((await response.json()).error).toContain("5 declared");
+    expect(readdirSync(dir).filter((f) => f.startsWith(key))).toEqual([]);
+    // A stream far past the declared size is cut off as it arrives (no Content-Length to go by).
+    const huge = new ReadableStream<Uint8Array>({
+      start(controller) {
+        controller.enqueue(new TextEncoder().encode(`------ballast-test\r\nContent-Disposition: form-data; name="file"; filename="big.csv"\r\n\r\n`));
+        for (let i = 0; i < 64; i++) controller.enqueue(new Uint8Array(64 * 1024));
+        controller.close();
+      },
+    });
+    const streamed = await fetch(signedUrl(key, "big.csv", undefined, 5), { method: "PUT", body: huge, headers: { "content-type": type }, duplex: "half" } as RequestInit);
+    expect(streamed.status).toBe(413);
+    expect(readdirSync(dir).filter((f) => f.startsWith(key))).toEqual([]);
+    // CORS: the app's origin (learnt from its registered callback) is echoed; another site gets none, and no "*".
+    const appOrigin = new URL(appUrl).origin;
+    const own = await fetch(signedUrl(key, "big.csv"), { method: "OPTIONS", headers: { origin: appOrigin } });
+    expect(own.headers.get("access-control-allow-origin")).toBe(appOrigin);
+    const foreign = await fetch(signedUrl(key, "big.csv"), { method: "OPTIONS", headers: { origin: "https://evil.example" } });
+    expect(foreign.headers.get("access-control-allow-origin")).toBeNull();
+    const foreignPut = await fetch(signedUrl(key, "big.csv"), { method: "PUT", body: multipart("a,b\n", "a.csv").body, headers: { "content-type": type, origin: "https://evil.example" } });
+    expect(foreignPut.status).toBe(403);
   });
 
   it("lists and deletes stored files for the server SDK", async () => {
