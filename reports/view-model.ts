@@ -656,7 +656,15 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
     limitations,
     dataQuality: {
       counts: dq ? { ...dq.counts } : { error: 0, warning: 0, info: 0 },
-      items: (dq?.items ?? []).map((i) => ({ check: i.check, label: CHECK_LABELS[i.check] ?? i.check, severity: i.severity, instrument: i.instrument, message: i.message, dates: [...(i.dates ?? [])] })),
+      items: (dq?.items ?? []).map((i) => ({
+        check: i.check,
+        label: CHECK_LABELS[i.check] ?? i.check,
+        severity: i.severity,
+        instrument: i.instrument,
+        // a confirmed item says who confirmed it, when and why, in the pack as on the data-quality page
+        message: i.confirmation ? `${i.message} Confirmed by ${i.confirmation.by} on ${i.confirmation.at.slice(0, 16).replace("T", " ")} UTC: ${i.confirmation.reason}` : i.message,
+        dates: [...(i.dates ?? [])],
+      })),
     },
     engine: {
       version: r.engineVersion,

@@ -86,6 +86,7 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "POST", path: "/api/uploadthing", allowed: "public", external: true },
   { method: "GET", path: "/api/templates/[template]", allowed: "member", probe: 200 },
   { method: "GET", path: "/api/periods/[periodId]/data-quality", allowed: "member", scoped: true },
+  { method: "POST", path: "/api/periods/[periodId]/data-quality/confirmations", allowed: ["risk_analyst", "compliance_officer"], scoped: true, invalidBody: { check: "extreme-return", instrument: "X", dates: [], reason: "" }, validBody: { check: "extreme-return", instrument: "X", dates: [], reason: "A real move on the day of a profit warning." } },
   { method: "GET", path: "/api/method", allowed: "member" },
   { method: "POST", path: "/api/method", allowed: ["risk_analyst"], invalidBody: { reason: 5 } },
   // Without from/to: the newest version against the one it was drawn from.

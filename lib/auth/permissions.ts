@@ -13,6 +13,8 @@ export const grants = {
   "periods.open": ["compliance_officer", "admin"],
   "positions.upload": ["compliance_officer"],
   "prices.upload": ["risk_analyst"],
+  /** confirm a data-quality item that asks for it ("Extreme return to confirm") */
+  "quality.confirm": ["risk_analyst", "compliance_officer"],
   "method.edit": ["risk_analyst"],
   "method.approve": ["risk_analyst", "compliance_head"],
   "capital.edit": ["compliance_officer", "compliance_head"],

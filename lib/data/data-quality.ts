@@ -7,6 +7,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { dataQualityReport, type QualityReport } from "@/lib/uploads/data-quality";
 import { getCalendar, getPeriod } from "./periods";
 import { priceSeries } from "./prices";
+import { periodConfirmations, withConfirmations } from "./quality-confirmations";
 
 /** The period's confirmed positions upload, if any. */
 export async function confirmedPositionsUpload(actor: Actor, periodId: string) {
@@ -31,5 +32,7 @@ export async function getDataQuality(actor: Actor, periodId: string): Promise<{ 
     series,
     { reportingCurrency: actor.reportingCurrency, periodEnd: period.periodEnd, holidays },
   );
+  // findings that ask for confirmation carry it once someone confirmed them (who, when, why)
+  report.items = withConfirmations(report.items, await periodConfirmations(actor, periodId));
   return { periodEnd: period.periodEnd, uploadId: upload?.id ?? null, fileName: upload?.fileName ?? null, positions: rows.length, report };
 }

@@ -38,7 +38,12 @@ export interface QualityItem {
   message: string;
   /** dates the item concerns, for drill-down */
   dates?: string[];
+  /** for an item that asks a person to confirm it: who confirmed it, when, and why (lib/data/quality-confirmations.ts) */
+  confirmation?: { by: string; at: string; reason: string };
 }
+
+/** Checks whose items ask a person to confirm them; a confirmation is recorded with who, when and why. */
+export const CONFIRMABLE_CHECKS: readonly QualityCheck[] = ["extreme-return"];
 
 export interface QualityPosition {
   instrumentId: string;

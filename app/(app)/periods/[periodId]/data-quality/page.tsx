@@ -7,6 +7,9 @@ import { formatMonth } from "@/app/_components/format";
 import { pageActor } from "@/lib/auth/page";
 import { getDataQuality } from "@/lib/data/data-quality";
 import { AppError } from "@/lib/errors";
+import { can } from "@/lib/auth/permissions";
+import { CONFIRMABLE_CHECKS } from "@/lib/uploads/data-quality";
+import { ConfirmItem } from "./confirm-item";
 
 export const metadata: Metadata = { title: "Data quality" };
 
@@ -23,6 +26,7 @@ export default async function DataQualityPage({ params, searchParams }: { params
   });
   const { report } = data;
   const items = check ? report.items.filter((i) => i.check === check) : report.items;
+  const canConfirm = can(actor, "quality.confirm");
   return (
     <>
       <p className="mb-2 text-sm">
@@ -34,7 +38,7 @@ export default async function DataQualityPage({ params, searchParams }: { params
         title="Data-quality report"
         lead={
           data.uploadId
-            ? `${data.positions} confirmed positions from "${data.fileName}" checked against the firm's price history up to ${data.periodEnd}. Each item goes into the run and the filing pack.`
+            ? `${data.positions} confirmed positions from "${data.fileName}" checked against the firm's price history up to ${data.periodEnd}. Each item goes into the run and the filing pack; a finding confirmed here reaches the pack through the next run started after it.`
             : "No positions are confirmed for this period yet: the report covers a period's confirmed positions."
         }
       />
@@ -88,7 +92,20 @@ export default async function DataQualityPage({ params, searchParams }: { params
                   </td>
                   <td className="px-3 py-2 whitespace-nowrap">{report.byCheck.find((c) => c.check === item.check)?.label}</td>
                   <td className="px-3 py-2 font-medium">{item.instrument}</td>
-                  <td className="px-3 py-2">{item.message}</td>
+                  <td className="px-3 py-2">
+                    {item.message}
+                    {item.confirmation ? (
+                      <p className="mt-1 text-ink-soft" data-testid="quality-confirmation">
+                        <StatusBadge tone="ok">Confirmed</StatusBadge> by {item.confirmation.by} on {item.confirmation.at.slice(0, 16).replace("T", " ")} UTC: {item.confirmation.reason}
+                      </p>
+                    ) : CONFIRMABLE_CHECKS.includes(item.check) ? (
+                      canConfirm ? (
+                        <ConfirmItem periodId={periodId} check={item.check} instrument={item.instrument} dates={item.dates ?? []} />
+                      ) : (
+                        <p className="mt-1 text-ink-muted">Not confirmed yet: a risk analyst or the compliance officer confirms it.</p>
+                      )
+                    ) : null}
+                  </td>
                 </tr>
               ))}
             </tbody>
