@@ -1,6 +1,7 @@
 /**
  * `npm run demo`: settings on first run, a fresh demo database (migrated and seeded), a production build when
- * the sources changed, then the app on http://localhost:3000 (PORT to change it). Ctrl-C stops everything.
+ * the sources changed, then the app on http://localhost:3000 (PORT to change it), listening on loopback only unless
+ * DEMO_HOST says otherwise. Ctrl-C stops everything.
  */
 import { spawn, spawnSync } from "node:child_process";
 import { existsSync, statSync, readdirSync } from "node:fs";
@@ -54,14 +55,16 @@ if (!existsSync(buildId) || statSync(buildId).mtimeMs < newestSource()) {
 }
 
 const port = process.env.PORT ?? "3000";
+// Loopback only: the demo's passwords are published. DEMO_HOST=0.0.0.0 (or an address) serves it further, knowingly.
+const host = process.env.DEMO_HOST?.trim() || "127.0.0.1";
 console.log(`
-Ballast demo on http://localhost:${port}
+Ballast demo on http://localhost:${port}${host === "127.0.0.1" ? " (this computer only; DEMO_HOST to serve it further)" : ` (listening on ${host}: anyone who can reach it can sign in with the demo passwords)`}
 Every demo user's password: ${DEMO_PASSWORD}   (demo only)
 ${[...DEMO_USERS, ...SECOND_FIRM_USERS].map((u) => `  ${u.email.padEnd(34)} ${u.roles.join(" + ")}`).join("\n")}
 `);
 void Promise.all([startLocalUploadService(), startLocalMail()]).then(() => {
-  const server = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit", env: process.env });
-  startDemoReminderLoop(`http://localhost:${port}`);
+  const server = spawn(process.execPath, [nextBin, "start", "-p", port, "-H", host], { stdio: "inherit", env: process.env });
+  startDemoReminderLoop(`http://${host === "0.0.0.0" || host === "::" ? "127.0.0.1" : host.includes(":") ? `[${host}]` : host}:${port}`);
   for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
   server.on("exit", (code) => process.exit(code ?? 0));
 });
