@@ -9,9 +9,10 @@ import { requireActor } from "@/lib/auth/actor";
 import { AppError } from "@/lib/errors";
 import { assertPeriodOpenForData, getPeriod } from "@/lib/data/periods";
 import { receiveUpload, type UploadContext } from "@/lib/data/uploads";
+import { plainUploadError } from "@/lib/uploads/messages";
 
 const f = createUploadthing({
-  errorFormatter: (error) => ({ message: error.message }),
+  errorFormatter: (error) => ({ message: plainUploadError(error.message) }),
 });
 
 const numberFormat = z.enum(["plain", "comma-thousands", "dot-thousands"]).default("plain");
