@@ -6,11 +6,13 @@ import { CliError } from "./engine-cli/io";
 import { commands as volatilityCommands } from "./engine-cli/volatility";
 import { commands as portfolioCommands } from "./engine-cli/portfolio";
 import { commands as standardisedCommands } from "./engine-cli/standardised";
+import { commands as runCommands } from "./engine-cli/run";
 
 const commands: Record<string, (argv: string[]) => void | Promise<void>> = {
   ...volatilityCommands,
   ...portfolioCommands,
   ...standardisedCommands,
+  ...runCommands,
 };
 
 async function main(argv: string[]): Promise<void> {

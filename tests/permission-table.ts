@@ -111,6 +111,7 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "GET", path: "/api/runs/[runId]/factors", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
   { method: "GET", path: "/api/runs/[runId]/volatility", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
   { method: "GET", path: "/api/runs/[runId]/change", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
+  { method: "GET", path: "/api/runs/[runId]/inputs", allowed: ["admin", "compliance_officer", "risk_analyst", "compliance_head", "auditor"], scoped: true },
   { method: "POST", path: "/api/runs/[runId]/reproduce", allowed: ["risk_analyst"], scoped: true, invalidBody: { note: 5 }, validBody: {} },
   { method: "POST", path: "/api/runs/[runId]/use-for-filing", allowed: ["risk_analyst"], scoped: true, invalidBody: { confirm: "no" }, validBody: { confirm: true } },
   // Filings: read (and their packs downloaded) by every member; assembled, edited, submitted, answered and re-versioned

@@ -4,6 +4,7 @@
  * the filing uses. The computation itself runs in lib/runs/execute.ts, after the request has been answered.
  */
 import "server-only";
+import { createHash } from "node:crypto";
 import { gunzipSync, gzipSync } from "node:zlib";
 import { and, desc, eq, inArray, lt } from "drizzle-orm";
 import { getDb } from "@/db/client";
@@ -16,6 +17,7 @@ import { BASEL_CAPITAL_PROFILE } from "@/lib/risk/capital/capital";
 import { explainRuns, explainVarChange } from "@/lib/risk";
 import { storedPortfolioStateOf } from "@/lib/runs/stored-state";
 import { infeasibilityMessage, methodInfeasibilities, type Infeasibility } from "@/lib/runs/feasibility";
+import { runInputsExport, runInputsFileName } from "@/lib/runs/export";
 import { methodContentSchema, type MethodContent } from "@/lib/validation/method";
 import { alignReturns } from "@/lib/runs/align";
 import { regimeFieldsOf, storedAttributesOf } from "@/lib/runs/standardised";
@@ -126,6 +128,24 @@ export async function getRunInputs(actor: Actor, runId: string): Promise<RunInpu
     .where(and(eq(runInputs.runId, runId), eq(runInputs.firmId, actor.firmId)));
   if (!row) throw new AppError("not_found:run", "No stored inputs for this run.");
   return unpackInputs(row.data);
+}
+
+/** A run's stored inputs as one JSON download, recorded in the audit trail with its SHA-256. */
+export async function exportRunInputs(actor: Actor, runId: string): Promise<{ fileName: string; contentType: string; bytes: Uint8Array }> {
+  const run = await getRun(actor, runId);
+  const inputs = await getRunInputs(actor, runId);
+  const fileName = runInputsFileName(inputs.periodEnd, run.id);
+  const bytes = new Uint8Array(Buffer.from(JSON.stringify(runInputsExport(run, inputs), null, 1), "utf8"));
+  await getDb().transaction(async (tx) => {
+    await recordAudit(tx, actor, {
+      action: "run.export_inputs",
+      entityType: "run",
+      entityId: run.id,
+      summary: `Exported the stored inputs of the run for the period ending ${inputs.periodEnd} (${fileName})`,
+      detail: { fileName, bytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex"), inputHashes: run.inputHashes },
+    });
+  });
+  return { fileName, contentType: "application/json", bytes };
 }
 
 // ---------------------------------------------------------------------------------------------------------------

@@ -12,6 +12,7 @@ import type { RunRecord, RunResults } from "@/lib/runs/types";
 import { confidence, METHOD_WORDS, money, num, pct } from "../_components/run-format";
 import { CompletedRun, RunStatusBadge } from "../_components/run-state";
 import { useRun } from "../_components/use-run";
+import { ModelUsed } from "./model-used";
 
 function Card({ title, id, children, className = "" }: { title: string; id: string; children: React.ReactNode; className?: string }) {
   return (
@@ -223,7 +224,13 @@ function Actions({ run, periodId, canReproduce, canChooseForFiling }: { run: Run
             {reproduce.isPending ? "Starting…" : "Reproduce"}
           </button>
         ) : null}
+        <a className={secondaryButtonClass} href={`/api/runs/${run.id}/inputs`} download data-testid="export-inputs">
+          Export inputs
+        </a>
       </div>
+      <p className="text-xs text-ink-muted">
+        Export inputs downloads the run&apos;s stored inputs as one JSON file (recorded in the audit trail); <code>npm run engine -- run --inputs FILE --json</code> recomputes the run from it.
+      </p>
       {canReproduce ? (
         <p className="text-xs text-ink-muted">Reproduce re-runs this run from its stored inputs (never today&apos;s data) as a new run and checks every figure against this one.</p>
       ) : (
@@ -335,6 +342,9 @@ export function RunSummary({ periodId, runId, canReproduce, canChooseForFiling }
                 </ul>
               </Card>
             </div>
+            <Card title="Model used for these figures" id="model">
+              <ModelUsed results={results} />
+            </Card>
             <Card title="Inputs and their fingerprints" id="inputs">
               <dl className="grid gap-x-6 gap-y-2 text-sm sm:grid-cols-2">
                 <div>

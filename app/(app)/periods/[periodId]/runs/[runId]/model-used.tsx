@@ -1,0 +1,68 @@
+/**
+ * The model the run used, from the resolved configuration it stored (never from the method statement's intent):
+ * the sentences the packs print, and each factor's process, parameters, start-up and one-day volatility.
+ */
+import type { RunResults } from "@/lib/runs/types";
+import { ASSET_CLASS_LABELS, type AssetClass } from "@/lib/uploads/asset-classes";
+import { describeComputedMethod } from "@/reports/method-text";
+import { pct } from "../_components/run-format";
+
+const SOURCE_WORDS: Record<string, string> = { factor: "the factor's own choice", "asset-class": "its asset class", default: "the firm-wide default", legacy: "the one covariance model" };
+
+function params(p: Record<string, number>): string {
+  return Object.entries(p)
+    .filter(([, v]) => Number.isFinite(v))
+    .map(([k, v]) => `${k} ${Number(v.toPrecision(4))}`)
+    .join(", ");
+}
+
+export function ModelUsed({ results }: { results: RunResults }) {
+  const model = results.monthEnd.model;
+  const sentences = describeComputedMethod(results.monthEnd, results.method.content);
+  return (
+    <div className="flex flex-col gap-3">
+      <ul className="list-disc space-y-1 pl-5 text-sm" data-testid="model-statements">
+        {sentences.map((s) => (
+          <li key={s}>{s}</li>
+        ))}
+      </ul>
+      {model ? (
+        <div className="overflow-x-auto">
+          <table className="w-full text-sm" data-testid="model-factors">
+            <caption className="sr-only">The volatility model of each factor, as fitted for this run&apos;s figures</caption>
+            <thead>
+              <tr className="border-b border-ink-line text-left text-ink-muted">
+                <th scope="col" className="py-1.5 pr-3 font-medium">Factor</th>
+                <th scope="col" className="py-1.5 pr-3 font-medium">Chosen by</th>
+                <th scope="col" className="py-1.5 pr-3 font-medium">Model used</th>
+                <th scope="col" className="py-1.5 pr-3 font-medium">Parameters</th>
+                <th scope="col" className="py-1.5 pr-3 font-medium">Start-up</th>
+                <th scope="col" className="py-1.5 text-right font-medium">1-day volatility</th>
+              </tr>
+            </thead>
+            <tbody>
+              {model.factors.map((f) => (
+                <tr key={f.factor} className="border-b border-ink-line/60 align-top">
+                  <th scope="row" className="py-1.5 pr-3 text-left font-medium">{f.factor}</th>
+                  <td className="py-1.5 pr-3">
+                    {SOURCE_WORDS[f.source] ?? f.source}
+                    {f.assetClass ? ` (${ASSET_CLASS_LABELS[f.assetClass as AssetClass] ?? f.assetClass})` : ""}
+                  </td>
+                  <td className="py-1.5 pr-3">
+                    {f.label}
+                    {f.fallback ? <span className="block text-xs text-caution">Fallback: {f.fallback.label} could not be used ({f.fallback.reason}).</span> : null}
+                  </td>
+                  <td className="figure py-1.5 pr-3 text-xs">{params(f.params) || "—"}</td>
+                  <td className="py-1.5 pr-3 text-xs text-ink-soft">{f.startUp}</td>
+                  <td className="figure py-1.5 text-right">{pct(Math.sqrt(f.variance))}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : (
+        <p className="text-xs text-ink-muted">This run was stored before runs kept their resolved model; the sentences above read its method statement as it computed.</p>
+      )}
+    </div>
+  );
+}
