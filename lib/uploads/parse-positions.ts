@@ -4,6 +4,7 @@
  */
 import { z } from "zod";
 import { isIsoCurrency, matchColumns, readDate, readNumber, readText } from "./cells";
+import { figureOutOfBounds } from "./limits";
 import { ASSET_CLASSES, parseAssetClass } from "./asset-classes";
 import type { Problem, RawTable, ReadOptions } from "./types";
 import type { StandardisedProfile } from "@/lib/risk/standardised";
@@ -221,6 +222,7 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
       }
       const parsed = readNumber(value, options.numberFormat);
       if ("error" in parsed) fail(field, `${POSITION_FIELDS[field].label} ${parsed.error}`);
+      else if (figureOutOfBounds(POSITION_FIELDS[field].label, parsed.value)) fail(field, figureOutOfBounds(POSITION_FIELDS[field].label, parsed.value)!);
       else numbers[field] = parsed.value;
     }
 

@@ -5,6 +5,7 @@
  */
 import { z } from "zod";
 import { matchColumns, normaliseHeader, readDate, readNumber, readText } from "./cells";
+import { figureOutOfBounds } from "./limits";
 import type { Problem, RawTable, ReadOptions } from "./types";
 
 export const PRICE_FIELDS = {
@@ -100,6 +101,9 @@ export function parsePrices(table: RawTable, options: ReadOptions, context: { to
     }
     if ("error" in close) {
       problems.push({ row, field, severity: "error", message: `close ${close.error}` });
+      bad = true;
+    } else if (figureOutOfBounds("close", close.value)) {
+      problems.push({ row, field, severity: "error", message: figureOutOfBounds("close", close.value)! });
       bad = true;
     }
     if (bad || "error" in date || "error" in close) return;
