@@ -146,14 +146,20 @@ describe("a signature", () => {
     const { signFiling, getFiling, verifyFiling } = await data();
     const [stored] = await w.db.select().from(filings).where(eq(filings.id, filingId));
     const expected = contentHash(stored.content as unknown as FilingViewModel);
+    const before = Date.now();
     const signed = await signFiling(w.head, filingId, { ...attestation(w.head), signerName: "  helen   MARSH " });
     expect(signed.status).toBe("signed");
     const [sig] = await w.db.select().from(signatures).where(eq(signatures.filingId, filingId));
-    expect(sig).toMatchObject({ signerId: w.head.userId, signerName: "Helen Marsh", licenceReference: "FMA-CH-2291", contentHash: expected, signedAt: "2026-12-01T09:00:00.000Z", supersededAt: null });
+    expect(sig).toMatchObject({ signerId: w.head.userId, signerName: "Helen Marsh", licenceReference: "FMA-CH-2291", contentHash: expected, supersededAt: null });
+    // the real time of the act (not the pinned business day), the same instant as the audit record
+    expect(Date.parse(sig.signedAt)).toBeGreaterThanOrEqual(before);
+    expect(Date.parse(sig.signedAt)).toBeLessThanOrEqual(Date.now());
+    const [signEvent] = await w.db.select().from(auditEvents).where(and(eq(auditEvents.entityId, filingId), eq(auditEvents.action, "filing.sign")));
+    expect(signEvent.at).toBe(sig.signedAt);
     expect(sig.attestation).toContain("By signing, the compliance head confirms");
     // the sign-off block is in the stored content, and the hash of the stored content is unchanged by it
     const after = await getFiling(w.head, filingId);
-    expect(after.content.signOff).toEqual({ signerName: "Helen Marsh", licenceReference: "FMA-CH-2291", signedAt: "2026-12-01T09:00:00.000Z", contentHash: expected });
+    expect(after.content.signOff).toEqual({ signerName: "Helen Marsh", licenceReference: "FMA-CH-2291", signedAt: sig.signedAt, contentHash: expected });
     expect(contentHash(after.content)).toBe(expected);
     expect(after.signature?.contentHash).toBe(expected);
     expect((await verifyFiling(await actorFor(NORTHMOOR.auditor), filingId)).matches).toBe(true);

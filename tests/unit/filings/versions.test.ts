@@ -36,15 +36,19 @@ describe("a change after signing", () => {
     // the new version's content says so, and lists the superseded signature
     expect(created.content.filing.previousVersion).toBe(1);
     expect(created.content.filing.reason).toBe("The cover note must name the new bond fund.");
+    const [{ signedAt, supersededAt }] = created.content.supersededSignatures;
     expect(created.content.supersededSignatures).toEqual([
-      { version: 1, signerName: "Helen Marsh", licenceReference: "FMA-CH-2291", signedAt: "2026-12-01T09:00:00.000Z", contentHash: v1Hash, supersededAt: "2026-12-01T09:00:00.000Z", reason: "The cover note must name the new bond fund." },
+      { version: 1, signerName: "Helen Marsh", licenceReference: "FMA-CH-2291", signedAt, contentHash: v1Hash, supersededAt, reason: "The cover note must name the new bond fund." },
     ]);
+    // real times of the acts: superseded after it was signed, neither in the future
+    expect(supersededAt >= signedAt).toBe(true);
+    expect(Date.parse(supersededAt)).toBeLessThanOrEqual(Date.now());
     // version 1 is superseded, its signature visible as superseded, its content untouched
     const old = await getFiling(w.officer, v1);
     expect(old.status).toBe("superseded");
     expect(old.signature).toBeNull();
     expect(old.supersededSignatures).toHaveLength(1);
-    expect(old.supersededSignatures[0]).toMatchObject({ contentHash: v1Hash, supersededReason: "The cover note must name the new bond fund.", supersededAt: "2026-12-01T09:00:00.000Z" });
+    expect(old.supersededSignatures[0]).toMatchObject({ contentHash: v1Hash, supersededReason: "The cover note must name the new bond fund.", supersededAt });
     expect(contentHash(old.content)).toBe(v1Hash);
     const versions = await listFilingVersions(w.head, w.periodId);
     expect(versions.map((v) => [v.version, v.status, v.signatures.map((s) => s.supersededAt !== null)])).toEqual([

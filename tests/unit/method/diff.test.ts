@@ -77,7 +77,8 @@ describe("diffMethodVersions", () => {
     // GARCH is no longer chosen: its catalogue goes; the moving average's comes; the analyst dropped one of their own.
     expect(diff.limitations.removed).toEqual(expect.arrayContaining([...LIMITATIONS.garch, NORTHMOOR_METHOD.analystLimitations[1]]));
     expect(diff.limitations.added).toEqual([...LIMITATIONS.ma]);
-    expect(diff.evidence).toEqual({ from: "2026-12-01T09:00:00.000Z", to: null });
+    // version 1's evidence was computed in the demo's history, on 15 September
+    expect(diff.evidence).toEqual({ from: "2026-09-15T09:20:00.000Z", to: null });
     // Without ids: the newest version against the one it was drawn from.
     expect((await diffMethodVersions(analyst))!.content).toEqual(diff.content);
   });
