@@ -50,7 +50,7 @@ export interface CompareResult {
   engineVersion: string;
 }
 
-const Z99 = 2.326348; // Φ⁻¹(0.99), CHECK-VALUES §6
+const Z99 = 2.326348; // Φ⁻¹(0.99), standard normal tables
 const LN_2PI = Math.log(2 * Math.PI);
 
 interface Candidate {

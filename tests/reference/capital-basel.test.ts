@@ -1,9 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { BASEL_CAPITAL_PROFILE, capitalCharge } from "@/lib/risk/capital/capital";
 
-// Source: Basel Committee (1996) market-risk amendment B.4 and (2009) revisions, CHECK-VALUES §5:
+// Source: Basel Committee (1996), "Amendment to the Capital Accord to incorporate market risks", B.4, and Basel
+// Committee (2009), "Revisions to the Basel II market risk framework":
 // capital = max(VaR(t−1), m_c·VaR_avg) + max(sVaR(t−1), m_s·sVaR_avg), m_c = 3 + plus factor, 60-day averages.
-describe("capital formula, CHECK-VALUES §5", () => {
+describe("capital formula, Basel Committee (1996) B.4 and (2009)", () => {
   const varHistory = Array.from({ length: 60 }, (_, i) => 100 + i); // mean 129.5, last 159
   const svarHistory = Array.from({ length: 60 }, (_, i) => 300 - i); // mean 270.5, last 241
 

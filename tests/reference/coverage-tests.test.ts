@@ -3,8 +3,8 @@ import { chiSquaredPValue } from "@/lib/risk/backtest/chi-squared";
 import { kupiecTest } from "@/lib/risk/backtest/kupiec";
 import { christoffersenTest } from "@/lib/risk/backtest/christoffersen";
 
-describe("χ² p-values against the critical values in CHECK-VALUES §4", () => {
-  // Source: CHECK-VALUES §4 critical values: χ²(1) 3.841459 (5 %), 6.634897 (1 %); χ²(2) 5.991465 (5 %), 9.210340 (1 %)
+describe("χ² p-values against published critical values", () => {
+  // Source: χ² tables (e.g. Abramowitz & Stegun 1964, Handbook of Mathematical Functions, ch. 26; chapter from memory): χ²(1) 3.841459 (5 %), 6.634897 (1 %); χ²(2) 5.991465 (5 %), 9.210340 (1 %)
   it.each([
     [3.841459, 1, 0.05],
     [6.634897, 1, 0.01],
@@ -23,7 +23,8 @@ describe("χ² p-values against the critical values in CHECK-VALUES §4", () => 
   });
 });
 
-describe("Kupiec (1995) proportion of failures, CHECK-VALUES §4", () => {
+describe("Kupiec (1995) proportion of failures", () => {
+  // Source: Kupiec (1995), "Techniques for verifying the accuracy of risk measurement models", J. Derivatives 3
   // LR_POF = −2 ln[(1−p)^(T−x) p^x] + 2 ln[(1−x/T)^(T−x) (x/T)^x]; values worked by hand from that formula
   it("x = 0: LR = −2·T·ln(1−p) (0·ln 0 = 0)", () => {
     const r = kupiecTest(250, 0, 0.01);
@@ -53,7 +54,8 @@ describe("Kupiec (1995) proportion of failures, CHECK-VALUES §4", () => {
   });
 });
 
-describe("Christoffersen (1998) independence and conditional coverage, CHECK-VALUES §4", () => {
+describe("Christoffersen (1998) independence and conditional coverage", () => {
+  // Source: Christoffersen (1998), "Evaluating interval forecasts", International Economic Review 39
   it("counts transitions and computes LR_ind and LR_cc (worked by hand from the formulas)", () => {
     // sequence 0 1 1 1 0 0 0 0: transitions 01, 11, 11, 10, 00, 00, 00 → n00 3, n01 1, n10 1, n11 2
     const r = christoffersenTest([0, 1, 1, 1, 0, 0, 0, 0], 0.01);

@@ -10,7 +10,7 @@ import { readSeries, relErr } from "./volatility-fixtures";
 // (fixture exported from R's fGarch, see fixtures/README.md). Conventions: normal errors, constant mean μ,
 // h₁ = ω + (α+β)·mean(e²) at the current μ (our init "sample"), full-T log-likelihood with the constant.
 const PUBLISHED = { mu: -0.00619041, omega: 0.0107613, alpha: 0.153134, beta: 0.805974, logLikelihood: -1106.60788 };
-// Tolerances as suggested in CHECK-VALUES.md §1: μ 1e−4 absolute, ω 2e−3 relative, α and β 1e−3 relative, LL 1e−3 absolute.
+// Tolerances (common practice for this benchmark, no source): μ 1e−4 absolute, ω 2e−3 relative, α and β 1e−3 relative, LL 1e−3 absolute.
 const TOL = { mu: 1e-4, omega: 2e-3, alpha: 1e-3, beta: 1e-3, logLikelihood: 1e-3 };
 
 function checkAgainstBenchmark(p: Record<string, number>, logLikelihood: number): void {
@@ -35,7 +35,7 @@ describe("DEM/GBP GARCH(1,1) benchmark", () => {
   });
 
   it("gives Hessian standard errors close to the published ones (from memory: loose 5 % check only)", () => {
-    // Standard errors μ 0.00846, ω 0.00285, α 0.0265, β 0.0336: FCP (1996), quoted in CHECK-VALUES.md §1
+    // Standard errors μ 0.00846, ω 0.00285, α 0.0265, β 0.0336: FCP (1996), Hessian
     // FROM MEMORY, so this is a sanity check at a stated 5 % relative tolerance, not a benchmark.
     const se = fitGarch11(dem2gbp, { mean: "fit" }).standardErrors!;
     expect(relErr(se.mu, 0.00846)).toBeLessThan(0.05);
@@ -45,7 +45,8 @@ describe("DEM/GBP GARCH(1,1) benchmark", () => {
   });
 
   it("moves to a different optimum with another start-up rule, as the benchmark note says", () => {
-    // CHECK-VALUES.md §1: h₀ = unconditional variance gives LL −1106.94851 (stated there; source as above)
+    // h₀ = unconditional variance gives LL −1106.94851: a figure quoted beside the FCP (1996) benchmark, not read in a
+    // printed source (from memory)
     const fit = fitGarch11(dem2gbp, { mean: "fit", init: "unconditional" });
     expect(Math.abs(fit.logLikelihood! - -1106.94851)).toBeLessThanOrEqual(1e-3);
   });

@@ -13,7 +13,7 @@ function normals(rand: () => number, n: number): Float64Array {
   return out;
 }
 
-describe("Euler identity: component VaR sums to the total (CHECK-VALUES §8)", () => {
+describe("Euler identity: component VaR sums to the total (Euler's theorem for a function homogeneous of degree one, a fact of the trade)", () => {
   const rand = lcg(20260401);
   const factors = Array.from({ length: 6 }, (_, i) => normals(rand, 300).map((x) => x * 0.01 * (1 + i / 3)));
   const cov = equalWeightCovariance(factors);

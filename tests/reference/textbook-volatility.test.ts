@@ -4,7 +4,7 @@ import {
   weightedVariance, flatForecast, fitMovingAverage, forecastVariance, mulberry32, normalSampler,
 } from "@/lib/risk";
 
-describe("textbook worked examples (CHECK-VALUES.md §2)", () => {
+describe("textbook worked examples (Hull, Risk Management and Financial Institutions; Options, Futures, and Other Derivatives)", () => {
   it("EWMA update: λ = 0.90, σ = 1 %, u = 2 % gives σ² = 0.00013, σ = 1.1402 %", () => {
     // Hull, Risk Management and Financial Institutions, volatility chapter: EWMA update example
     const v = ewmaVariance([0.02], 0.9, 0.01 ** 2).currentVariance;
@@ -15,8 +15,8 @@ describe("textbook worked examples (CHECK-VALUES.md §2)", () => {
   it("GARCH long-run level: ω = 0.000002, α = 0.13, β = 0.86 gives γ = 0.01, V_L = 0.0002, 1.4142 % a day", () => {
     // Hull, Risk Management and Financial Institutions, volatility chapter: GARCH(1,1) long-run variance example
     const p = { omega: 0.000002, alpha: 0.13, beta: 0.86 };
-    expect(1 - p.alpha - p.beta).toBeCloseTo(0.01, 12);
     expect(garchLongRunVariance(p)).toBeCloseTo(0.0002, 12);
+    expect(p.omega / garchLongRunVariance(p)).toBeCloseTo(0.01, 12); // γ = ω / V_L
     expect(Math.sqrt(garchLongRunVariance(p))).toBeCloseTo(0.014142, 6);
   });
 
@@ -30,13 +30,16 @@ describe("textbook worked examples (CHECK-VALUES.md §2)", () => {
   it("GARCH on an equity index: α+β = 0.99351, V_L = 0.0002075, 1.4404 % a day", () => {
     // Hull, Options, Futures, and Other Derivatives, chapter on estimating volatilities: equity index example
     const p = { omega: 0.0000013465, alpha: 0.083394, beta: 0.910116 };
-    expect(p.alpha + p.beta).toBeCloseTo(0.99351, 5);
     expect(garchLongRunVariance(p)).toBeCloseTo(0.0002075, 7);
+    // α+β read from the engine's forecast: each step moves the gap to V_L by the factor α+β
+    const vl = garchLongRunVariance(p);
+    const f = garchTermStructure({ ...p, currentVariance: 0.0004 }, 2);
+    expect((f[1] - vl) / (f[0] - vl)).toBeCloseTo(0.99351, 5);
     expect(Math.sqrt(garchLongRunVariance(p))).toBeCloseTo(0.014404, 6);
   });
 });
 
-describe("EWMA data needs and half-life (CHECK-VALUES.md §6)", () => {
+describe("EWMA data needs and half-life (J.P. Morgan/Reuters 1996)", () => {
   it("λ = 0.94 needs about 74 days for 1 % tolerance and has a half-life of about 11 days", () => {
     // J.P. Morgan/Reuters (1996), Technical Document, 4th edition: K = ln ε / ln λ
     const u = Array.from({ length: 300 }, (_, i) => 0.01 * Math.sin(i));
@@ -46,7 +49,7 @@ describe("EWMA data needs and half-life (CHECK-VALUES.md §6)", () => {
   });
 });
 
-describe("identities any correct engine satisfies (CHECK-VALUES.md §8, facts of the trade)", () => {
+describe("identities any correct engine satisfies (facts of the trade)", () => {
   const draw = normalSampler(mulberry32(7));
   const u = Array.from({ length: 400 }, () => 0.01 * draw());
 
@@ -82,7 +85,6 @@ describe("identities any correct engine satisfies (CHECK-VALUES.md §8, facts of
     const p = { omega: 0.000002, alpha: 0.13, beta: 0.86 };
     const vl = garchLongRunVariance(p);
     const gamma = 1 - p.alpha - p.beta;
-    expect(gamma + p.alpha + p.beta).toBe(1);
     expect(gamma * vl).toBeCloseTo(p.omega, 18);
     for (const start of [0.0001, 0.0004]) {
       const f = garchTermStructure({ ...p, currentVariance: start }, 2000);

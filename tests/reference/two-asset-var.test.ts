@@ -7,7 +7,7 @@ describe("two-asset parametric VaR", () => {
   // Worked by hand from the textbook formula σ²ₚ = w₁²σ₁² + w₂²σ₂² + 2ρw₁w₂σ₁σ₂:
   // w₁ = 1,000,000 at σ₁ = 2 % a day, w₂ = 500,000 at σ₂ = 1 % a day, ρ = 0.3
   // σ²ₚ = 20,000² + 5,000² + 2·0.3·20,000·5,000 = 4.0e8 + 2.5e7 + 6.0e7 = 4.85e8, σₚ = 22,022.7155
-  // 99 % one-day VaR = 2.326348 × 22,022.7155 = 51,232.50 (z from CHECK-VALUES §6)
+  // 99 % one-day VaR = 2.326348 × 22,022.7155 = 51,232.50 (z = Φ⁻¹(0.99) from standard normal tables)
   const cov = matrixFromRows([
     [0.02 * 0.02, 0.3 * 0.02 * 0.01],
     [0.3 * 0.02 * 0.01, 0.01 * 0.01],

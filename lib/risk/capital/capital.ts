@@ -25,7 +25,7 @@ export interface CapitalProfile {
   includeStressed: boolean;
 }
 
-/** Defaults: Basel Committee (1996) amendment B.4 and (2009) revisions, CHECK-VALUES §5. */
+/** Defaults: Basel Committee (1996) market-risk amendment B.4 and (2009) "Revisions to the Basel II market risk framework". */
 export const BASEL_CAPITAL_PROFILE: CapitalProfile = {
   multiplierBase: 3,
   stressedMultiplierBase: 3,

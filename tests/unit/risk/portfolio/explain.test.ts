@@ -4,7 +4,7 @@ import { matrixFromRows } from "@/lib/risk/portfolio/matrix";
 import { runMonthEnd, type MonthEndInput } from "@/lib/risk/portfolio/run-month-end";
 import { syntheticBook } from "./synthetic-book";
 
-const z99 = 2.326348; // CHECK-VALUES §6
+const z99 = 2.326348; // Φ⁻¹(0.99), standard normal tables (e.g. Abramowitz & Stegun 1964, Handbook of Mathematical Functions, ch. 26; chapter from memory)
 
 describe("explainVarChange", () => {
   it("attributes each change to its own step when only one thing moves (worked by hand)", () => {

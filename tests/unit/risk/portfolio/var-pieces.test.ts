@@ -49,8 +49,8 @@ describe("filtering and scaling", () => {
     expect(() => filterReturns([0.01], [0], 1e-4)).toThrow(/positive variances/);
   });
 
-  it("GARCH horizon variance: sum of V_L + (α+β)^(t−1)(σ²₁ − V_L) (CHECK-VALUES §8 forecast form)", () => {
-    const p = { omega: 0.000002, alpha: 0.13, beta: 0.86 }; // CHECK-VALUES §2, V_L = 0.0002
+  it("GARCH horizon variance: sum of V_L + (α+β)^(t−1)(σ²₁ − V_L) (the GARCH(1,1) variance forecast, a fact of the trade)", () => {
+    const p = { omega: 0.000002, alpha: 0.13, beta: 0.86 }; // Hull, Risk Management and Financial Institutions, volatility chapter: V_L = 0.0002
     const next = 0.0003;
     let expected = 0;
     for (let t = 1; t <= 10; t++) expected += 0.0002 + Math.pow(0.99, t - 1) * (next - 0.0002);
