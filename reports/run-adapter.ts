@@ -11,6 +11,7 @@ import { engineInputOf } from "@/lib/runs/compute";
 import type { RunInputs, RunRecord } from "@/lib/runs/types";
 import { ESTIMATOR_LABELS } from "@/lib/validation/method";
 import type { CorrelationView, FilingPackInput, SignOffBlock, SupersededSignature } from "./view-model";
+import { regulatoryCapitalOfResults } from "./regulatory-capital";
 
 export interface FilingFromRun {
   run: Pick<RunRecord, "id" | "startedByName" | "inputHashes" | "results">;
@@ -58,6 +59,7 @@ export function filingInputFromRun(x: FilingFromRun): FilingPackInput {
       exception: [...results.backtestSeries.exception],
     },
     runNotes: [...results.notes],
+    regulatoryCapital: regulatoryCapitalOfResults(results),
     dataQuality: results.dataQuality.report,
     method: { version: results.method.version, approvedAt: results.method.approvedAt, content: results.method.content, rationale: x.method.rationale, limitations: [...x.method.limitations] },
     firm: x.firm,

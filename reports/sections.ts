@@ -10,6 +10,7 @@ import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue,
 import { VAR_METHOD_LABELS, type FilingViewModel } from "./view-model";
 import { neutralise } from "./neutralise";
 import { countOf } from "@/lib/text/count";
+import { regulatoryCapitalValues } from "./regulatory-capital-text";
 
 /** Text a person typed, line by line made inert for spreadsheets (see ./neutralise). */
 function typed(text: string): string {
@@ -29,7 +30,7 @@ export interface Section {
   appendix: boolean;
 }
 
-export const MAIN_SECTIONS = ["cover", "capital", "var-es", "stressed", "backtest", "method", "limitations", "data-quality", "changes", "sign-off", "cautions"] as const;
+export const MAIN_SECTIONS = ["cover", "regulatory-capital", "capital", "var-es", "stressed", "backtest", "method", "limitations", "data-quality", "changes", "sign-off", "cautions"] as const;
 export const APPENDIX_SECTIONS = ["positions", "risk-factors", "correlation", "contributions", "var-history"] as const;
 export type SectionId = (typeof MAIN_SECTIONS)[number] | (typeof APPENDIX_SECTIONS)[number];
 
@@ -108,6 +109,8 @@ export function sectionValues(id: SectionId, vm: FilingViewModel): TemplateValue
           vm.filing.previousVersion !== null ? `This is version ${vm.filing.version}; it replaces version ${vm.filing.previousVersion}.` : vm.filing.version > 1 ? `This is version ${vm.filing.version}.` : "",
         coverNote: vm.filing.coverNote.trim() ? typed(vm.filing.coverNote) : "No cover note was added.",
       };
+    case "regulatory-capital":
+      return regulatoryCapitalValues(vm);
     case "capital": {
       const c = f.capital;
       return {

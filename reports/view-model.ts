@@ -6,6 +6,7 @@
  * `canonicalContent` / `contentHash` (./canonical) serialise the part that is signed.
  */
 import type { MonthEndResult, VarMethod } from "@/lib/risk/portfolio/run-month-end";
+import type { RegulatoryCapitalView } from "./regulatory-capital";
 import type { QualityReport, QualitySeverity } from "@/lib/uploads/data-quality";
 import { CHECK_LABELS } from "@/lib/uploads/data-quality";
 import type { MethodContent } from "@/lib/validation/method";
@@ -244,6 +245,8 @@ export interface FilingFigures {
   excludedFactors: { factor: string; reason: string }[];
   correlation: CorrelationView | null;
   contributions: ContributionSet[];
+  /** which capital figure is filed, the other beside it, the standardised blocks (absent in content stored before regimes) */
+  regulatoryCapital?: RegulatoryCapitalView | null;
 }
 
 export interface FilingViewModel {
@@ -323,6 +326,8 @@ export interface FilingPackInput {
   riskFactorStatement?: string;
   /** statements the run adds beyond the engine's */
   runNotes?: string[];
+  /** which capital figure the run's profile files and the other beside it (reports/regulatory-capital.ts) */
+  regulatoryCapital?: RegulatoryCapitalView | null;
   dataQuality: QualityReport | null;
   method: { version: number; content: MethodContent | null; rationale: string; limitations: string[]; approvedAt?: string | null };
   firm: { name: string; reportingCurrency: string; regulatorName: string; licenceLabel: string };
@@ -645,6 +650,7 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       excludedFactors: r.factors.excluded.map((f) => ({ ...f })),
       correlation,
       contributions,
+      regulatoryCapital: input.regulatoryCapital ?? null,
     },
     method: {
       version: input.method.version,
