@@ -1,8 +1,11 @@
 /**
  * Command-line commands of the portfolio engine:
  *   var --positions P.csv --prices PR.csv [--method parametric|historical|filtered] [--cov equal|ewma|garch-ccc]
+ *       [--vol FACTOR=MODEL,…,default=MODEL] [--corr equal:N|ewma:L|ccc]
  *       [--lambda L] [--window N] [--confidence C] [--horizon H] [--scaling sqrt|term|overlap]
  *       [--reporting-currency CCY] [--missing drop|carry-forward] --json
+ *     --vol gives each factor its own volatility process (MODEL ma:M, ewma:L, ewma:fit, arch:M, garch, garch-t) and
+ *     makes the covariance D·R·D with the --corr correlation (default ewma:λ with --lambda, else 0.94)
  *   backtest --input FILE.csv (date,pnl,var) [--confidence C] --json
  *   capital --input FILE.csv (date,var,svar; at least 60 rows, the last being t−1) [--exceptions N] [--mc M] [--ms M] --json
  */
@@ -14,6 +17,7 @@ import { runBacktest } from "../risk/backtest/backtest";
 import { BASEL_CAPITAL_PROFILE, capitalCharge } from "../risk/capital/capital";
 import type { HorizonScaling } from "../risk/var/scaling";
 import { ENGINE_VERSION } from "../risk/version";
+import { parseCorrelation, parseVolSpecs } from "./specs";
 
 const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
 
@@ -116,7 +120,7 @@ export function readPrices(path: string | undefined): DatedSeries[] {
   return [...bySeries.entries()].map(([id, s]) => ({ id, dates: s.dates, values: s.values }));
 }
 
-const VAR_OPTIONS = ["positions", "prices", "method", "cov", "lambda", "window", "confidence", "horizon", "scaling", "reporting-currency", "missing"];
+const VAR_OPTIONS = ["positions", "prices", "method", "cov", "vol", "corr", "lambda", "window", "confidence", "horizon", "scaling", "reporting-currency", "missing"];
 
 function varCommand(argv: string[]): void {
   const options = parseOptions(argv, VAR_OPTIONS, ["json"]);
@@ -128,7 +132,11 @@ function varCommand(argv: string[]): void {
   const window = numberOption(options, "window", (v) => Number.isInteger(v) && v >= 2, "a whole number of days of at least 2");
   const confidence = numberOption(options, "confidence", (v) => v > 0 && v < 1, "a number between 0 and 1, e.g. 0.99") ?? 0.99;
   const horizon = numberOption(options, "horizon", (v) => Number.isInteger(v) && v >= 1, "a whole number of days, e.g. 1 or 10") ?? 1;
-  if (scaling === "term" && cov !== "garch-ccc") throw new CliError("--scaling term needs --cov garch-ccc");
+  const volRaw = stringOption(options, "vol");
+  const corrRaw = stringOption(options, "corr");
+  if (corrRaw !== undefined && volRaw === undefined) throw new CliError("--corr applies with --vol (per-factor volatility processes); without --vol use --cov");
+  if (volRaw !== undefined && stringOption(options, "cov") !== undefined) throw new CliError("--vol and --cov do not go together: with --vol the covariance is D·R·D with the --corr correlation");
+  if (scaling === "term" && cov !== "garch-ccc" && volRaw === undefined) throw new CliError("--scaling term needs --vol (or --cov garch-ccc)");
   if (scaling === "overlap" && method === "parametric") throw new CliError("--scaling overlap applies to --method historical or filtered");
 
   const positions = readPositions(stringOption(options, "positions"));
@@ -145,7 +153,11 @@ function varCommand(argv: string[]): void {
   if (aligned.dates.length < 3) throw new CliError(`--prices: only ${aligned.dates.length} dates remain after aligning the series (missing: ${missing})`);
   const factors: Record<string, number[]> = {};
   for (const s of series) factors[s.id] = logReturns(aligned.values[s.id]);
-  const result = portfolioVar({
+  const vol = volRaw !== undefined ? parseVolSpecs(volRaw, ids) : null;
+  const correlation = corrRaw !== undefined ? parseCorrelation(corrRaw) : undefined;
+  let result;
+  try {
+    result = portfolioVar({
     positions,
     returns: { dates: aligned.dates.slice(1), factors },
     reportingCurrency: reporting,
@@ -159,8 +171,13 @@ function varCommand(argv: string[]): void {
       confidences: [confidence],
       horizonDays: Math.max(horizon, 2) === horizon ? horizon : 10,
       scaling,
+      ...(vol ? { volatility: vol.choice, ...(correlation ? { correlation } : {}) } : {}),
     },
-  });
+    });
+  } catch (error) {
+    if (vol) throw new CliError((error as Error).message);
+    throw error;
+  }
   const figures = result.methods[0];
   const c = figures.byConfidence[0];
   const long = horizon > 1;
@@ -177,7 +194,7 @@ function varCommand(argv: string[]): void {
     confidence,
     horizonDays: horizon,
     method,
-    covariance: method === "historical" ? "not used" : cov,
+    covariance: method === "historical" ? "not used" : vol ? `D·R·D: per-factor processes, correlation ${result.model.correlation.label}` : cov,
     scaling: long ? figures.scalingStatement : "one-day figures, no scaling",
     portfolioVolatility: figures.portfolioVolatility,
     asOf: result.asOf,
@@ -200,6 +217,9 @@ function varCommand(argv: string[]): void {
     byFactor: c.byFactor,
     diversificationBenefit: long ? c.diversificationBenefit10d : c.diversificationBenefit,
     covarianceCheck: result.covarianceCheck,
+    factors: result.model.factors.map((f) => ({ factor: f.factor, model: f.label, variance: f.variance, params: f.params, startUp: f.startUp, fallback: f.fallback })),
+    correlation: { factors: result.correlation.factors, matrix: result.correlation.matrix, estimator: result.model.correlation.label, repair: result.model.correlation.repair },
+    model: { statements: result.model.statements, defaultModel: vol ? (vol.defaultGiven ? "as given" : "EWMA λ = 0.94 (no default= given)") : "not used" },
     excludedPositions: result.excludedPositions,
     sample: result.sample,
     warnings,

@@ -228,9 +228,14 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   params.beta = beta;
   if (studentT) params.nu = nu;
   // log-likelihood recomputed in the caller's units
-  const original: Garch11Problem = { x: Float64Array.from(returns as ArrayLike<number>), fitMean, studentT, targeting, init: likelihoodInit(init, n, 1) };
-  const naturalOriginal = names.map((name) => (name === "nu" ? nu : params[name]));
-  const logLikelihood = garch11LogLikelihood(original, naturalOriginal);
+  // in a lean refit, from the scaled fit: ℓ(x) = ℓ(x/s) − n·ln s (the same up to rounding)
+  let logLikelihood: number;
+  if (lean) logLikelihood = -best.value * n - n * Math.log(scale);
+  else {
+    const original: Garch11Problem = { x: Float64Array.from(returns as ArrayLike<number>), fitMean, studentT, targeting, init: likelihoodInit(init, n, 1) };
+    const naturalOriginal = names.map((name) => (name === "nu" ? nu : params[name]));
+    logLikelihood = garch11LogLikelihood(original, naturalOriginal);
+  }
   let h1: number;
   if (typeof init === "number") h1 = init;
   else if (init === "unconditional") h1 = omega / (1 - persistence);

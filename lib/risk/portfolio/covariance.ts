@@ -51,15 +51,30 @@ export function equalWeightCovariance(returns: readonly ArrayLike<number>[], opt
 function crossProduct(rows: Float64Array[], divisor: number, k: number): SymmetricMatrix {
   const m = zeroMatrix(k);
   const n = rows[0].length;
+  const out = m.values;
+  const put = (i: number, j: number, s: number): void => {
+    const v = s / divisor;
+    out[i * k + j] = v;
+    out[j * k + i] = v;
+  };
   for (let i = 0; i < k; i++) {
     const a = rows[i];
-    for (let j = 0; j <= i; j++) {
+    let j = 0;
+    // four columns at a time: each sum still runs over d in order, so every element is the same to the last bit
+    for (; j + 3 <= i; j += 4) {
+      const b0 = rows[j], b1 = rows[j + 1], b2 = rows[j + 2], b3 = rows[j + 3];
+      let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+      for (let d = 0; d < n; d++) {
+        const x = a[d];
+        s0 += x * b0[d]; s1 += x * b1[d]; s2 += x * b2[d]; s3 += x * b3[d];
+      }
+      put(i, j, s0); put(i, j + 1, s1); put(i, j + 2, s2); put(i, j + 3, s3);
+    }
+    for (; j <= i; j++) {
       const b = rows[j];
       let s = 0;
       for (let d = 0; d < n; d++) s += a[d] * b[d];
-      const v = s / divisor;
-      m.values[i * k + j] = v;
-      m.values[j * k + i] = v;
+      put(i, j, s);
     }
   }
   return m;

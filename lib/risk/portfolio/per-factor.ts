@@ -5,7 +5,7 @@
  * (Higham 2002) when it is not positive semi-definite. Also the refit schedule of the out-of-sample VaR history and
  * the day-by-day correlation it needs. Pure.
  */
-import { fitProcess, filterFit, horizonVariance, minimumReturns, processLimitations, resolveSpec, specLabel, specStartUp } from "../process/registry";
+import { estimatesParameters, fitProcess, filterFit, horizonVariance, minimumReturns, processLimitations, resolveSpec, specLabel, specStartUp } from "../process/registry";
 import type { BacktestRefit, CorrelationSpec, ProcessFit, ResolvedCorrelation, ResolvedFactorModel, VolatilityChoice, VolatilitySpec } from "../process/types";
 import { equalWeightCovariance, ewmaCovariance, standardisedCorrelation } from "./covariance";
 import { covarianceToCorrelation, zeroMatrix, type SymmetricMatrix } from "./matrix";
@@ -217,11 +217,13 @@ export function forEachBlock(
     if (block.tau === L) fits = [...today];
     else {
       fits = specs.map((fs, i) => {
+        // nothing to estimate (a moving average, a fixed λ): the same parameters, the start-up from the earlier data
+        if (!estimatesParameters(fs.spec)) return today[i];
         const warm = previous[i].used.kind === fs.spec.kind ? previous[i].params : undefined;
         return fitFactor(returns[i].subarray(0, block.tau), fs, { warmStart: warm, lean: true, asOf: dates[block.tau - 1] });
       });
     }
-    for (let i = 0; i < k; i++) paths[i].set(filterFit(fits[i], returns[i], block.tau));
+    for (let i = 0; i < k; i++) filterFit(fits[i], returns[i], block.tau, paths[i]);
     onBlock(block, { fits, paths });
     previous = fits;
   }

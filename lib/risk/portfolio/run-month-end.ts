@@ -892,6 +892,10 @@ export interface PortfolioVarResult {
   choices: MonthEndResult["choices"];
   warnings: EngineWarning[];
   limitations: string[];
+  /** the resolved model configuration (per factor process and one-day variance, correlation, horizon rule) */
+  model: ResolvedModel;
+  /** the correlation matrix behind the parametric figures */
+  correlation: StoredCorrelation;
 }
 
 /**
@@ -902,6 +906,7 @@ export interface PortfolioVarResult {
 export function portfolioVar(input: MonthEndInput): PortfolioVarResult {
   const core = varCore(input);
   const { method, L, H, W, dates } = core;
+  const model = resolveModel(core.prepared, core.scalingFor, L, H);
   return {
     engineVersion: ENGINE_VERSION,
     asOf: dates[L - 1],
@@ -914,7 +919,9 @@ export function portfolioVar(input: MonthEndInput): PortfolioVarResult {
     sample: { days: L, firstDate: dates[0], lastDate: dates[L - 1] },
     choices: describeChoices(method, core.scalingFor, L, W, H, core.confidences),
     warnings: core.warnings,
-    limitations: describeLimitations(method, core.scalingFor, L, W, H),
+    limitations: [...describeLimitations(method, core.scalingFor, L, W, H), ...modelLimitations(model, core.prepared)],
+    model,
+    correlation: storedCorrelation(core.prepared),
   };
 }
 

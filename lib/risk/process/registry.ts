@@ -59,10 +59,10 @@ const maProcess: VolatilityProcess<MaSpec> = {
     const fit = fitMovingAverage(returns, { window: s.window, divisor: s.divisor, mean: s.mean });
     return baseFit(s, s, fit, null, maProcess.label(s), ["window"]);
   },
-  filter(returns, spec) {
+  filter(returns, spec, _params, _initEnd, buffer) {
     const s = maProcess.resolve(spec);
     const path = movingAverageVariance(returns, { window: s.window, divisor: s.divisor!, mean: s.mean! });
-    const out = new Float64Array(returns.length + 1);
+    const out = buffer ?? new Float64Array(returns.length + 1);
     out.set(path.variance);
     out[returns.length] = path.currentVariance;
     return out;
@@ -88,13 +88,13 @@ const ewmaProcess: VolatilityProcess<EwmaSpec> = {
     const fit = fitEwma(returns, { lambda: s.fit ? "fit" : s.lambda, init: s.init, ...(s.fit ? { start } : {}) });
     return baseFit(s, s, fit, s.init!, ewmaProcess.label(s, fit.params), ["lambda"]);
   },
-  filter(returns, spec, params, initEnd = returns.length) {
+  filter(returns, spec, params, initEnd = returns.length, buffer) {
     const s = ewmaProcess.resolve(spec);
     const lambda = params.lambda ?? s.lambda;
     const init = s.init!;
     let h = typeof init === "number" ? init : backcastOf(returns, init, initEnd);
     const n = returns.length;
-    const out = new Float64Array(n + 1);
+    const out = buffer ?? new Float64Array(n + 1);
     const a = 1 - lambda;
     for (let t = 0; t < n; t++) {
       out[t] = h;
@@ -123,13 +123,13 @@ const archProcess: VolatilityProcess<ArchSpec> = {
     const fit = fitArch(returns, { order: s.order, init: s.init, warmStart: options.warmStart });
     return baseFit(s, s, fit, s.init as InitRule, archProcess.label(s), archProcess.parameterNames(s));
   },
-  filter(returns, spec, params, initEnd = returns.length) {
+  filter(returns, spec, params, initEnd = returns.length, buffer) {
     const s = archProcess.resolve(spec);
     const m = s.order;
     const alphas = archAlphas(params, m);
     const b = backcastOf(returns, s.init as Exclude<InitRule, number | "unconditional">, initEnd);
     const n = returns.length;
-    const out = new Float64Array(n + 1);
+    const out = buffer ?? new Float64Array(n + 1);
     for (let t = 0; t <= n; t++) {
       let h = params.omega;
       for (let i = 0; i < m; i++) { const j = t - 1 - i; const u2 = j >= 0 ? returns[j] * returns[j] : b; h += alphas[i] * u2; }
@@ -188,7 +188,7 @@ const garchProcess: VolatilityProcess<GarchSpec> = {
     }
     return baseFit(s, s, fit, s.init!, garchProcess.label(s, fit.params), garchProcess.parameterNames(s));
   },
-  filter(returns, spec, params, initEnd = returns.length) {
+  filter(returns, spec, params, initEnd = returns.length, buffer) {
     const s = garchProcess.resolve(spec);
     const { omega, alpha, beta } = params;
     const mu = params.mu ?? 0;
@@ -199,7 +199,7 @@ const garchProcess: VolatilityProcess<GarchSpec> = {
     else if (init === "unconditional") h = omega / (1 - persistence);
     else h = omega + persistence * backcastOf(returns, init, initEnd, mu);
     const n = returns.length;
-    const out = new Float64Array(n + 1);
+    const out = buffer ?? new Float64Array(n + 1);
     for (let t = 0; t < n; t++) {
       out[t] = h;
       const u = returns[t] - mu;
@@ -313,8 +313,14 @@ export function fitProcess(returns: ArrayLike<number>, spec: VolatilitySpec, opt
  * parameters held fixed and its start-up from returns[0..initEnd): out[t] is the variance of returns[t] given
  * the returns before it, out[n] the forecast for the day after the last.
  */
-export function filterFit(fit: Pick<ProcessFit, "used" | "params">, returns: ArrayLike<number>, initEnd = returns.length): Float64Array {
-  return anyProcess(fit.used).filter(returns, fit.used, fit.params, initEnd);
+export function filterFit(fit: Pick<ProcessFit, "used" | "params">, returns: ArrayLike<number>, initEnd = returns.length, out?: Float64Array): Float64Array {
+  if (out && out.length !== returns.length + 1) throw new RangeError("filterFit requires an output of one more value than the returns");
+  return anyProcess(fit.used).filter(returns, fit.used, fit.params, initEnd, out);
+}
+
+/** True when the spec estimates parameters from the data (false for the moving average and a fixed λ). */
+export function estimatesParameters(spec: VolatilitySpec): boolean {
+  return !(spec.kind === "ma" || (spec.kind === "ewma" && !spec.fit));
 }
 
 /** Daily variance forecasts for days 1..h after the fit's data (term structure; flat for ma and ewma). */

@@ -237,9 +237,10 @@ export interface VolatilityProcess<S extends VolatilitySpec = VolatilitySpec> {
   fit(returns: ArrayLike<number>, spec: S, options?: { warmStart?: Record<string, number>; lean?: boolean }): ProcessFit;
   /**
    * The variance path with parameters held fixed, the start-up computed from returns[0..initEnd) only
-   * (default: all of them): out[t] for t = 0..n, out[n] being the forecast for the day after the last return.
+   * (default: all of them): out[t] for t = 0..n, out[n] being the forecast for the day after the last return
+   * (written into `out` when given, of length n + 1).
    */
-  filter(returns: ArrayLike<number>, spec: S, params: Record<string, number>, initEnd?: number): Float64Array;
+  filter(returns: ArrayLike<number>, spec: S, params: Record<string, number>, initEnd?: number, out?: Float64Array): Float64Array;
   /** daily variance forecasts for days 1..h after the fit (term structure; flat for ma and ewma) */
   forecast(fit: ProcessFit, horizonDays: number): Float64Array;
   /** the forecast from a state: next-day variance and the recent squared returns (newest first) */
