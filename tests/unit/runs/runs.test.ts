@@ -109,7 +109,8 @@ describe("a run of the demo period", () => {
     expect(r.monthEnd.backtest.days).toBe(250);
     expect(r.inputs.excludedFactors.map((f) => f.factor)).toContain("NMB-EQ-WYNCOTE");
     expect(r.monthEnd.excludedPositions.map((p) => p.instrument)).toEqual(["TRADING · NMB-EQ-WYNCOTE"]);
-    expect(r.positions.rows).toBe(46);
+    // every row of the demo November file (templates/demo/README.md: 56 positions)
+    expect(r.positions.rows).toBe(56);
     expect(r.dataQuality.items).toBe(r.dataQuality.report.items.length);
     expect(r.dataQuality.items).toBeGreaterThan(0);
     expect(r.factorVolatility.statement).toContain("covariance choice");
@@ -157,7 +158,9 @@ describe("a run of the demo period", () => {
   });
 
   it("stores the exact inputs, whose hashes are the ones recorded", () => {
-    expect(inputs.positions).toHaveLength(46);
+    expect(inputs.positions).toHaveLength(56);
+    // the positions' standardised attributes are stored with them (the demo bond's maturity and coupon)
+    expect(inputs.positions.find((p) => p.instrument === "NMB-GB-AUR-2031")?.attributes).toMatchObject({ instrumentType: "bond", issuerCategory: "government", maturityDate: "2031-06-15", coupon: 2.25 });
     expect(inputs.method.version).toBe(1);
     // the seed loads the price history to 2026-11-20 (templates/demo/README.md); nothing after the period end is read
     expect(inputs.prices.dates.at(-1)).toBe("2026-11-20");

@@ -5,6 +5,7 @@ import { usePathname } from "next/navigation";
 
 const TABS = [
   { href: "", label: "Summary" },
+  { href: "/capital", label: "Capital" },
   { href: "/factors", label: "Risk factors" },
   { href: "/contributions", label: "Contributions" },
   { href: "/volatility", label: "Volatility" },

@@ -1,0 +1,545 @@
+"use client";
+
+import Link from "next/link";
+import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { DraftCaution } from "@/app/_components/draft-caution";
+import type { RunResults } from "@/lib/runs/types";
+import type { InterestRateCurrencyResult, StandardisedBlocks, StandardisedResult } from "@/lib/risk/standardised";
+import { filedCapitalOf, RWA_MULTIPLIER } from "@/lib/runs/standardised";
+import { REGIME_LABELS } from "@/lib/validation/capital-profile";
+import { compactMoney, money, num, pct } from "../../_components/run-format";
+import { CompletedRun } from "../../_components/run-state";
+
+/** The blocks in the order the total adds them, with their names on screen. */
+export const BLOCK_WORDS: { key: keyof StandardisedBlocks; label: string }[] = [
+  { key: "interestRateSpecific", label: "Interest rate: specific risk" },
+  { key: "interestRateGeneral", label: "Interest rate: general market risk" },
+  { key: "equitySpecific", label: "Equities: specific risk" },
+  { key: "equityGeneral", label: "Equities: general market risk" },
+  { key: "fx", label: "Foreign exchange and gold" },
+  { key: "commodities", label: "Commodities" },
+  { key: "options", label: "Options (carve-out)" },
+];
+
+const th = "py-1.5 pr-3 font-medium";
+const td = "py-1 pr-3 figure text-right";
+
+function Money({ value, currency }: { value: number; currency: string }) {
+  return <>{money(value, currency)}</>;
+}
+
+function years(y: number): string {
+  return `${num(y, 2)} y`;
+}
+
+function FiguresHeadline({ results, currency }: { results: RunResults; currency: string }) {
+  const { filed, comparison, missing, filedRegime } = filedCapitalOf(results);
+  const cp = results.capitalProfile;
+  return (
+    <section aria-labelledby="capital-filed" className="grid gap-4 md:grid-cols-2">
+      <h2 id="capital-filed" className="sr-only">
+        Filed figure and comparison
+      </h2>
+      <div className="rounded-lg border-2 border-brass bg-paper-raised p-4" data-testid="filed-figure">
+        <p className="text-sm text-ink-soft">Filed figure · {REGIME_LABELS[filedRegime]}</p>
+        {filed ? (
+          <>
+            <p className="figure mt-1 text-3xl font-semibold">{money(filed.capital, currency)}</p>
+            {filed.rwa !== null ? (
+              <p className="figure text-sm text-ink-soft">
+                Risk-weighted-asset equivalent (× {RWA_MULTIPLIER}): {money(filed.rwa, currency)}
+              </p>
+            ) : null}
+          </>
+        ) : (
+          <p role="alert" className="mt-1 text-sm text-alert">
+            {missing}
+          </p>
+        )}
+      </div>
+      <div className="rounded-lg border border-ink-line bg-paper-raised p-4" data-testid="comparison-figure">
+        <p className="text-sm text-ink-soft">Comparison · {comparison ? comparison.label : "none computed"}</p>
+        {comparison ? (
+          <>
+            <p className="figure mt-1 text-2xl">{money(comparison.capital, currency)}</p>
+            {comparison.rwa !== null ? <p className="figure text-sm text-ink-soft">Risk-weighted-asset equivalent: {money(comparison.rwa, currency)}</p> : null}
+            <p className="mt-1 text-xs text-ink-muted">Shown beside the filed figure; it is not filed.</p>
+          </>
+        ) : (
+          <p className="mt-1 text-sm text-ink-soft">This run&apos;s capital rule profile computes one figure only.</p>
+        )}
+      </div>
+      <p className="text-sm text-ink-soft md:col-span-2">
+        Capital rule profile {cp.version ? `version ${cp.version}` : "(stored before profiles were versioned)"} · {cp.name} · as of {results.inputs.periodEnd}. Change the profile in{" "}
+        <Link href="/settings" className="underline">
+          Settings
+        </Link>
+        ; a run keeps the version it used.
+      </p>
+    </section>
+  );
+}
+
+function BlocksChart({ result, currency }: { result: StandardisedResult; currency: string }) {
+  const data = BLOCK_WORDS.map((b) => ({ label: b.label, value: result.blocks[b.key] }));
+  return (
+    <figure className="rounded-lg border border-ink-line bg-paper-raised p-4">
+      <figcaption className="mb-2 text-sm font-semibold">Standardised charge by building block, {currency}, as of {result.asOf ?? "the period end"}</figcaption>
+      <div className="h-72" aria-hidden="true">
+        <ResponsiveContainer width="100%" height="100%">
+          <BarChart data={data} layout="vertical" margin={{ top: 4, right: 24, bottom: 16, left: 8 }}>
+            <CartesianGrid horizontal={false} stroke="#d8d3c7" />
+            <XAxis type="number" tickFormatter={compactMoney} tick={{ fontSize: 12, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: `charge, ${currency}`, position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
+            <YAxis type="category" dataKey="label" width={230} tick={{ fontSize: 12, fill: "#1c2733" }} stroke="#6b7682" />
+            <Tooltip formatter={(v) => [money(Number(v), currency), "Charge"]} />
+            <Bar dataKey="value" fill="#3d4a57" isAnimationActive={false} />
+          </BarChart>
+        </ResponsiveContainer>
+      </div>
+      <table className="mt-3 w-full text-sm" data-testid="blocks-table">
+        <caption className="mb-1 text-left text-xs text-ink-muted">The chart&apos;s figures: each block&apos;s charge and its share of the total</caption>
+        <thead>
+          <tr className="border-b border-ink-line text-right text-ink-muted">
+            <th scope="col" className={`${th} text-left`}>
+              Block
+            </th>
+            <th scope="col" className={th}>
+              Charge
+            </th>
+            <th scope="col" className={th}>
+              Share
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {data.map((d) => (
+            <tr key={d.label} className="border-b border-ink-line/60">
+              <th scope="row" className="py-1 pr-3 text-left font-normal">
+                {d.label}
+              </th>
+              <td className={td}>{money(d.value, currency)}</td>
+              <td className={td}>{result.total > 0 ? pct(d.value / result.total, 1) : "—"}</td>
+            </tr>
+          ))}
+          <tr className="font-semibold">
+            <th scope="row" className="py-1 pr-3 text-left">
+              Total market-risk capital
+            </th>
+            <td className={td}>{money(result.total, currency)}</td>
+            <td className={td}>100 %</td>
+          </tr>
+          {result.rwa ? (
+            <tr>
+              <th scope="row" className="py-1 pr-3 text-left font-normal">
+                Risk-weighted-asset equivalent (× {result.rwaMultiplier})
+              </th>
+              <td className={td}>{money(result.rwa, currency)}</td>
+              <td />
+            </tr>
+          ) : null}
+        </tbody>
+      </table>
+    </figure>
+  );
+}
+
+function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; currency: string }) {
+  const weightWord = ladder.method === "duration" ? "Yield change (points)" : "Risk weight";
+  return (
+    <section aria-labelledby={`ladder-${ladder.currency}`} className="flex flex-col gap-3 rounded-lg border border-ink-line bg-paper-raised p-4" data-testid={`ladder-${ladder.currency}`}>
+      <h4 id={`ladder-${ladder.currency}`} className="font-semibold">
+        {ladder.currency} ladder ({ladder.method === "duration" ? "duration method" : "maturity method"}): charge {money(ladder.charge, currency)}
+      </h4>
+      <div className="overflow-x-auto">
+        <table className="min-w-full text-sm">
+          <caption className="mb-1 text-left text-xs text-ink-muted">Each band: positions, weighted positions, the matched amount and its vertical disallowance at {pct(ladder.verticalRate, 0)}</caption>
+          <thead>
+            <tr className="border-b border-ink-line text-right text-ink-muted">
+              <th scope="col" className={`${th} text-left`}>Band</th>
+              <th scope="col" className={th}>Zone</th>
+              <th scope="col" className={th}>{weightWord}</th>
+              <th scope="col" className={th}>Long</th>
+              <th scope="col" className={th}>Short</th>
+              <th scope="col" className={th}>Weighted long</th>
+              <th scope="col" className={th}>Weighted short</th>
+              <th scope="col" className={th}>Matched</th>
+              <th scope="col" className={th}>Net</th>
+              <th scope="col" className={th}>Vertical charge</th>
+            </tr>
+          </thead>
+          <tbody>
+            {ladder.bands.map((b) => (
+              <tr key={b.index} className="border-b border-ink-line/60">
+                <th scope="row" className="py-1 pr-3 text-left font-normal whitespace-nowrap">{b.band}</th>
+                <td className={td}>{b.zone}</td>
+                <td className={td}>{ladder.method === "duration" ? num(b.weight, 2) : pct(b.weight, 2)}</td>
+                <td className={td}><Money value={b.long} currency={currency} /></td>
+                <td className={td}><Money value={b.short} currency={currency} /></td>
+                <td className={td}><Money value={b.weightedLong} currency={currency} /></td>
+                <td className={td}><Money value={b.weightedShort} currency={currency} /></td>
+                <td className={td}><Money value={b.matched} currency={currency} /></td>
+                <td className={td}><Money value={b.net} currency={currency} /></td>
+                <td className={td}><Money value={b.verticalCharge} currency={currency} /></td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <div className="grid gap-4 lg:grid-cols-2">
+        <table className="text-sm">
+          <caption className="mb-1 text-left text-xs text-ink-muted">Within each zone: the bands&apos; nets and the horizontal disallowance</caption>
+          <thead>
+            <tr className="border-b border-ink-line text-right text-ink-muted">
+              <th scope="col" className={`${th} text-left`}>Zone</th>
+              <th scope="col" className={th}>Net long</th>
+              <th scope="col" className={th}>Net short</th>
+              <th scope="col" className={th}>Matched</th>
+              <th scope="col" className={th}>Rate</th>
+              <th scope="col" className={th}>Charge</th>
+              <th scope="col" className={th}>Zone net</th>
+            </tr>
+          </thead>
+          <tbody>
+            {ladder.zones.map((z) => (
+              <tr key={z.zone} className="border-b border-ink-line/60">
+                <th scope="row" className="py-1 pr-3 text-left font-normal">Zone {z.zone}</th>
+                <td className={td}><Money value={z.netLong} currency={currency} /></td>
+                <td className={td}><Money value={z.netShort} currency={currency} /></td>
+                <td className={td}><Money value={z.matched} currency={currency} /></td>
+                <td className={td}>{pct(z.rate, 0)}</td>
+                <td className={td}><Money value={z.charge} currency={currency} /></td>
+                <td className={td}><Money value={z.net} currency={currency} /></td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        <table className="text-sm">
+          <caption className="mb-1 text-left text-xs text-ink-muted">Between zones, in the order applied, then the residual net position</caption>
+          <thead>
+            <tr className="border-b border-ink-line text-right text-ink-muted">
+              <th scope="col" className={`${th} text-left`}>Step</th>
+              <th scope="col" className={th}>Matched</th>
+              <th scope="col" className={th}>Rate</th>
+              <th scope="col" className={th}>Charge</th>
+            </tr>
+          </thead>
+          <tbody>
+            {(
+              [
+                ["Zone 1 against zone 2", ladder.betweenDetail.zone12],
+                ["Zone 2 against zone 3", ladder.betweenDetail.zone23],
+                ["Zone 1 against zone 3", ladder.betweenDetail.zone13],
+              ] as const
+            ).map(([label, d]) => (
+              <tr key={label} className="border-b border-ink-line/60">
+                <th scope="row" className="py-1 pr-3 text-left font-normal">{label}</th>
+                <td className={td}><Money value={d.matched} currency={currency} /></td>
+                <td className={td}>{pct(d.rate, 0)}</td>
+                <td className={td}><Money value={d.charge} currency={currency} /></td>
+              </tr>
+            ))}
+            <tr className="border-b border-ink-line/60">
+              <th scope="row" className="py-1 pr-3 text-left font-normal">Residual net position</th>
+              <td className={td}><Money value={ladder.residual} currency={currency} /></td>
+              <td className={td}>{ladder.residual > 0 ? pct(ladder.residualCharge / ladder.residual, 0) : "—"}</td>
+              <td className={td}><Money value={ladder.residualCharge} currency={currency} /></td>
+            </tr>
+          </tbody>
+        </table>
+      </div>
+      <p className="text-sm figure">
+        {ladder.currency}: vertical {money(ladder.vertical, currency)} + within zones {money(ladder.withinZones, currency)} + between zones{" "}
+        {money(ladder.between.zone12 + ladder.between.zone23 + ladder.between.zone13, currency)} + residual {money(ladder.residualCharge, currency)} = {money(ladder.charge, currency)}
+      </p>
+    </section>
+  );
+}
+
+function Blocks({ result, currency }: { result: StandardisedResult; currency: string }) {
+  const ir = result.interestRate;
+  return (
+    <div className="flex flex-col gap-6">
+      <section aria-labelledby="ir-specific" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+        <h3 id="ir-specific" className="mb-2 font-semibold">Interest rate: specific risk, {money(result.blocks.interestRateSpecific, currency)}</h3>
+        {ir.specific.length === 0 ? (
+          <p className="text-sm text-ink-soft">No debt positions.</p>
+        ) : (
+          <div className="overflow-x-auto">
+            <table className="min-w-full text-sm">
+              <caption className="mb-1 text-left text-xs text-ink-muted">Each issue&apos;s net position, long or short alike, times its category&apos;s weight</caption>
+              <thead>
+                <tr className="border-b border-ink-line text-right text-ink-muted">
+                  <th scope="col" className={`${th} text-left`}>Issue</th>
+                  <th scope="col" className={`${th} text-left`}>Currency</th>
+                  <th scope="col" className={`${th} text-left`}>Issuer</th>
+                  <th scope="col" className={th}>Residual maturity</th>
+                  <th scope="col" className={th}>Net position</th>
+                  <th scope="col" className={th}>Weight</th>
+                  <th scope="col" className={th}>Charge</th>
+                </tr>
+              </thead>
+              <tbody>
+                {ir.specific.map((l) => (
+                  <tr key={`${l.instrument}-${l.currency}`} className="border-b border-ink-line/60">
+                    <th scope="row" className="py-1 pr-3 text-left font-normal">{l.instrument}</th>
+                    <td className="py-1 pr-3">{l.currency}</td>
+                    <td className="py-1 pr-3">{l.issuerCategory}</td>
+                    <td className={td}>{years(l.residualMaturityYears)}</td>
+                    <td className={td}><Money value={l.net} currency={currency} /></td>
+                    <td className={td}>{pct(l.rate, 2)}</td>
+                    <td className={td}><Money value={l.charge} currency={currency} /></td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </section>
+
+      <section aria-labelledby="ir-general" className="flex flex-col gap-4">
+        <h3 id="ir-general" className="font-semibold">Interest rate: general market risk, {money(result.blocks.interestRateGeneral, currency)} (one ladder per currency, summed without offsetting)</h3>
+        {ir.legs.length > 0 ? (
+          <details className="rounded-lg border border-ink-line bg-paper-raised p-4">
+            <summary className="cursor-pointer text-sm font-medium">What went on the ladders: {ir.legs.length} positions and notional legs</summary>
+            <div className="mt-2 overflow-x-auto">
+              <table className="min-w-full text-sm">
+                <thead>
+                  <tr className="border-b border-ink-line text-right text-ink-muted">
+                    <th scope="col" className={`${th} text-left`}>Instrument</th>
+                    <th scope="col" className={`${th} text-left`}>Leg</th>
+                    <th scope="col" className={`${th} text-left`}>Currency</th>
+                    <th scope="col" className={th}>Amount</th>
+                    <th scope="col" className={th}>Years</th>
+                    <th scope="col" className={th}>Coupon</th>
+                    <th scope="col" className={`${th} text-left`}>Band</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {ir.legs.map((l, i) => (
+                    <tr key={i} className="border-b border-ink-line/60">
+                      <th scope="row" className="py-1 pr-3 text-left font-normal">{l.instrument}</th>
+                      <td className="py-1 pr-3">{l.leg}</td>
+                      <td className="py-1 pr-3">{l.currency}</td>
+                      <td className={td}><Money value={l.amount} currency={currency} /></td>
+                      <td className={td}>{num(l.years, 3)}</td>
+                      <td className={td}>{num(l.coupon, 2)} %</td>
+                      <td className="py-1 pr-3 whitespace-nowrap">{l.band}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+          </details>
+        ) : null}
+        {ir.byCurrency.length === 0 ? <p className="text-sm text-ink-soft">No positions on an interest-rate ladder.</p> : ir.byCurrency.map((l) => <Ladder key={l.currency} ladder={l} currency={currency} />)}
+      </section>
+
+      <section aria-labelledby="equity-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+        <h3 id="equity-block" className="mb-2 font-semibold">
+          Equities, per national market: specific {money(result.blocks.equitySpecific, currency)}, general {money(result.blocks.equityGeneral, currency)}
+        </h3>
+        {result.equity.byMarket.length === 0 ? (
+          <p className="text-sm text-ink-soft">No equity positions.</p>
+        ) : (
+          <table className="min-w-full text-sm" data-testid="equity-table">
+            <thead>
+              <tr className="border-b border-ink-line text-right text-ink-muted">
+                <th scope="col" className={`${th} text-left`}>Market</th>
+                <th scope="col" className={th}>Issues</th>
+                <th scope="col" className={th}>Gross</th>
+                <th scope="col" className={th}>Net</th>
+                <th scope="col" className={th}>Specific rate</th>
+                <th scope="col" className={th}>Specific</th>
+                <th scope="col" className={th}>General rate</th>
+                <th scope="col" className={th}>General</th>
+              </tr>
+            </thead>
+            <tbody>
+              {result.equity.byMarket.map((m) => (
+                <tr key={m.market} className="border-b border-ink-line/60">
+                  <th scope="row" className="py-1 pr-3 text-left font-normal">{m.market}</th>
+                  <td className={td}>{m.issues.length}</td>
+                  <td className={td}><Money value={m.gross} currency={currency} /></td>
+                  <td className={td}><Money value={m.net} currency={currency} /></td>
+                  <td className={td}>{pct(m.specificRate, 0)}</td>
+                  <td className={td}><Money value={m.specific} currency={currency} /></td>
+                  <td className={td}>{pct(m.generalRate, 0)}</td>
+                  <td className={td}><Money value={m.general} currency={currency} /></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+
+      <section aria-labelledby="fx-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+        <h3 id="fx-block" className="mb-2 font-semibold">Foreign exchange and gold (shorthand method): {money(result.blocks.fx, currency)}</h3>
+        <div className="grid gap-4 lg:grid-cols-2">
+          <table className="text-sm" data-testid="fx-table">
+            <caption className="mb-1 text-left text-xs text-ink-muted">Net open position per currency against {result.fx.reportingCurrency}</caption>
+            <thead>
+              <tr className="border-b border-ink-line text-right text-ink-muted">
+                <th scope="col" className={`${th} text-left`}>Currency</th>
+                <th scope="col" className={th}>From positions</th>
+                <th scope="col" className={th}>Currency positions</th>
+                <th scope="col" className={th}>Net</th>
+              </tr>
+            </thead>
+            <tbody>
+              {result.fx.byCurrency.map((c) => (
+                <tr key={c.currency} className="border-b border-ink-line/60">
+                  <th scope="row" className="py-1 pr-3 text-left font-normal">{c.currency}</th>
+                  <td className={td}><Money value={c.fromPositions} currency={currency} /></td>
+                  <td className={td}><Money value={c.fromCurrencyPositions} currency={currency} /></td>
+                  <td className={td}><Money value={c.net} currency={currency} /></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+            <dt>Sum of net long positions</dt>
+            <dd className="figure text-right">{money(result.fx.netLong, currency)}</dd>
+            <dt>Sum of net short positions</dt>
+            <dd className="figure text-right">{money(result.fx.netShort, currency)}</dd>
+            <dt>Net gold position (never netted)</dt>
+            <dd className="figure text-right">{money(result.fx.gold, currency)}</dd>
+            <dt>Overall net open position</dt>
+            <dd className="figure text-right">{money(result.fx.overallNetOpenPosition, currency)}</dd>
+            <dt>Charge at {pct(result.fx.rate, 0)}</dt>
+            <dd className="figure text-right font-semibold">{money(result.fx.charge, currency)}</dd>
+            <dt>De minimis test</dt>
+            <dd className="text-right">
+              {result.fx.deMinimis.met === null
+                ? "not made (no eligible capital in the profile)"
+                : `${result.fx.deMinimis.met ? "met" : "not met"}${result.fx.deMinimis.applied ? ", applied" : ", not applied"}`}
+            </dd>
+          </dl>
+        </div>
+      </section>
+
+      <section aria-labelledby="commodity-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+        <h3 id="commodity-block" className="mb-2 font-semibold">Commodities: {money(result.blocks.commodities, currency)}</h3>
+        {result.commodities.byCommodity.length === 0 ? (
+          <p className="text-sm text-ink-soft">No commodity positions.</p>
+        ) : (
+          <table className="min-w-full text-sm" data-testid="commodity-table">
+            <thead>
+              <tr className="border-b border-ink-line text-right text-ink-muted">
+                <th scope="col" className={`${th} text-left`}>Commodity</th>
+                <th scope="col" className={th}>Long</th>
+                <th scope="col" className={th}>Short</th>
+                <th scope="col" className={th}>Net</th>
+                <th scope="col" className={th}>Gross</th>
+                <th scope="col" className={th}>On the net</th>
+                <th scope="col" className={th}>On the gross</th>
+                <th scope="col" className={th}>Charge</th>
+              </tr>
+            </thead>
+            <tbody>
+              {result.commodities.byCommodity.map((c) => (
+                <tr key={c.commodity} className="border-b border-ink-line/60">
+                  <th scope="row" className="py-1 pr-3 text-left font-normal">{c.commodity}</th>
+                  <td className={td}><Money value={c.long} currency={currency} /></td>
+                  <td className={td}><Money value={c.short} currency={currency} /></td>
+                  <td className={td}><Money value={c.net} currency={currency} /></td>
+                  <td className={td}><Money value={c.gross} currency={currency} /></td>
+                  <td className={td}><Money value={c.netCharge} currency={currency} /></td>
+                  <td className={td}><Money value={c.grossCharge} currency={currency} /></td>
+                  <td className={td}><Money value={c.charge} currency={currency} /></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+
+      <section aria-labelledby="options-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+        <h3 id="options-block" className="mb-2 font-semibold">Options (simplified carve-out): {money(result.blocks.options, currency)}</h3>
+        {result.options.length === 0 ? (
+          <p className="text-sm text-ink-soft">No option positions.</p>
+        ) : (
+          <table className="min-w-full text-sm">
+            <thead>
+              <tr className="border-b border-ink-line text-right text-ink-muted">
+                <th scope="col" className={`${th} text-left`}>Option</th>
+                <th scope="col" className={`${th} text-left`}>Underlying</th>
+                <th scope="col" className={`${th} text-left`}>Treatment</th>
+                <th scope="col" className={th}>Underlying value</th>
+                <th scope="col" className={th}>Rates</th>
+                <th scope="col" className={th}>In the money</th>
+                <th scope="col" className={th}>Charge</th>
+              </tr>
+            </thead>
+            <tbody>
+              {result.options.map((o) => (
+                <tr key={o.instrument} className="border-b border-ink-line/60">
+                  <th scope="row" className="py-1 pr-3 text-left font-normal">{o.instrument} ({o.optionKind})</th>
+                  <td className="py-1 pr-3">{o.underlying}</td>
+                  <td className="py-1 pr-3">{o.treatment === "hedged" ? "with its hedge" : "bought, no hedge"}</td>
+                  <td className={td}><Money value={o.underlyingValue} currency={currency} /></td>
+                  <td className={td}>{pct(o.specificRate + o.generalRate, 0)}</td>
+                  <td className={td}><Money value={o.inTheMoney} currency={currency} /></td>
+                  <td className={td}><Money value={o.charge} currency={currency} /></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+
+      {result.warnings.length > 0 ? (
+        <section aria-labelledby="std-notes" className="rounded-lg border border-ink-line bg-paper-raised p-4">
+          <h3 id="std-notes" className="mb-2 font-semibold">What the blocks did not cover or assumed</h3>
+          <ul className="list-disc pl-5 text-sm">
+            {result.warnings.map((w) => (
+              <li key={w.code + w.message}>{w.message}</li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+    </div>
+  );
+}
+
+/** The Capital tab: the filed figure and the other beside it, then the standardised building blocks line by line. */
+export function CapitalView({ runId }: { runId: string }) {
+  return (
+    <CompletedRun runId={runId}>
+      {({ results, reportingCurrency }) => {
+        const std = results.standardised;
+        return (
+          <div className="flex flex-col gap-6">
+            <DraftCaution />
+            <FiguresHeadline results={results} currency={reportingCurrency} />
+            {std?.result ? (
+              <>
+                <BlocksChart result={std.result} currency={reportingCurrency} />
+                <Blocks result={std.result} currency={reportingCurrency} />
+                <p className="text-xs text-ink-muted">
+                  Standardised rule set “{std.result.profileName}” of the run&apos;s capital rule profile, engine {std.result.engineVersion}. Every figure is in {reportingCurrency} at the period end.
+                </p>
+              </>
+            ) : std && std.problems.length > 0 ? (
+              <section role="alert" className="rounded-lg border border-alert/30 bg-alert-bg p-4 text-sm">
+                <p className="font-semibold text-alert">The standardised figure could not be computed from this run&apos;s positions.</p>
+                <ul className="mt-2 list-disc pl-5">
+                  {std.problems.slice(0, 20).map((p, i) => (
+                    <li key={i}>
+                      Row {p.row} ({p.instrument}), column {p.column}: {p.message}
+                    </li>
+                  ))}
+                </ul>
+                {std.problems.length > 20 ? <p className="mt-1">… and {std.problems.length - 20} more.</p> : null}
+              </section>
+            ) : (
+              <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">
+                This run&apos;s capital rule profile computes the internal-models figure only, so there are no building blocks to show. To compute them, change the profile in Settings; runs started afterwards
+                compute both.
+              </p>
+            )}
+          </div>
+        );
+      }}
+    </CompletedRun>
+  );
+}
