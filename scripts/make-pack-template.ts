@@ -38,6 +38,7 @@ import {
   headerText,
 } from "@/reports/xlsx/layout";
 import type { PackWorkbook } from "@/reports/xlsx/workbook-types";
+import { withSharedStyles } from "@/reports/xlsx/shared-styles";
 
 const TEMPLATE_PATH = path.join(process.cwd(), "templates", "filing-pack.xlsx");
 
@@ -122,7 +123,8 @@ async function printSetup(bytes: Buffer): Promise<Buffer> {
     );
     zip.file(file, xml);
   }
-  return zip.generateAsync({ type: "nodebuffer", compression: "DEFLATE" });
+  // one shared cell format per distinct style, no empty fills (reports/xlsx/shared-styles.ts)
+  return withSharedStyles(await zip.generateAsync({ type: "nodebuffer", compression: "DEFLATE" }));
 }
 
 async function main() {

@@ -35,6 +35,7 @@ import {
   type ValueKind,
 } from "./layout";
 import type { PackCell, PackSheet, PackWorkbook } from "./workbook-types";
+import { withSharedStyles } from "./shared-styles";
 
 export const TEMPLATE_PATH = path.join(process.cwd(), "templates", "filing-pack.xlsx");
 
@@ -336,5 +337,6 @@ export async function buildWorkbookPack(vm: FilingViewModel, options: WorkbookPa
     s.freezePanes(FREEZE[name]);
   }
   const bytes = await wb.outputAsync();
-  return Buffer.from(bytes as Uint8Array);
+  // one shared cell format per distinct style (xlsx-populate writes one per cell), no empty fills
+  return withSharedStyles(bytes as Uint8Array);
 }

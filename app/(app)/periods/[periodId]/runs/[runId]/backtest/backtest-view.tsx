@@ -1,6 +1,7 @@
 "use client";
 
 import { useMemo } from "react";
+import { CHART_PALETTE } from "@/lib/charts/palette";
 import { Bar, CartesianGrid, Cell, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { formatDate } from "@/app/_components/format";
@@ -64,18 +65,18 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
           <div className="h-80 w-full" aria-hidden="true">
             <ResponsiveContainer width="100%" height="100%">
               <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
-                <CartesianGrid stroke="#e6e1d6" vertical={false} />
-                <XAxis dataKey="date" tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" minTickGap={60} />
-                <YAxis tickFormatter={compactMoney} tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" width={64} />
+                <CartesianGrid stroke={CHART_PALETTE.grid} vertical={false} />
+                <XAxis dataKey="date" tick={{ fontSize: 11, fill: CHART_PALETTE.soft }} stroke={CHART_PALETTE.muted} minTickGap={60} />
+                <YAxis tickFormatter={compactMoney} tick={{ fontSize: 11, fill: CHART_PALETTE.soft }} stroke={CHART_PALETTE.muted} width={64} />
                 <Tooltip formatter={(v, name) => [money(Number(v), currency), name]} />
                 <Legend wrapperStyle={{ fontSize: 12 }} />
-                <Bar dataKey="pnl" name="P&L" fill="#9aa4ae" isAnimationActive={false}>
+                <Bar dataKey="pnl" name="P&L" fill={CHART_PALETTE.pnl} isAnimationActive={false}>
                   {data.map((d) => (
-                    <Cell key={d.date} fill={d.exception !== null ? "#a2332b" : "#9aa4ae"} />
+                    <Cell key={d.date} fill={d.exception !== null ? CHART_PALETTE.exception : CHART_PALETTE.pnl} />
                   ))}
                 </Bar>
-                <Line type="stepAfter" dataKey="loss" name="− VaR" stroke="#1c2733" strokeWidth={1.5} dot={false} isAnimationActive={false} />
-                <Scatter dataKey="exception" name="Exception" fill="#a2332b" shape="circle" isAnimationActive={false} />
+                <Line type="stepAfter" dataKey="loss" name="− VaR" stroke={CHART_PALETTE.varLine} strokeWidth={1.5} dot={false} isAnimationActive={false} />
+                <Scatter dataKey="exception" name="Exception" fill={CHART_PALETTE.exception} shape="circle" isAnimationActive={false} />
               </ComposedChart>
             </ResponsiveContainer>
           </div>

@@ -1,6 +1,7 @@
 "use client";
 
 import { useMemo, useState } from "react";
+import { ESTIMATOR_COLOURS as COLOURS } from "@/lib/charts/palette";
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { Bar, CartesianGrid, ComposedChart, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { apiFetch } from "@/app/_components/api";
@@ -12,7 +13,6 @@ import type { RunResults } from "@/lib/runs/types";
 import { ASSET_CLASS_WORDS, pct } from "../../_components/run-format";
 import { CompletedRun } from "../../_components/run-state";
 
-const COLOURS: Record<string, string> = { ma: "#6b7682", ewma: "#2f6b3f", arch: "#8a5a00", garch: "#1f4e79" };
 const ANNUAL = Math.sqrt(252);
 const TERM_DAYS_SHOWN = [1, 5, 10, 20, 60, 120, 250];
 const annual = (v: number | null) => (v === null ? null : +(v * ANNUAL * 100).toFixed(3));
