@@ -11,7 +11,7 @@ const config: Config = {
       colors: {
         paper: { DEFAULT: "#f7f5f0", raised: "#fdfcf9", sunk: "#efece4" },
         ink: { DEFAULT: "#1c2733", soft: "#3d4a57", muted: "#6b7682", line: "#d8d3c7" },
-        brass: { DEFAULT: "#a8671c", dark: "#84500f", light: "#f3e6d3" },
+        brass: { DEFAULT: "#925816", dark: "#84500f", light: "#f3e6d3" },
         ok: { DEFAULT: "#2f6b3f", bg: "#e4efe6" },
         caution: { DEFAULT: "#8a5a00", bg: "#f6ecd4" },
         alert: { DEFAULT: "#a2332b", bg: "#f6e1de" },

@@ -9,7 +9,7 @@ import { renderTemplate, type TemplateValues } from "@/lib/templates/render";
 import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatTimestamp } from "./format";
 import { VAR_METHOD_LABELS, type FilingViewModel } from "./view-model";
 import { neutralise } from "./neutralise";
-import { countOf } from "@/lib/text/count";
+import { capitalise, countOf, isAre } from "@/lib/text/count";
 import { regulatoryCapitalValues } from "./regulatory-capital-text";
 
 /** Text a person typed, line by line made inert for spreadsheets (see ./neutralise). */
@@ -60,6 +60,9 @@ export function fragment(name: string, values: TemplateValues = {}): string {
   return fill(`fragments/${name}`, filingTemplate(`fragments/${name}`).trim(), values);
 }
 
+/** Values that are a person's own typed text, never recased. */
+const TYPED_VALUES = new Set(["coverNote", "rationale", "attestation"]);
+
 /** Parse and fill one template into blocks. @throws naming the template and every missing key */
 export function renderBlocks(name: string, values: TemplateValues): Block[] {
   const blocks: Block[] = [];
@@ -83,7 +86,10 @@ export function renderBlocks(name: string, values: TemplateValues): Block[] {
       if (heading) blocks.push({ kind, text: heading });
       continue;
     }
-    for (const part of filled.split(/\r?\n/)) if (part.trim()) blocks.push({ kind, text: part.trim() });
+    // a line that starts with a value is a sentence all the same: its first letter is a capital (typed text is kept as typed)
+    const lead = /^\{\{(\w+)\}\}/.exec(text)?.[1];
+    const sentence = lead !== undefined && !TYPED_VALUES.has(lead);
+    for (const part of filled.split(/\r?\n/)) if (part.trim()) blocks.push({ kind, text: sentence ? capitalise(part.trim()) : part.trim() });
   }
   return blocks;
 }
@@ -253,7 +259,9 @@ export function sectionValues(id: SectionId, vm: FilingViewModel): TemplateValue
         asOf: formatDate(f.asOf),
         currency: ccy,
         capitalConfidence: capConf,
-        excludedSentence: out.length ? fragment("positions-excluded", { count: out.length, value: formatAmount(out.reduce((s, p) => s + p.marketValue, 0)), currency: ccy }) : "",
+        excludedSentence: out.length
+          ? fragment("positions-excluded", { positions: countOf(out.length, "position"), have: out.length === 1 ? "has" : "have", are: isAre(out.length), value: formatAmount(out.reduce((s, p) => s + p.marketValue, 0)), currency: ccy })
+          : "",
       };
     }
     case "risk-factors":
