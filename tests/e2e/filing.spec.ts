@@ -3,7 +3,7 @@ import { readFileSync } from "node:fs";
 import JSZip from "jszip";
 import XlsxPopulate from "xlsx-populate";
 import { DataPage } from "./pages/data";
-import { DEMO_PASSWORD, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { bookDatedTo, DEMO_PASSWORD, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
 
 /**
  * The review loop across roles, in the browser: the compliance officer assembles and submits the draft filing; the
@@ -78,7 +78,7 @@ test.beforeAll(async ({ browser }) => {
       const data = new DataPage(page);
       await data.open();
       await page.getByLabel("Reporting period").selectOption({ label: "October 2026 (ends 2026-10-31)" });
-      const book = readFileSync("templates/demo/pellam-positions-2026-11.csv", "utf8").replaceAll("2026-11-30,", "2026-10-30,");
+      const book = bookDatedTo(readFileSync("templates/demo/pellam-positions-2026-11.csv", "utf8"), "2026-11-30", "2026-10-30");
       await data.upload("positions", { name: "pellam-positions-2026-10.csv", mimeType: "text/csv", buffer: Buffer.from(book) });
       await data.confirm();
       await page.close();

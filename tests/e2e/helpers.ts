@@ -35,3 +35,20 @@ export async function signedInApi(email: string | null, password = DEMO_PASSWORD
   expect(session?.user?.email, `signed in as ${email}`).toBe(email);
   return api;
 }
+
+/**
+ * A positions file moved to another as-of date: its dates replaced and its market values left empty, so that Ballast
+ * computes them from quantity × price × that date's rate (the file's own values are of its original date, and a
+ * market value that disagrees with quantity × price × rate is refused).
+ */
+export function bookDatedTo(text: string, from: string, to: string): string {
+  const [head, ...rows] = text.trimEnd().split("\n");
+  const at = head.split(",").indexOf("market_value");
+  const moved = rows.map((row) => {
+    const cells = row.split(",");
+    if (cells[0] === from) cells[0] = to;
+    if (at >= 0) cells[at] = "";
+    return cells.join(",");
+  });
+  return [head, ...moved].join("\n") + "\n";
+}
