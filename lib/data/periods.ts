@@ -134,6 +134,15 @@ export async function getPeriod(actor: Actor, periodId: string): Promise<PeriodS
   return summarise(actor.firmId, row, holidaySet);
 }
 
+/** Whether the actor's firm has this period (a cheap check for pages that answer 404 before they stream). */
+export async function periodExists(actor: Actor, periodId: string): Promise<boolean> {
+  const [row] = await getDb()
+    .select({ id: reportingPeriods.id })
+    .from(reportingPeriods)
+    .where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
+  return Boolean(row);
+}
+
 /** Open the reporting period for a month, with its deadline under the firm's rule. */
 export async function openPeriod(actor: Actor, month: string): Promise<PeriodSummary> {
   const periodEnd = periodEndOf(month);
