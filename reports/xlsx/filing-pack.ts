@@ -35,6 +35,7 @@ import {
   type ValueKind,
 } from "./layout";
 import type { PackCell, PackSheet, PackWorkbook } from "./workbook-types";
+import { regulatoryCapitalOf } from "../regulatory-capital-text";
 import { withSharedStyles } from "./shared-styles";
 
 export const TEMPLATE_PATH = path.join(process.cwd(), "templates", "filing-pack.xlsx");
@@ -110,6 +111,7 @@ function topRows(sheet: PackSheet, title: string, vm: FilingViewModel, width: nu
 
 function summaryValues(vm: FilingViewModel): Record<string, CellValue> {
   const f = vm.figures;
+  const rc = regulatoryCapitalOf(vm);
   const c = f.capital;
   const b = f.backtest;
   return {
@@ -124,6 +126,11 @@ function summaryValues(vm: FilingViewModel): Record<string, CellValue> {
     submitted_by: vm.filing.submittedBy ?? "Not yet submitted",
     figures_as_of: f.asOf,
     primary_method: VAR_METHOD_LABELS[f.primaryMethod],
+    filed_capital_regime: rc.filed !== null ? rc.filedLabel : `${rc.filedLabel}: not available (${rc.missing ?? "not computed"})`,
+    filed_capital: rc.filed,
+    filed_capital_rwa: rc.filedRwa,
+    comparison_capital_regime: rc.comparisonLabel ?? "None computed",
+    comparison_capital: rc.comparison,
     capital: c.capital,
     capital_confidence: c.confidence,
     capital_horizon_days: c.horizonDays,

@@ -6,7 +6,9 @@
 import JSZip from "jszip";
 import { beforeAll, describe, expect, it } from "vitest";
 import { DRAFT_CAUTION } from "@/app/_components/draft-caution";
+import XlsxPopulate from "xlsx-populate";
 import { buildWordPack } from "@/reports/docx/filing-pack";
+import { buildWorkbookPack } from "@/reports/xlsx/filing-pack";
 import { formatAmount } from "@/reports/format";
 import { regulatoryCapitalOfResults } from "@/reports/regulatory-capital";
 import { filingSections } from "@/reports/sections";
@@ -88,5 +90,24 @@ describe("the Word pack", () => {
     expect(plain.indexOf("Capital summary")).toBeGreaterThan(filedAt);
     expect(plain).toContain("standardised 1996 building blocks figure: 139,200 EUR");
     expect(plain).toContain("for comparison and not filed");
+  });
+});
+
+describe("the spreadsheet pack", () => {
+  it("carries the filed figure, its RWA equivalent and the comparison on the Summary sheet, under the caution", async () => {
+    const wb = await XlsxPopulate.fromDataAsync(await buildWorkbookPack(vm));
+    const value = (name: string) => (wb.definedName(name) as { value(): unknown }).value();
+    expect(value("filed_capital_regime")).toBe("Standardised 1996 building blocks");
+    expect(value("filed_capital")).toBe(139_200);
+    expect(value("filed_capital_rwa")).toBe(1_740_000);
+    expect(value("comparison_capital_regime")).toBe("Internal models (value-at-risk based)");
+    expect(value("comparison_capital")).toBe(legacy.figures.capital.capital);
+    const summary = wb.sheet("Summary");
+    const texts: string[] = [];
+    summary.usedRange()!.forEach((cell: { value(): unknown }) => {
+      const v = cell.value();
+      if (typeof v === "string") texts.push(v);
+    });
+    expect(texts.some((t) => t.includes(DRAFT_CAUTION))).toBe(true);
   });
 });
