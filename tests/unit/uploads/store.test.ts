@@ -64,7 +64,8 @@ describe("positions uploads", () => {
   });
 
   it("asks for warnings to be acknowledged before confirming", async () => {
-    const { uploadId } = await receiveUploadBytes(context(officer, "positions"), file(), enc(`${HEADER}\n2026-11-30,T,EQ-A,Alpha,equity,EUR,10,5,60,\n`));
+    // a position dated before the period end, in the period's month: a warning (a market value that disagrees is an error)
+    const { uploadId } = await receiveUploadBytes(context(officer, "positions"), file(), enc(`${HEADER}\n2026-11-27,T,EQ-A,Alpha,equity,EUR,10,5,50,\n`));
     await expect(confirmUpload(officer, uploadId, { acknowledgeWarnings: false })).rejects.toMatchObject({ fields: { acknowledgeWarnings: expect.any(String) } });
     await expect(confirmUpload(officer, uploadId, { acknowledgeWarnings: true })).resolves.toMatchObject({ status: "confirmed" });
   });
@@ -108,7 +109,8 @@ describe("data-quality report", () => {
     const { uploadId } = await receiveUploadBytes(
       context(officer, "positions"),
       file(),
-      enc(`${HEADER}\n2026-11-30,T,EQ-A,Alpha,equity,EUR,10,5.3,53,\n2026-11-30,T,EQ-N,Nordic,equity,NOK,10,100,85.5,\n`),
+      // the NOK position says where its value's rate came from: without a NOKEUR series the upload refuses it otherwise
+      enc(`${HEADER},market_value_note\n2026-11-30,T,EQ-A,Alpha,equity,EUR,10,5.3,53,,\n2026-11-30,T,EQ-N,Nordic,equity,NOK,10,100,85.5,,Valued at the custodian's rate\n`),
     );
     await confirmUpload(officer, uploadId, { acknowledgeWarnings: true });
     const { report } = await getDataQuality(officer, periodId);
