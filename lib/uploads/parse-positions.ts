@@ -292,7 +292,11 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
         const gap = Math.abs(givenValue - computed);
         const usedRates = [currency, valueCurrency].filter((c) => c && c !== context.reportingCurrency);
         const earlier = usedRates.map((c) => context.fxDates?.[c]).find((d) => d && context.periodEnd && d < lastWeekdayOnOrBefore(context.periodEnd));
-        if (earlier && gap > Math.max(1, tolerance * Math.abs(computed)) && gap <= EARLIER_RATE_TOLERANCE * Math.abs(computed)) {
+        // a value equal to quantity × price in the row's own currency was written in that currency (unless the rate is
+        // about 1, when it makes no difference): refused whatever the rate's date
+        const local = numbers.quantity! * numbers.price!;
+        const looksLocal = currency !== context.reportingCurrency && !valueCurrency && fx !== undefined && Math.abs(fx - 1) > tolerance && Math.abs(numbers.marketValue! - local) <= Math.max(1, tolerance * Math.abs(local));
+        if (earlier && !looksLocal && gap > Math.max(1, tolerance * Math.abs(computed)) && gap <= EARLIER_RATE_TOLERANCE * Math.abs(computed)) {
           rowProblems.push({
             row,
             field: POSITION_FIELDS.marketValue.label,
@@ -302,10 +306,7 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
         } else if (gap > Math.max(1, tolerance * Math.abs(computed))) {
           const shown = valueCurrency && valueCurrency !== context.reportingCurrency ? `${numbers.marketValue} ${valueCurrency} (${givenValue.toFixed(2)} ${context.reportingCurrency})` : `${numbers.marketValue}`;
           const against = `quantity × price${fx !== 1 ? ` × ${pair} rate ${fx}` : ""} = ${computed.toFixed(2)} ${context.reportingCurrency}`;
-          const hint =
-            currency !== context.reportingCurrency && !valueCurrency && Math.abs(numbers.marketValue! - numbers.quantity! * numbers.price!) <= Math.max(1, tolerance * Math.abs(numbers.quantity! * numbers.price!))
-              ? `; it looks like a value in ${currency}: add a market_value_currency column saying ${currency}, or leave market value empty`
-              : "";
+          const hint = looksLocal ? `; it looks like a value in ${currency}: add a market_value_currency column saying ${currency}, or leave market value empty` : "";
           rowProblems.push({
             row,
             field: POSITION_FIELDS.marketValue.label,

@@ -105,6 +105,9 @@ describe("market values", () => {
     expect(moved.rates?.[0]).toMatchObject({ date: "2026-11-20", periodEnd: false });
     const wrong = parse(`${HEADER}\n2026-11-30,T,EQ-US,Usonia,equity,USD,100,10,1000,\n`, plain, { ...early, fxToReporting: { USD: 0.5 } });
     expect(wrong.problems[0]).toMatchObject({ severity: "error" });
+    // 8 % off is within the band, but a value equal to quantity × price in USD is refused as written in USD
+    const inUsd = parse(`${HEADER}\n2026-11-30,T,EQ-US,Usonia,equity,USD,100,10,1000,\n`, plain, early);
+    expect(inUsd.problems[0]).toMatchObject({ severity: "error", message: expect.stringContaining("looks like a value in USD") });
   });
 
   it("refuses a foreign-currency position without an exchange-rate series, unless valued in the reporting currency with a reason", () => {
