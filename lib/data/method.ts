@@ -16,7 +16,8 @@ import { DEFAULT_METHOD_CONTENT, methodDraftSchema, readMethodContent, type Meth
 import { combineLimitations, diffContent, splitLimitations, type FieldChange } from "@/lib/method/describe";
 import { buildEvidence, type MethodEvidence } from "@/lib/method/evidence";
 import { priceSeries } from "./prices";
-import { methodCheckOnLatestBook } from "./runs";
+import { latestBookInputs, methodCheckOnLatestBook } from "./runs";
+import { bookEvidenceOf } from "@/lib/method/book-evidence";
 import { infeasibilityMessage } from "@/lib/runs/feasibility";
 
 export type MethodStatus = "draft" | "approved" | "superseded" | "discarded";
@@ -290,7 +291,10 @@ async function evidencePeriod(actor: Actor, periodId?: string) {
  * none are confirmed), the equal-weight daily log returns of that class's instruments with enough stored history,
  * compared across estimators by the engine.
  */
-export async function computeEvidence(actor: Actor, options: { periodId?: string; minHistory?: number } = {}): Promise<MethodEvidence> {
+export async function computeEvidence(
+  actor: Actor,
+  options: { periodId?: string; minHistory?: number; book?: { content: MethodContent; version: number; approved: { version: number; content: MethodContent } | null } } = {},
+): Promise<MethodEvidence> {
   const db = getDb();
   const period = await evidencePeriod(actor, options.periodId);
   const asOf = period && period.periodEnd < today() ? period.periodEnd : today();
@@ -315,7 +319,11 @@ export async function computeEvidence(actor: Actor, options: { periodId?: string
     for (const r of rows) if (r.assetClass !== "unknown") classes.set(r.assetClass, [...(classes.get(r.assetClass) ?? []), r.code]);
   }
   const series = await priceSeries(actor.firmId, asOf);
-  return buildEvidence({
+  // the version and its candidates backtested on the firm's latest book (the period above when it has positions)
+  const book = options.book
+    ? bookEvidenceOf(await latestBookInputs(actor, options.book.content, source === "positions" ? period?.id : undefined), options.book.content, options.book.version, options.book.approved)
+    : undefined;
+  const evidence = buildEvidence({
     series,
     classes,
     minReturns: options.minHistory ?? DEFAULT_METHOD_CONTENT.minHistory,
@@ -325,6 +333,7 @@ export async function computeEvidence(actor: Actor, options: { periodId?: string
     periodEnd: period?.periodEnd ?? null,
     source,
   });
+  return book === undefined ? evidence : { ...evidence, book };
 }
 
 /** Recompute the evidence and attach it to a draft. An analyst's pending approval is withdrawn. */
@@ -332,7 +341,12 @@ export async function attachEvidence(actor: Actor, methodId: string, options: { 
   const row = await findRow(actor, methodId);
   refuseUnlessDraft(row, "given new evidence");
   const content = readMethodContent(row.content);
-  const evidence = await computeEvidence(actor, { periodId: options.periodId, minHistory: content.minHistory });
+  const approved = await approvedRow(actor);
+  const evidence = await computeEvidence(actor, {
+    periodId: options.periodId,
+    minHistory: content.minHistory,
+    book: { content, version: row.version, approved: approved ? { version: approved.version, content: readMethodContent(approved.content) } : null },
+  });
   await getDb().transaction(async (tx) => {
     const updated = await tx
       .update(methodStatements)
@@ -349,6 +363,9 @@ export async function attachEvidence(actor: Actor, methodId: string, options: { 
         version: row.version,
         asOf: evidence.asOf,
         classes: evidence.classes.map((c) => ({ assetClass: c.assetClass, instruments: c.instruments.length, from: c.from, to: c.to, best: c.comparison?.ranking[0]?.id ?? null })),
+        book: evidence.book
+          ? { periodEnd: evidence.book.periodEnd, error: evidence.book.error, rows: (evidence.book.candidates?.rows ?? []).map((r) => ({ id: r.id, exceptions: r.exceptions, zone: r.zone })) }
+          : null,
       },
     });
   });

@@ -194,16 +194,16 @@ async function closesOf(actor: Actor, stored: readonly StoredPosition[], periodE
 }
 
 /**
- * Whether a method statement's choices can be computed on the firm's latest book (the newest period with confirmed
- * positions, its closes up to the period end): the factors they cannot be computed for, with the reason. Empty when
- * the firm has no confirmed positions yet (the run start checks again).
+ * The firm's latest book as a run would read it under a content: the newest period with confirmed positions (or the
+ * given period), its positions, the closes of their factors up to the earlier of its end and today, the active
+ * capital rule profile. Null when no period has confirmed positions.
  */
-export async function methodCheckOnLatestBook(actor: Actor, content: MethodContent): Promise<{ periodEnd: string | null; items: Infeasibility[] }> {
+export async function latestBookInputs(actor: Actor, content: MethodContent, periodId?: string): Promise<{ periodId: string; periodEnd: string; inputs: RunInputs } | null> {
   const db = getDb();
   const periods = await db
     .select({ id: reportingPeriods.id, periodEnd: reportingPeriods.periodEnd })
     .from(reportingPeriods)
-    .where(eq(reportingPeriods.firmId, actor.firmId))
+    .where(periodId ? and(eq(reportingPeriods.firmId, actor.firmId), eq(reportingPeriods.id, periodId)) : eq(reportingPeriods.firmId, actor.firmId))
     .orderBy(desc(reportingPeriods.periodEnd));
   for (const p of periods) {
     const upload = await confirmedPositionsUpload(actor, p.id);
@@ -228,16 +228,37 @@ export async function methodCheckOnLatestBook(actor: Actor, content: MethodConte
     }));
     const periodEnd = p.periodEnd < today() ? p.periodEnd : today();
     const prices = await closesOf(actor, stored, periodEnd);
-    const inputs = {
+    const [profileRow] = await db
+      .select()
+      .from(capitalRuleProfiles)
+      .where(and(eq(capitalRuleProfiles.firmId, actor.firmId), eq(capitalRuleProfiles.active, true)))
+      .orderBy(desc(capitalRuleProfiles.createdAt))
+      .limit(1);
+    const capitalProfile = profileRow
+      ? capitalProfileOf(profileRow)
+      : { id: null, name: "Engine default (no capital rule profile stored)", profile: BASEL_CAPITAL_PROFILE, plusFactors: { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 }, backtestDays: 250 };
+    const inputs: RunInputs = {
       positions: stored,
       prices,
       method: { id: "", version: 0, approvedAt: null, content },
+      capitalProfile,
       periodEnd,
       reportingCurrency: actor.reportingCurrency,
-    } as unknown as RunInputs;
-    return { periodEnd, items: methodInfeasibilities(inputs, content) };
+      context: { periodId: p.id, upload: { uploadId: upload.id, fileName: upload.fileName }, dataQuality: { report: { items: [], counts: { error: 0, warning: 0, info: 0 } }, items: 0, errors: 0, warnings: 0 } as unknown as RunInputs["context"]["dataQuality"] },
+    };
+    return { periodId: p.id, periodEnd, inputs };
   }
-  return { periodEnd: null, items: [] };
+  return null;
+}
+
+/**
+ * Whether a method statement's choices can be computed on the firm's latest book: the factors they cannot be
+ * computed for, with the reason. Empty when the firm has no confirmed positions yet (the run start checks again).
+ */
+export async function methodCheckOnLatestBook(actor: Actor, content: MethodContent): Promise<{ periodEnd: string | null; items: Infeasibility[] }> {
+  const book = await latestBookInputs(actor, content);
+  if (!book) return { periodEnd: null, items: [] };
+  return { periodEnd: book.periodEnd, items: methodInfeasibilities(book.inputs, content) };
 }
 
 /** Gather the inputs of a new run as they stand now, or refuse naming what is missing. */

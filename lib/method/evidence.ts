@@ -3,6 +3,7 @@
  * stored closes, and the engine's estimator comparison run on it. Pure; the data layer supplies the prices.
  */
 import { compareEstimators, type CompareResult } from "@/lib/risk/compare";
+import type { CandidateEvidence } from "@/lib/risk/process/types";
 import { ENGINE_VERSION } from "@/lib/risk/version";
 import { ASSET_CLASS_LABELS, type AssetClass } from "@/lib/uploads/asset-classes";
 
@@ -40,6 +41,25 @@ export interface MethodEvidence {
   minReturns: number;
   engineVersion: string;
   classes: ClassEvidence[];
+  /** the book-level backtest of this version and each candidate on the firm's latest book (absent on older evidence) */
+  book?: BookEvidence | null;
+}
+
+/**
+ * The candidate-method evidence on the firm's own book: the 250-day out-of-sample backtest of this version's method,
+ * the approved version's (when this is a later draft) and the standard candidates, side by side.
+ */
+export interface BookEvidence {
+  periodId: string | null;
+  /** positions of this period; closes up to the earlier of its end and today */
+  periodEnd: string | null;
+  /** the version whose method is the "this method" row */
+  version: number;
+  /** the approved version compared beside it, when there is one and it is another version */
+  approvedVersion: number | null;
+  candidates: CandidateEvidence | null;
+  /** why no evidence could be computed, when none was */
+  error: string | null;
 }
 
 export type PriceSeries = Map<string, { dates: string[]; closes: number[] }>;

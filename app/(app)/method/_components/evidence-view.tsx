@@ -1,10 +1,10 @@
 "use client";
 
 /** The estimator comparison per asset class: a titled bar chart of QLIKE and the table behind it. */
-import { Bar, BarChart, CartesianGrid, Cell, LabelList, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { Bar, BarChart, CartesianGrid, Cell, LabelList, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { formatDate, formatTimestamp } from "@/app/_components/format";
-import type { ClassEvidence, MethodEvidence } from "@/lib/method/evidence";
+import type { BookEvidence, ClassEvidence, MethodEvidence } from "@/lib/method/evidence";
 
 const num = (v: number | null, digits: number) => (v === null ? "—" : v.toLocaleString("en-GB", { minimumFractionDigits: digits, maximumFractionDigits: digits }));
 const SUPERSCRIPT: Record<string, string> = { "-": "⁻", "+": "", 0: "⁰", 1: "¹", 2: "²", 3: "³", 4: "⁴", 5: "⁵", 6: "⁶", 7: "⁷", 8: "⁸", 9: "⁹" };
@@ -89,6 +89,95 @@ function RankingTable({ c }: { c: ClassEvidence }) {
   );
 }
 
+const ZONE_WORDS: Record<string, string> = { green: "Green", amber: "Amber", red: "Red" };
+const ZONE_FILL: Record<string, string> = { green: "#2f6b3f", amber: "#9a6a12", red: "#a3342b" };
+const amount = (v: number | null) => (v === null ? "—" : Math.round(v).toLocaleString("en-GB"));
+
+/** The book-level backtest of this version and each candidate: a titled chart of exceptions and the table behind it. */
+export function BookEvidenceView({ book }: { book: BookEvidence }) {
+  const ev = book.candidates;
+  if (!ev) {
+    return (
+      <p role="status" className="text-sm text-alert" data-testid="book-evidence-error">
+        The book-level backtest could not be computed: {book.error}
+      </p>
+    );
+  }
+  const expected = ev.days * (1 - ev.confidence);
+  const data = ev.rows.map((r) => ({ id: r.id, label: r.label.length > 60 ? `${r.label.slice(0, 57)}…` : r.label, exceptions: r.exceptions ?? 0, zone: r.zone ?? "none", failed: r.exceptions === null }));
+  const refit = ev.refit.mode === "rolling" ? `parameters re-estimated every ${ev.refit.everyDays} business days` : "parameters fitted once on the whole sample (in sample)";
+  return (
+    <div className="flex flex-col gap-3" data-testid="book-evidence">
+      <p className="text-sm text-ink-soft">
+        Version {book.version}
+        {book.approvedVersion !== null ? `, approved version ${book.approvedVersion}` : ""} and the standard candidates on the book of {book.periodEnd ? formatDate(book.periodEnd) : "—"}: each day&apos;s one-day{" "}
+        {Number((ev.confidence * 100).toFixed(2))} % VaR from data up to the day before ({refit}), over the last {ev.days} days ({ev.dates[0] ? formatDate(ev.dates[0]) : "—"} to{" "}
+        {ev.dates.at(-1) ? formatDate(ev.dates.at(-1)!) : "—"}).
+      </p>
+      <figure aria-labelledby="book-evidence-title" className="flex flex-col gap-2">
+        <figcaption id="book-evidence-title" className="text-sm font-medium">
+          Backtest exceptions of each method on the firm&apos;s book, last {ev.days} days, against {num(expected, 1)} expected at {Number((ev.confidence * 100).toFixed(2))} % — bar colour is the zone
+        </figcaption>
+        <div className="w-full" style={{ height: Math.max(220, 34 * data.length + 40) }} aria-hidden="true">
+          <ResponsiveContainer width="100%" height="100%">
+            <BarChart data={data} layout="vertical" margin={{ top: 4, right: 48, bottom: 16, left: 8 }}>
+              <CartesianGrid horizontal={false} stroke="#d8d3c7" />
+              <XAxis type="number" allowDecimals={false} tick={{ fontSize: 12, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: "Exceptions", position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
+              <YAxis type="category" dataKey="label" width={260} tick={{ fontSize: 11, fill: "#1c2733" }} stroke="#6b7682" />
+              <ReferenceLine x={expected} stroke="#1c2733" strokeDasharray="4 3" label={{ value: `expected ${num(expected, 1)}`, position: "top", fontSize: 11, fill: "#1c2733" }} />
+              <Tooltip formatter={(v) => [String(v), "Exceptions"]} />
+              <Bar dataKey="exceptions" isAnimationActive={false} minPointSize={2}>
+                {data.map((d) => (
+                  <Cell key={d.id} fill={ZONE_FILL[d.zone] ?? "#9aa3ab"} />
+                ))}
+                <LabelList dataKey="exceptions" position="right" style={{ fontSize: 11, fill: "#1c2733" }} />
+              </Bar>
+            </BarChart>
+          </ResponsiveContainer>
+        </div>
+      </figure>
+      <div className="overflow-x-auto">
+        <table className="w-full min-w-[820px] text-sm" data-testid="book-evidence-table">
+          <caption className="mb-1 text-left text-xs text-ink-muted">
+            The table behind the chart. Kupiec: unconditional coverage; Christoffersen: independence and conditional coverage (p-values, higher is better). Mean VaR and capital in the
+            reporting currency; capital adds the run&apos;s stressed-VaR term, the same for every row.
+          </caption>
+          <thead>
+            <tr className="border-b border-ink-line text-right text-ink-muted">
+              <th scope="col" className="py-1.5 pr-2 text-left font-medium">Method</th>
+              <th scope="col" className="py-1.5 pr-2 font-medium">Exceptions</th>
+              <th scope="col" className="py-1.5 pr-2 text-left font-medium">Zone</th>
+              <th scope="col" className="py-1.5 pr-2 font-medium">Kupiec p</th>
+              <th scope="col" className="py-1.5 pr-2 font-medium">Independence p</th>
+              <th scope="col" className="py-1.5 pr-2 font-medium">Cond. coverage p</th>
+              <th scope="col" className="py-1.5 pr-2 font-medium">Mean VaR</th>
+              <th scope="col" className="py-1.5 font-medium">Capital</th>
+            </tr>
+          </thead>
+          <tbody className="figure">
+            {ev.rows.map((r) => (
+              <tr key={r.id} className="border-b border-ink-line/60 text-right">
+                <th scope="row" className="max-w-[22rem] py-1.5 pr-2 text-left font-normal">
+                  {r.label}
+                  {r.error ? <span className="block text-xs text-alert">Could not be computed: {r.error}</span> : null}
+                </th>
+                <td className="py-1.5 pr-2">{r.exceptions ?? "—"}</td>
+                <td className="py-1.5 pr-2 text-left">{r.zone ? ZONE_WORDS[r.zone] : "—"}</td>
+                <td className="py-1.5 pr-2">{num(r.kupiecPValue, 3)}</td>
+                <td className="py-1.5 pr-2">{num(r.christoffersenIndependencePValue, 3)}</td>
+                <td className="py-1.5 pr-2">{num(r.christoffersenPValue, 3)}</td>
+                <td className="py-1.5 pr-2">{amount(r.meanVar)}</td>
+                <td className="py-1.5">{amount(r.capital)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <p className="text-xs text-ink-muted">{ev.statement}</p>
+    </div>
+  );
+}
+
 export function EvidenceView({ evidence, pending = false }: { evidence: MethodEvidence | null; pending?: boolean }) {
   if (!evidence) {
     return <p className="text-sm text-ink-muted">{pending ? "Computing…" : "No evidence attached yet."}</p>;
@@ -101,6 +190,14 @@ export function EvidenceView({ evidence, pending = false }: { evidence: MethodEv
         equal-weight average of the daily log returns of its instruments with at least {evidence.minReturns} returns, on the dates all of them have a close. Engine {evidence.engineVersion}.
       </p>
       <DraftCaution />
+      {evidence.book ? (
+        <article aria-labelledby="ev-book" className="flex flex-col gap-3 border-t border-ink-line pt-4">
+          <h3 id="ev-book" className="font-semibold">
+            This method and the candidates, backtested on the firm&apos;s book
+          </h3>
+          <BookEvidenceView book={evidence.book} />
+        </article>
+      ) : null}
       {evidence.classes.map((c) => (
         <article key={c.assetClass} aria-labelledby={`ev-${c.assetClass}`} className="flex flex-col gap-3 border-t border-ink-line pt-4">
           <h3 id={`ev-${c.assetClass}`} className="font-semibold">
