@@ -1,10 +1,10 @@
-import { test, expect, type APIRequestContext, type Page } from "@playwright/test";
+import { test, expect, request as playwrightRequest, type APIRequestContext, type Page } from "@playwright/test";
 import { readdirSync, readFileSync, statSync, existsSync } from "node:fs";
 import { randomUUID } from "node:crypto";
 import path from "node:path";
 import { createClient } from "@libsql/client";
 import { ROUTES, type RouteCase } from "../permission-table";
-import { BASE_URL, DEMO_USERS, signedInApi, signInThroughPage } from "./helpers";
+import { BASE_URL, DEMO_PASSWORD, DEMO_USERS, signedInApi, signInThroughPage } from "./helpers";
 
 /** Collect the browser's reports of content-security-policy violations on a page. */
 function watchViolations(page: Page): string[] {
@@ -70,13 +70,16 @@ test("no secret reaches the browser's files", () => {
   }
 });
 
-/** Every table but the sign-in log (signing the personas in writes it), for "nothing changed" checks. */
-async function databaseSnapshot(): Promise<string> {
+/** Every table but the sign-in log (signing the personas in writes it) and any named, for "nothing changed" checks. */
+async function databaseSnapshot(options: { ignore?: string[] } = {}): Promise<string> {
   const client = createClient({ url: `file:./${process.env.E2E_DB_FILE ?? "data/e2e.db"}` });
   try {
     const tables = await client.execute("SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE '__drizzle%' AND name <> 'sign_in_attempts' ORDER BY name");
     const out: Record<string, unknown[]> = {};
-    for (const { name } of tables.rows) out[String(name)] = (await client.execute(`SELECT * FROM "${String(name)}" ORDER BY rowid`)).rows.map((r) => ({ ...r }));
+    for (const { name } of tables.rows) {
+      if (options.ignore?.includes(String(name))) continue;
+      out[String(name)] = (await client.execute(`SELECT * FROM "${String(name)}" ORDER BY rowid`)).rows.map((r) => ({ ...r }));
+    }
     return JSON.stringify(out);
   } finally {
     client.close();
@@ -106,7 +109,7 @@ test("every write route refuses a request from another origin, even from a signe
   const failures: string[] = [];
   const before = await databaseSnapshot();
   // Another port of the same host (same site, so a Lax cookie would still travel), another host, an opaque origin.
-  const foreign = [
+  const foreign: Record<string, string>[] = [
     { origin: BASE_URL.replace(/:\d+$/, ":4999"), "sec-fetch-site": "same-site" },
     { origin: "https://evil.example", "sec-fetch-site": "cross-site" },
     { origin: "null" },
@@ -145,4 +148,49 @@ test("a text/plain form post that would add an administrator is refused, from an
   const members = (await (await admin.get("/api/members")).json()).members as { email: string }[];
   expect(members.some((m) => m.email === "mallory@evil.example")).toBe(false);
   await admin.dispose();
+});
+
+test("after sign-in a hostile next address stays on this site", async ({ page }) => {
+  const before = await databaseSnapshot({ ignore: ["audit_events", "users"] });
+  for (const next of ["/%5Cevil.example/phish", "/%09/evil.example", "//evil.example", "https://evil.example/", "/%0d%0a/evil.example"]) {
+    await page.context().clearCookies();
+    await page.goto(`/sign-in?next=${next}`);
+    await page.getByLabel("E-mail").fill(DEMO_USERS[4].email);
+    await page.getByLabel("Password").fill(DEMO_PASSWORD);
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.waitForURL((url) => url.pathname !== "/sign-in");
+    const landed = new URL(page.url());
+    expect(landed.origin, next).toBe(BASE_URL);
+    expect(landed.pathname, next).toBe("/home");
+  }
+  // Signing in writes its own log and session rows only; nothing else changed.
+  expect(await databaseSnapshot({ ignore: ["audit_events", "users"] })).toBe(before);
+});
+
+test("signing out through the sign-in service's own route ends the session on the server", async () => {
+  const api = await signedInApi(DEMO_USERS[4].email);
+  const copied = await api.storageState();
+  const { csrfToken } = await (await api.get("/api/auth/csrf")).json();
+  const out = await api.post("/api/auth/signout", { form: { csrfToken, callbackUrl: `${BASE_URL}/sign-in` }, maxRedirects: 0 });
+  expect([200, 302]).toContain(out.status());
+  await api.dispose();
+  // A copy of the session cookie taken before signing out no longer opens anything.
+  const thief = await playwrightRequest.newContext({ baseURL: BASE_URL, storageState: copied });
+  expect((await thief.get("/api/firm")).status()).toBe(401);
+  await thief.dispose();
+});
+
+test("malformed addresses answer 404, not a server error, and HSTS is sent only over HTTPS", async () => {
+  const api = await signedInApi(DEMO_USERS[0].email);
+  const before = await databaseSnapshot();
+  for (const url of ["/data/uploads/%%%", "/data/uploads/not-an-id", "/periods/%E0%A4%A", "/api/uploads/%%%", "/api/periods/not-a-uuid"]) {
+    const response = await api.get(url, { maxRedirects: 0 });
+    expect(response.status(), url).toBe(404);
+  }
+  const plain = await api.get("/sign-in");
+  expect(plain.headers()["strict-transport-security"]).toBeUndefined();
+  const tls = await api.get("/sign-in", { headers: { "x-forwarded-proto": "https" } });
+  expect(tls.headers()["strict-transport-security"]).toMatch(/max-age=\d{7,}/);
+  expect(await databaseSnapshot()).toBe(before);
+  await api.dispose();
 });
