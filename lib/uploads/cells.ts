@@ -1,5 +1,5 @@
 /** Reading single cells: numbers in the chosen format, dates (ISO or Excel serials), header names. */
-import { excelSerialToIso } from "./read-table";
+import { excelSerialToIso } from "./serial-date";
 import type { DateFormat, NumberFormat } from "./types";
 
 /** Header names compared without case, spaces, underscores, hyphens, dots or slashes. */

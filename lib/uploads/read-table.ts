@@ -59,12 +59,7 @@ export function readCsvText(text: string): RawTable {
   return { header: header.map((h) => String(h).trim()), rows, source: "csv" };
 }
 
-/** Excel's day count: serial 1 is 1900-01-01, with the 1900 leap-year quirk (serial 60); serial 25569 is 1970-01-01. */
-export function excelSerialToIso(serial: number): string | null {
-  if (!Number.isFinite(serial) || serial < 1 || serial > 2_958_465) return null;
-  const ms = Math.round((serial - 25569) * 86_400_000);
-  return new Date(ms).toISOString().slice(0, 10);
-}
+export { excelSerialToIso } from "./serial-date";
 
 /** Read every sheet of a workbook as raw tables (first row as header), after the zip checks (declared and real sizes). */
 export async function readWorkbook(bytes: Uint8Array): Promise<RawTable[]> {
