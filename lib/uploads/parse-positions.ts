@@ -306,14 +306,16 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
         } else if (gap > Math.max(1, tolerance * Math.abs(computed))) {
           const shown = valueCurrency && valueCurrency !== context.reportingCurrency ? `${numbers.marketValue} ${valueCurrency} (${givenValue.toFixed(2)} ${context.reportingCurrency})` : `${numbers.marketValue}`;
           const against = `quantity × price${fx !== 1 ? ` × ${pair} rate ${fx}` : ""} = ${computed.toFixed(2)} ${context.reportingCurrency}`;
-          const hint = looksLocal ? `; it looks like a value in ${currency}: add a market_value_currency column saying ${currency}, or leave market value empty` : "";
+          const fix = looksLocal
+            ? `; it looks like a value in ${currency}: add a market_value_currency column saying ${currency}, or leave market value empty to compute it`
+            : ". Correct it, leave it empty to compute it, or say why in a market_value_note column";
           rowProblems.push({
             row,
             field: POSITION_FIELDS.marketValue.label,
             severity: note ? "warning" : "error",
             message: note
               ? `market value ${shown} differs from ${against} by more than ${(tolerance * 100).toFixed(1)} %; kept as given because: ${note}`
-              : `market value ${shown} differs from ${against} by more than ${(tolerance * 100).toFixed(1)} %${hint}. Correct it, leave it empty to compute it, or say why in a market_value_note column`,
+              : `market value ${shown} differs from ${against} by more than ${(tolerance * 100).toFixed(1)} %${fix}`,
           });
         }
       }
