@@ -51,6 +51,12 @@ export const GARCH_WANTED_RETURNS = 500;
 export const NEAR_INTEGRATED = 0.999;
 
 const NU_FLOOR = 2;
+/**
+ * Upper bound of ν: beyond a few hundred degrees of freedom the Student-t is the normal for every practical purpose,
+ * and an unbounded ν lets the optimiser run off towards infinity where the log-gamma terms lose their precision.
+ */
+export const NU_CEILING = 500;
+const NU_SPAN = NU_CEILING - NU_FLOOR;
 
 function likelihoodInit(rule: InitRule, n: number, scale2: number): LikelihoodInit {
   if (typeof rule === "number") return { kind: "fixed", value: rule / scale2 };
@@ -96,7 +102,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   const k = names.length;
   const iMu = names.indexOf("mu"), iOm = names.indexOf("omega"), iAl = names.indexOf("alpha"), iBe = names.indexOf("beta"), iNu = names.indexOf("nu");
 
-  // unconstrained coordinates z → natural θ: ω = e^z, (α, β) = (e^a, e^b)/(1+e^a+e^b), ν = 2 + e^z
+  // unconstrained coordinates z → natural θ: ω = e^z, (α, β) = (e^a, e^b)/(1+e^a+e^b), ν = 2 + 498/(1+e^−z) (2 < ν < 500)
   const theta = new Float64Array(k);
   const gTheta = new Float64Array(k);
   const toNatural = (z: ArrayLike<number>, out: Float64Array): void => {
@@ -104,7 +110,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     if (iOm >= 0) out[iOm] = Math.exp(z[iOm]);
     const ea = Math.exp(z[iAl]), eb = Math.exp(z[iBe]), d = 1 + ea + eb;
     out[iAl] = ea / d; out[iBe] = eb / d;
-    if (iNu >= 0) out[iNu] = NU_FLOOR + Math.exp(z[iNu]);
+    if (iNu >= 0) out[iNu] = NU_FLOOR + NU_SPAN / (1 + Math.exp(-z[iNu]));
   };
   const toFree = (mu: number, omega: number, alpha: number, beta: number, nu: number): Float64Array => {
     const z = new Float64Array(k);
@@ -112,7 +118,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     if (iOm >= 0) z[iOm] = Math.log(omega);
     const rest = 1 - alpha - beta;
     z[iAl] = Math.log(alpha / rest); z[iBe] = Math.log(beta / rest);
-    if (iNu >= 0) z[iNu] = Math.log(nu - NU_FLOOR);
+    if (iNu >= 0) { const v = Math.min(Math.max(nu, NU_FLOOR + 1e-6), NU_CEILING - 1e-6); z[iNu] = Math.log((v - NU_FLOOR) / (NU_CEILING - v)); }
     return z;
   };
   const objective = (z: Float64Array, gz: Float64Array): number => {
@@ -124,7 +130,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     const a = theta[iAl], b = theta[iBe], ga = gTheta[iAl], gb = gTheta[iBe];
     gz[iAl] = -(ga * a * (1 - a) - gb * a * b) / n;
     gz[iBe] = -(-ga * a * b + gb * b * (1 - b)) / n;
-    if (iNu >= 0) gz[iNu] = (-gTheta[iNu] * (theta[iNu] - NU_FLOOR)) / n;
+    if (iNu >= 0) gz[iNu] = (-gTheta[iNu] * ((theta[iNu] - NU_FLOOR) * (NU_CEILING - theta[iNu])) / NU_SPAN) / n;
     return -ll / n;
   };
 
@@ -140,7 +146,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     const jac = new Float64Array(k); // diagonal part of dθ/dz; the (α, β) block is filled below
     if (iMu >= 0) jac[iMu] = 1;
     if (iOm >= 0) jac[iOm] = theta[iOm];
-    if (iNu >= 0) jac[iNu] = theta[iNu] - NU_FLOOR;
+    if (iNu >= 0) jac[iNu] = ((theta[iNu] - NU_FLOOR) * (NU_CEILING - theta[iNu])) / NU_SPAN;
     const a = theta[iAl], b = theta[iBe];
     const hz = new Float64Array(k * k);
     const row = new Float64Array(k);
@@ -253,7 +259,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   if (kurt) warnings.push(kurt);
   if (alpha < 1e-6) warnings.push({ code: "bound-hit", message: `α is at its lower bound of 0 (α = ${alpha.toExponential(2)}): yesterday's return does not move the variance in this fit.` });
   if (beta < 1e-6) warnings.push({ code: "bound-hit", message: `β is at its lower bound of 0 (β = ${beta.toExponential(2)}): the fit has no memory beyond one day.` });
-  if (studentT && nu > 200) warnings.push({ code: "bound-hit", message: `ν is very large (${nu.toFixed(0)}): the Student-t errors are indistinguishable from normal ones.` });
+  if (studentT && nu > 200) warnings.push({ code: "bound-hit", message: `ν is very large (${nu.toFixed(0)}): the Student-t errors are indistinguishable from normal ones (ν is bounded at ${NU_CEILING}).` });
   if (studentT && nu < 2.1) warnings.push({ code: "bound-hit", message: `ν is at its lower bound of 2 (ν = ${nu.toFixed(3)}): the variance of the errors is barely finite.` });
   const failed = !best.converged || !Number.isFinite(logLikelihood);
   if (failed) warnings.push({ code: "not-converged", message: `The GARCH(1,1) fit failed: the optimiser stopped without meeting its convergence test (${best.stop}, largest gradient ${gradientNorm.toExponential(2)}). ${fallback === "ewma" ? `As the caller chose, EWMA (λ = ${fallbackLambda}) is used instead.` : "The caller chose no fallback, so these numbers are the last estimates, not an optimum."}` });
