@@ -131,10 +131,16 @@ test("the compliance officer assembles the draft, explains an exception and subm
   }
   await page.screenshot({ path: `${SCREENS}/filing-draft.png`, fullPage: true });
 
+  // an unsigned draft offers no signature check
+  await expect(page.getByTestId("not-signed")).toContainText("Not signed yet");
+  await expect(page.getByRole("button", { name: "Verify signature" })).toHaveCount(0);
   await page.getByLabel("Note to the reviewer (optional)").fill("Ready for your review.");
   await page.getByRole("button", { name: "Submit for review" }).click();
   await expect(status(page)).toHaveText(/In review/);
   await expect(page.getByTestId("comments-general")).toContainText("Ready for your review.");
+  // the note sent with the submission is called that, not an answer to the review
+  await expect(page.getByTestId("comments-general")).toContainText("Note with the submission");
+  await expect(page.getByTestId("comments-general")).not.toContainText("Answer");
 });
 
 test("the compliance head comments on a section and requests a change", async ({ page }) => {
@@ -145,6 +151,8 @@ test("the compliance head comments on a section and requests a change", async ({
 
   const capital = page.getByTestId("comments-capital");
   await capital.getByRole("button", { name: /Comment on capital summary/i }).click();
+  // the cursor goes into the comment box
+  await expect(capital.getByLabel(/Comment on Capital summary/)).toBeFocused();
   await capital.getByLabel(/Comment on Capital summary/).fill("Say in a sentence why the plus factor is what it is.");
   await capital.getByRole("button", { name: "Add comment" }).click();
   await expect(capital).toContainText("Say in a sentence why the plus factor is what it is.");
@@ -216,6 +224,9 @@ test("the head's wrong password is refused; he then signs with the attestation a
   await dialog.getByRole("button", { name: "Sign", exact: true }).click();
   await expect(dialog).toBeHidden();
   await expect(status(page)).toHaveText(/Signed/);
+  // nothing on the signed filing is headed "Draft" beside its "Signed" state
+  await expect(page.getByText(/^Draft\b/)).toHaveCount(0);
+  await expect(page.getByRole("article")).toHaveAttribute("aria-label", "Filing, version 1 (signed)");
   const hash = (await page.getByTestId("signed-hash").textContent())!;
   expect(hash).toMatch(/^[0-9a-f]{64}$/);
   await page.getByRole("button", { name: "Verify signature" }).click();
