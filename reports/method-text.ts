@@ -66,7 +66,7 @@ export function describeMethod(stored: MethodContent): string[] {
 
 /** Factors named in a sentence: all of them up to eight, then the first eight and a count. */
 function factorList(factors: string[]): string {
-  return factors.length <= 8 ? list(factors) : `${factors.slice(0, 8).join(", ")} and ${factors.length - 8} more`;
+  return factors.length <= 8 ? list(factors) : `${factors.slice(0, 8).join(", ")} and ${factors.length - 8} more (each factor is listed in the method annex)`;
 }
 
 /** Each distinct model the run used, with the factors that followed it (fallbacks named). */

@@ -31,7 +31,7 @@ export interface Section {
 }
 
 export const MAIN_SECTIONS = ["cover", "regulatory-capital", "capital", "var-es", "stressed", "backtest", "method", "limitations", "data-quality", "changes", "sign-off", "cautions"] as const;
-export const APPENDIX_SECTIONS = ["positions", "risk-factors", "correlation", "contributions", "var-history"] as const;
+export const APPENDIX_SECTIONS = ["positions", "risk-factors", "correlation", "contributions", "var-history", "method-annex"] as const;
 export type SectionId = (typeof MAIN_SECTIONS)[number] | (typeof APPENDIX_SECTIONS)[number];
 
 const TEMPLATE_DIR = path.join(process.cwd(), "templates", "filing");
@@ -274,6 +274,13 @@ export function sectionValues(id: SectionId, vm: FilingViewModel): TemplateValue
     }
     case "var-history":
       return { points: f.varHistory.points.length, method: VAR_METHOD_LABELS[f.varHistory.method].toLowerCase(), currency: ccy, statement: f.varHistory.statement };
+    case "method-annex": {
+      const c = vm.method.candidates ?? null;
+      return {
+        candidatesIntro: c ? fragment("method-candidates", { days: c.days, confidence: formatConfidence(c.confidence), currency: ccy }) : fragment("method-candidates-none"),
+        candidatesStatement: c ? c.statement : "",
+      };
+    }
   }
 }
 

@@ -13,6 +13,8 @@ import type { MethodContent } from "@/lib/validation/method";
 import { ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
 import { DRAFT_CAUTION } from "@/app/_components/draft-caution";
 import { describeComputedMethod } from "./method-text";
+
+const MODEL_SOURCE_WORDS: Record<string, string> = { factor: "the factor", "asset-class": "its asset class", default: "the firm-wide default", legacy: "the one covariance model" };
 import { formatMonth } from "./format";
 
 export { canonicalContent, contentHash, CANONICAL_SCHEMA } from "./canonical";
@@ -275,9 +277,13 @@ export interface FilingViewModel {
     version: number;
     approvedAt: string | null;
     content: MethodContent | null;
-    /** the content in readable sentences */
+    /** what the run computed, in sentences generated from its resolved model (the content only for older runs) */
     sentences: string[];
     rationale: string;
+    /** each factor's volatility model as the run fitted it (empty for runs stored before runs kept their model) */
+    models?: MethodModelRow[];
+    /** the candidate methods backtested on this book by the run, side by side (null when the run has none) */
+    candidates?: MethodCandidatesView | null;
   };
   limitations: { source: "engine" | "backtest" | "method statement"; text: string }[];
   dataQuality: {
@@ -296,6 +302,27 @@ export interface FilingViewModel {
     notes: string[];
   };
   caution: string;
+}
+
+/** One factor's volatility model as the run fitted it for its figures. */
+export interface MethodModelRow {
+  factor: string;
+  assetClass: string | null;
+  /** where the model came from: the factor, its asset class, the firm-wide default, the one covariance model */
+  source: string;
+  label: string;
+  parameters: string;
+  startUp: string;
+  /** one-day volatility forecast */
+  volatility: number;
+}
+
+/** The candidate methods backtested on the firm's book by the run. */
+export interface MethodCandidatesView {
+  days: number;
+  confidence: number;
+  statement: string;
+  rows: { label: string; exceptions: number | null; zone: string | null; kupiecPValue: number | null; christoffersenPValue: number | null; meanVar: number | null; capital: number | null; error: string | null }[];
 }
 
 /* ------------------------------------------------------------------------------------------------------------ */
@@ -658,6 +685,26 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       content: input.method.content,
       sentences: describeComputedMethod(r, input.method.content),
       rationale: input.method.rationale,
+      models: (r.model?.factors ?? []).map((m) => ({
+        factor: m.factor,
+        assetClass: m.assetClass,
+        source: MODEL_SOURCE_WORDS[m.source] ?? m.source,
+        label: m.fallback ? `${m.label} (fallback from ${m.fallback.label})` : m.label,
+        parameters: Object.entries(m.params)
+          .filter(([, v]) => Number.isFinite(v))
+          .map(([k, v]) => `${k} = ${Number(v.toPrecision(4))}`)
+          .join(", "),
+        startUp: m.startUp,
+        volatility: Math.sqrt(m.variance),
+      })),
+      candidates: r.candidates
+        ? {
+            days: r.candidates.days,
+            confidence: r.candidates.confidence,
+            statement: r.candidates.statement,
+            rows: r.candidates.rows.map((c) => ({ label: c.label, exceptions: c.exceptions, zone: c.zone, kupiecPValue: c.kupiecPValue, christoffersenPValue: c.christoffersenPValue, meanVar: c.meanVar, capital: c.capital, error: c.error })),
+          }
+        : null,
     },
     limitations,
     dataQuality: {

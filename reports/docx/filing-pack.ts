@@ -245,6 +245,32 @@ function tables(vm: FilingViewModel): Record<string, () => FileChild[]> {
             f.backtest.exceptionList.map((e) => [formatDate(e.date), a(e.pnl), a(e.var), a(e.excess), e.explanation ? t(e.explanation) : "No explanation given."]),
           )
         : [],
+    "method-models": () =>
+      vm.method.models?.length
+        ? table(
+            [{ header: "Factor", weight: 1.1 }, { header: "Chosen by", weight: 1.2 }, { header: "Model used", weight: 2.2 }, { header: "Parameters", weight: 2.2 }, { header: "1-day volatility", numeric: true, weight: 1 }],
+            vm.method.models.map((m) => [m.factor, `${m.source}${m.assetClass ? ` (${m.assetClass})` : ""}`, m.label, m.parameters || "—", `${formatNumber(m.volatility * 100, 3)} %`]),
+          )
+        : [],
+    "method-candidates": () =>
+      vm.method.candidates?.rows.length
+        ? table(
+            [
+              { header: "Method", weight: 2.6 },
+              { header: "Exceptions", numeric: true, weight: 0.9 },
+              { header: "Zone", weight: 0.8 },
+              { header: "Kupiec p", numeric: true, weight: 0.9 },
+              { header: "Christoffersen p", numeric: true, weight: 1 },
+              { header: `Mean VaR (${ccy})`, numeric: true, weight: 1.2 },
+              { header: `Capital (${ccy})`, numeric: true, weight: 1.2 },
+            ],
+            vm.method.candidates.rows.map((r) =>
+              r.error
+                ? [r.label, "—", "—", "—", "—", "—", `not computed: ${r.error}`]
+                : [r.label, String(r.exceptions ?? "—"), r.zone ?? "—", r.kupiecPValue === null ? "—" : formatPValue(r.kupiecPValue), r.christoffersenPValue === null ? "—" : formatPValue(r.christoffersenPValue), r.meanVar === null ? "—" : a(r.meanVar), r.capital === null ? "—" : a(r.capital)],
+            ),
+          )
+        : [],
     "run-record": () =>
       table(
         [{ header: "Input", weight: 1 }, { header: "SHA-256", weight: 4 }],

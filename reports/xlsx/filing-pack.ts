@@ -307,6 +307,19 @@ export async function buildWorkbookPack(vm: FilingViewModel, options: WorkbookPa
   methodRows.push(["Run", `${vm.engine.runId}, started by ${vm.engine.startedBy}; ${vm.engine.sample.days} days of returns from ${formatDate(vm.engine.sample.firstDate)} to ${formatDate(vm.engine.sample.lastDate)}`]);
   for (const n of vm.engine.notes) methodRows.push(["How the run applied it", n]);
   if (f.riskFactorStatement) methodRows.push(["Factor volatilities", f.riskFactorStatement]);
+  for (const m of vm.method.models ?? []) methodRows.push([`Model used: ${m.factor}`, `${m.label}; chosen by ${m.source}${m.assetClass ? ` (${m.assetClass})` : ""}${m.parameters ? `; ${m.parameters}` : ""}; start-up: ${m.startUp}`]);
+  const cands = vm.method.candidates;
+  if (cands) {
+    methodRows.push(["Candidate methods", cands.statement]);
+    for (const r of cands.rows) {
+      methodRows.push([
+        `Candidate: ${r.label}`,
+        r.error
+          ? `not computed: ${r.error}`
+          : `${r.exceptions} exceptions in ${cands.days} days (${r.zone}); Kupiec p ${r.kupiecPValue === null ? "—" : r.kupiecPValue.toFixed(3)}; Christoffersen p ${r.christoffersenPValue === null ? "—" : r.christoffersenPValue.toFixed(3)}; mean VaR ${r.meanVar === null ? "—" : Math.round(r.meanVar)} ${ccy}; capital ${r.capital === null ? "—" : Math.round(r.capital)} ${ccy}`,
+      ]);
+    }
+  }
   methodRows.push(["Engine version", vm.engine.version]);
   for (const h of vm.engine.inputHashes) methodRows.push([`Input hash: ${h.name}`, h.hash]);
   for (const c of vm.engine.choices) methodRows.push([`Choice: ${c.name}`, c.value]);

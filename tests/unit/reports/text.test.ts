@@ -58,6 +58,7 @@ describe("filing templates", () => {
     expect(sections.map((s) => s.title)).toEqual([
       "Filing pack", "Capital filed", "Capital summary", "Value-at-risk and expected shortfall", "Stressed value-at-risk", "Backtest", "Method statement", "Limitations",
       "Data quality", "Changes since the last filing", "Sign-off", "Cautions", "Positions", "Risk factors", "Correlation", "Contributions", "VaR history",
+      "Method annex: the model of each factor and the candidate methods",
     ]);
   });
 

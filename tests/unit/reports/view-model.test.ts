@@ -79,7 +79,9 @@ describe("buildFilingViewModel from a completed run", () => {
   it("states the method, the limitations from every source, data quality, the run record and the caution", async () => {
     const { vm, runInputs } = await packFixture();
     expect(vm.method.version).toBe(3);
-    expect(vm.method.sentences[0]).toBe("Volatility of each risk factor: EWMA with λ = 0.94 (fixed).");
+    // generated from the run's resolved model: the fixture's statement is EWMA λ 0.94 for every factor
+    expect(vm.method.sentences[0]).toMatch(/^Volatility of each risk factor, as fitted for these figures: EWMA, λ = 0\.94, zero mean for INST\d{4}(, INST\d{4})* and \d+ more \(each factor is listed in the method annex\)\.$/);
+    expect(vm.method.models?.map((m) => m.factor).sort()).toEqual([...vm.figures.riskFactors.map((f) => f.factor)].sort());
     expect(new Set(vm.limitations.map((l) => l.source))).toEqual(new Set(["engine", "backtest", "method statement"]));
     expect(vm.dataQuality.items.map((i) => i.check)).toEqual(expect.arrayContaining(["no-history", "stale", "market-value-mismatch"]));
     expect(vm.engine.inputHashes.map((h) => h.name)).toEqual(["capitalProfile", "combined", "method", "positions", "prices"]);
