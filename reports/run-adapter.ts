@@ -47,7 +47,7 @@ export function filingInputFromRun(x: FilingFromRun): FilingPackInput {
           // one column per family in the packs; the row's chosen label carries its settings
           estimates: f.estimates.map((e) => ({ estimator: e.estimator, label: ESTIMATOR_LABELS[e.estimator], volatility: e.currentVolatility })),
           chosen: f.chosen.kind,
-          chosenLabel: chosen?.label,
+          chosenLabel: f.chosenLabel ?? chosen?.label,
         };
       }),
     riskFactorStatement: results.factorVolatility.statement,

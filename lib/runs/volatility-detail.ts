@@ -6,6 +6,7 @@ import { garchTermStructure } from "@/lib/risk";
 import { alignReturns, usableSeries } from "./align";
 import { choicesFor, fitChoice, labelOf } from "./factor-volatility";
 import type { RunInputs } from "./types";
+import { readMethodContent } from "@/lib/validation/method";
 
 export interface VolatilityDetail {
   factor: string;
@@ -35,7 +36,7 @@ export function volatilityDetail(inputs: RunInputs, factor: string): VolatilityD
   if (!meta) return null;
   const alignment = alignReturns(inputs.prices);
   const { dates, returns } = usableSeries(alignment, factor);
-  const { choices, chosen } = choicesFor(inputs.method.content, meta.assetClass);
+  const { choices, chosen } = choicesFor(readMethodContent(inputs.method.content), meta.assetClass);
   let termStructure: VolatilityDetail["termStructure"] = null;
   const series = choices.map((c) => {
     const { fit, error } = returns.length > 1 ? fitChoice(returns, c) : { fit: null, error: "no returns" };
