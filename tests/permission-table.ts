@@ -38,8 +38,8 @@ export const ROUTES: readonly RouteCase[] = [
   { method: "POST", path: "/api/capital-profile", allowed: ["compliance_officer", "compliance_head"], invalidBody: { name: "", regimes: "sometimes" } },
   { method: "GET", path: "/api/members", allowed: ["admin"] },
   { method: "POST", path: "/api/members", allowed: ["admin"], invalidBody: { email: "not-an-address" } },
-  // The seeded auditor chose their password long ago: a fresh invitation is refused with 409 for their own firm.
-  { method: "POST", path: "/api/members/[memberId]/invitation", allowed: ["admin"], scoped: true, probe: 409 },
+  // A new invitation takes an empty object; any field is refused (422) before anything is looked up.
+  { method: "POST", path: "/api/members/[memberId]/invitation", allowed: ["admin"], scoped: true, invalidBody: { note: "x" }, validBody: {} },
   { method: "POST", path: "/api/account/password", allowed: "member", invalidBody: { currentPassword: "", newPassword: "short" } },
   // Public account routes: every caller, signed in or not, gets 422 for an invalid body (nothing is looked up).
   { method: "POST", path: "/api/account/reset", allowed: "public", invalidBody: { email: "not-an-address" } },

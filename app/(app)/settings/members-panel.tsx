@@ -121,7 +121,7 @@ function InvitationLine({ member, onChanged }: { member: Member; onChanged: (m: 
     setBusy(true);
     setMessage(null);
     try {
-      const { invitation } = await apiFetch<{ invitation: Invitation }>(`/api/members/${member.id}/invitation`, { method: "POST" });
+      const { invitation } = await apiFetch<{ invitation: Invitation }>(`/api/members/${member.id}/invitation`, { method: "POST", body: {} });
       setMessage(invitationStatus(member.name, member.email, invitation));
       if (invitation.expiresAt) onChanged({ ...member, invitationExpiresAt: invitation.expiresAt });
     } catch (e) {
