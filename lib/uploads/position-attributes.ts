@@ -163,16 +163,21 @@ export interface PositionForBlocks {
   attributes?: PositionAttributes;
 }
 
-/** The standardised engine's position for one row (instrument type from the asset class where the file gave none). */
-export function standardisedPositionOf(p: PositionForBlocks): StandardisedPosition {
+/**
+ * The standardised engine's position for one row (instrument type from the asset class where the file gave none).
+ * A currency position held on its exchange-rate series (instrument USDEUR in a EUR firm, priced in EUR) is a position
+ * in the pair's first currency.
+ */
+export function standardisedPositionOf(p: PositionForBlocks, reportingCurrency?: string): StandardisedPosition {
   const a = p.attributes ?? {};
   const instrumentType = a.instrumentType ?? defaultInstrumentType(p.assetClass);
+  const onRateSeries = instrumentType === "currency" && reportingCurrency !== undefined && p.currency === reportingCurrency && new RegExp(`^[A-Z]{3}${reportingCurrency}$`).test(p.instrumentId);
   const out: StandardisedPosition = {
     instrument: p.instrumentId,
     assetClass: p.assetClass,
     instrumentType: (instrumentType ?? "") as InstrumentType,
     marketValue: p.marketValue,
-    currency: p.currency,
+    currency: onRateSeries ? p.instrumentId.slice(0, 3) : p.currency,
   };
   for (const key of POSITION_ATTRIBUTE_KEYS) {
     if (key === "instrumentType") continue;
@@ -200,7 +205,7 @@ export function standardisedRequirementProblems(
   context: { reportingCurrency: string; asOf: string; profile?: StandardisedProfile },
 ): Problem[] {
   if (rows.length === 0) return [];
-  const positions = rows.map(standardisedPositionOf);
+  const positions = rows.map((r) => standardisedPositionOf(r, context.reportingCurrency));
   const issues = validateStandardisedPositions(positions, { reportingCurrency: context.reportingCurrency, asOf: context.asOf, profile: context.profile });
   return issues.map((issue) => {
     const fileRow = rows[issue.row]?.row ?? null;
@@ -249,3 +254,37 @@ export function attributesFromStored(row: Partial<Record<PositionAttributeField,
   }
   return Object.keys(out).length > 0 ? (out as PositionAttributes) : undefined;
 }
+
+/** One optional standardised column as the Data page's column guide and the template show it. */
+export interface AttributeGuide {
+  field: PositionAttributeField;
+  column: string;
+  meaning: string;
+  unit: string;
+  allowed: string;
+  /** the template's example row (an equity): most columns stay empty */
+  example: string;
+}
+
+/**
+ * The optional standardised columns, in the template's order. Needed only where the firm's capital rule profile files
+ * the standardised figure, and then only by the instrument types that use them (the upload names what a row lacks).
+ */
+export const POSITION_ATTRIBUTE_GUIDE: readonly AttributeGuide[] = [
+  { field: "instrumentType", column: "instrument_type", meaning: "What the instrument is for the standardised blocks. Empty: read from the asset class (equity → equity, etf → fund, bonds → bond, commodity_future → future, fx → currency).", unit: "one of the types", allowed: INSTRUMENT_TYPES.join(", "), example: "equity" },
+  { field: "issuerCategory", column: "issuer_category", meaning: "Debt issuer category for specific risk (a bond, a bill, a bond future's deliverable).", unit: "one of the categories", allowed: ISSUER_CATEGORIES.join(", "), example: "" },
+  { field: "maturityDate", column: "maturity_date", meaning: "Maturity of a bond, bill or swap; delivery date of a future or forward. Or give residual_maturity_years instead.", unit: "date", allowed: "a date on or after the as-of date, in the date format chosen", example: "" },
+  { field: "residualMaturityYears", column: "residual_maturity_years", meaning: "Residual maturity in years, when there is no maturity date.", unit: "years", allowed: "0 to 100", example: "" },
+  { field: "coupon", column: "coupon", meaning: "Annual coupon of a bond (0 for a bill or zero-coupon bond), a swap's fixed rate, a bond future's notional coupon. Chooses the ladder column.", unit: "percent (3.5 = 3.5 %)", allowed: "0 to 100", example: "" },
+  { field: "nextResetDate", column: "next_reset_date", meaning: "Next rate reset of a floating-rate instrument or a swap's floating leg. Or give next_reset_years.", unit: "date", allowed: "a date on or after the as-of date", example: "" },
+  { field: "nextResetYears", column: "next_reset_years", meaning: "Years to the next rate reset, when there is no reset date.", unit: "years", allowed: "0 to 100", example: "" },
+  { field: "modifiedDuration", column: "modified_duration", meaning: "Modified duration, needed when the profile uses the duration method.", unit: "years", allowed: "0 to 100", example: "" },
+  { field: "nationalMarket", column: "national_market", meaning: "The national market an equity or fund is charged in (equity blocks are per market).", unit: "text", allowed: "up to 40 characters, e.g. a country code", example: "US" },
+  { field: "commodity", column: "commodity", meaning: "The commodity a commodity position or future is in (the block is per commodity).", unit: "text", allowed: "up to 60 characters", example: "" },
+  { field: "notional", column: "notional", meaning: "A future's, forward's or swap's notional: + long the underlying; a swap + receive fixed.", unit: "reporting currency; signed", allowed: "a number", example: "" },
+  { field: "underlyingMaturityYears", column: "underlying_maturity_years", meaning: "A bond future's or forward's deliverable bond: its residual maturity.", unit: "years", allowed: "0 to 100", example: "" },
+  { field: "underlying", column: "underlying", meaning: "An option's underlying instrument id (its hedge in the book has this id).", unit: "text", allowed: "up to 64 characters", example: "" },
+  { field: "optionKind", column: "option_kind", meaning: "Call or put (bought options only).", unit: "call or put", allowed: "call, put", example: "" },
+  { field: "strike", column: "strike", meaning: "An option's strike price.", unit: "the underlying's price unit", allowed: "a number above zero", example: "" },
+  { field: "underlyingPrice", column: "underlying_price", meaning: "An option's underlying price per unit.", unit: "reporting currency per unit", allowed: "a number above zero", example: "" },
+];

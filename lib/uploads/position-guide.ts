@@ -4,6 +4,7 @@
  */
 import { ASSET_CLASS_ALIASES, ASSET_CLASS_LABELS, ASSET_CLASSES } from "./asset-classes";
 import { EARLIER_RATE_TOLERANCE, MARKET_VALUE_TOLERANCE, type PositionField } from "./parse-positions";
+import { POSITION_ATTRIBUTE_GUIDE } from "./position-attributes";
 
 export interface ColumnGuide {
   field: PositionField;
@@ -46,7 +47,9 @@ export function assetClassTable(): { assetClass: string; label: string; spelling
 /** The served positions template: the guide's header and one example row (an invented position: 1,500 × 42.10 USD). */
 export function positionsTemplateCsv(): string {
   const quote = (cell: string) => (/[",\n]/.test(cell) ? `"${cell.replace(/"/g, '""')}"` : cell);
-  const header = POSITION_COLUMN_GUIDE.map((g) => g.column).join(",");
-  const example = POSITION_COLUMN_GUIDE.map((g) => quote(g.example)).join(",");
+  // the optional standardised columns follow (lib/uploads/position-attributes.ts)
+  const columns = [...POSITION_COLUMN_GUIDE, ...POSITION_ATTRIBUTE_GUIDE];
+  const header = columns.map((g) => g.column).join(",");
+  const example = columns.map((g) => quote(g.example)).join(",");
   return `${header}\n${example}\n`;
 }

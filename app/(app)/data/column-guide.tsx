@@ -1,5 +1,6 @@
 import { POSITION_FIELDS } from "@/lib/uploads/parse-positions";
 import { assetClassTable, POSITION_COLUMN_GUIDE } from "@/lib/uploads/position-guide";
+import { POSITION_ATTRIBUTE_GUIDE } from "@/lib/uploads/position-attributes";
 
 /** The positions file's columns (meaning, unit, allowed values, example) and the accepted asset-class spellings. */
 export function PositionColumnGuide({ reportingCurrency }: { reportingCurrency: string }) {
@@ -44,11 +45,42 @@ export function PositionColumnGuide({ reportingCurrency }: { reportingCurrency: 
           </tbody>
         </table>
       </div>
-      {others.length > 0 ? (
+      {others.length > POSITION_ATTRIBUTE_GUIDE.length ? (
         <p className="mt-2 text-sm text-ink-soft">
-          Also read when present (for the standardised figure): {others.map(([, f]) => f.label).join(", ")}.
+          Also read when present: {others.filter(([key]) => !POSITION_ATTRIBUTE_GUIDE.some((g) => g.field === key)).map(([, f]) => f.label).join(", ")}.
         </p>
       ) : null}
+      <h3 id="standardised-columns-heading" className="mt-6 mb-1 font-semibold">
+        Optional columns for the standardised capital figure
+      </h3>
+      <p className="mb-2 text-sm text-ink-soft">
+        Needed only when the firm&apos;s capital rule profile files the standardised figure, and then only by the instruments that use them: the
+        upload names each row and column a position lacks, before confirmation.
+      </p>
+      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+        <table className="w-full text-sm" aria-labelledby="standardised-columns-heading" data-testid="standardised-column-guide">
+          <thead className="bg-paper-sunk text-left text-ink-soft">
+            <tr>
+              <th scope="col" className="px-3 py-2 font-medium">Column</th>
+              <th scope="col" className="px-3 py-2 font-medium">Meaning</th>
+              <th scope="col" className="px-3 py-2 font-medium">Unit</th>
+              <th scope="col" className="px-3 py-2 font-medium">Allowed</th>
+            </tr>
+          </thead>
+          <tbody>
+            {POSITION_ATTRIBUTE_GUIDE.map((g) => (
+              <tr key={g.field} className="border-t border-ink-line align-top">
+                <th scope="row" className="px-3 py-2 text-left font-normal whitespace-nowrap">
+                  <code className="font-medium">{g.column}</code>
+                </th>
+                <td className="px-3 py-2">{g.meaning}</td>
+                <td className="px-3 py-2">{g.unit.replace("reporting currency", `reporting currency (${reportingCurrency})`)}</td>
+                <td className="px-3 py-2">{g.allowed}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
 
       <h3 id="asset-classes-heading" className="mt-6 mb-1 font-semibold">
         Asset classes and the spellings accepted

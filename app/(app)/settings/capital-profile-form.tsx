@@ -132,7 +132,7 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
           </Field>
           <Field id="filedRegime" label="Filed figure" hint="The draft filing and both packs carry this figure; the other is shown beside it as comparison." error={errors.filedRegime?.message}>
             <select className={inputClass} {...a11y("filedRegime")} {...register("filedRegime")}>
-              {CAPITAL_REGIMES.filter((r) => regimes === "both" || regimes === r).map((r) => (
+              {CAPITAL_REGIMES.map((r) => (
                 <option key={r} value={r}>
                   {REGIME_LABELS[r]}
                 </option>
