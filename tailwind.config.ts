@@ -10,7 +10,7 @@ const config: Config = {
     extend: {
       colors: {
         paper: { DEFAULT: "#f7f5f0", raised: "#fdfcf9", sunk: "#efece4" },
-        ink: { DEFAULT: "#1c2733", soft: "#3d4a57", muted: "#6b7682", line: "#d8d3c7" },
+        ink: { DEFAULT: "#1c2733", soft: "#3d4a57", muted: "#5b6570", line: "#d8d3c7" },
         brass: { DEFAULT: "#925816", dark: "#84500f", light: "#f3e6d3" },
         ok: { DEFAULT: "#2f6b3f", bg: "#e4efe6" },
         caution: { DEFAULT: "#8a5a00", bg: "#f6ecd4" },
