@@ -85,7 +85,7 @@ test.describe("runs and results", () => {
     await signInThroughPage(page, ANALYST);
     await page.goto(runUrl);
     await openTab(page, "Risk factors");
-    await expect(page.getByTestId("volatility-statement")).toContainText("covariance choice");
+    await expect(page.getByTestId("volatility-statement")).toContainText("one EWMA covariance for every factor");
     const rows = page.getByTestId("factor-row");
     await expect(rows.first()).toBeVisible();
     const all = await rows.count();

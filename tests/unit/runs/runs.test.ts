@@ -113,7 +113,8 @@ describe("a run of the demo period", () => {
     expect(r.positions.rows).toBe(56);
     expect(r.dataQuality.items).toBe(r.dataQuality.report.items.length);
     expect(r.dataQuality.items).toBeGreaterThan(0);
-    expect(r.factorVolatility.statement).toContain("covariance choice");
+    // the demo statement keeps one EWMA covariance for every factor, and the run says so
+    expect(r.factorVolatility.statement).toContain("one EWMA covariance for every factor");
   });
 
   it("reports parametric VaR as the normal quantile times the book's volatility", () => {
