@@ -3,7 +3,7 @@
  * policy with a fresh nonce for Next.js's own scripts. It only redirects: authorization lives in the gate
  * (lib/auth/actor.ts), which every page, route handler and server action goes through.
  */
-import { NextResponse } from "next/server";
+import { NextResponse, type NextFetchEvent, type NextRequest } from "next/server";
 import { auth } from "@/lib/auth";
 
 /** Signed-in areas: a visitor without a session is sent to sign-in first. */
@@ -40,9 +40,8 @@ export function isMalformedPath(path: string): boolean {
   }
 }
 
-export const proxy = auth((request) => {
+const pages = auth((request) => {
   const path = request.nextUrl.pathname;
-  if (isMalformedPath(path)) return new NextResponse("Not found: the address is not valid.", { status: 404, headers: { "content-type": "text/plain; charset=utf-8" } });
   if (!request.auth && SIGNED_IN_AREAS.some((area) => path === area || path.startsWith(`${area}/`))) {
     const url = new URL("/sign-in", request.nextUrl.origin);
     url.searchParams.set("next", path + request.nextUrl.search);
@@ -58,7 +57,23 @@ export const proxy = auth((request) => {
   return response;
 });
 
+/**
+ * Every request: an address whose percent-encoding is broken answers 404 here (Next.js would fail decoding it with a
+ * server error); API routes then go straight on (they answer JSON, set no scripts and run the gate themselves); pages
+ * get the sign-in redirect and the content security policy.
+ */
+export function proxy(request: NextRequest, event: NextFetchEvent) {
+  const path = request.nextUrl.pathname;
+  if (isMalformedPath(path)) {
+    return path.startsWith("/api/")
+      ? Response.json({ error: { code: "not_found:route", message: "Not found: the address is not valid." } }, { status: 404 })
+      : new NextResponse("Not found: the address is not valid.", { status: 404, headers: { "content-type": "text/plain; charset=utf-8" } });
+  }
+  if (path.startsWith("/api/")) return NextResponse.next();
+  return pages(request as Parameters<typeof pages>[0], event as never);
+}
+
 export const config = {
-  // Pages only: API routes answer JSON and set no scripts; static files need no policy of their own.
-  matcher: ["/((?!api/|_next/static|_next/image|favicon.ico).*)"],
+  // Static files need no policy of their own; API routes pass only the address check.
+  matcher: ["/((?!_next/static|_next/image|favicon.ico).*)"],
 };

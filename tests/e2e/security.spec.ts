@@ -61,7 +61,7 @@ test("no secret reaches the browser's files", () => {
       else if (/\.(js|css|html|json|map)$/.test(name)) files.push(full);
     }
   };
-  walk(path.join(".next", "static"));
+  walk(path.join(process.env.NEXT_DIST_DIR ?? ".next", "static"));
   expect(files.length).toBeGreaterThan(5);
   for (const file of files) {
     const text = readFileSync(file, "utf8");
