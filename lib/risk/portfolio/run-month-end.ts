@@ -31,6 +31,7 @@ import {
 import { specLabel, specStartUp } from "../process/registry";
 import { describeInit, type InitRule } from "../estimators/initial-variance";
 import { candidateRows, failedRow, methodOfCandidate, rowFromSeries, standardCandidates, type CandidateContext } from "./candidates";
+import { countOf, isAre, listSome } from "../../text/count";
 
 export type VarMethod = "parametric" | "historical" | "filtered";
 export type CovarianceChoice = "equal" | "ewma" | "garch-ccc";
@@ -475,7 +476,7 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
   if (excludedFactors.length) {
     warnings.push({
       code: "factor-excluded",
-      message: `${excludedFactors.length} factor(s) are left out for lack of history: ${excludedFactors.slice(0, 10).map((f) => `${f.factor} (${f.reason})`).join("; ")}${excludedFactors.length > 10 ? "; …" : ""}.`,
+      message: `${countOf(excludedFactors.length, "factor")} ${isAre(excludedFactors.length)} left out for lack of history: ${listSome(excludedFactors.map((f) => `${f.factor} (${f.reason})`), 10, "; ")}.`,
     });
   }
   if (ex.factors.length === 0) throw new RangeError(`runMonthEnd: no position has usable price history${excludedFactors.length ? ` (${excludedFactors[0].factor}: ${excludedFactors[0].reason})` : ""}`);
@@ -551,11 +552,11 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
       }
       if (i % 25 === 0) onProgress?.("volatility", i / k);
     }
-    if (fellBack.length) warnings.push({ code: "garch-fallback", message: `GARCH(1,1) failed or was near-integrated for ${fellBack.length} factor(s); EWMA (λ = 0.94) is used for them instead: ${fellBack.slice(0, 10).join(", ")}${fellBack.length > 10 ? ", …" : ""}.` });
-    if (failed.length) warnings.push({ code: "garch-failed", message: `GARCH(1,1) could not be fitted for ${failed.length} factor(s); EWMA is used: ${failed.slice(0, 5).join("; ")}${failed.length > 5 ? "; …" : ""}.` });
+    if (fellBack.length) warnings.push({ code: "garch-fallback", message: `GARCH(1,1) failed or was near-integrated for ${countOf(fellBack.length, "factor")}; EWMA (λ = 0.94) is used instead: ${listSome(fellBack, 10)}.` });
+    if (failed.length) warnings.push({ code: "garch-failed", message: `GARCH(1,1) could not be fitted for ${countOf(failed.length, "factor")}; EWMA is used: ${listSome(failed, 5, "; ")}.` });
     for (const [code, list] of fitWarnings) {
       if (code === "near-integrated" || code === "not-converged") continue; // reported as garch-fallback above
-      warnings.push({ code: `garch-${code}`, message: `GARCH(1,1) fit warning "${code}" for ${list.length} factor(s): ${list.slice(0, 10).join(", ")}${list.length > 10 ? ", …" : ""}.` });
+      warnings.push({ code: `garch-${code}`, message: `GARCH(1,1) fit warning "${code}" for ${countOf(list.length, "factor")}: ${listSome(list, 10)}.` });
     }
     volatility = { variance, current, params, labels, paramsOut };
   } else if (method.methods.includes("filtered")) {
@@ -687,8 +688,8 @@ function preparePerFactor(x: PerFactorInput): PreparedRun {
       byCode.set(w.code, list);
     }
   });
-  if (fellBack.length) warnings.push({ code: "volatility-fallback", message: `The chosen process failed or was near-integrated for ${fellBack.length} factor(s); its stated EWMA fallback is used for them: ${fellBack.slice(0, 10).join(", ")}${fellBack.length > 10 ? ", …" : ""}.` });
-  for (const [code, list] of byCode) warnings.push({ code: `volatility-${code}`, message: `Volatility fit warning "${code}" for ${list.length} factor(s): ${list.slice(0, 10).join(", ")}${list.length > 10 ? ", …" : ""}.` });
+  if (fellBack.length) warnings.push({ code: "volatility-fallback", message: `The chosen process failed or was near-integrated for ${countOf(fellBack.length, "factor")}; its stated EWMA fallback is used instead: ${listSome(fellBack, 10)}.` });
+  for (const [code, list] of byCode) warnings.push({ code: `volatility-${code}`, message: `Volatility fit warning "${code}" for ${countOf(list.length, "factor")}: ${listSome(list, 10)}.` });
   x.onProgress?.("volatility", 1);
 
   const firstDefined = firstDefinedDay(specs);
@@ -1349,10 +1350,10 @@ function volatilitySentence(factors: readonly ResolvedFactorModel[]): string {
   const parts = [...groups.values()].map((list) => {
     const classes = [...new Set(list.map((f) => f.assetClass ?? "unclassified"))];
     const names = list.slice(0, 6).map((f) => f.factor).join(", ") + (list.length > 6 ? ", …" : "");
-    return `${specLabel(list[0].spec)} (start-up: ${list[0].startUp}) for ${list.length} factor(s) (${classes.join(", ")}: ${names})`;
+    return `${specLabel(list[0].spec)} (start-up: ${list[0].startUp}) for ${countOf(list.length, "factor")} (${classes.join(", ")}: ${names})`;
   });
   const fell = factors.filter((f) => f.fallback);
-  const fallback = fell.length ? ` The stated EWMA fallback was used for ${fell.length} factor(s): ${fell.slice(0, 6).map((f) => `${f.factor} (${f.fallback!.reason})`).join(", ")}${fell.length > 6 ? ", …" : ""}.` : "";
+  const fallback = fell.length ? ` The stated EWMA fallback was used for ${countOf(fell.length, "factor")}: ${listSome(fell.map((f) => `${f.factor} (${f.fallback!.reason})`), 6)}.` : "";
   return `Volatility: ${parts.join("; ")}.${fallback}`;
 }
 

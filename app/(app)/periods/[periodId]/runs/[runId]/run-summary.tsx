@@ -13,6 +13,7 @@ import { confidence, METHOD_WORDS, money, num, pct } from "../_components/run-fo
 import { CompletedRun, RunStatusBadge } from "../_components/run-state";
 import { useRun } from "../_components/use-run";
 import { ModelUsed } from "./model-used";
+import { countOf, plural } from "@/lib/text/count";
 
 function Card({ title, id, children, className = "" }: { title: string; id: string; children: React.ReactNode; className?: string }) {
   return (
@@ -141,7 +142,7 @@ function Reproduction({ r, periodId }: { r: NonNullable<RunResults["reproduction
       <p className="text-sm">
         {r.matches
           ? `Every figure matches the original: ${r.compared.toLocaleString("en-GB")} values compared, the stored inputs' hashes unchanged, engine ${r.engineVersion}.`
-          : `${r.differences.length}${r.truncated ? " or more" : ""} value(s) differ from the original, of ${r.compared.toLocaleString("en-GB")} compared.`}{" "}
+          : `${countOf(r.differences.length, "value")}${r.truncated ? " or more" : ""} ${r.differences.length === 1 && !r.truncated ? "differs" : "differ"} from the original, of ${r.compared.toLocaleString("en-GB")} compared.`}{" "}
         <Link className="underline" href={`/periods/${periodId}/runs/${r.originalRunId}`}>
           Open the original run
         </Link>
@@ -321,7 +322,7 @@ export function RunSummary({ periodId, runId, canReproduce, canChooseForFiling }
                   {results.dataQuality.items}
                 </p>
                 <p className="text-sm text-ink-soft">
-                  item{results.dataQuality.items === 1 ? "" : "s"} in the period&apos;s data-quality report when the run started: {results.dataQuality.errors} error(s), {results.dataQuality.warnings} warning(s).{" "}
+                  {plural(results.dataQuality.items, "item")} in the period&apos;s data-quality report when the run started: {countOf(results.dataQuality.errors, "error")}, {countOf(results.dataQuality.warnings, "warning")}.{" "}
                   <Link className="underline" href={`/periods/${periodId}/data-quality`}>
                     Today&apos;s report
                   </Link>
