@@ -161,7 +161,9 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     for (let i = 0; i < k * k; i++) hz[i] /= n;
     return invertMatrix(hz, k);
   };
-  const bfgs = { gradientTolerance: 1e-9, maxIterations: 300, initialInverseHessian: bhhh };
+  // a lean refit inside a backtest stops at a largest gradient of 1e−7 of the mean log-likelihood (1e−9 otherwise):
+  // it starts next to its optimum, and the forecasts do not move at that precision
+  const bfgs = { gradientTolerance: options.lean ? 1e-7 : 1e-9, maxIterations: 300, initialInverseHessian: bhhh };
   let best: ReturnType<typeof minimizeMultiStart> | null = null;
   const warm = options.warmStart;
   if (warm && warm.alpha > 0 && warm.beta > 0 && warm.alpha + warm.beta < 1 && (targeting || warm.omega > 0) && (!studentT || warm.nu > NU_FLOOR)) {
@@ -249,13 +251,13 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   const path = garch11Variance(residuals, { omega, alpha, beta }, h1);
   const longRunVariance = persistence < 1 ? omega / (1 - persistence) : null;
   const halfLifeDays = persistence < 1 && persistence > 0 ? Math.log(0.5) / Math.log(persistence) : null;
-  const moments = standardisedMoments(residuals, path.variance);
+  const moments = options.lean ? { skewness: NaN, kurtosis: NaN } : standardisedMoments(residuals, path.variance);
   const gradientNorm = Math.max(...Array.from(best.gradient, Math.abs));
 
   const warnings: EngineWarning[] = [];
   const short = shortHistoryWarning(n, GARCH_WANTED_RETURNS, "GARCH(1,1) by maximum likelihood");
   if (short) warnings.push(short);
-  const kurt = kurtosisWarning(moments.kurtosis, !studentT);
+  const kurt = options.lean ? null : kurtosisWarning(moments.kurtosis, !studentT);
   if (kurt) warnings.push(kurt);
   if (alpha < 1e-6) warnings.push({ code: "bound-hit", message: `α is at its lower bound of 0 (α = ${alpha.toExponential(2)}): yesterday's return does not move the variance in this fit.` });
   if (beta < 1e-6) warnings.push({ code: "bound-hit", message: `β is at its lower bound of 0 (β = ${beta.toExponential(2)}): the fit has no memory beyond one day.` });

@@ -22,10 +22,21 @@ export function describeInit(rule: InitRule): string {
   return `first-${rule.firstReturns}: pre-sample squared residual and variance = mean of the first ${rule.firstReturns} squared residuals`;
 }
 
+const sampleWeights = new Map<number, Float64Array>();
+
 /** Weights over the first k observations whose weighted mean of squared residuals is the backcast; null for rules without one. */
 export function backcastWeights(rule: InitRule, n: number): Float64Array | null {
   if (typeof rule === "number" || rule === "unconditional") return null;
-  if (rule === "sample") return new Float64Array(n).fill(1 / n);
+  if (rule === "sample") {
+    // the same n comes back many times in a backtest's refits: keep the last few (callers only read them)
+    let w = sampleWeights.get(n);
+    if (!w) {
+      w = new Float64Array(n).fill(1 / n);
+      if (sampleWeights.size >= 64) sampleWeights.delete(sampleWeights.keys().next().value as number);
+      sampleWeights.set(n, w);
+    }
+    return w;
+  }
   if (rule === "backcast") {
     const k = Math.min(75, n);
     const w = new Float64Array(k);

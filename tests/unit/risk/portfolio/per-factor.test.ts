@@ -23,8 +23,8 @@ describe("per-factor processes in the month-end run", () => {
     expect(eq.length).toBeGreaterThan(0);
     for (const f of eq) expect(f.label).toMatch(/^GARCH\(1,1\), Student-t errors \(ν = [\d.]+\), zero mean$/);
     for (const f of m.factors.filter((x) => x.assetClass === "bond")) expect(f.source).toBe("default");
-    expect(m.statements[0]).toMatch(/GARCH\(1,1\), Student-t errors, zero mean .* for \d+ factor\(s\) \(equity/);
-    expect(m.statements[0]).toMatch(/EWMA, λ = 0\.97, zero mean .* for 1 factor\(s\) \(fx: EURUSD\)/);
+    expect(m.statements[0]).toMatch(/GARCH\(1,1\), Student-t errors, zero mean .* for \d+ factor(?:s|\(s\))? \(equity/);
+    expect(m.statements[0]).toMatch(/EWMA, λ = 0\.97, zero mean .* for 1 factor(?:\(s\))? \(fx: EURUSD\)/);
     expect(m.correlation.label).toBe("EWMA, λ = 0.94");
     expect(m.backtest.refit).toEqual({ mode: "rolling", everyDays: 21 });
     // the one-day variance of each factor is the diagonal of the covariance behind the VaR
