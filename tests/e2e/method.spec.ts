@@ -4,13 +4,15 @@ import { DEMO_USERS, signInThroughPage, signedInApi } from "./helpers";
 const ANALYST = DEMO_USERS.find((u) => u.email === "priya.castell@northmoor.example")!.email;
 const OFFICER = DEMO_USERS.find((u) => u.email === "tomas.reyne@northmoor.example")!.email;
 const AUDITOR = DEMO_USERS.find((u) => u.email === "oskar.lind@northmoor.example")!.email;
+const HEAD = DEMO_USERS.find((u) => u.email === "helen.marsh@northmoor.example")!.email;
 
 test.describe.configure({ mode: "serial" });
 
 test.describe("method statement", () => {
   let draftId = "";
 
-  test("the risk analyst reads the approved version, starts a new one, is refused λ = 1.2, fixes it, attaches evidence and approves", async ({ page }) => {
+  test("the risk analyst reads the approved version, starts a new one, is refused λ = 1.2, fixes it, attaches evidence and approves; the compliance head co-approves", async ({ page, browser }) => {
+    test.setTimeout(150_000); // two people's sessions in one test on a shared machine
     await signInThroughPage(page, ANALYST);
     await page.getByRole("navigation", { name: "Month end" }).getByRole("link", { name: "Method" }).click();
     await expect(page.getByRole("heading", { name: "Method statement", level: 1 })).toBeVisible();
@@ -52,14 +54,36 @@ test.describe("method statement", () => {
     await expect(page.getByRole("status").filter({ hasText: "Draft saved." })).toBeVisible();
     await expect(defaults.getByText("λ must be below 1.")).toHaveCount(0);
 
-    await expect(page.getByRole("button", { name: "Approve version 2" })).toBeDisabled();
+    await expect(page.getByRole("button", { name: "Approve version 2…" })).toBeDisabled();
     await page.getByRole("button", { name: "Attach evidence" }).click();
-    await expect(page.getByTestId("evidence-summary")).toContainText("Computed 2026-12-01");
+    // computed at the real time of the act (the business day is pinned to 2026-12-01, the stamp is not)
+    await expect(page.getByTestId("evidence-summary")).toContainText(/Computed \d{4}-\d{2}-\d{2}/);
     await expect(page.getByRole("button", { name: "Recompute evidence" })).toBeEnabled();
     await expect(page.getByText(/Government bonds: QLIKE of each estimator above the best/)).toBeVisible();
     await page.screenshot({ path: "test-results/screens/method-draft-evidence.png", fullPage: true });
 
-    await page.getByRole("button", { name: "Approve version 2" }).click();
+    // approving asks for confirmation; the firm needs a second person, so the draft then waits for them
+    await page.getByRole("button", { name: "Approve version 2…" }).click();
+    const confirm = page.getByRole("group", { name: /Approve version 2\? A compliance head then co-approves/ });
+    await expect(confirm).toBeVisible();
+    await confirm.getByLabel("Note for the audit trail (optional)").fill("Checked the bond evidence.");
+    await page.screenshot({ path: "test-results/screens/method-approve-confirm.png", fullPage: true });
+    await confirm.getByRole("button", { name: "Yes, approve" }).click();
+    await expect(page.getByText("Approved by Priya Castell; waiting for a compliance head to co-approve.")).toBeVisible();
+    await expect(page.getByRole("button", { name: /^Co-approve/ })).toHaveCount(0);
+
+    const headPage = await browser.newPage();
+    await signInThroughPage(headPage, HEAD);
+    await headPage.goto(page.url());
+    await headPage.getByRole("button", { name: "Co-approve version 2…" }).click();
+    const coConfirm = headPage.getByRole("group", { name: "Co-approve version 2, approved by Priya Castell?" });
+    await expect(coConfirm).toBeVisible();
+    await headPage.screenshot({ path: "test-results/screens/method-co-approve-confirm.png", fullPage: true });
+    await coConfirm.getByRole("button", { name: "Yes, co-approve" }).click();
+    await expect(headPage.getByRole("heading", { name: "Method statement · version 2" })).toBeVisible();
+    await headPage.close();
+
+    await page.reload();
     await expect(page.getByRole("heading", { name: "Method statement · version 2" })).toBeVisible();
     await expect(page.getByRole("button", { name: "Save draft" })).toHaveCount(0);
     await page.goto("/method");

@@ -132,7 +132,7 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await page.close();
   });
 
-  await test.step("the risk analyst starts a new method statement version, attaches evidence and approves it", async () => {
+  await test.step("the risk analyst starts a new method statement version, attaches evidence and approves it; the compliance head co-approves", async () => {
     const page = await asPerson(browser, ANALYST.email);
     await page.getByRole("navigation", { name: "Month end" }).getByRole("link", { name: "Method" }).click();
     await expect(page.getByRole("heading", { name: "Method statement", level: 1 })).toBeVisible();
@@ -151,12 +151,20 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await page.getByRole("button", { name: "Save draft" }).click();
     await expect(page.getByRole("status").filter({ hasText: "Draft saved." })).toBeVisible();
 
-    await expect(page.getByRole("button", { name: `Approve version ${next}` })).toBeDisabled();
+    await expect(page.getByRole("button", { name: `Approve version ${next}…` })).toBeDisabled();
     await page.getByRole("button", { name: "Attach evidence" }).click();
-    await expect(page.getByTestId("evidence-summary")).toContainText("Computed 2026-12-01");
+    await expect(page.getByTestId("evidence-summary")).toContainText(/Computed \d{4}-\d{2}-\d{2}/);
     await screen(page, "method-draft-evidence");
-    await page.getByRole("button", { name: `Approve version ${next}` }).click();
-    await expect(page.getByRole("heading", { name: `Method statement · version ${next}` })).toBeVisible();
+    await page.getByRole("button", { name: `Approve version ${next}…` }).click();
+    await page.getByRole("button", { name: "Yes, approve" }).click();
+    await expect(page.getByText("Approved by Priya Castell; waiting for a compliance head to co-approve.")).toBeVisible();
+    const draftUrl = page.url();
+    const head = await asPerson(browser, HEAD.email);
+    await head.goto(draftUrl);
+    await head.getByRole("button", { name: `Co-approve version ${next}…` }).click();
+    await head.getByRole("button", { name: "Yes, co-approve" }).click();
+    await expect(head.getByRole("heading", { name: `Method statement · version ${next}` })).toBeVisible();
+    await head.close();
     await page.goto("/method");
     await expect(page.getByRole("heading", { name: `Approved version ${next}` })).toBeVisible();
     await expect(page.getByText("EWMA, λ 0.96 (fixed)")).toBeVisible();
@@ -376,6 +384,7 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     const expected: [action: string, who: string, text: string | RegExp][] = [
       ["upload.confirm", OFFICER.name, `"${positionsFile}"`],
       ["method.approve", ANALYST.name, /Approved method statement version \d+/],
+      ["method.co_approve", HEAD.name, /Co-approved method statement version \d+/],
       ["run.start", ANALYST.name, "Started a run for the period ending 2026-11-30"],
       ["run.use_for_filing", ANALYST.name, ""],
       ["filing.submit", OFFICER.name, ""],

@@ -4,6 +4,9 @@ import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { apiFetch, ApiError } from "@/app/_components/api";
 import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { StatusBadge } from "@/app/_components/status-badge";
+
+type Confirmation = { by: string; at: string; reason: string };
 
 /** Confirm one finding that asks for it: a reason, then who and when are recorded (audited). */
 export function ConfirmItem({ periodId, check, instrument, dates }: { periodId: string; check: string; instrument: string; dates: string[] }) {
@@ -12,6 +15,7 @@ export function ConfirmItem({ periodId, check, instrument, dates }: { periodId: 
   const [reason, setReason] = useState("");
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
+  const [done, setDone] = useState<Confirmation | null>(null);
   const id = `confirm-${instrument}-${check}`.replace(/[^A-Za-z0-9_-]/g, "-");
 
   async function submit(event: React.FormEvent) {
@@ -19,7 +23,9 @@ export function ConfirmItem({ periodId, check, instrument, dates }: { periodId: 
     setBusy(true);
     setError(null);
     try {
-      await apiFetch(`/api/periods/${periodId}/data-quality/confirmations`, { method: "POST", body: { check, instrument, dates, reason } });
+      const { confirmation } = await apiFetch<{ confirmation: Confirmation }>(`/api/periods/${periodId}/data-quality/confirmations`, { method: "POST", body: { check, instrument, dates, reason } });
+      // the server's record of it, shown at once; the refreshed page then shows the same from the report
+      setDone(confirmation);
       setOpen(false);
       router.refresh();
     } catch (e) {
@@ -29,11 +35,20 @@ export function ConfirmItem({ periodId, check, instrument, dates }: { periodId: 
     }
   }
 
+  if (done) {
+    return (
+      <p className="mt-1 text-ink-soft" data-testid="quality-confirmation">
+        <StatusBadge tone="ok">Confirmed</StatusBadge> by {done.by} on {done.at.slice(0, 16).replace("T", " ")} UTC: {done.reason}
+      </p>
+    );
+  }
   if (!open) {
     return (
-      <button type="button" className={`${secondaryButtonClass} mt-2 px-3 py-1 text-sm`} onClick={() => setOpen(true)}>
-        Confirm…
-      </button>
+      <div className="mt-2">
+        <button type="button" className={`${secondaryButtonClass} px-3 py-1 text-sm`} onClick={() => setOpen(true)}>
+          Confirm…
+        </button>
+      </div>
     );
   }
   return (
