@@ -288,3 +288,5 @@ export const POSITION_ATTRIBUTE_GUIDE: readonly AttributeGuide[] = [
   { field: "strike", column: "strike", meaning: "An option's strike price.", unit: "the underlying's price unit", allowed: "a number above zero", example: "" },
   { field: "underlyingPrice", column: "underlying_price", meaning: "An option's underlying price per unit.", unit: "reporting currency per unit", allowed: "a number above zero", example: "" },
 ];
+
+export { describeAttributes } from "./attribute-words";

@@ -1,6 +1,8 @@
 "use client";
 
 import { useMemo, useState } from "react";
+import { describeAttributes } from "@/lib/uploads/attribute-words";
+import type { PositionAttributes } from "@/lib/uploads/position-attributes";
 import { useRouter } from "next/navigation";
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "@/app/_components/api";
@@ -54,11 +56,13 @@ const COLUMN_LABELS: Record<string, string> = {
   date: "Date",
   instrument: "Instrument",
   close: "Close",
+  attributes: "Standardised attributes",
 };
 
 /** A cell of the preview: numbers grouped, with their decimals kept. */
 function cellText(value: unknown, column: string): string {
   if (value === null || value === undefined) return "—";
+  if (column === "attributes" && typeof value === "object") return describeAttributes(value as PositionAttributes);
   if (typeof value === "number" && column !== "row") return value.toLocaleString("en", { maximumFractionDigits: 6 });
   return String(value);
 }
@@ -196,7 +200,8 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
   const { upload, problems: allProblems, header, missingColumns, fields, summary, canConfirm } = preview.data;
   const errors = allProblems.filter((p) => p.severity === "error").length;
   const warnings = allProblems.length - errors;
-  const columns = rows.data?.rows[0] ? Object.keys(rows.data.rows[0]).filter((c) => c !== "marketValueGiven") : [];
+  // every key of the page's rows, in first-seen order (a row without standardised attributes has no such key)
+  const columns = [...new Set((rows.data?.rows ?? []).flatMap((r) => Object.keys(r)))].filter((c) => c !== "marketValueGiven");
   const pages = rows.data ? Math.max(1, Math.ceil(rows.data.total / 25)) : 1;
 
   return (

@@ -5,7 +5,7 @@ import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxi
 import { DraftCaution } from "@/app/_components/draft-caution";
 import type { RunResults } from "@/lib/runs/types";
 import type { InterestRateCurrencyResult, StandardisedBlocks, StandardisedResult } from "@/lib/risk/standardised";
-import { filedCapitalOf, RWA_MULTIPLIER } from "@/lib/runs/standardised";
+import { filedCapitalOf, RWA_MULTIPLIER } from "@/lib/runs/filed-capital";
 import { REGIME_LABELS } from "@/lib/validation/capital-profile";
 import { compactMoney, money, num, pct } from "../../_components/run-format";
 import { CompletedRun } from "../../_components/run-state";
