@@ -23,7 +23,11 @@ export default async function SettingsPage() {
     <>
       <PageHeader
         title="Settings"
-        lead={admin ? "The firm's profile, its filing deadline rule, and who may do what." : "The firm's profile. Only an administrator can change it."}
+        lead={
+          admin
+            ? "The firm's profile, its filing deadline rule, who may do what, and the capital rule profile."
+            : `The firm's profile (only an administrator can change it) and the capital rule profile${can(actor, "capital.edit") ? ", which you can change" : ""}.`
+        }
       />
       <p className="-mt-2 mb-6 text-sm">
         <Link href="/settings/account" className="underline">
