@@ -126,7 +126,7 @@ export default async function DataPage() {
           {withHistory.length ? `, ${withHistory.reduce((s, c) => s + c.points, 0).toLocaleString("en")} closes in all` : ""}.
         </p>
         {coverage.length === 0 ? null : (
-          <div className="max-h-96 overflow-auto rounded-lg border border-ink-line bg-paper-raised">
+          <div className="max-h-96 overflow-auto rounded-lg border border-ink-line bg-paper-raised" tabIndex={0} role="region" aria-label="Price history per instrument (scrolls)">
             <table className="w-full text-sm">
               <caption className="sr-only">Price history per instrument</caption>
               <thead className="sticky top-0 bg-paper-sunk text-left text-ink-soft">

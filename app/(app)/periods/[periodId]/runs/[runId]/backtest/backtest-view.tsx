@@ -83,7 +83,7 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
         </figure>
         <details className="text-sm">
           <summary className="cursor-pointer text-ink-soft">Every day in a table</summary>
-          <div className="max-h-96 overflow-auto">
+          <div className="max-h-96 overflow-auto" tabIndex={0} role="region" aria-label="Every backtest day (scrolls)">
             <table className="mt-2 w-full text-xs">
               <caption className="sr-only">P&amp;L and VaR of each backtest day</caption>
               <thead className="sticky top-0 bg-paper-raised">
