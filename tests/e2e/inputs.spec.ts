@@ -57,14 +57,23 @@ test.describe.serial("inputs and stale runs", () => {
     await expect(page.getByTestId("preview-message")).toHaveText("Cancelled. Nothing from this file was stored.");
   });
 
-  test("restated positions make the period's run stale: badge, notice, step, and the filing choice refused", async ({ page }) => {
+  test("restated positions make the period's runs stale: badge, notice, step, the draft's notice, and the filing choice refused", async ({ page }) => {
     const api = await signedInApi(PELLAM);
     const periods = (await (await api.get("/api/periods")).json()).periods as { id: string; periodEnd: string }[];
     const periodId = periods.find((p) => p.periodEnd === "2026-11-30")!.id;
-    const started = await api.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
-    expect(started.status(), await started.text()).toBe(202);
-    const runId = (await started.json()).run.id as string;
-    await expect.poll(async () => (await (await api.get(`/api/runs/${runId}`)).json()).run.status, { timeout: 90_000 }).toBe("completed");
+    const completedRun = async () => {
+      const started = await api.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
+      expect(started.status(), await started.text()).toBe(202);
+      const id = (await started.json()).run.id as string;
+      await expect.poll(async () => (await (await api.get(`/api/runs/${id}`)).json()).run.status, { timeout: 90_000 }).toBe("completed");
+      return id;
+    };
+    // one run chosen for the filing with a draft assembled from it, and a second one not chosen
+    const filingRunId = await completedRun();
+    expect((await api.post(`/api/runs/${filingRunId}/use-for-filing`, { data: { confirm: true } })).status()).toBe(200);
+    const draft = await api.post(`/api/periods/${periodId}/filing`, { data: {} });
+    expect(draft.status(), await draft.text()).toBe(200);
+    const runId = await completedRun();
     expect((await (await api.get(`/api/runs/${runId}`)).json()).freshness).toEqual({ stale: false, changes: [] });
 
     // the officer restates the book: one position resized, its market value left to be computed
@@ -96,7 +105,13 @@ test.describe.serial("inputs and stale runs", () => {
 
     await page.goto(`/periods/${periodId}`);
     await expect(page.getByTestId("step-note-run")).toContainText("Every completed run is stale");
+    await expect(page.getByTestId("step-note-filing")).toContainText("The run chosen for the filing is stale");
     await page.screenshot({ path: `${SCREENS}/period-stale-step.png`, fullPage: true });
+
+    await page.goto(`/periods/${periodId}/filing`);
+    await expect(page.getByTestId("stale-run-notice")).toContainText("The run this draft (version 1) was assembled from is stale");
+    await expect(page.getByTestId("stale-run-notice")).toContainText("pellam-positions-2026-11-restated.csv");
+    await page.screenshot({ path: `${SCREENS}/filing-stale-draft.png` });
     await api.dispose();
   });
 });

@@ -184,7 +184,11 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
       />
       <DraftCaution className="mb-6" />
       {data.markedRun && (!f || (f.runIsMarked && f.status !== "signed" && f.status !== "filed")) ? (
-        <StaleRunNotice freshness={data.markedRun.freshness} what={f ? `The run this draft (version ${f.version}) was assembled from` : "The run marked for the filing"} />
+        <StaleRunNotice
+          freshness={data.markedRun.freshness}
+          what={f ? `The run this draft (version ${f.version}) was assembled from` : "The run marked for the filing"}
+          advice="A draft is not assembled, submitted or signed from a stale run: the risk analyst starts a new run on the current inputs and chooses it for the filing; the draft is then rebuilt from it."
+        />
       ) : null}
       {!f || !vm ? (
         <EmptyFiling data={data} canPrepare={officer} />

@@ -12,7 +12,15 @@ export function StaleRunBadge({ freshness }: { freshness: RunFreshness | null | 
 }
 
 /** A notice listing what changed since a stale run, and what to do. */
-export function StaleRunNotice({ freshness, what = "This run" }: { freshness: RunFreshness | null | undefined; what?: string }) {
+export function StaleRunNotice({
+  freshness,
+  what = "This run",
+  advice = "Its figures stay as computed, but a stale run cannot be chosen for the filing. Start a new run on the current inputs.",
+}: {
+  freshness: RunFreshness | null | undefined;
+  what?: string;
+  advice?: string;
+}) {
   if (!freshness?.stale) return null;
   return (
     <div role="status" className="mb-4 rounded-md border border-caution/30 bg-caution-bg p-3 text-sm text-ink" data-testid="stale-run-notice">
@@ -22,7 +30,7 @@ export function StaleRunNotice({ freshness, what = "This run" }: { freshness: Ru
           <li key={i}>{c.message}</li>
         ))}
       </ul>
-      <p className="mt-1 text-ink-soft">Its figures stay as computed, but a stale run cannot be chosen for the filing. Start a new run on the current inputs.</p>
+      <p className="mt-1 text-ink-soft">{advice}</p>
     </div>
   );
 }
