@@ -20,11 +20,12 @@ function isAllowed(route: RouteCase, roles: readonly Role[]): boolean {
   return roles.some((r) => (route.allowed as readonly Role[]).includes(r));
 }
 
-/** A completed run of the demo period (the seed has none): the risk analyst starts one through the API if needed. */
+/** A completed, current run of the demo period (the seed has none): the risk analyst starts one through the API if needed. */
 async function completedRunOf(periodId: string): Promise<string> {
   const analyst = await signedInApi(DEMO_USERS.find((u) => u.roles.length === 1 && u.roles[0] === "risk_analyst")!.email);
-  const listed = (await (await analyst.get(`/api/periods/${periodId}/runs`)).json()).runs as { id: string; status: string }[];
-  let runId = listed.find((r) => r.status === "completed")?.id;
+  const listed = (await (await analyst.get(`/api/periods/${periodId}/runs`)).json()).runs as { id: string; status: string; freshness?: { stale: boolean } | null }[];
+  // a stale run (an earlier spec changed the period's inputs) cannot be chosen for the filing: a fresh one is needed
+  let runId = listed.find((r) => r.status === "completed" && !r.freshness?.stale)?.id;
   if (!runId) {
     const started = await analyst.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
     expect(started.status(), await started.text()).toBe(202);
