@@ -45,8 +45,8 @@ async function filingOf(periodId: string, runId: string): Promise<string> {
   let filingId = (await (await officer.get(`/api/periods/${periodId}/filing`)).json()).current?.id as string | undefined;
   if (!filingId) {
     const analyst = await signedInApi(DEMO_USERS.find((u) => u.roles.length === 1 && u.roles[0] === "risk_analyst")!.email);
-    const state = (await (await officer.get(`/api/periods/${periodId}/filing`)).json()).markedRun;
-    if (!state) {
+    const state = (await (await officer.get(`/api/periods/${periodId}/filing`)).json()).markedRun as { freshness?: { stale: boolean } } | null;
+    if (!state || state.freshness?.stale) {
       const marked = await analyst.post(`/api/runs/${runId}/use-for-filing`, { data: { confirm: true } });
       expect(marked.status(), await marked.text()).toBe(200);
     }
