@@ -78,7 +78,7 @@ for (const person of [...DEMO_USERS, ...SECOND_FIRM_USERS]) {
     const hydration: string[] = [];
     let at = "";
     test.beforeAll(async ({ browser }) => {
-      page = await browser.newPage();
+      page = await (await browser.newContext()).newPage();
       page.on("console", (m) => {
         if (m.type() === "error" && HYDRATION.test(m.text())) hydration.push(`${at}: ${m.text().slice(0, 200)}`);
       });
@@ -89,7 +89,7 @@ for (const person of [...DEMO_USERS, ...SECOND_FIRM_USERS]) {
       ids = await idsOf(page);
     });
     test.afterAll(async () => {
-      await page?.close();
+      await page?.context().close();
     });
     for (const { route, urls } of ROUTES) {
       test(`${route}: no serious or critical accessibility violations, no hydration error`, async () => {

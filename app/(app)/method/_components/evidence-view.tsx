@@ -25,7 +25,7 @@ function QlikeChart({ c, titleId }: { c: ClassEvidence; titleId: string }) {
       </figcaption>
       <div className="h-64 w-full" aria-hidden="true">
         <ResponsiveContainer width="100%" height="100%">
-          <BarChart data={data} layout="vertical" margin={{ top: 4, right: 48, bottom: 16, left: 8 }}>
+          <BarChart accessibilityLayer={false} data={data} layout="vertical" margin={{ top: 4, right: 48, bottom: 16, left: 8 }}>
             <CartesianGrid horizontal={false} stroke="#d8d3c7" />
             <XAxis type="number" tick={{ fontSize: 12, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: "QLIKE above the best", position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
             <YAxis type="category" dataKey="label" width={190} tick={{ fontSize: 12, fill: "#1c2733" }} stroke="#6b7682" />
@@ -120,7 +120,7 @@ export function BookEvidenceView({ book }: { book: BookEvidence }) {
         </figcaption>
         <div className="w-full" style={{ height: Math.max(220, 34 * data.length + 40) }} aria-hidden="true">
           <ResponsiveContainer width="100%" height="100%">
-            <BarChart data={data} layout="vertical" margin={{ top: 4, right: 48, bottom: 16, left: 8 }}>
+            <BarChart accessibilityLayer={false} data={data} layout="vertical" margin={{ top: 4, right: 48, bottom: 16, left: 8 }}>
               <CartesianGrid horizontal={false} stroke="#d8d3c7" />
               <XAxis type="number" allowDecimals={false} tick={{ fontSize: 12, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: "Exceptions", position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
               <YAxis type="category" dataKey="label" width={260} tick={{ fontSize: 11, fill: "#1c2733" }} stroke="#6b7682" />

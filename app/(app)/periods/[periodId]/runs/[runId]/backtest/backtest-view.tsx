@@ -64,7 +64,7 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
           </figcaption>
           <div className="h-80 w-full" aria-hidden="true">
             <ResponsiveContainer width="100%" height="100%">
-              <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
+              <ComposedChart accessibilityLayer={false} data={data} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
                 <CartesianGrid stroke={CHART_PALETTE.grid} vertical={false} />
                 <XAxis dataKey="date" tick={{ fontSize: 11, fill: CHART_PALETTE.soft }} stroke={CHART_PALETTE.muted} minTickGap={60} />
                 <YAxis tickFormatter={compactMoney} tick={{ fontSize: 11, fill: CHART_PALETTE.soft }} stroke={CHART_PALETTE.muted} width={64} />

@@ -87,7 +87,7 @@ function BlocksChart({ result, currency }: { result: StandardisedResult; currenc
       <figcaption className="mb-2 text-sm font-semibold">Standardised charge by building block, {currency}, as of {result.asOf ?? "the period end"}</figcaption>
       <div className="h-72" aria-hidden="true">
         <ResponsiveContainer width="100%" height="100%">
-          <BarChart data={data} layout="vertical" margin={{ top: 4, right: 24, bottom: 16, left: 8 }}>
+          <BarChart accessibilityLayer={false} data={data} layout="vertical" margin={{ top: 4, right: 24, bottom: 16, left: 8 }}>
             <CartesianGrid horizontal={false} stroke="#d8d3c7" />
             <XAxis type="number" tickFormatter={compactMoney} tick={{ fontSize: 12, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: `charge, ${currency}`, position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
             <YAxis type="category" dataKey="label" width={230} tick={{ fontSize: 12, fill: "#1c2733" }} stroke="#6b7682" />

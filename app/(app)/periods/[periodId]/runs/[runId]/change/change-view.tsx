@@ -47,7 +47,7 @@ function View({ runId, currency }: { runId: string; currency: string }) {
           </figcaption>
           <div className="h-64 w-full" aria-hidden="true">
             <ResponsiveContainer width="100%" height="100%">
-              <BarChart data={chart} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
+              <BarChart accessibilityLayer={false} data={chart} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
                 <CartesianGrid stroke="#e6e1d6" vertical={false} />
                 <XAxis dataKey="label" tick={{ fontSize: 12, fill: "#1c2733" }} stroke="#6b7682" />
                 <YAxis tickFormatter={compactMoney} tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" width={64} />

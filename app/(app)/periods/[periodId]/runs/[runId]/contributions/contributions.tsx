@@ -21,7 +21,7 @@ function GroupChart({ title, id, data, currency }: { title: string; id: string; 
       </figcaption>
       <div className="w-full" style={{ height: Math.max(160, 32 * data.length + 40) }} aria-hidden="true">
         <ResponsiveContainer width="100%" height="100%">
-          <BarChart data={data} layout="vertical" margin={{ top: 4, right: 24, bottom: 16, left: 8 }}>
+          <BarChart accessibilityLayer={false} data={data} layout="vertical" margin={{ top: 4, right: 24, bottom: 16, left: 8 }}>
             <CartesianGrid horizontal={false} stroke="#d8d3c7" />
             <XAxis type="number" tickFormatter={compactMoney} tick={{ fontSize: 12, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: `component VaR, ${currency}`, position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
             <YAxis type="category" dataKey="label" width={200} tick={{ fontSize: 12, fill: "#1c2733" }} stroke="#6b7682" />

@@ -42,7 +42,7 @@ function Charts({ d }: { d: VolatilityDetail }) {
           </figcaption>
           <div className="h-80 w-full" aria-hidden="true">
             <ResponsiveContainer width="100%" height="100%">
-              <ComposedChart data={data} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
+              <ComposedChart accessibilityLayer={false} data={data} margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
                 <CartesianGrid stroke="#e6e1d6" vertical={false} />
                 <XAxis dataKey="date" tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" minTickGap={60} />
                 <YAxis yAxisId="vol" tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" unit=" %" width={56} />
@@ -127,7 +127,7 @@ function Charts({ d }: { d: VolatilityDetail }) {
               </figcaption>
               <div className="h-64 w-full" aria-hidden="true">
                 <ResponsiveContainer width="100%" height="100%">
-                  <LineChart data={term} margin={{ top: 8, right: 16, bottom: 16, left: 8 }}>
+                  <LineChart accessibilityLayer={false} data={term} margin={{ top: 8, right: 16, bottom: 16, left: 8 }}>
                     <CartesianGrid stroke="#e6e1d6" vertical={false} />
                     <XAxis dataKey="day" type="number" domain={[1, term.length]} ticks={[1, 25, 50, 75, 100, 125, 150, 175, 200, 225, 250].filter((t) => t <= term.length)} tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" label={{ value: "days ahead", position: "insideBottom", offset: -8, fontSize: 12, fill: "#3d4a57" }} />
                     <YAxis tick={{ fontSize: 11, fill: "#3d4a57" }} stroke="#6b7682" unit=" %" width={56} domain={["auto", "auto"]} tickFormatter={(v: number) => v.toFixed(1)} />
