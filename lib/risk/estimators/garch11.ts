@@ -7,6 +7,7 @@ import { garch11LogLikelihood, garch11ParameterNames, type Garch11Problem, type 
 import { backcastWeights, backcastValue, checkInit, describeInit, type InitRule } from "./initial-variance";
 import { fitEwma } from "./ewma";
 import { minimizeMultiStart } from "../optimize/multi-start";
+import { minimizeBfgs } from "../optimize/minimize-bfgs";
 import { invertMatrix, multiplyMatrices } from "../linalg";
 import { standardisedMoments, kurtosisWarning, shortHistoryWarning } from "../fit-diagnostics";
 import { LIMITATIONS, NORMAL_TAILS } from "../limitations";
@@ -169,8 +170,9 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
   if (warm && warm.alpha > 0 && warm.beta > 0 && warm.alpha + warm.beta < 1 && (targeting || warm.omega > 0) && (!studentT || warm.nu > NU_FLOOR)) {
     const z = toFree(fitMean ? (warm.mu ?? mean) / scale : 0, targeting ? 1 : warm.omega / (scale * scale), warm.alpha, warm.beta, studentT ? warm.nu : 8);
     try {
-      const run = minimizeMultiStart(objective, [z], { ...bfgs, runs: 1 });
-      if (run.converged) best = run;
+      // one run from the warm point, without ranking a single start first
+      const one = minimizeBfgs(objective, z, { gradientTolerance: bfgs.gradientTolerance, maxIterations: bfgs.maxIterations, initialInverseHessian: bhhh(z) });
+      if (one.converged) best = { ...one, startsEvaluated: 1, runs: 1, totalEvaluations: one.evaluations, runValues: [one.value] };
     } catch {
       best = null; // a warm start outside the domain of these returns: start cold
     }
