@@ -3,6 +3,8 @@ import { AuthCard } from "../_components/auth-card";
 import { ResetRequestForm } from "./reset-request-form";
 
 export const metadata: Metadata = { title: "Reset your password" };
+// rendered per request, so that its scripts carry the request's CSP nonce (proxy.ts)
+export const dynamic = "force-dynamic";
 
 /** Ask for a password-reset link by e-mail (public). */
 export default function ResetPasswordPage() {
