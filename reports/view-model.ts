@@ -702,7 +702,8 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
             days: r.candidates.days,
             confidence: r.candidates.confidence,
             statement: r.candidates.statement,
-            rows: r.candidates.rows.map((c) => ({ label: c.label, exceptions: c.exceptions, zone: c.zone, kupiecPValue: c.kupiecPValue, christoffersenPValue: c.christoffersenPValue, meanVar: c.meanVar, capital: c.capital, error: c.error })),
+            // the run's own row is described by the models table and sentences beside it
+            rows: r.candidates.rows.map((c) => ({ label: c.id === "this-method" ? "This run's method (above)" : c.label, exceptions: c.exceptions, zone: c.zone, kupiecPValue: c.kupiecPValue, christoffersenPValue: c.christoffersenPValue, meanVar: c.meanVar, capital: c.capital, error: c.error })),
           }
         : null,
     },

@@ -72,7 +72,7 @@ test("GARCH(1,1)-t for equities and EWMA 0.97 for FX: approved, run, and said ex
   const book = page.getByTestId("book-evidence");
   await expect(book).toBeVisible({ timeout: 120_000 });
   const table = page.getByTestId("book-evidence-table");
-  await expect(table.getByRole("rowheader", { name: /^This run's method/ })).toBeVisible();
+  await expect(table.getByRole("rowheader", { name: "Version 2 (this statement)" })).toBeVisible();
   await expect(table.getByRole("rowheader", { name: "Approved version 1" })).toBeVisible();
   for (const name of ["Moving average, 20 days", "Moving average, 250 days", "EWMA, λ = 0.94", "EWMA, λ fitted", "GARCH(1,1), normal errors", "GARCH(1,1), Student-t errors"]) {
     await expect(table.getByRole("rowheader", { name, exact: true })).toBeVisible();

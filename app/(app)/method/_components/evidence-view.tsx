@@ -104,7 +104,9 @@ export function BookEvidenceView({ book }: { book: BookEvidence }) {
     );
   }
   const expected = ev.days * (1 - ev.confidence);
-  const data = ev.rows.map((r) => ({ id: r.id, label: r.label.length > 60 ? `${r.label.slice(0, 57)}…` : r.label, exceptions: r.exceptions ?? 0, zone: r.zone ?? "none", failed: r.exceptions === null }));
+  // the engine names its own row after the run's method; here that method is this version's
+  const labelOf = (r: { id: string; label: string }) => (r.id === "this-method" ? `Version ${book.version} (this statement)` : r.label);
+  const data = ev.rows.map((r) => ({ id: r.id, label: labelOf(r).length > 60 ? `${labelOf(r).slice(0, 57)}…` : labelOf(r), exceptions: r.exceptions ?? 0, zone: r.zone ?? "none", failed: r.exceptions === null }));
   const refit = ev.refit.mode === "rolling" ? `parameters re-estimated every ${ev.refit.everyDays} business days` : "parameters fitted once on the whole sample (in sample)";
   return (
     <div className="flex flex-col gap-3" data-testid="book-evidence">
@@ -158,7 +160,7 @@ export function BookEvidenceView({ book }: { book: BookEvidence }) {
             {ev.rows.map((r) => (
               <tr key={r.id} className="border-b border-ink-line/60 text-right">
                 <th scope="row" className="max-w-[22rem] py-1.5 pr-2 text-left font-normal">
-                  {r.label}
+                  {labelOf(r)}
                   {r.error ? <span className="block text-xs text-alert">Could not be computed: {r.error}</span> : null}
                 </th>
                 <td className="py-1.5 pr-2">{r.exceptions ?? "—"}</td>
