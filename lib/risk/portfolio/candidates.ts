@@ -151,5 +151,10 @@ export function candidateEvidence(input: MonthEndInput, options: { candidates?: 
 
 /** The method of a "method" candidate: the run's own with the candidate's pieces changed and no candidates. */
 export function methodOfCandidate(base: MonthEndMethod | undefined, c: CandidateMethod): MonthEndMethod {
-  return { ...(base ?? {}), ...(c.method ?? {}), candidates: { include: "none" } };
+  const m: MonthEndMethod = { ...(base ?? {}), ...(c.method ?? {}), candidates: { include: "none" } };
+  // a candidate with one covariance model (no per-factor processes) keeps that model's own refit rule unless it
+  // states one: the run's rolling rule does not apply to the legacy GARCH-CCC, which is fitted once
+  if (!m.volatility && c.method?.backtestRefit === undefined) delete m.backtestRefit;
+  if (!m.volatility) delete m.correlation;
+  return m;
 }

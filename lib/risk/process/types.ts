@@ -160,7 +160,7 @@ export interface CandidateMethod {
   /** for basis "book" */
   spec?: VolatilitySpec;
   /** for basis "method": the pieces of the method that differ from the run's own */
-  method?: { volatility?: VolatilityChoice; correlation?: CorrelationSpec; covariance?: "equal" | "ewma" | "garch-ccc"; lambda?: number };
+  method?: { volatility?: VolatilityChoice; correlation?: CorrelationSpec; covariance?: "equal" | "ewma" | "garch-ccc"; lambda?: number; backtestRefit?: BacktestRefit };
 }
 
 /** One row of the side-by-side evidence. */

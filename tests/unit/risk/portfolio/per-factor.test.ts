@@ -104,3 +104,14 @@ describe("per-factor processes in the month-end run", () => {
     expect(given.rows[1].var).toEqual(r.backtestSeries!.var);
   });
 });
+
+describe("a given candidate with one covariance model beside a per-factor method", () => {
+  it("keeps that model's own refit rule (the legacy GARCH-CCC is fitted once)", () => {
+    const ev = candidateEvidence(base({ methods: ["parametric"], volatility: { default: { kind: "ewma", lambda: 0.94 } }, backtestRefit: { mode: "rolling", everyDays: 21 } }), {
+      candidates: [],
+      given: [{ id: "old", label: "Approved version 1", basis: "method", method: { volatility: undefined, correlation: undefined, covariance: "garch-ccc", lambda: 0.94 } }],
+    });
+    expect(ev.rows[1].error).toBeNull();
+    expect(ev.rows[1].exceptions).not.toBeNull();
+  });
+});
