@@ -206,6 +206,12 @@ async function getUploadRow(actor: Actor, uploadId: string) {
   return row;
 }
 
+/** Whether the actor's firm has this upload (the preview page answers a real 404 otherwise). */
+export async function uploadExists(actor: Actor, uploadId: string): Promise<boolean> {
+  const [row] = await getDb().select({ id: uploads.id }).from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId)));
+  return Boolean(row);
+}
+
 /** Re-read an upload's file under its current options (cached). */
 async function parsedFor(actor: Actor, row: typeof uploads.$inferSelect): Promise<ParsedUpload> {
   const options = (row.options ?? { numberFormat: "plain" }) as unknown as ReadOptions;

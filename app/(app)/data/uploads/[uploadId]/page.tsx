@@ -4,6 +4,7 @@ import { notFound } from "next/navigation";
 import { z } from "zod";
 import { QueryProvider } from "@/app/_components/query-provider";
 import { pageActor } from "@/lib/auth/page";
+import { uploadExists } from "@/lib/data/uploads";
 import { UploadPreview } from "./upload-preview";
 
 export const metadata: Metadata = { title: "Upload preview" };
@@ -11,9 +12,11 @@ export const metadata: Metadata = { title: "Upload preview" };
 export default async function UploadPage({ params, searchParams }: { params: Promise<{ uploadId: string }>; searchParams: Promise<{ duplicate?: string }> }) {
   const { uploadId } = await params;
   const { duplicate } = await searchParams;
-  await pageActor();
-  // A malformed id names no upload: not found, rather than a request the API would refuse.
+  const { actor } = await pageActor();
+  // A malformed id names no upload: not found, rather than a request the API would refuse; another firm's upload is
+  // a real 404 too (decided here, before the preview loads in the browser).
   if (!z.string().uuid().safeParse(uploadId).success) notFound();
+  if (!(await uploadExists(actor, uploadId))) notFound();
   return (
     <>
       <p className="mb-2 text-sm">

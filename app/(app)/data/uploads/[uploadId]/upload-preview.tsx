@@ -108,32 +108,36 @@ function Totals({ summary, kind, reportingCurrency }: { summary: Record<string, 
     );
     return (
       <section aria-label="Totals" className="grid gap-6 rounded-lg border border-ink-line bg-paper-raised p-4 md:grid-cols-3">
-        <dl className="grid grid-cols-2 content-start gap-y-1 text-sm">
-          <dt className="text-ink-soft">Positions</dt>
-          <dd className="figure text-right" data-testid="total-positions">{totals.positions}</dd>
-          <dt className="text-ink-soft">Gross market value</dt>
-          <dd className="figure text-right">{money(totals.grossMarketValue)}</dd>
-          <dt className="text-ink-soft">Net market value</dt>
-          <dd className="figure text-right">{money(totals.netMarketValue)}</dd>
-          <dd className="col-span-2 text-xs text-ink-muted" data-testid="values-note">
+        <div className="text-sm">
+          <dl className="grid grid-cols-2 content-start gap-y-1">
+            <dt className="text-ink-soft">Positions</dt>
+            <dd className="figure text-right" data-testid="total-positions">{totals.positions}</dd>
+            <dt className="text-ink-soft">Gross market value</dt>
+            <dd className="figure text-right">{money(totals.grossMarketValue)}</dd>
+            <dt className="text-ink-soft">Net market value</dt>
+            <dd className="figure text-right">{money(totals.netMarketValue)}</dd>
+          </dl>
+          <p className="mt-1 text-xs text-ink-muted" data-testid="values-note">
             Market values in {reportingCurrency}: as given in {reportingCurrency}, converted from the row&apos;s market_value_currency, or computed as
             quantity × price × rate, at the rates below.
-          </dd>
+          </p>
           {rates.length > 0 ? (
             <>
-              <dt className="col-span-2 mt-2 font-medium">Exchange rates used</dt>
-              {rates.map((r) => (
-                <div key={r.pair} className="col-span-2 flex justify-between gap-2 text-xs" data-testid="rate-used">
-                  <span>
-                    {r.pair} {r.date ? `(${r.date})` : ""}
-                    {r.periodEnd ? "" : " · before the period end"}
-                  </span>
-                  <span className="figure">{r.rate.toLocaleString("en", { maximumFractionDigits: 6 })}</span>
-                </div>
-              ))}
+              <p className="mt-2 font-medium">Exchange rates used</p>
+              <ul>
+                {rates.map((r) => (
+                  <li key={r.pair} className="flex justify-between gap-2 text-xs" data-testid="rate-used">
+                    <span>
+                      {r.pair} {r.date ? `(${r.date})` : ""}
+                      {r.periodEnd ? "" : " · before the period end"}
+                    </span>
+                    <span className="figure">{r.rate.toLocaleString("en", { maximumFractionDigits: 6 })}</span>
+                  </li>
+                ))}
+              </ul>
             </>
           ) : null}
-        </dl>
+        </div>
         {table("By asset class", totals.byAssetClass)}
         {table("By currency", totals.byCurrency)}
       </section>
