@@ -42,6 +42,18 @@ export function describeFinding(f: AxeFinding): string {
 }
 
 /** The page is no wider than the window: nothing makes the reader scroll sideways. */
-export async function horizontalOverflow(page: Page): Promise<{ scrollWidth: number; clientWidth: number }> {
-  return page.evaluate(() => ({ scrollWidth: document.documentElement.scrollWidth, clientWidth: document.documentElement.clientWidth }));
+export async function horizontalOverflow(page: Page): Promise<{ scrollWidth: number; clientWidth: number; widest: string[] }> {
+  return page.evaluate(() => {
+    const clientWidth = document.documentElement.clientWidth;
+    // the elements that reach past the window's right edge and are not inside a scrolling box (to name the culprit)
+    const widest = [...document.querySelectorAll("body *")]
+      .filter((el) => el.getBoundingClientRect().right > clientWidth + 1)
+      .filter((el) => {
+        for (let p = el.parentElement; p; p = p.parentElement) if (["auto", "scroll", "hidden"].includes(getComputedStyle(p).overflowX)) return false;
+        return true;
+      })
+      .slice(-5)
+      .map((el) => `${el.tagName.toLowerCase()}.${[...el.classList].slice(0, 4).join(".")} (${Math.round(el.getBoundingClientRect().right)} px)`);
+    return { scrollWidth: document.documentElement.scrollWidth, clientWidth, widest };
+  });
 }

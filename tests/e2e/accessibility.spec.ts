@@ -115,8 +115,8 @@ test("on a 390 px phone screen the shell, the home page and the filing page fit 
   const filed = ids.periods.find((p) => p.periodEnd === "2026-10-31") ?? ids.periods[0];
   for (const url of ["/home", "/periods", `/periods/${filed.id}`, `/periods/${filed.id}/filing`, "/data", "/method"]) {
     await visit(page, url);
-    const { scrollWidth, clientWidth } = await horizontalOverflow(page);
-    expect(scrollWidth, `${url} is ${scrollWidth} px wide in a ${clientWidth} px window`).toBeLessThanOrEqual(clientWidth);
+    const { scrollWidth, clientWidth, widest } = await horizontalOverflow(page);
+    expect(scrollWidth, `${url} is ${scrollWidth} px wide in a ${clientWidth} px window: ${widest.join("; ")}`).toBeLessThanOrEqual(clientWidth);
   }
   await page.screenshot({ path: "test-results/screens/phone-filing.png", fullPage: false });
   // the navigation folds behind a Menu button, which opens a list of links and closes on the way to a page

@@ -193,7 +193,7 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
       {!f || !vm ? (
         <EmptyFiling data={data} canPrepare={officer} />
       ) : (
-        <div className="grid gap-10 lg:grid-cols-[minmax(0,1fr)_22rem]">
+        <div className="grid grid-cols-1 gap-10 lg:grid-cols-[minmax(0,1fr)_22rem]">
           <article className="min-w-0 max-w-4xl text-[15px] leading-7" aria-label={`Filing, version ${f.version} (${FILING_STATE_LABELS[f.status].toLowerCase()})`}>
             {commentsOf("general").length || mode() ? (
               <SectionComments filingId={f.id} section="general" sectionTitle="The filing as a whole" comments={commentsOf("general")} mode={mode()} />
@@ -253,7 +253,7 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
             </p>
           </article>
 
-          <aside className="flex flex-col gap-4 lg:self-start" aria-label="Filing state and actions">
+          <aside className="flex min-w-0 flex-col gap-4 lg:self-start" aria-label="Filing state and actions">
             <Card title="State">
               <People f={f} data={data} />
             </Card>
