@@ -113,6 +113,8 @@ const requestOf = new WeakMap<http.ServerResponse, http.IncomingMessage>();
 
 function json(res: http.ServerResponse, status: number, body: unknown) {
   const req = requestOf.get(res);
+  // Refusals go to the log, so a browser test that fails on one says why.
+  if (status >= 400) console.error(`[upload stand-in] ${status} ${req?.method ?? ""} ${(req?.url ?? "").split("?")[0]}: ${JSON.stringify(body)}`);
   res.writeHead(status, { ...(req ? corsFor(req) : {}), "content-type": "application/json" });
   res.end(JSON.stringify(body));
 }
