@@ -8,6 +8,8 @@ import { dataQualityReport, type QualityReport } from "@/lib/uploads/data-qualit
 import { getCalendar, getPeriod } from "./periods";
 import { priceSeries } from "./prices";
 import { periodConfirmations, withConfirmations } from "./quality-confirmations";
+import { currentCapitalProfile } from "./capital-profile";
+import { attributesFromStored, standardisedQualityItems } from "@/lib/uploads/position-attributes";
 
 /** The period's confirmed positions upload, if any. */
 export async function confirmedPositionsUpload(actor: Actor, periodId: string) {
@@ -27,10 +29,19 @@ export async function getDataQuality(actor: Actor, periodId: string): Promise<{ 
     : [];
   const series = await priceSeries(actor.firmId, period.periodEnd);
   const { holidays } = await getCalendar(actor.firmId);
+  // under a profile that files the standardised figure, each confirmed position lacking what its block needs
+  const profile = await currentCapitalProfile(actor);
+  const extraItems =
+    profile?.filedRegime === "standardised"
+      ? standardisedQualityItems(
+          rows.map((r) => ({ row: r.rowNumber, instrumentId: r.instrumentCode, assetClass: r.assetClass, currency: r.currency, quantity: r.quantity, marketValue: r.marketValue, attributes: attributesFromStored(r) })),
+          { reportingCurrency: actor.reportingCurrency, asOf: period.periodEnd, profile: profile.standardised },
+        )
+      : [];
   const report = dataQualityReport(
     rows.map((r) => ({ instrumentId: r.instrumentCode, currency: r.currency, quantity: r.quantity, price: r.price, marketValue: r.marketValue })),
     series,
-    { reportingCurrency: actor.reportingCurrency, periodEnd: period.periodEnd, holidays },
+    { reportingCurrency: actor.reportingCurrency, periodEnd: period.periodEnd, holidays, extraItems },
   );
   // findings that ask for confirmation carry it once someone confirmed them (who, when, why)
   report.items = withConfirmations(report.items, await periodConfirmations(actor, periodId));

@@ -16,7 +16,8 @@ export type QualityCheck =
   | "extreme-return"
   | "missing-fx"
   | "market-value-mismatch"
-  | "history-ends-early";
+  | "history-ends-early"
+  | "standardised-attribute";
 
 export const CHECK_LABELS: Record<QualityCheck, string> = {
   "no-history": "No price history",
@@ -29,6 +30,7 @@ export const CHECK_LABELS: Record<QualityCheck, string> = {
   "missing-fx": "Currency without an exchange-rate series",
   "market-value-mismatch": "Market value disagrees with quantity × price",
   "history-ends-early": "Price history ends before the period end",
+  "standardised-attribute": "Position lacks what the filed standardised figure needs",
 };
 
 export interface QualityItem {
@@ -67,13 +69,15 @@ export interface QualityOptions {
   /** relative tolerance of the market value cross-check */
   valueTolerance?: number;
   holidays?: ReadonlySet<string>;
+  /** items found elsewhere (the standardised attributes a filed figure needs), listed with the rest */
+  extraItems?: readonly QualityItem[];
 }
 
 export interface QualityReport {
   items: QualityItem[];
   counts: Record<QualitySeverity, number>;
   byCheck: { check: QualityCheck; label: string; severity: QualitySeverity; count: number }[];
-  settings: Required<Omit<QualityOptions, "holidays" | "reportingCurrency" | "periodEnd">>;
+  settings: Required<Omit<QualityOptions, "holidays" | "reportingCurrency" | "periodEnd" | "extraItems">>;
 }
 
 /** Business days strictly between two yyyy-mm-dd dates. */
@@ -208,6 +212,7 @@ export function dataQualityReport(
       }
     }
   }
+  items.push(...(options.extraItems ?? []));
   const order: Record<QualitySeverity, number> = { error: 0, warning: 1, info: 2 };
   items.sort((a, b) => order[a.severity] - order[b.severity] || a.check.localeCompare(b.check) || a.instrument.localeCompare(b.instrument));
   const counts = { error: 0, warning: 0, info: 0 };

@@ -290,3 +290,20 @@ export const POSITION_ATTRIBUTE_GUIDE: readonly AttributeGuide[] = [
 ];
 
 export { describeAttributes } from "./attribute-words";
+
+/**
+ * The data-quality items of a period's confirmed positions under a profile that files the standardised figure: each
+ * position lacking an attribute its block needs (positions confirmed before the profile changed, say), by file row.
+ */
+export function standardisedQualityItems(
+  rows: readonly (PositionForBlocks & { row: number })[],
+  context: { reportingCurrency: string; asOf: string; profile?: StandardisedProfile },
+): { check: "standardised-attribute"; severity: "error"; instrument: string; message: string }[] {
+  const byRow = new Map(rows.map((r) => [r.row, r]));
+  return standardisedRequirementProblems(rows, context).map((p) => ({
+    check: "standardised-attribute" as const,
+    severity: "error" as const,
+    instrument: (p.row !== null ? byRow.get(p.row)?.instrumentId : undefined) ?? "",
+    message: `Row ${p.row ?? "?"} (${(p.row !== null ? byRow.get(p.row)?.instrumentId : undefined) ?? "?"}), ${p.message}. Upload the positions again with the column filled in, or change the filed figure in Settings.`,
+  }));
+}

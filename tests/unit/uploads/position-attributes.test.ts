@@ -6,7 +6,8 @@
 import { describe, expect, it } from "vitest";
 import { readTables } from "@/lib/uploads/read-table";
 import { parsePositions } from "@/lib/uploads/parse-positions";
-import { standardisedPositionOf } from "@/lib/uploads/position-attributes";
+import { standardisedPositionOf, standardisedQualityItems } from "@/lib/uploads/position-attributes";
+import { dataQualityReport } from "@/lib/uploads/data-quality";
 import { STANDARDISED_1996_PROFILE } from "@/lib/risk/standardised";
 import type { ReadOptions } from "@/lib/uploads/types";
 
@@ -91,5 +92,21 @@ describe("a firm that files the standardised figure", () => {
     const parsed = await parse([BOND_NO_MATURITY, "2026-11-30,TRADING,EQ-B,Bracken SE,equity,EUR,10,40,400.00,,,,,,,,,,,,"]);
     expect(parsed.problems).toEqual([]);
     expect(parsed.rows).toHaveLength(2);
+  });
+});
+
+describe("the data-quality report under a profile that files the standardised figure", () => {
+  it("lists each confirmed position lacking an attribute as an error naming its row, counted with the rest", () => {
+    const rows = [
+      { row: 2, instrumentId: "GB-2031", assetClass: "government_bond", currency: "EUR", quantity: 1, marketValue: 100, attributes: { instrumentType: "bond" as const, issuerCategory: "government" as const, coupon: 2.25 } },
+      { row: 3, instrumentId: "EQ-A", assetClass: "equity", currency: "EUR", quantity: 1, marketValue: 50, attributes: { nationalMarket: "DE" } },
+    ];
+    const extraItems = standardisedQualityItems(rows, { reportingCurrency: "EUR", asOf: "2026-11-30", profile: STANDARDISED_1996_PROFILE });
+    expect(extraItems).toHaveLength(1);
+    expect(extraItems[0]).toMatchObject({ check: "standardised-attribute", severity: "error", instrument: "GB-2031" });
+    expect(extraItems[0].message).toMatch(/^Row 2 \(GB-2031\), column residual_maturity_years: a bond needs a residual maturity/);
+    const report = dataQualityReport([], new Map(), { reportingCurrency: "EUR", periodEnd: "2026-11-30", extraItems });
+    expect(report.counts.error).toBe(1);
+    expect(report.byCheck).toEqual([{ check: "standardised-attribute", label: "Position lacks what the filed standardised figure needs", severity: "error", count: 1 }]);
   });
 });
