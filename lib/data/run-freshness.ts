@@ -5,9 +5,9 @@
  */
 import "server-only";
 import { gunzipSync } from "node:zlib";
-import { and, count, desc, eq, inArray, lte, max } from "drizzle-orm";
+import { and, count, desc, eq, inArray, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { capitalRuleProfiles, methodStatements, pricePoints, runInputs, runs, uploads } from "@/db/schema";
+import { capitalRuleProfiles, methodStatements, runInputs, runs, uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { neededFactors } from "@/lib/runs/compute";
@@ -49,8 +49,8 @@ async function currentInputsOfFirm(firmId: string, periodId: string): Promise<Cu
 }
 
 // Price comparisons are the costly part (the run's stored closes against the held ones): kept per run and state of
-// the firm's price history up to the period end (how many closes, the newest row), so a page view recomputes only
-// after a price upload.
+// the firm's price history. Closes are written only by confirming a price-history upload (lib/data/uploads.ts), so
+// the state is the count and the latest confirmation of those uploads: a page view recomputes only after one.
 const priceCache = new Map<string, InputChange[]>();
 function rememberPrices(key: string, value: InputChange[]): InputChange[] {
   priceCache.set(key, value);
@@ -58,12 +58,12 @@ function rememberPrices(key: string, value: InputChange[]): InputChange[] {
   return value;
 }
 
-async function priceState(firmId: string, periodEnd: string): Promise<string> {
+async function priceState(firmId: string): Promise<string> {
   const [row] = await getDb()
-    .select({ n: count(), newest: max(pricePoints.createdAt) })
-    .from(pricePoints)
-    .where(and(eq(pricePoints.firmId, firmId), lte(pricePoints.date, periodEnd)));
-  return `${row?.n ?? 0}:${row?.newest ?? ""}`;
+    .select({ n: count(), latest: max(uploads.confirmedAt) })
+    .from(uploads)
+    .where(and(eq(uploads.firmId, firmId), eq(uploads.kind, "prices"), inArray(uploads.status, ["confirmed", "superseded"])));
+  return `${row?.n ?? 0}:${row?.latest ?? ""}`;
 }
 
 /** The freshness of each run of an open period (none for a signed or filed one), by run id. */
@@ -90,7 +90,7 @@ export async function freshnessForPeriod(firmId: string, period: { id: string; p
   const out = new Map<string, RunFreshness>();
   if (rows.length === 0) return out;
   const current = await currentInputsOfFirm(firmId, periodId);
-  const state = await priceState(firmId, period.periodEnd);
+  const state = await priceState(firmId);
   let series: Awaited<ReturnType<typeof priceSeries>> | null = null;
   for (const run of rows) {
     const key = `${run.id}:${state}`;
