@@ -10,7 +10,7 @@ import { capitalRuleProfiles, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import { now } from "@/lib/clock";
-import { canonicalJson } from "@/lib/runs/canonical";
+import { canonicalJson } from "@/lib/domain/canonical";
 import type { Actor } from "@/lib/auth/actor";
 import { STANDARDISED_1996_PROFILE, type StandardisedProfile } from "@/lib/risk/standardised";
 import {

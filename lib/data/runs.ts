@@ -21,7 +21,7 @@ import { runInputsExport, runInputsFileName } from "@/lib/runs/export";
 import { methodContentSchema, type MethodContent } from "@/lib/validation/method";
 import { alignReturns } from "@/lib/runs/align";
 import { regimeFieldsOf, storedAttributesOf } from "@/lib/runs/standardised";
-import { canonicalJson } from "@/lib/runs/canonical";
+import { canonicalJson } from "@/lib/domain/canonical";
 import { inputHashesOf } from "@/lib/runs/compare";
 import { assessHistory, engineInputOf, neededFactors } from "@/lib/runs/compute";
 import { capitalProfileOf } from "@/lib/runs/method-map";

@@ -2,7 +2,7 @@
  * Reproduction check: a re-run from stored inputs against the original, figure by figure, with the reasons any
  * figure differs (engine version changed, an input no longer matches its recorded hash). Pure.
  */
-import { canonicalJson, hashOf, sha256Hex } from "./canonical";
+import { canonicalJson, hashOf, sha256Hex } from "@/lib/domain/canonical";
 import type { FigureDifference, Reproduction, RunInputHashes, RunInputs, RunResults } from "./types";
 
 /** The hash of each stored input, and of all four together. */

@@ -1,6 +1,7 @@
 import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { canonicalContent, canonicalJson, contentHash, signedContent, CANONICAL_SCHEMA } from "@/reports/canonical";
+import { canonicalJson } from "@/lib/domain/canonical";
+import { canonicalContent, contentHash, signedContent, CANONICAL_SCHEMA } from "@/reports/canonical";
 import type { FilingViewModel } from "@/reports/view-model";
 import { packFixture } from "./fixture";
 

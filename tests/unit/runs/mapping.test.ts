@@ -4,7 +4,7 @@ import { DEFAULT_METHOD_CONTENT, methodContentSchema, type MethodContent } from 
 import { ESTIMATOR_DEFAULTS } from "@/lib/method/defaults";
 import { capitalProfileOf, engineMethodOf, estimatorFor, firmPlusFactor, storedHistoryDays, DEFAULT_T_NU } from "@/lib/runs/method-map";
 import { alignReturns, usableSeries } from "@/lib/runs/align";
-import { canonicalJson, hashOf, sha256Hex } from "@/lib/runs/canonical";
+import { canonicalJson, hashOf, sha256Hex } from "@/lib/domain/canonical";
 import { choicesFor } from "@/lib/runs/factor-volatility";
 import { progressOf } from "@/lib/runs/execute";
 import { RUN_STAGES } from "@/lib/runs/types";
