@@ -1,26 +1,16 @@
 /**
- * File names of the packs: firm, period and version, safe on every file system and in a Content-Disposition header
- * (lower-case ASCII letters, digits and hyphens), e.g. "northmoor-brokerage-ltd-filing-pack-2026-11-30-v2.docx".
+ * The one file name of a pack: firm slug, period, version and state, e.g. "northmoor-2026-11-v2-draft.docx" — lower-case
+ * ASCII letters, digits and hyphens (the firm's slug is stored that way), safe on every file system and in a
+ * Content-Disposition header. Pure.
  */
-import type { FilingViewModel } from "./view-model";
+import type { FilingStatus } from "./view-model";
 
-export const PACK_CONTENT_TYPES = {
-  docx: "application/vnd.openxmlformats-officedocument.wordprocessingml.document",
-  xlsx: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet",
-} as const;
-
-/** Lower-case ASCII slug: accents dropped, anything else becomes a hyphen. */
-export function slug(text: string): string {
-  return (
-    text
-      .normalize("NFKD")
-      .replace(/[\u0300-\u036f]/g, "")
-      .toLowerCase()
-      .replace(/[^a-z0-9]+/g, "-")
-      .replace(/^-+|-+$/g, "") || "firm"
-  );
+/** A version's state in the name: signed, filed and superseded versions say so; everything before signing is a draft. */
+function packState(status: FilingStatus | "superseded"): string {
+  return status === "signed" || status === "filed" || status === "superseded" ? status : "draft";
 }
 
-export function packFileName(vm: Pick<FilingViewModel, "firm" | "period" | "filing">, kind: keyof typeof PACK_CONTENT_TYPES): string {
-  return `${slug(vm.firm.name)}-filing-pack-${vm.period.end.slice(0, 10)}-v${vm.filing.version}.${kind}`;
+/** The file name of a pack: firm, period, version and state, e.g. northmoor-2026-11-v2-draft.docx. */
+export function packFileName(slug: string, periodEnd: string, version: number, status: FilingStatus | "superseded", kind: "docx" | "xlsx"): string {
+  return `${slug}-${periodEnd.slice(0, 7)}-v${version}-${packState(status)}.${kind}`;
 }

@@ -54,7 +54,7 @@ export async function checkPacksInLibreOffice(options: { outDir: string; images?
   const packs: string[] = [];
   for (const [label, model] of [["draft", vm], ["signed", signed]] as const) {
     for (const kind of ["docx", "xlsx"] as const) {
-      const file = path.join(options.outDir, `${label}-${kind === "docx" ? "word" : "workbook"}-${packFileName(model, kind)}`);
+      const file = path.join(options.outDir, `${label}-${kind === "docx" ? "word" : "workbook"}-${packFileName("fixture", model.period.end, model.filing.version, model.filing.status, kind)}`);
       writeFileSync(file, kind === "docx" ? await buildWordPack(model) : await buildWorkbookPack(model));
       packs.push(file);
     }

@@ -40,6 +40,7 @@ import { formatAmount, formatConfidence, formatMonth } from "@/reports/format";
 import { fragment } from "@/reports/sections";
 import { buildWordPack } from "@/reports/docx/filing-pack";
 import { buildWorkbookPack } from "@/reports/xlsx/filing-pack";
+import { packFileName } from "@/reports/file-names";
 import { filingRunOf, getRun, getRunInputs, runChange } from "./runs";
 import { assertRunFresh, runFreshnessOf, type RunFreshness } from "./run-freshness";
 
@@ -1081,14 +1082,8 @@ export async function verifyFiling(actor: Actor, filingId: string): Promise<Veri
 // ---------------------------------------------------------------------------------------------------------------
 // packs
 
-function packState(status: FilingRowStatus): string {
-  return status === "signed" || status === "filed" || status === "superseded" ? status : "draft";
-}
-
-/** The file name of a pack: firm, period, version and state, e.g. northmoor-2026-11-v2-draft.docx. */
-export function packFileName(slug: string, periodEnd: string, version: number, status: FilingRowStatus, kind: PackKind): string {
-  return `${slug}-${periodEnd.slice(0, 7)}-v${version}-${packState(status)}.${kind}`;
-}
+/** The file name of a pack (reports/file-names.ts), e.g. northmoor-2026-11-v2-draft.docx. */
+export { packFileName };
 
 /** Build one of the two packs of a filing version for download, and record the download in the audit trail. */
 export async function downloadPack(actor: Actor, filingId: string, kind: PackKind): Promise<PackFile> {
