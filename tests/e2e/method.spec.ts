@@ -57,7 +57,8 @@ test.describe("method statement", () => {
     await expect(page.getByRole("button", { name: "Approve version 2…" })).toBeDisabled();
     await page.getByRole("button", { name: "Attach evidence" }).click();
     // computed at the real time of the act (the business day is pinned to 2026-12-01, the stamp is not)
-    await expect(page.getByTestId("evidence-summary")).toContainText(/Computed \d{4}-\d{2}-\d{2}/);
+    // evidence is a real computation over the firm's history ("Computing…" meanwhile): a limit for a busy machine
+    await expect(page.getByTestId("evidence-summary")).toContainText(/Computed \d{4}-\d{2}-\d{2}/, { timeout: 60_000 });
     await expect(page.getByRole("button", { name: "Recompute evidence" })).toBeEnabled();
     await expect(page.getByText(/Government bonds: QLIKE of each estimator above the best/)).toBeVisible();
     await page.screenshot({ path: "test-results/screens/method-draft-evidence.png", fullPage: true });

@@ -153,7 +153,8 @@ test("the whole month end of Northmoor's November 2026, person by person", async
 
     await expect(page.getByRole("button", { name: `Approve version ${next}…` })).toBeDisabled();
     await page.getByRole("button", { name: "Attach evidence" }).click();
-    await expect(page.getByTestId("evidence-summary")).toContainText(/Computed \d{4}-\d{2}-\d{2}/);
+    // evidence is a real computation over the firm's history ("Computing…" meanwhile): a limit for a busy machine
+    await expect(page.getByTestId("evidence-summary")).toContainText(/Computed \d{4}-\d{2}-\d{2}/, { timeout: 60_000 });
     await screen(page, "method-draft-evidence");
     await page.getByRole("button", { name: `Approve version ${next}…` }).click();
     await page.getByRole("button", { name: "Yes, approve" }).click();
@@ -249,7 +250,10 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     expect(filing.runId).toBe(runId);
     await api.dispose();
     await expect(page.getByRole("note").first()).toContainText("Draft computed under the stated method");
-    for (const section of ["cover", "capital", "var-es", "backtest", "method", "sign-off"]) await expect(page.getByTestId(`section-${section}`)).toBeVisible();
+    for (const section of ["cover", "regulatory-capital", "capital", "var-es", "backtest", "method", "sign-off"]) await expect(page.getByTestId(`section-${section}`)).toBeVisible();
+    // the demo profile (version 2) files the standardised building blocks, the value-at-risk based figure beside it
+    await expect(page.getByTestId("section-regulatory-capital")).toContainText("The capital figure filed for this period is the standardised 1996 building blocks figure");
+    await expect(page.getByTestId("section-regulatory-capital")).toContainText("for comparison and not filed: the internal models (value-at-risk based) figure");
 
     await page.getByLabel("Cover note").fill("November 2026: the book as confirmed on 1 December; the method statement was updated this month.");
     await page.getByRole("button", { name: "Save cover note" }).click();
