@@ -1,0 +1,56 @@
+"use client";
+
+import localFont from "next/font/local";
+import { useEffect } from "react";
+import "./globals.css";
+import { Logo } from "@/app/_components/logo";
+import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { errorDigest, ProblemNotice } from "@/app/_components/problem-notice";
+
+const ballastSans = localFont({
+  src: [
+    { path: "./fonts/inter-latin-400-normal.woff2", weight: "400", style: "normal" },
+    { path: "./fonts/inter-latin-600-normal.woff2", weight: "600", style: "normal" },
+  ],
+  variable: "--font-ballast",
+  display: "swap",
+});
+
+/**
+ * The last resort: an error in the root layout itself. It replaces the whole document, so it brings its own
+ * <html>, <body>, styles and font, and a title (metadata exports are not read here).
+ */
+export default function GlobalError({ error, retry }: { error: unknown; retry: () => void }) {
+  useEffect(() => {
+    console.error(error);
+  }, [error]);
+  return (
+    <html lang="en" className={ballastSans.variable}>
+      <body className="min-h-screen bg-paper px-4 py-10 font-sans text-ink">
+        <title>Ballast could not start this page</title>
+        <div className="mx-auto max-w-xl">
+          <Logo />
+        </div>
+        <ProblemNotice
+          code="Error"
+          title="Ballast could not show this page"
+          reference={errorDigest(error)}
+          actions={
+            <>
+              <button type="button" onClick={() => retry()} className={primaryButtonClass}>
+                Try again
+              </button>
+              {/* a plain link: the app's router may be what failed */}
+              <a href="/home" className={secondaryButtonClass}>
+                Go to this month
+              </a>
+            </>
+          }
+        >
+          <p>Something failed before the page could be laid out. Showing a page reads stored data and changes none of it.</p>
+          <p>If trying again does not help, tell your firm&apos;s administrator the reference below.</p>
+        </ProblemNotice>
+      </body>
+    </html>
+  );
+}
