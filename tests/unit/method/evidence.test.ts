@@ -60,15 +60,16 @@ describe("evidence on the seeded demo data", () => {
     // computed at the real time of the act; the data as of the business day's period end
     expect(Date.parse(evidence.computedAt)).toBeGreaterThanOrEqual(before);
     expect(evidence).toMatchObject({ asOf: "2026-11-30", periodEnd: "2026-11-30", source: "positions", minReturns: 250, engineVersion: "1.0.0" });
-    // templates/demo/northmoor-positions-2026-11.csv: equity, etf, government_bond, commodity_future.
-    expect(evidence.classes.map((c) => c.assetClass)).toEqual(["commodity_future", "equity", "etf", "government_bond"]);
+    // templates/demo/northmoor-positions-2026-11.csv: equity, etf, government_bond, corporate_bond, commodity_future,
+    // fx (the currency positions held on USDEUR and GBPEUR) and other (the interest-rate swap).
+    expect(evidence.classes.map((c) => c.assetClass)).toEqual(["commodity_future", "corporate_bond", "equity", "etf", "fx", "government_bond", "other"]);
     const held = await db.select({ code: positions.instrumentCode, assetClass: positions.assetClass }).from(positions).innerJoin(uploads, eq(uploads.id, positions.uploadId)).where(eq(uploads.status, "confirmed"));
     for (const c of evidence.classes) {
       expect(c.error).toBeNull();
       // templates/demo/README.md: Northmoor's history runs 2023-01-02 to 2026-11-20.
       expect(c.from).toBe("2023-01-02");
       expect(c.to).toBe("2026-11-20");
-      const codes = new Set(held.filter((h) => h.assetClass === c.assetClass && h.code.startsWith("NMB-")).map((h) => h.code));
+      const codes = new Set(held.filter((h) => h.assetClass === c.assetClass && (h.code.startsWith("NMB-") || c.assetClass === "fx")).map((h) => h.code));
       expect([...c.instruments, ...c.excluded.map((e) => e.code)].sort()).toEqual([...codes].sort());
       expect(c.comparison!.ranking.length).toBeGreaterThanOrEqual(5);
       const q = c.comparison!.ranking.map((r) => r.qlike);
