@@ -5,7 +5,7 @@ import AppError from "@/app/(app)/error";
 import { signInThroughPage } from "./helpers";
 
 // Reads only: safe anywhere in the suite's file order.
-test.describe("not-found pages", () => {
+test.describe("not-found and error pages", () => {
   test("an address that matches no page: 404, in the app's look, with a way on", async ({ page }) => {
     const response = await page.goto("/no-such-page-here");
     expect(response?.status()).toBe(404);
