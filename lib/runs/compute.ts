@@ -6,8 +6,8 @@
  */
 import { standardisedOfRun } from "./standardised";
 import { capitalCharge, ENGINE_VERSION, prepareRun, runMonthEnd, type MonthEndInput, type MonthEndResult, type Position } from "@/lib/risk";
-import { alignReturns, usableSeries, type Alignment } from "./align";
 import type { ResolvedModel } from "@/lib/risk/process/types";
+import { alignReturns, usableSeries, type Alignment } from "./align";
 import { factorVolatility, OTHER_SETTINGS_STATEMENT } from "./factor-volatility";
 import { engineMethodOf, firmPlusFactor, runStatements, storedHistoryDays } from "./method-map";
 import { readMethodContent } from "@/lib/validation/method";
@@ -151,7 +151,6 @@ export function backtestSeriesOf(input: MonthEndInput, monthEnd: MonthEndResult)
   return out;
 }
 
-const yieldNow = () => new Promise<void>((resolve) => setImmediate(resolve));
 /**
  * The chosen estimate of each factor as the engine fitted it for the portfolio figures (label, parameters, one-day
  * volatility), so that the factor report and the figures cannot disagree.
@@ -179,6 +178,7 @@ export function factorVolatilityStatement(monthEnd: MonthEndResult): string {
   return `The portfolio figures use one ${cov === "equal" ? "equal-weight" : cov === "ewma" ? "EWMA" : "GARCH(1,1) constant-correlation"} covariance for every factor, as the method statement chooses; the estimator chosen for each factor's asset class gives the factor volatility reported here and does not enter the portfolio figures.`;
 }
 
+const yieldNow = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 /** Every figure of a run from its inputs. */
 export async function computeRun(inputs: RunInputs, context: ComputeContext = { fromStoredInputsOf: null }, onProgress?: RunProgress): Promise<RunResults> {

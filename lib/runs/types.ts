@@ -83,12 +83,12 @@ export interface FactorVolatility {
   chosen: EstimatorChoice;
   /** whether the choice came from the asset class or the default */
   chosenFrom: "asset-class" | "default";
+  /** the chosen estimator as the engine fitted it for the portfolio figures, when it did (e.g. "GARCH(1,1), Student-t errors, zero mean") */
+  chosenLabel?: string;
   chosenVolatility: number | null;
   chosenAnnualisedVolatility: number | null;
   chosenParams: Record<string, number>;
   warnings: EngineWarning[];
-  /** the chosen estimator as the engine fitted it for the portfolio figures, when it did (e.g. "GARCH(1,1), Student-t errors, zero mean") */
-  chosenLabel?: string;
   /** set when the factor was left out of the run for lack of history */
   excluded: string | null;
 }
