@@ -11,6 +11,7 @@ import { z } from "zod";
 export const FILING_SECTIONS = [
   { id: "general", label: "The filing as a whole" },
   { id: "cover", label: "Cover and cover note" },
+  { id: "regulatory-capital", label: "Capital filed" },
   { id: "capital", label: "Capital summary" },
   { id: "var-es", label: "Value-at-risk and expected shortfall" },
   { id: "stressed", label: "Stressed value-at-risk" },
