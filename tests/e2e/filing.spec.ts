@@ -139,8 +139,9 @@ test("the compliance officer assembles the draft, explains an exception and subm
   await expect(status(page)).toHaveText(/In review/);
   await expect(page.getByTestId("comments-general")).toContainText("Ready for your review.");
   // the note sent with the submission is called that, not an answer to the review
-  await expect(page.getByTestId("comments-general")).toContainText("Note with the submission");
-  await expect(page.getByTestId("comments-general")).not.toContainText("Answer");
+  const submissionNote = page.getByTestId("comments-general").getByRole("listitem").filter({ hasText: "Ready for your review." });
+  await expect(submissionNote).toContainText("Note with the submission");
+  await expect(submissionNote).not.toContainText("Answer");
 });
 
 test("the compliance head comments on a section and requests a change", async ({ page }) => {
