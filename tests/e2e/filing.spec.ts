@@ -226,7 +226,9 @@ test("the head's wrong password is refused; he then signs with the attestation a
   await expect(dialog).toBeHidden();
   await expect(status(page)).toHaveText(/Signed/);
   // nothing on the signed filing is headed "Draft" beside its "Signed" state
-  await expect(page.getByText(/^Draft\b/)).toHaveCount(0);
+  // (the caution's own sentence, "Draft computed under the stated method…", stays: it is required wherever figures are shown)
+  await expect(page.getByText(/^Draft( ·)?$/)).toHaveCount(0);
+  await expect(page.getByRole("heading", { name: /^Draft\b/ })).toHaveCount(0);
   await expect(page.getByRole("article")).toHaveAttribute("aria-label", "Filing, version 1 (signed)");
   const hash = (await page.getByTestId("signed-hash").textContent())!;
   expect(hash).toMatch(/^[0-9a-f]{64}$/);

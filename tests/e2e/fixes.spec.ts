@@ -96,7 +96,9 @@ test("a filed filing is headed by its state, counts its words right and offers t
   await signInThroughPage(page, OFFICER.email);
   await page.goto(`/periods/${october.id}/filing`);
   await expect(page.getByTestId("filing-status").first()).toHaveText(/Filed/);
-  await expect(page.getByText(/^Draft\b/)).toHaveCount(0);
+  // (the caution's own sentence, "Draft computed under the stated method…", stays: it is required wherever figures are shown)
+  await expect(page.getByText(/^Draft( ·)?$/)).toHaveCount(0);
+  await expect(page.getByRole("heading", { name: /^Draft\b/ })).toHaveCount(0);
   await expect(page.getByRole("note").first()).toContainText("Caution · Draft computed under the stated method");
   await expect(page.getByRole("button", { name: "Verify signature" })).toBeVisible();
   const text = await page.locator("main").innerText();
