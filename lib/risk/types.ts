@@ -40,6 +40,8 @@ export interface VolatilityFit {
   engineVersion: string;
   /** ARCH only: the last m squared residuals, newest first, which its multi-day forecast needs */
   recentSquaredResiduals?: number[];
+  /** the optimiser's final inverse-Hessian approximation in its own coordinates, for warm-starting a refit (GARCH) */
+  optimizerInverseHessian?: Float64Array;
   /** set when the requested model failed or was near-integrated and the caller's fallback was used instead */
   fallbackFrom?: {
     kind: EstimatorKind;

@@ -7,7 +7,7 @@ import { syntheticBook } from "@/tests/unit/risk/portfolio/synthetic-book";
 
 // The out-of-sample backtest of a GARCH(1,1) book against a plain loop written from the stated rule (issue 13):
 // parameters re-estimated every N business days counting back from the as-of date, each fit on the data before its
-// refit day and warm-started from the next later fit; each day's variance is the GARCH recursion run on the returns
+// refit day and warm-started from the next later fit (its parameters and its optimiser's inverse Hessian); each day's variance is the GARCH recursion run on the returns
 // before that day with the refit's parameters (start-up: the mean of the squared returns before the refit day); the
 // correlation is EWMA λ = 0.94 of the returns before that day; VaR = z·σ_p. Common practice, no outside source: this
 // checks the engine does what its statement says.
@@ -28,11 +28,12 @@ describe("out-of-sample GARCH backtest = a plain loop that refits on the stated 
     // the fits, latest first: τ = L (a plain fit), L − 21, … each warm-started from the next later one
     const from = L - 60;
     const fits = new Map<number, { omega: number; alpha: number; beta: number }[]>();
-    let later = ids.map((_, i) => fitGarch11(returns[i]).params);
-    fits.set(L, later.map((p) => ({ omega: p.omega, alpha: p.alpha, beta: p.beta })));
+    // (the warm start is the later fit's parameters and its optimiser's inverse Hessian)
+    let later = ids.map((_, i) => fitGarch11(returns[i]));
+    fits.set(L, later.map(({ params: p }) => ({ omega: p.omega, alpha: p.alpha, beta: p.beta })));
     for (let tau = L - N; tau > from - N; tau -= N) {
-      const now = ids.map((_, i) => fitGarch11(returns[i].subarray(0, tau), { warmStart: later[i], lean: true }).params);
-      fits.set(tau, now.map((p) => ({ omega: p.omega, alpha: p.alpha, beta: p.beta })));
+      const now = ids.map((_, i) => fitGarch11(returns[i].subarray(0, tau), { warmStart: later[i].params, warmInverseHessian: later[i].optimizerInverseHessian, lean: true }));
+      fits.set(tau, now.map(({ params: p }) => ({ omega: p.omega, alpha: p.alpha, beta: p.beta })));
       later = now;
     }
     const z = 2.3263478740408408; // Φ⁻¹(0.99), CHECK-VALUES.md §6

@@ -38,6 +38,8 @@ export interface FitGarch11Options {
    * one BFGS run from there, and the full multi-start only when it fails to converge
    */
   warmStart?: Record<string, number>;
+  /** with warmStart: the earlier fit's `optimizerInverseHessian` (same parameters free), instead of a fresh BHHH start */
+  warmInverseHessian?: Float64Array;
   /** skip the standard errors (Hessian and sandwich), for refits inside a backtest */
   lean?: boolean;
   /** relative step of the central-difference Hessian (default 1e-5; for convergence checks) */
@@ -171,7 +173,8 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     const z = toFree(fitMean ? (warm.mu ?? mean) / scale : 0, targeting ? 1 : warm.omega / (scale * scale), warm.alpha, warm.beta, studentT ? warm.nu : 8);
     try {
       // one run from the warm point, without ranking a single start first
-      const one = minimizeBfgs(objective, z, { gradientTolerance: bfgs.gradientTolerance, maxIterations: bfgs.maxIterations, initialInverseHessian: bhhh(z) });
+      const h0 = options.warmInverseHessian && options.warmInverseHessian.length === k * k ? Float64Array.from(options.warmInverseHessian) : bhhh(z);
+      const one = minimizeBfgs(objective, z, { gradientTolerance: bfgs.gradientTolerance, maxIterations: bfgs.maxIterations, initialInverseHessian: h0 });
       if (one.converged) best = { ...one, startsEvaluated: 1, runs: 1, totalEvaluations: one.evaluations, runValues: [one.value] };
     } catch {
       best = null; // a warm start outside the domain of these returns: start cold
@@ -310,6 +313,7 @@ export function fitGarch11(returns: ArrayLike<number>, options: FitGarch11Option
     warnings,
     limitations,
     engineVersion: ENGINE_VERSION,
+    optimizerInverseHessian: best.inverseHessian,
   };
   if (fallback === "ewma" && (nearIntegrated || failed)) {
     const ewma = fitEwma(returns, { lambda: fallbackLambda, init: init === "unconditional" ? "sample" : init });

@@ -6,7 +6,7 @@
  * the day-by-day correlation it needs. Pure.
  */
 import { estimatesParameters, fitProcess, filterFit, horizonVariance, minimumReturns, processLimitations, resolveSpec, specLabel, specStartUp } from "../process/registry";
-import type { BacktestRefit, CorrelationSpec, ProcessFit, ResolvedCorrelation, ResolvedFactorModel, VolatilityChoice, VolatilitySpec } from "../process/types";
+import type { BacktestRefit, CorrelationSpec, FitOptions, ProcessFit, ResolvedCorrelation, ResolvedFactorModel, VolatilityChoice, VolatilitySpec } from "../process/types";
 import { equalWeightCovariance, ewmaCovariance, standardisedCorrelation } from "./covariance";
 import { covarianceToCorrelation, zeroMatrix, type SymmetricMatrix } from "./matrix";
 import { checkPsd } from "./psd";
@@ -52,7 +52,7 @@ export function neededReturns(spec: VolatilitySpec): number {
  * Fit one factor's process, refusing a fit that failed with no fallback.
  * @throws {RangeError} naming the factor, its asset class and the reason
  */
-export function fitFactor(returns: ArrayLike<number>, fs: FactorSpec, options: { warmStart?: Record<string, number>; lean?: boolean; asOf?: string } = {}): ProcessFit {
+export function fitFactor(returns: ArrayLike<number>, fs: FactorSpec, options: FitOptions & { asOf?: string } = {}): ProcessFit {
   let fit: ProcessFit;
   const when = options.asOf ? ` on the data up to ${options.asOf}` : "";
   try {
@@ -222,8 +222,8 @@ export function forEachBlock(
       fits = specs.map((fs, i) => {
         // nothing to estimate (a moving average, a fixed λ): the same parameters, the start-up from the earlier data
         if (!estimatesParameters(fs.spec)) return today[i];
-        const warm = previous[i].used.kind === fs.spec.kind ? previous[i].params : undefined;
-        return fitFactor(returns[i].subarray(0, block.tau), fs, { warmStart: warm, lean: true, asOf: dates[block.tau - 1] });
+        const same = previous[i].used.kind === fs.spec.kind;
+        return fitFactor(returns[i].subarray(0, block.tau), fs, { warmStart: same ? previous[i].params : undefined, warmInverseHessian: same ? previous[i].fit.optimizerInverseHessian : undefined, lean: true, asOf: dates[block.tau - 1] });
       });
     }
     for (let i = 0; i < k; i++) filterFit(fits[i], returns[i], block.tau, paths[i]);

@@ -10,7 +10,7 @@ import { GARCH_MIN_RETURNS, fitGarch11 } from "../estimators/garch11";
 import { backcastValue, backcastWeights, checkInit, describeInit, type InitRule } from "../estimators/initial-variance";
 import { archForecast } from "../forecast";
 import type { VolatilityFit } from "../types";
-import type { ProcessFit, VolatilityKind, VolatilityProcess, VolatilitySpec } from "./types";
+import type { FitOptions, ProcessFit, VolatilityKind, VolatilityProcess, VolatilitySpec } from "./types";
 
 type MaSpec = Extract<VolatilitySpec, { kind: "ma" }>;
 type EwmaSpec = Extract<VolatilitySpec, { kind: "ewma" }>;
@@ -179,6 +179,7 @@ const garchProcess: VolatilityProcess<GarchSpec> = {
       fallback: s.fallback,
       ...(s.fallback === "ewma" ? { fallbackLambda: s.fallbackLambda } : {}),
       warmStart: options.warmStart && options.warmStart.alpha !== undefined ? options.warmStart : undefined,
+      warmInverseHessian: options.warmStart && options.warmStart.alpha !== undefined ? options.warmInverseHessian : undefined,
       lean: options.lean,
     });
     if (fit.kind === "ewma") {
@@ -302,7 +303,7 @@ export function parameterNames(spec: VolatilitySpec): string[] {
 }
 
 /** Fit a spec on returns (oldest first). @throws {Error} with the engine's reason when the fit is impossible */
-export function fitProcess(returns: ArrayLike<number>, spec: VolatilitySpec, options: { warmStart?: Record<string, number>; lean?: boolean } = {}): ProcessFit {
+export function fitProcess(returns: ArrayLike<number>, spec: VolatilitySpec, options: FitOptions = {}): ProcessFit {
   const s = resolveSpec(spec);
   finiteReturns(returns, specLabel(s));
   return anyProcess(s).fit(returns, s, options);

@@ -220,6 +220,15 @@ export interface ProcessFit {
   fit: import("../types").VolatilityFit;
 }
 
+/** Options of a fit: warm start from an earlier fit (its parameters and, where kept, optimiser state), lean refits. */
+export interface FitOptions {
+  warmStart?: Record<string, number>;
+  /** the earlier fit's optimiser inverse Hessian (fit.optimizerInverseHessian) */
+  warmInverseHessian?: Float64Array;
+  /** skip standard errors and moment diagnostics (refits inside a backtest) */
+  lean?: boolean;
+}
+
 /**
  * The one contract every estimator family implements (lib/risk/process/registry.ts holds one per kind; nothing
  * else switches on the kind).
@@ -234,7 +243,7 @@ export interface VolatilityProcess<S extends VolatilitySpec = VolatilitySpec> {
   /** fewest returns a fit accepts */
   minimumReturns(spec: S): number;
   /** fit on returns (oldest first) with the spec's start-up rule; `warmStart` parameters start the optimiser */
-  fit(returns: ArrayLike<number>, spec: S, options?: { warmStart?: Record<string, number>; lean?: boolean }): ProcessFit;
+  fit(returns: ArrayLike<number>, spec: S, options?: FitOptions): ProcessFit;
   /**
    * The variance path with parameters held fixed, the start-up computed from returns[0..initEnd) only
    * (default: all of them): out[t] for t = 0..n, out[n] being the forecast for the day after the last return
