@@ -194,7 +194,7 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
         <EmptyFiling data={data} canPrepare={officer} />
       ) : (
         <div className="grid grid-cols-1 gap-10 lg:grid-cols-[minmax(0,1fr)_22rem]">
-          <article className="min-w-0 max-w-4xl text-[15px] leading-7" aria-label={`Filing, version ${f.version} (${FILING_STATE_LABELS[f.status].toLowerCase()})`}>
+          <article className="min-w-0 max-w-4xl text-[15px] leading-7 [overflow-wrap:break-word]" aria-label={`Filing, version ${f.version} (${FILING_STATE_LABELS[f.status].toLowerCase()})`}>
             {commentsOf("general").length || mode() ? (
               <SectionComments filingId={f.id} section="general" sectionTitle="The filing as a whole" comments={commentsOf("general")} mode={mode()} />
             ) : null}
