@@ -6,6 +6,7 @@
  */
 import type { EngineWarning } from "../types";
 import type { PositionLoadings } from "./decomposition";
+import { countOf, isAre, listSome } from "../../text/count";
 
 /** One position of the book, values in the reporting currency. */
 export interface Position {
@@ -113,14 +114,14 @@ export function positionsToExposures(positions: readonly Position[], hasFactor: 
     const total = excluded.reduce((s, e) => s + Math.abs(e.marketValue), 0);
     warnings.push({
       code: "position-excluded",
-      message: `${excluded.length} position(s) with gross market value ${total.toFixed(2)} have no usable price history and are left out of every figure: ${excluded.slice(0, 10).map((e) => e.instrument).join(", ")}${excluded.length > 10 ? ", …" : ""}.`,
+      message: `${countOf(excluded.length, "position")} with gross market value ${total.toFixed(2)} ${excluded.length === 1 ? "has" : "have"} no usable price history and ${isAre(excluded.length)} left out of every figure: ${listSome(excluded.map((e) => e.instrument), 10)}.`,
     });
   }
   if (missingFx.length) {
     const ids = [...new Set(missingFx.map((m) => m.factor))];
     warnings.push({
       code: "fx-factor-missing",
-      message: `Exchange-rate risk is left out for ${missingFx.length} position(s): no history for ${ids.join(", ")}.`,
+      message: `Exchange-rate risk is left out for ${countOf(missingFx.length, "position")}: no history for ${ids.join(", ")}.`,
     });
   }
   return { factors, exposures: Float64Array.from(amounts), loadings, positionIndex, excluded, missingFx, warnings };
