@@ -3,6 +3,8 @@
  * forecast a flat line (today's estimate for every future day), stated as such.
  */
 import type { VolatilityFit } from "./types";
+// a circular import (the registry forecasts ARCH with archForecast below), used only inside functions
+import { forecastOfFit } from "./process/registry";
 
 /** GARCH(1,1) parameters and the variance forecast for the next day σ²ₙ₊₁. */
 export interface Garch11State {
@@ -63,15 +65,9 @@ export function archForecast(omega: number, alphas: readonly number[], recentSqu
   return out;
 }
 
-/** Variance forecasts for t = 1..horizonDays from any fit: GARCH and ARCH revert, MA and EWMA are flat. */
+/** Variance forecasts for t = 1..horizonDays from any fit: GARCH and ARCH revert, MA and EWMA are flat (through the process registry). */
 export function forecastVariance(fit: VolatilityFit, horizonDays: number): Float64Array {
-  if (fit.kind === "garch") return garchTermStructure(fit, horizonDays);
-  if (fit.kind === "arch") {
-    const m = Object.keys(fit.params).filter((key) => /^alpha\d+$/.test(key)).length;
-    const alphas = Array.from({ length: m }, (_, i) => fit.params[`alpha${i + 1}`]);
-    return archForecast(fit.params.omega, alphas, fit.recentSquaredResiduals ?? [], horizonDays);
-  }
-  return flatForecast(fit.currentVariance, horizonDays);
+  return forecastOfFit(fit, horizonDays);
 }
 
 /** Average variance over the horizon: the mean of the daily forecasts (the horizon variance is this times the days). */

@@ -360,3 +360,27 @@ export function processLimitations(fit: ProcessFit): string[] {
 export function hasTermStructure(spec: VolatilitySpec): boolean {
   return spec.kind === "arch" || spec.kind === "garch";
 }
+
+/**
+ * The spec a bare VolatilityFit answers (its family and fitted parameters), so a caller holding only a fit can
+ * forecast through the registry.
+ */
+export function specOfFit(fit: VolatilityFit): VolatilitySpec {
+  switch (fit.kind) {
+    case "ma":
+      return { kind: "ma", window: fit.params.window };
+    case "ewma":
+      return { kind: "ewma", lambda: fit.params.lambda };
+    case "arch":
+      return { kind: "arch", order: Object.keys(fit.params).filter((key) => /^alpha\d+$/.test(key)).length };
+    case "garch":
+      return { kind: "garch", ...(fit.params.mu !== undefined ? { mean: "fit" as const } : {}), ...(fit.params.nu !== undefined ? { distribution: "t" as const } : {}) };
+  }
+}
+
+/** Daily variance forecasts for days 1..h from a bare VolatilityFit (GARCH and ARCH revert, MA and EWMA are flat). */
+export function forecastOfFit(fit: VolatilityFit, horizonDays: number): Float64Array {
+  if (!(Number.isInteger(horizonDays) && horizonDays >= 1)) throw new RangeError("forecast requires an integer horizon of at least 1 day");
+  const spec = specOfFit(fit);
+  return anyProcess(spec).forecastFrom(spec, fit.params, fit.currentVariance, fit.recentSquaredResiduals ?? [], horizonDays);
+}
