@@ -30,7 +30,7 @@ describe("D·R·D against the covariance worked by hand", () => {
     expect(v[2]).toBe(v[1]);
     const r = portfolioVar(input);
     expect(relErr(r.methods[0].portfolioVolatility, Math.sqrt(5.5625e8))).toBeLessThan(1e-12); // by hand, above
-    // VaR = z₀.₉₉ · σ_p with z₀.₉₉ = 2.326347874 (CHECK-VALUES.md §6, normal quantile)
+    // VaR = z₀.₉₉ · σ_p with z₀.₉₉ = 2.326347874 (the standard normal quantile, standard tables such as Abramowitz & Stegun 1964, ch. 26)
     expect(relErr(r.methods[0].byConfidence[0].oneDay.var, 2.326347874 * Math.sqrt(5.5625e8))).toBeLessThan(1e-8);
     expect(r.model.covariance).toBe("per-factor");
   });

@@ -8,7 +8,8 @@ import { FIXTURES, readSeries, relErr } from "./volatility-fixtures";
 // the order of the step squared, so they no longer drift with the step as a forward difference did (0.1–0.2 % on a
 // badly conditioned Student-t fit). Checked three ways: step-insensitivity (common practice, no source); R's fGarch
 // (committed fixture fgarch-reference.json, see fgarch-oracle.test.ts); the DEM/GBP standard errors of Fiorentini,
-// Calzolari & Panattoni (1996) quoted in CHECK-VALUES.md §1, FROM MEMORY (so a loose 5 % check only).
+// Calzolari & Panattoni (1996), "Analytic derivatives and the computation of GARCH estimates", J. Applied
+// Econometrics 11, the benchmark of McCullough & Renfro (1999), FROM MEMORY (so a loose 5 % check only).
 const reference = JSON.parse(readFileSync(path.join(FIXTURES, "fgarch-reference.json"), "utf8")) as Record<string, { file: string; distribution: "normal" | "t"; mean: "fit" | "zero"; standardErrors: Record<string, number> }>;
 
 describe("GARCH(1,1) standard errors by central differences", () => {
@@ -31,7 +32,7 @@ describe("GARCH(1,1) standard errors by central differences", () => {
 
   it("DEM/GBP: the published standard errors (from memory, 5 %)", () => {
     const se = fitGarch11(readSeries("dem2gbp.csv"), { mean: "fit" }).standardErrors!;
-    // μ 0.00846, ω 0.00285, α 0.0265, β 0.0336: FCP (1996), CHECK-VALUES.md §1, from memory
+    // μ 0.00846, ω 0.00285, α 0.0265, β 0.0336: Fiorentini, Calzolari & Panattoni (1996), from memory
     expect(relErr(se.mu, 0.00846)).toBeLessThan(0.05);
     expect(relErr(se.omega, 0.00285)).toBeLessThan(0.05);
     expect(relErr(se.alpha, 0.0265)).toBeLessThan(0.05);

@@ -36,7 +36,7 @@ describe("out-of-sample GARCH backtest = a plain loop that refits on the stated 
       fits.set(tau, now.map(({ params: p }) => ({ omega: p.omega, alpha: p.alpha, beta: p.beta })));
       later = now;
     }
-    const z = 2.3263478740408408; // Φ⁻¹(0.99), CHECK-VALUES.md §6
+    const z = 2.3263478740408408; // Φ⁻¹(0.99), standard normal tables (e.g. Abramowitz & Stegun 1964, ch. 26)
     expect(r.backtestSeries!.dates).toHaveLength(60);
     for (let n = 0; n < 60; n++) {
       const s = from + n;

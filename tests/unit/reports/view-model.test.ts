@@ -65,7 +65,7 @@ describe("buildFilingViewModel from a completed run", () => {
     for (const r of f.riskFactors) {
       expect(r.estimates.map((e) => e.estimator)).toEqual(["ma", "ewma", "arch", "garch"]);
       expect(r.chosen).toBe("ewma");
-      expect(r.chosenLabel).toBe("EWMA, λ = 0.94");
+      expect(r.chosenLabel).toBe("EWMA, λ = 0.94, zero mean");
       expect(r.chosenVolatility).toBe(r.estimates[1].volatility);
     }
     const m = f.correlation!.matrix;
