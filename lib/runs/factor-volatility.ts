@@ -3,11 +3,11 @@
  * statement chooses for the factor's asset class. The chosen estimator's settings are used for its own family; the
  * other families use the settings stated in `otherSettings`. Pure.
  */
-import { fitArch, fitEwma, fitGarch11, fitMovingAverage } from "@/lib/risk";
+import { fitProcess, specLabel } from "@/lib/risk/process/registry";
 import type { EstimatorKind, VolatilityFit } from "@/lib/risk/types";
 import type { EstimatorChoice, MethodContent } from "@/lib/validation/method";
 import { estimatorDefault, OTHER_FAMILIES_STATEMENT } from "@/lib/method/defaults";
-import { estimatorFor } from "./method-map";
+import { estimatorFor, volatilitySpecOf } from "./method-map";
 import type { FactorEstimate, FactorVolatility } from "./types";
 
 const ANNUAL = Math.sqrt(252);
@@ -19,32 +19,18 @@ export function otherSettings(): Record<EstimatorKind, EstimatorChoice> {
 
 export const OTHER_SETTINGS_STATEMENT = OTHER_FAMILIES_STATEMENT;
 
+/** Plain label of a choice as the engine states it (lib/risk/process/registry.ts), with the fitted parameters where given. */
 export function labelOf(choice: EstimatorChoice, fit?: VolatilityFit | null): string {
-  switch (choice.kind) {
-    case "ma":
-      return `Moving average, ${choice.window} days`;
-    case "ewma":
-      return choice.lambdaMode === "fit" ? `EWMA, λ fitted${fit?.params.lambda !== undefined ? ` = ${fit.params.lambda.toFixed(4)}` : ""}` : `EWMA, λ = ${choice.lambda}`;
-    case "arch":
-      return `ARCH(${choice.order})`;
-    case "garch":
-      return `GARCH(1,1)${choice.distribution === "t" ? ", Student-t" : ""}${choice.mean === "fit" ? ", fitted mean" : ""}${choice.targeting ? ", variance targeting" : ""}`;
-  }
+  return specLabel(volatilitySpecOf(choice), fit?.params);
 }
 
-/** Fit one estimator choice; null fit and the reason when it cannot be fitted on these returns. */
+/**
+ * Fit one estimator choice through the process registry, exactly as a run fits it for the portfolio figures; null
+ * fit and the reason when it cannot be fitted on these returns.
+ */
 export function fitChoice(returns: Float64Array, choice: EstimatorChoice): { fit: VolatilityFit | null; error: string | null } {
   try {
-    switch (choice.kind) {
-      case "ma":
-        return { fit: fitMovingAverage(returns, { window: choice.window, divisor: choice.divisor, mean: choice.mean }), error: null };
-      case "ewma":
-        return { fit: fitEwma(returns, { lambda: choice.lambdaMode === "fit" ? "fit" : choice.lambda }), error: null };
-      case "arch":
-        return { fit: fitArch(returns, { order: choice.order }), error: null };
-      case "garch":
-        return { fit: fitGarch11(returns, { distribution: choice.distribution, mean: choice.mean, targeting: choice.targeting, fallback: choice.fallback }), error: null };
-    }
+    return { fit: fitProcess(returns, volatilitySpecOf(choice)).fit, error: null };
   } catch (error) {
     return { fit: null, error: error instanceof Error ? error.message : String(error) };
   }
