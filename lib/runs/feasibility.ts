@@ -1,9 +1,11 @@
 /**
  * Whether a method statement's choices can be computed for every factor of a book before anything is stored: each
  * factor's process (by its asset class; exchange-rate factors by the FX class) needs the history its window or order
- * asks for, and a GARCH(1,1) fit without a fallback must succeed. Used at approval and at run start. Pure.
+ * asks for, and its fit must succeed as the run's own fit (lib/risk/portfolio/per-factor.ts fitFactor) would.
+ * Used at approval and at run start. Pure.
  */
-import { fitProcess, minimumReturns, specLabel } from "@/lib/risk/process/registry";
+import { fitFactor, neededReturns, where, type FactorSpec } from "@/lib/risk/portfolio/per-factor";
+import { resolveSpec, specLabel } from "@/lib/risk/process/registry";
 import type { VolatilitySpec } from "@/lib/risk/process/types";
 import { ASSET_CLASS_LABELS, type AssetClass } from "@/lib/uploads/asset-classes";
 import type { MethodContent } from "@/lib/validation/method";
@@ -40,17 +42,19 @@ export function methodInfeasibilities(inputs: RunInputs, content: MethodContent)
     const spec = specForClass(content, meta.assetClass);
     const { returns } = usableSeries(alignment, factor);
     const label = specLabel(spec);
-    const needs = minimumReturns(spec);
+    const needs = neededReturns(spec);
     if (returns.length < needs) {
       out.push({ assetClass: meta.assetClass, factor, reason: `${returns.length} returns without a break up to ${inputs.periodEnd}; ${label} needs at least ${needs}` });
       continue;
     }
-    if (spec.kind === "garch" && spec.fallback !== "ewma") {
-      try {
-        fitProcess(returns, spec);
-      } catch (error) {
-        out.push({ assetClass: meta.assetClass, factor, reason: `the ${label} fit failed (${error instanceof Error ? error.message : String(error)}) and the method statement sets no fallback` });
-      }
+    // the run's own fit and refusals (no fallback, not converged, no positive variance), so approval refuses what a run refuses
+    try {
+      const fs: FactorSpec = { factor, assetClass: meta.assetClass, spec: resolveSpec(spec), source: "asset-class" };
+      fitFactor(returns, fs);
+    } catch (error) {
+      const message = error instanceof Error ? error.message : String(error);
+      const prefix = `${where(factor, meta.assetClass)}: `;
+      out.push({ assetClass: meta.assetClass, factor, reason: message.startsWith(prefix) ? message.slice(prefix.length) : message });
     }
   }
   return out;

@@ -36,15 +36,24 @@ describe("method feasibility on a book", () => {
     expect(infeasibilityMessage(items, "A run cannot start")).toMatch(/^A run cannot start: .* 1 factor\(s\) — Equities? · AAA: 299 returns/);
   });
 
-  it("refuses a GARCH(1,1) fit that fails without a fallback, and accepts it with the EWMA fallback", () => {
-    // a series that never moves: the likelihood has no maximum (every variance parameter collapses to zero)
+  it("refuses what a run's own fit refuses: a GARCH(1,1) fit on a series that never moves, with or without the EWMA fallback", () => {
+    // a series that never moves: the likelihood has no maximum (every variance parameter collapses to zero); the
+    // engine refuses all-equal returns before any fallback, so a run refuses it either way
     const flat = new Array(300).fill(100);
     const x = inputs({ FLAT: { assetClass: "equity", closes: flat } }, 300);
     const garch = { kind: "garch", distribution: "normal", mean: "zero", targeting: false } as const;
-    const refused = methodInfeasibilities(x, content({ byAssetClass: { equity: { ...garch, fallback: "none" } } }));
-    expect(refused.map((i) => [i.assetClass, i.factor])).toEqual([["equity", "FLAT"]]);
-    expect(refused[0].reason).toMatch(/fit failed .* no fallback/);
-    expect(methodInfeasibilities(x, content({ byAssetClass: { equity: { ...garch, fallback: "ewma" } } }))).toEqual([]);
+    for (const fallback of ["none", "ewma"] as const) {
+      const refused = methodInfeasibilities(x, content({ byAssetClass: { equity: { ...garch, fallback } } }));
+      expect(refused.map((i) => [i.assetClass, i.factor])).toEqual([["equity", "FLAT"]]);
+      expect(refused[0].reason).toMatch(/^GARCH\(1,1\), .* cannot be fitted: .*not all equal/);
+    }
+    // a moving average fits anything but gives no positive variance on it, and a run refuses that too
+    const ma = methodInfeasibilities(x, content({ byAssetClass: { equity: { kind: "ma", window: 20, divisor: "m", mean: "zero" } } }));
+    expect(ma.map((i) => i.factor)).toEqual(["FLAT"]);
+    expect(ma[0].reason).toMatch(/gives no positive variance/);
+    // a series that moves is accepted with the fallback
+    const moving = inputs({ AAA: { assetClass: "equity", closes: walk(299, 4) } }, 300);
+    expect(methodInfeasibilities(moving, content({ byAssetClass: { equity: { ...garch, fallback: "ewma" } } }))).toEqual([]);
   });
 
   it("refuses nothing for a statement with one covariance model for every factor", () => {
