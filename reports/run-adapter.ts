@@ -2,13 +2,16 @@
  * From a completed run as lib/runs stores it (RunRecord with RunResults) and the filing's own data to the packs'
  * input. Pure. The filing workflow calls `filingInputFromRun(...)` and then `buildFilingViewModel(...)`.
  *
- * The correlation matrix is not part of RunResults; pass it when the caller has it (`correlationFromRunInputs`
- * recomputes it from the run's stored inputs: cheap for the EWMA and equal-weight covariances, a GARCH fit per
- * factor for garch-ccc). Without it the packs say that the run stored none.
+ * The correlation matrix and the day-by-day backtest are the ones the run stored with its figures
+ * (`monthEnd.correlation`, `monthEnd.backtestSeries`). Runs stored before the engine returned the correlation pass
+ * it when the caller has it (`correlationFromRunInputs` recomputes it from the run's stored inputs: cheap for the
+ * EWMA and equal-weight covariances, a GARCH fit per factor for garch-ccc); without it the packs say that the run
+ * stored none.
  */
 import { prepareRun, type PreparedRun } from "@/lib/risk/portfolio/run-month-end";
 import { engineInputOf } from "@/lib/runs/compute";
 import type { RunInputs, RunRecord } from "@/lib/runs/types";
+import { storedCorrelationOf } from "@/lib/runs/stored-state";
 import { ESTIMATOR_LABELS } from "@/lib/validation/method";
 import type { CorrelationView, FilingPackInput, SignOffBlock, SupersededSignature } from "./view-model";
 import { regulatoryCapitalOfResults } from "./regulatory-capital";
@@ -20,6 +23,7 @@ export interface FilingFromRun {
   firm: FilingPackInput["firm"];
   period: FilingPackInput["period"];
   filing: FilingPackInput["filing"];
+  /** the correlation to show; absent: the one the run stored (null when it stored none) */
   correlation?: CorrelationView | null;
   signature?: SignOffBlock | null;
   supersededSignatures?: SupersededSignature[];
@@ -35,6 +39,8 @@ export function filingInputFromRun(x: FilingFromRun): FilingPackInput {
   const hashes: Record<string, string> = {};
   if (x.run.inputHashes) for (const [k, v] of Object.entries(x.run.inputHashes)) hashes[k] = v;
   const used = new Set(results.monthEnd.factors.used);
+  // the series the engine returned with the figures; runs stored before it did keep the one lib/runs derived
+  const series = results.monthEnd.backtestSeries ?? results.backtestSeries;
   return {
     results: results.monthEnd,
     run: { id: x.run.id, startedBy: x.run.startedByName, inputHashes: hashes },
@@ -51,12 +57,12 @@ export function filingInputFromRun(x: FilingFromRun): FilingPackInput {
         };
       }),
     riskFactorStatement: results.factorVolatility.statement,
-    correlation: x.correlation ?? null,
+    correlation: x.correlation !== undefined ? x.correlation : storedCorrelationOf(results),
     backtestSeries: {
-      dates: [...results.backtestSeries.dates],
-      pnl: [...results.backtestSeries.pnl],
-      var: [...results.backtestSeries.var],
-      exception: [...results.backtestSeries.exception],
+      dates: [...series.dates],
+      pnl: [...series.pnl],
+      var: [...series.var],
+      exception: [...series.exception],
     },
     runNotes: [...results.notes],
     regulatoryCapital: regulatoryCapitalOfResults(results),

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { DRAFT_CAUTION } from "@/app/_components/draft-caution";
 import { buildFilingViewModel, type FilingPackInput } from "@/reports/view-model";
-import { filingInputFromRun } from "@/reports/run-adapter";
+import { correlationFromRunInputs, filingInputFromRun } from "@/reports/run-adapter";
 import { FORMULA_TEXT, packFixture } from "./fixture";
 
 function sum(values: number[]): number {
@@ -110,6 +110,25 @@ describe("buildFilingViewModel refuses pieces that disagree", () => {
     const bad: FilingPackInput = { ...input, correlation: { factors: ["A", "B"], matrix: [[1, 0]], basis: "x" } };
     expect(() => buildFilingViewModel(bad)).toThrow("The correlation matrix must be 2 × 2");
     expect(() => buildFilingViewModel({ ...input, signature: { signerName: "Helen Marsh", licenceReference: "X", signedAt: "2026-12-03T15:42:00.000Z", contentHash: "abc" } })).toThrow("SHA-256");
+  });
+
+  it("reads the correlation and the day-by-day backtest the run stored when the caller passes no correlation", async () => {
+    const { run, input, runInputs } = await packFixture();
+    const stored = run.results!.monthEnd;
+    expect(stored.correlation).toBeDefined();
+    const own = filingInputFromRun({ run, method: { rationale: "", limitations: [] }, firm: input.firm, period: input.period, filing: input.filing });
+    expect(own.correlation).toEqual(stored.correlation);
+    expect(own.backtestSeries!.dates).toEqual(stored.backtestSeries!.dates);
+    expect(own.backtestSeries!.var).toEqual(stored.backtestSeries!.var);
+    // the stored matrix is the one recomputing from the stored inputs gives (same arithmetic: equal to rounding)
+    const again = correlationFromRunInputs(runInputs);
+    expect(own.correlation!.factors).toEqual(again.factors);
+    own.correlation!.matrix.forEach((row, i) => row.forEach((v, j) => expect(v).toBeCloseTo(again.matrix[i][j], 12)));
+    // a run stored before the engine returned them: no stored correlation, the series lib/runs derived
+    const { correlation: _c, backtestSeries: _b, ...older } = stored;
+    const old = filingInputFromRun({ run: { ...run, results: { ...run.results!, monthEnd: older } }, method: { rationale: "", limitations: [] }, firm: input.firm, period: input.period, filing: input.filing });
+    expect(old.correlation).toBeNull();
+    expect(old.backtestSeries!.dates).toEqual(run.results!.backtestSeries.dates);
   });
 
   it("a run without results", async () => {
