@@ -100,7 +100,7 @@ export function AuditTable() {
           {error instanceof Error ? error.message : "Could not load the audit trail."}
         </p>
       ) : null}
-      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
         <table className="w-full text-sm">
           <caption className="sr-only">Audit events, newest first</caption>
           <thead className="bg-paper-sunk text-left text-ink-soft">

@@ -52,7 +52,7 @@ export default async function CalendarPage() {
         {view.open.length === 0 ? (
           <p className="rounded-lg border border-dashed border-ink-line bg-paper-raised p-6 text-ink-soft">No period is open; the next one opens at month end.</p>
         ) : (
-          <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+          <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
             <table className="w-full text-sm" data-testid="open-deadlines">
               <caption className="sr-only">Open reporting periods and their deadlines</caption>
               <thead className="bg-paper-sunk text-left text-ink-soft">

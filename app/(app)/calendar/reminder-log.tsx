@@ -25,7 +25,7 @@ export function ReminderLog({ entries }: { entries: ReminderLogEntry[] }) {
           {problems.length} reminder{problems.length === 1 ? " has" : "s have"} not been confirmed as sent. {problems[0].lastError ?? ""}
         </p>
       ) : null}
-      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
         <table className="w-full text-sm" data-testid="reminder-log">
           <caption className="sr-only">Reminder delivery</caption>
           <thead className="bg-paper-sunk text-left text-ink-soft">

@@ -15,7 +15,7 @@ export function PositionColumnGuide({ reportingCurrency }: { reportingCurrency: 
         The template holds this header and one example row (replace it). Header names are matched without case, spaces or underscores; the
         reporting currency of this firm is {reportingCurrency}.
       </p>
-      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
         <table className="w-full text-sm">
           <caption className="sr-only">Columns of the positions file</caption>
           <thead className="bg-paper-sunk text-left text-ink-soft">
@@ -57,7 +57,7 @@ export function PositionColumnGuide({ reportingCurrency }: { reportingCurrency: 
         Needed only when the firm&apos;s capital rule profile files the standardised figure, and then only by the instruments that use them: the
         upload names each row and column a position lacks, before confirmation.
       </p>
-      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
         <table className="w-full text-sm" aria-labelledby="standardised-columns-heading" data-testid="standardised-column-guide">
           <thead className="bg-paper-sunk text-left text-ink-soft">
             <tr>
@@ -89,7 +89,7 @@ export function PositionColumnGuide({ reportingCurrency }: { reportingCurrency: 
         The file&apos;s <code>asset_class</code> may use any spelling below (case, spaces, hyphens and underscores do not matter). A bare
         &ldquo;bond&rdquo; is read as a corporate bond; write &ldquo;government bond&rdquo; for a sovereign issuer.
       </p>
-      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
         <table className="w-full text-sm" aria-labelledby="asset-classes-heading">
           <thead className="bg-paper-sunk text-left text-ink-soft">
             <tr>

@@ -77,7 +77,7 @@ export default async function DataPage() {
             above show the columns.
           </div>
         ) : (
-          <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+          <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
             <table className="w-full text-sm">
               <caption className="sr-only">Uploaded files, newest first</caption>
               <thead className="bg-paper-sunk text-left text-ink-soft">

@@ -67,7 +67,7 @@ export default async function MethodPage() {
         {versions.length === 0 ? (
           <p className="text-sm text-ink-soft">No versions yet.</p>
         ) : (
-          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Method statement versions">
+          <div className="relative overflow-x-auto" tabIndex={0} role="region" aria-label="Method statement versions">
           <table className="w-full rounded-lg border border-ink-line bg-paper-raised text-sm">
             <caption className="sr-only">Method statement versions, newest first</caption>
             <thead>

@@ -23,7 +23,7 @@ export default async function PeriodsPage() {
       {periods.length === 0 ? (
         <p className="rounded-lg border border-dashed border-ink-line bg-paper-raised p-6 text-ink-soft">No period has been opened yet.</p>
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+        <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
           <table className="w-full text-sm">
             <caption className="sr-only">Reporting periods</caption>
             <thead className="bg-paper-sunk text-left text-ink-soft">

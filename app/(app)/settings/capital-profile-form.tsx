@@ -226,7 +226,7 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
               </table>
             </fieldset>
 
-            <div className="overflow-x-auto">
+            <div className="relative overflow-x-auto">
               <table className="min-w-full text-sm">
                 <caption className="mb-1 text-left font-medium">
                   Maturity ladder: risk weights ({irMethod === "duration" ? "the duration method uses the yield changes and the second column's edges on modified duration" : "the maturity method uses the weights"})
@@ -348,7 +348,7 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
       )}
 
       {versions.length > 0 ? (
-        <div className="overflow-x-auto">
+        <div className="relative overflow-x-auto">
           <table className="min-w-full text-sm">
             <caption className="mb-1 text-left font-medium">Versions</caption>
             <thead>

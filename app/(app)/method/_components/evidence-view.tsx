@@ -46,7 +46,7 @@ function QlikeChart({ c, titleId }: { c: ClassEvidence; titleId: string }) {
 function RankingTable({ c }: { c: ClassEvidence }) {
   const cmp = c.comparison!;
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full min-w-[720px] text-sm">
         <caption className="mb-1 text-left text-xs text-ink-muted">
           {c.label}: ranked by QLIKE (lower is better). Mean squared error compares σ² with r²; log-likelihood out of sample, higher is better; AIC and BIC in sample where a likelihood is defined;
@@ -138,7 +138,7 @@ export function BookEvidenceView({ book }: { book: BookEvidence }) {
           </ResponsiveContainer>
         </div>
       </figure>
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="w-full min-w-[820px] text-sm" data-testid="book-evidence-table">
           <caption className="mb-1 text-left text-xs text-ink-muted">
             The table behind the chart. Kupiec: unconditional coverage; Christoffersen: independence and conditional coverage (p-values, higher is better). Mean VaR and capital in the

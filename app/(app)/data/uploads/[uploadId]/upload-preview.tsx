@@ -346,7 +346,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
               <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">{rows.isLoading ? "Loading rows…" : "No row passed the checks."}</p>
             ) : (
               <>
-                <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+                <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
                   <table className="w-full text-sm" data-testid="rows-table">
                     <caption className="sr-only">Parsed rows, page {page}</caption>
                     <thead className="bg-paper-sunk text-left text-ink-soft">

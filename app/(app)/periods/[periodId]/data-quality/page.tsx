@@ -73,7 +73,7 @@ export default async function DataQualityPage({ params, searchParams }: { params
       {items.length === 0 ? (
         <p className="rounded-lg border border-ink-line bg-paper-raised p-6 text-ink-soft">{data.uploadId ? "No problems found." : "Nothing to check yet."}</p>
       ) : (
-        <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+        <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
           <table className="w-full text-sm">
             <caption className="sr-only">Data-quality items</caption>
             <thead className="bg-paper-sunk text-left text-ink-soft">

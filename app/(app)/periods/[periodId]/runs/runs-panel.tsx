@@ -150,7 +150,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
             {error instanceof Error ? error.message : "Could not load the runs."}
           </p>
         ) : null}
-        <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+        <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
           <table className="w-full text-sm">
             <caption className="sr-only">Runs of this period, newest first</caption>
             <thead className="bg-paper-sunk text-left text-ink-soft">

@@ -27,7 +27,7 @@ export function ModelUsed({ results }: { results: RunResults }) {
         ))}
       </ul>
       {model ? (
-        <div className="overflow-x-auto">
+        <div className="relative overflow-x-auto">
           <table className="w-full text-sm" data-testid="model-factors">
             <caption className="sr-only">The volatility model of each factor, as fitted for this run&apos;s figures</caption>
             <thead>

@@ -48,7 +48,7 @@ function Row({ label, children, testId }: { label: React.ReactNode; children: Re
 function VarTable({ results, currency }: { results: RunResults; currency: string }) {
   const m = results.monthEnd;
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full min-w-[640px] text-sm" data-testid="var-table">
         <caption className="mb-1 text-left text-xs text-ink-muted">
           Value-at-risk and expected shortfall of the book as of {formatDate(m.asOf)}, in {currency}, at one day and {m.horizonDays} days. The primary method ({METHOD_WORDS[m.primaryMethod]}) drives the

@@ -150,7 +150,7 @@ function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; curr
       <h4 id={`ladder-${ladder.currency}`} className="font-semibold">
         {ladder.currency} ladder ({ladder.method === "duration" ? "duration method" : "maturity method"}): charge {money(ladder.charge, currency)}
       </h4>
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="min-w-full text-sm">
           <caption className="mb-1 text-left text-xs text-ink-muted">Each band: positions, weighted positions, the matched amount and its vertical disallowance at {pct(ladder.verticalRate, 0)}</caption>
           <thead>
@@ -264,7 +264,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
         {ir.specific.length === 0 ? (
           <p className="text-sm text-ink-soft">No debt positions.</p>
         ) : (
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="min-w-full text-sm">
               <caption className="mb-1 text-left text-xs text-ink-muted">Each issue&apos;s net position, long or short alike, times its category&apos;s weight</caption>
               <thead>

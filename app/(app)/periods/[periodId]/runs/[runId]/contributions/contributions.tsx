@@ -83,7 +83,7 @@ function PositionsTable({ rows, currency, total }: { rows: PositionContribution[
   // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({ data: rows, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
   return (
-    <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+    <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
       <table className="w-full min-w-[900px] text-sm" data-testid="contributions-table">
         <caption className="sr-only">Component VaR by position; column headers sort</caption>
         <thead className="bg-paper-sunk text-left text-ink-soft">

@@ -139,7 +139,7 @@ function Table({ runId }: { runId: string }) {
           {table.getRowModel().rows.length} of {data.factors.length} factors
         </p>
       </form>
-      <div className="overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
         <table className="w-full min-w-[1000px] text-sm" data-testid="factors-table">
           <caption className="sr-only">Every factor of the run with its volatility under each estimator; column headers sort</caption>
           <thead className="bg-paper-sunk text-left text-ink-soft">

@@ -81,7 +81,7 @@ function Charts({ d }: { d: VolatilityDetail }) {
         </table>
         <details className="text-sm">
           <summary className="cursor-pointer text-ink-soft">The last 20 days in a table</summary>
-          <div className="overflow-x-auto">
+          <div className="relative overflow-x-auto">
             <table className="mt-2 w-full text-xs">
               <caption className="sr-only">Returns and conditional volatility of the last 20 days</caption>
               <thead>
