@@ -193,6 +193,29 @@ async function closesOf(actor: Actor, stored: readonly StoredPosition[], periodE
   return { dates, factors };
 }
 
+/** A confirmed upload's positions as a run stores them (row order, with their standardised attributes where given). */
+async function storedPositionsOf(actor: Actor, uploadId: string): Promise<StoredPosition[]> {
+  const rows = await getDb()
+    .select()
+    .from(positions)
+    .where(and(eq(positions.firmId, actor.firmId), eq(positions.uploadId, uploadId)))
+    .orderBy(positions.rowNumber);
+  return rows.map((r) => ({
+    row: r.rowNumber,
+    book: r.book,
+    instrument: r.instrumentCode,
+    name: r.instrumentName,
+    assetClass: r.assetClass,
+    currency: r.currency,
+    quantity: r.quantity,
+    price: r.price,
+    marketValue: r.marketValue,
+    deltaExposure: r.deltaExposure,
+    asOf: r.asOf,
+    ...storedAttributesOf(r),
+  }));
+}
+
 /**
  * The firm's latest book as a run would read it under a content: the newest period with confirmed positions (or the
  * given period), its positions, the closes of their factors up to the earlier of its end and today, the active
@@ -208,24 +231,7 @@ export async function latestBookInputs(actor: Actor, content: MethodContent, per
   for (const p of periods) {
     const upload = await confirmedPositionsUpload(actor, p.id);
     if (!upload) continue;
-    const rows = await db
-      .select()
-      .from(positions)
-      .where(and(eq(positions.firmId, actor.firmId), eq(positions.uploadId, upload.id)))
-      .orderBy(positions.rowNumber);
-    const stored: StoredPosition[] = rows.map((r) => ({
-      row: r.rowNumber,
-      book: r.book,
-      instrument: r.instrumentCode,
-      name: r.instrumentName,
-      assetClass: r.assetClass,
-      currency: r.currency,
-      quantity: r.quantity,
-      price: r.price,
-      marketValue: r.marketValue,
-      deltaExposure: r.deltaExposure,
-      asOf: r.asOf,
-    }));
+    const stored = await storedPositionsOf(actor, upload.id);
     const periodEnd = p.periodEnd < today() ? p.periodEnd : today();
     const prices = await closesOf(actor, stored, periodEnd);
     const [profileRow] = await db
@@ -290,25 +296,7 @@ async function gatherInputs(actor: Actor, periodId: string) {
     ? { ...capitalProfileOf(profileRow), ...regimeFieldsOf(profileRow) }
     : { id: null, name: "Engine default (no capital rule profile stored)", profile: BASEL_CAPITAL_PROFILE, plusFactors: { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 }, backtestDays: 250 };
 
-  const rows = await db
-    .select()
-    .from(positions)
-    .where(and(eq(positions.firmId, actor.firmId), eq(positions.uploadId, upload.id)))
-    .orderBy(positions.rowNumber);
-  const stored: StoredPosition[] = rows.map((r) => ({
-    row: r.rowNumber,
-    book: r.book,
-    instrument: r.instrumentCode,
-    name: r.instrumentName,
-    assetClass: r.assetClass,
-    currency: r.currency,
-    quantity: r.quantity,
-    price: r.price,
-    marketValue: r.marketValue,
-    deltaExposure: r.deltaExposure,
-    asOf: r.asOf,
-    ...storedAttributesOf(r),
-  }));
+  const stored = await storedPositionsOf(actor, upload.id);
 
   const { dates, factors } = await closesOf(actor, stored, period.periodEnd);
 
