@@ -3,6 +3,7 @@
  * Pure: every input is passed in. Each item has a severity and is carried into the run and the filing pack.
  */
 import { isWeekend, parseISO, addDays, format } from "date-fns";
+import { countOf } from "@/lib/text/count";
 
 export type QualitySeverity = "error" | "warning" | "info";
 
@@ -107,9 +108,9 @@ export function checkSeries(instrument: string, dates: readonly string[], closes
   if (dates.length === 0) return [{ check: "no-history", severity: "error", instrument, message: `${instrument} has no price history.` }];
 
   const duplicates = dates.filter((d, i) => i > 0 && d === dates[i - 1]);
-  if (duplicates.length) items.push({ check: "duplicate-date", severity: "error", instrument, message: `${instrument} has ${duplicates.length} duplicate date(s).`, dates: duplicates });
+  if (duplicates.length) items.push({ check: "duplicate-date", severity: "error", instrument, message: `${instrument} has ${countOf(duplicates.length, "duplicate date")}.`, dates: duplicates });
   const nonPositive = dates.filter((_d, i) => !(closes[i] > 0));
-  if (nonPositive.length) items.push({ check: "non-positive", severity: "error", instrument, message: `${instrument} has ${nonPositive.length} price(s) of zero or below.`, dates: nonPositive });
+  if (nonPositive.length) items.push({ check: "non-positive", severity: "error", instrument, message: `${instrument} has ${countOf(nonPositive.length, "price")} of zero or below.`, dates: nonPositive });
 
   if (dates.length - 1 < minReturns) {
     items.push({ check: "short-history", severity: "warning", instrument, message: `${instrument} has ${Math.max(0, dates.length - 1)} returns; the method needs ${minReturns}.` });
@@ -161,7 +162,7 @@ export function checkSeries(instrument: string, dates: readonly string[], closes
           check: "extreme-return",
           severity: "warning",
           instrument,
-          message: `${instrument} has ${flagged.length} daily move(s) beyond ${extremeZ} robust standard deviations; confirm they are real: ${flagged.slice(0, 5).join(", ")}${flagged.length > 5 ? ", …" : ""}.`,
+          message: `${instrument} has ${countOf(flagged.length, "daily move")} beyond ${extremeZ} robust standard deviations; confirm they are real: ${flagged.slice(0, 5).join(", ")}${flagged.length > 5 ? ", …" : ""}.`,
           dates: flagged.map((f) => f.slice(0, 10)),
         });
       }

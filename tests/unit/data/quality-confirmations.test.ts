@@ -53,8 +53,8 @@ describe("confirming a data-quality finding", () => {
   it("the pack's data-quality section says who confirmed a finding, when and why", async () => {
     const { input } = await packFixture();
     const report = input.dataQuality!;
-    const items = [{ check: "extreme-return" as const, severity: "warning" as const, instrument: "NMB-EQ-01", message: "NMB-EQ-01 has 1 daily move(s) beyond 6 robust standard deviations.", dates: ["2026-11-02"], confirmation: { by: "Priya Castell", at: "2026-12-02T10:14:00.000Z", reason: "Profit warning that morning." } }];
+    const items = [{ check: "extreme-return" as const, severity: "warning" as const, instrument: "NMB-EQ-01", message: "NMB-EQ-01 has 1 daily move beyond 6 robust standard deviations.", dates: ["2026-11-02"], confirmation: { by: "Priya Castell", at: "2026-12-02T10:14:00.000Z", reason: "Profit warning that morning." } }];
     const vm = buildFilingViewModel({ ...input, dataQuality: { ...report, items } });
-    expect(vm.dataQuality.items[0].message).toBe("NMB-EQ-01 has 1 daily move(s) beyond 6 robust standard deviations. Confirmed by Priya Castell on 2026-12-02 10:14 UTC: Profit warning that morning.");
+    expect(vm.dataQuality.items[0].message).toBe("NMB-EQ-01 has 1 daily move beyond 6 robust standard deviations. Confirmed by Priya Castell on 2026-12-02 10:14 UTC: Profit warning that morning.");
   });
 });
