@@ -38,7 +38,7 @@ test.describe("firm administration", () => {
     await page.getByLabel("E-mail", { exact: true }).fill("wren.ashby@northmoor.example");
     await expect(page.getByLabel("First password")).toHaveCount(0); // administrators no longer set passwords
     await page.locator("#new-role-auditor").check();
-    await page.getByRole("button", { name: "Send invitation" }).click();
+    await page.getByRole("button", { name: "Send invitation", exact: true }).click();
     await expect(page.getByTestId("invite-status")).toHaveText("Invitation sent to wren.ashby@northmoor.example.");
     const row = page.getByTestId("member-row").filter({ hasText: "wren.ashby@northmoor.example" });
     await expect(row.getByText("Invited")).toBeVisible();
