@@ -62,6 +62,9 @@ test("GARCH(1,1)-t for equities and EWMA 0.97 for FX: approved, run, and said ex
   await page.getByRole("button", { name: "Start the draft" }).click();
   await expect(page).toHaveURL(/\/method\/[0-9a-f-]{36}$/);
   const methodUrl = page.url();
+  // the draft's number: 2 on a fresh demo, more where an earlier spec's draft was discarded above
+  const { versions: drafted } = await json<{ versions: { id: string; version: number }[] }>(api, "/api/method");
+  const v = drafted.find((x) => methodUrl.endsWith(x.id))!.version;
   await page.getByLabel("Portfolio volatilities", { exact: true }).selectOption("asset-class");
   const equities = page.getByRole("group", { name: "Equities" });
   await equities.getByLabel("Estimator").selectOption("garch");
@@ -79,7 +82,7 @@ test("GARCH(1,1)-t for equities and EWMA 0.97 for FX: approved, run, and said ex
   const book = page.getByTestId("book-evidence");
   await expect(book).toBeVisible({ timeout: 120_000 });
   const table = page.getByTestId("book-evidence-table");
-  await expect(table.getByRole("rowheader", { name: "Version 2 (this statement)" })).toBeVisible();
+  await expect(table.getByRole("rowheader", { name: `Version ${v} (this statement)` })).toBeVisible();
   await expect(table.getByRole("rowheader", { name: "Approved version 1" })).toBeVisible();
   for (const name of ["Moving average, 20 days", "Moving average, 250 days", "EWMA, λ = 0.94", "EWMA, λ fitted", "GARCH(1,1), normal errors", "GARCH(1,1), Student-t errors"]) {
     await expect(table.getByRole("rowheader", { name, exact: true })).toBeVisible();
@@ -89,15 +92,15 @@ test("GARCH(1,1)-t for equities and EWMA 0.97 for FX: approved, run, and said ex
   await page.screenshot({ path: "test-results/screens/method-governs-evidence.png", fullPage: true });
 
   // approved by the analyst, co-approved by the compliance head
-  await page.getByRole("button", { name: "Approve version 2…" }).click();
-  await page.getByRole("group", { name: /Approve version 2\?/ }).getByRole("button", { name: "Yes, approve" }).click();
+  await page.getByRole("button", { name: `Approve version ${v}…` }).click();
+  await page.getByRole("group", { name: new RegExp(`Approve version ${v}\\?`) }).getByRole("button", { name: "Yes, approve" }).click();
   await expect(page.getByText(/waiting for a compliance head to co-approve/)).toBeVisible();
   const headPage = await browser.newPage();
   await signInThroughPage(headPage, HEAD);
   await headPage.goto(methodUrl);
-  await headPage.getByRole("button", { name: "Co-approve version 2…" }).click();
-  await headPage.getByRole("group", { name: /Co-approve version 2/ }).getByRole("button", { name: "Yes, co-approve" }).click();
-  await expect(headPage.getByRole("heading", { name: "Method statement · version 2" })).toBeVisible();
+  await headPage.getByRole("button", { name: `Co-approve version ${v}…` }).click();
+  await headPage.getByRole("group", { name: new RegExp(`Co-approve version ${v}`) }).getByRole("button", { name: "Yes, co-approve" }).click();
+  await expect(headPage.getByRole("heading", { name: `Method statement · version ${v}` })).toBeVisible();
   await headPage.close();
 
   // the run under version 2: the VaR changes; every equity factor follows GARCH(1,1)-t, the FX factor EWMA 0.97
