@@ -40,3 +40,12 @@ export const primaryButtonClass =
 
 export const secondaryButtonClass =
   "inline-flex items-center justify-center whitespace-nowrap rounded-md border border-ink-line bg-paper-raised px-4 py-2 font-medium text-ink hover:bg-paper-sunk disabled:cursor-not-allowed disabled:opacity-60";
+
+/** A form's own error (what the server said about the whole form), announced to screen readers; nothing when empty. */
+export function FormError({ message }: { message: string | null | undefined }) {
+  return message ? (
+    <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
+      {message}
+    </p>
+  ) : null;
+}

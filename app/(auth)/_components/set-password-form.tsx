@@ -7,7 +7,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { tokenPasswordSchema, type TokenPasswordInput } from "@/lib/validation/accounts";
 import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+import { Field, inputClass, primaryButtonClass, FormError } from "@/app/_components/field";
 
 /** Choose a password through an invitation or reset link; then sign in with it. */
 export function SetPasswordForm({ token, purpose, email }: { token: string; purpose: "invite" | "reset"; email: string }) {
@@ -43,11 +43,7 @@ export function SetPasswordForm({ token, purpose, email }: { token: string; purp
   }
   return (
     <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">
-      {formError ? (
-        <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
-          {formError}
-        </p>
-      ) : null}
+      <FormError message={formError} />
       <input type="hidden" autoComplete="username" value={email} readOnly />
       <Field id="password" label="New password" hint={`At least ${MIN_PASSWORD_LENGTH} characters; a phrase of several words is easiest to remember.`} error={errors.password?.message}>
         <input id="password" type="password" autoComplete="new-password" autoFocus className={inputClass} aria-invalid={Boolean(errors.password)} {...register("password")} />

@@ -6,7 +6,7 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { resetRequestSchema, type ResetRequestInput } from "@/lib/validation/accounts";
 import { apiFetch } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+import { Field, inputClass, primaryButtonClass, FormError } from "@/app/_components/field";
 
 /** The reset request: one answer whatever the address, so the form cannot tell who has an account. */
 export function ResetRequestForm() {
@@ -40,11 +40,7 @@ export function ResetRequestForm() {
   }
   return (
     <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">
-      {formError ? (
-        <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
-          {formError}
-        </p>
-      ) : null}
+      <FormError message={formError} />
       <Field id="email" label="E-mail" error={errors.email?.message}>
         <input id="email" type="email" autoComplete="username" autoFocus className={inputClass} aria-invalid={Boolean(errors.email)} {...register("email")} />
       </Field>

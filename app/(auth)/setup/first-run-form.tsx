@@ -8,7 +8,7 @@ import { firstRunSchema, type FirstRunInput } from "@/lib/validation/accounts";
 import { REPORTING_CURRENCIES } from "@/lib/validation/firm";
 import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+import { Field, inputClass, primaryButtonClass, FormError } from "@/app/_components/field";
 
 /** The first-run form: firm name, reporting currency, the administrator's name, e-mail and password. */
 export function FirstRunForm() {
@@ -48,11 +48,7 @@ export function FirstRunForm() {
   const f = (name: keyof FirstRunInput) => ({ "aria-invalid": Boolean(errors[name]), className: inputClass, ...register(name) });
   return (
     <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">
-      {formError ? (
-        <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
-          {formError}
-        </p>
-      ) : null}
+      <FormError message={formError} />
       <fieldset className="flex flex-col gap-4">
         <legend className="mb-2 font-medium">The firm</legend>
         <Field id="firmName" label="Firm name" error={errors.firmName?.message}>

@@ -7,7 +7,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { changePasswordSchema, type ChangePasswordInput } from "@/lib/validation/accounts";
 import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+import { Field, inputClass, primaryButtonClass, FormError } from "@/app/_components/field";
 
 /** Change one's own password with the current one; then go to sign-in (the session has ended). */
 export function ChangePasswordForm({ email }: { email: string }) {
@@ -34,11 +34,7 @@ export function ChangePasswordForm({ email }: { email: string }) {
 
   return (
     <form onSubmit={onSubmit} noValidate className="mt-4 flex flex-col gap-4">
-      {formError ? (
-        <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert">
-          {formError}
-        </p>
-      ) : null}
+      <FormError message={formError} />
       <input type="hidden" autoComplete="username" value={email} readOnly />
       <Field id="currentPassword" label="Current password" error={errors.currentPassword?.message}>
         <input id="currentPassword" type="password" autoComplete="current-password" className={inputClass} aria-invalid={Boolean(errors.currentPassword)} {...register("currentPassword")} />
