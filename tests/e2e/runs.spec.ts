@@ -33,6 +33,8 @@ test.describe("runs and results", () => {
     await expect(page).toHaveURL(new RegExp(`/periods/${periodId}/runs$`));
     await expect(page.getByRole("heading", { name: "Runs: November 2026" })).toBeVisible();
     await expect(page.getByRole("note").filter({ hasText: "Draft" }).first()).toBeVisible();
+    // the list loads after the page: count its rows only once it has loaded (earlier specs may have left runs)
+    await expect(page.getByText("Loading the runs…")).toHaveCount(0);
     const before = await page.getByTestId("run-row").count();
     await page.screenshot({ path: `${SCREENS}/runs-list-before.png`, fullPage: true });
 
@@ -47,6 +49,7 @@ test.describe("runs and results", () => {
     await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
     await page.screenshot({ path: `${SCREENS}/runs-progress.png`, fullPage: true });
     await page.goto(`/periods/${periodId}/runs`);
+    await expect(page.getByText("Loading the runs…")).toHaveCount(0);
     await expect(page.getByTestId("run-row")).toHaveCount(before + 1);
     const newest = page.getByTestId("run-row").first();
     await expect(newest.getByText("Completed")).toBeVisible({ timeout: 45_000 });
