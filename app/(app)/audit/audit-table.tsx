@@ -50,7 +50,7 @@ export function AuditTable() {
     for (const [key, value] of Object.entries(filters)) if (value) params.set(key, value);
     return params.toString();
   }, [filters, page]);
-  const { data, error, isLoading, isFetching } = useQuery({
+  const { data, error, isPending, isFetching } = useQuery({
     queryKey: ["audit", queryString],
     queryFn: () => apiFetch<AuditPage>(`/api/audit?${queryString}`),
     placeholderData: keepPreviousData,
@@ -115,7 +115,7 @@ export function AuditTable() {
             ))}
           </thead>
           <tbody>
-            {isLoading ? (
+            {isPending ? (
               <tr>
                 <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
                   Loading the audit trail…

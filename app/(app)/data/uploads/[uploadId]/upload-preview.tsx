@@ -193,7 +193,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
 
   const problems = useMemo(() => (preview.data?.problems ?? []).filter((p) => severity === "all" || p.severity === severity), [preview.data, severity]);
 
-  if (preview.isLoading) return <p className="text-ink-muted">Reading the file…</p>;
+  if (preview.isPending) return <p className="text-ink-muted">Reading the file…</p>;
   if (preview.error || !preview.data) {
     return (
       <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-3 text-alert">
@@ -343,7 +343,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
               Rows that passed <span className="text-sm font-normal text-ink-muted">({(rows.data?.total ?? 0).toLocaleString("en")})</span>
             </h2>
             {columns.length === 0 ? (
-              <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">{rows.isLoading ? "Loading rows…" : "No row passed the checks."}</p>
+              <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">{rows.isPending ? "Loading rows…" : "No row passed the checks."}</p>
             ) : (
               <>
                 <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">

@@ -29,7 +29,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
   const queryClient = useQueryClient();
   const router = useRouter();
   const key = ["runs", periodId];
-  const { data, error, isLoading } = useQuery({
+  const { data, error, isPending } = useQuery({
     queryKey: key,
     queryFn: () => apiFetch<{ runs: RunListItem[] }>(`/api/periods/${periodId}/runs`),
     refetchInterval: (q) => (q.state.data?.runs.some((r) => isActive(r.status)) ? 1000 : false),
@@ -165,7 +165,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
               ))}
             </thead>
             <tbody>
-              {isLoading ? (
+              {isPending ? (
                 <tr>
                   <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
                     Loading the runs…

@@ -17,8 +17,8 @@ export function RunStatusBadge({ status }: { status: string }) {
  * completed, with its results.
  */
 export function CompletedRun({ runId, children }: { runId: string; children: (data: { run: RunRecord; results: RunResults; reportingCurrency: string }) => React.ReactNode }) {
-  const { data, error, isLoading } = useRun(runId);
-  if (isLoading) return <p className="text-sm text-ink-muted" role="status">Loading the run…</p>;
+  const { data, error, isPending } = useRun(runId);
+  if (isPending) return <p className="text-sm text-ink-muted" role="status">Loading the run…</p>;
   if (error || !data) {
     return (
       <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-3 text-sm text-alert">

@@ -13,8 +13,8 @@ import { CompletedRun } from "../../_components/run-state";
 const STEP_WORDS = { positions: "Positions", volatilities: "Volatilities", correlations: "Correlations" } as const;
 
 function View({ runId, currency }: { runId: string; currency: string }) {
-  const { data, error, isLoading } = useQuery({ queryKey: ["run-change", runId], queryFn: () => apiFetch<RunChange>(`/api/runs/${runId}/change`) });
-  if (isLoading) return <p role="status" className="text-sm text-ink-muted">Loading the comparison…</p>;
+  const { data, error, isPending } = useQuery({ queryKey: ["run-change", runId], queryFn: () => apiFetch<RunChange>(`/api/runs/${runId}/change`) });
+  if (isPending) return <p role="status" className="text-sm text-ink-muted">Loading the comparison…</p>;
   if (error || !data) return <p role="alert" className="text-sm text-alert">{error instanceof Error ? error.message : "Could not load the comparison."}</p>;
   if (!data.explanation || !data.previous) {
     return (

@@ -36,7 +36,7 @@ const params = (p: Record<string, number>) =>
     .join(", ");
 
 function Table({ runId }: { runId: string }) {
-  const { data, error, isLoading } = useQuery({ queryKey: ["run-factors", runId], queryFn: () => apiFetch<FactorsResponse>(`/api/runs/${runId}/factors`) });
+  const { data, error, isPending } = useQuery({ queryKey: ["run-factors", runId], queryFn: () => apiFetch<FactorsResponse>(`/api/runs/${runId}/factors`) });
   const [sorting, setSorting] = useState<SortingState>([{ id: "chosen", desc: true }]);
   const [search, setSearch] = useState("");
   const [assetClass, setAssetClass] = useState("");
@@ -111,7 +111,7 @@ function Table({ runId }: { runId: string }) {
     getFilteredRowModel: getFilteredRowModel(),
   });
 
-  if (isLoading) return <p role="status" className="text-sm text-ink-muted">Loading the factors…</p>;
+  if (isPending) return <p role="status" className="text-sm text-ink-muted">Loading the factors…</p>;
   if (error || !data) return <p role="alert" className="text-sm text-alert">{error instanceof Error ? error.message : "Could not load the factors."}</p>;
   return (
     <div className="flex flex-col gap-4">
