@@ -2,9 +2,12 @@
  * The route-handler wrapper every route.ts under app/api uses: resolves the actor through the gate (or allows
  * public access explicitly), refuses writes from another origin (403), bodies that are not JSON (415) or too large
  * (413), validates params, query and JSON body with zod, and turns errors into the shared JSON shape with honest
- * status codes.
+ * status codes. Every JSON answer says `Cache-Control: private, no-store` (firm data stays out of shared and disk
+ * caches) unless the handler set its own; a GET answered with a plain value carries an ETag, and a request whose
+ * If-None-Match names it gets 304 without the body (apiFetch keeps the last body per address in memory and asks so).
  */
 import "server-only";
+import { createHash } from "node:crypto";
 import type { z } from "zod";
 import { AppError, toAppError, type FieldErrors } from "@/lib/errors";
 import { requireActor, type Actor } from "./actor";
@@ -93,10 +96,55 @@ export function route<P extends Schema | undefined = undefined, Q extends Schema
       }
 
       const result = await handler({ actor, params, query, body, request } as RouteContext<Infer<P>, Infer<Q>, Infer<B>>);
-      if (result instanceof Response) return result;
-      return Response.json(result ?? { ok: true });
+      if (result instanceof Response) return withCacheControl(result);
+      return jsonAnswer(request, result ?? { ok: true });
     } catch (error) {
-      return toAppError(error).toResponse();
+      return withCacheControl(toAppError(error).toResponse());
     }
   };
+}
+
+/** What a JSON answer from route() says about caching when its handler said nothing. */
+export const JSON_CACHE_CONTROL = "private, no-store";
+
+/** A JSON Response without its own Cache-Control gets JSON_CACHE_CONTROL; other responses pass unchanged. */
+function withCacheControl(response: Response): Response {
+  const type = response.headers.get("content-type") ?? "";
+  if (!type.includes("json") || response.headers.has("cache-control")) return response;
+  try {
+    response.headers.set("cache-control", JSON_CACHE_CONTROL);
+    return response;
+  } catch {
+    // Immutable headers (a Response made by Response.redirect or fetch): copy it.
+    const headers = new Headers(response.headers);
+    headers.set("cache-control", JSON_CACHE_CONTROL);
+    return new Response(response.body, { status: response.status, statusText: response.statusText, headers });
+  }
+}
+
+/** The strong ETag of a JSON body: its SHA-256, shortened. */
+export function etagOf(json: string): string {
+  return `"${createHash("sha256").update(json).digest("base64url").slice(0, 27)}"`;
+}
+
+/** Whether an If-None-Match header names this ETag (a list, weak forms and * included). */
+export function matchesEtag(ifNoneMatch: string | null, etag: string): boolean {
+  if (!ifNoneMatch) return false;
+  return ifNoneMatch.split(",").some((tag) => {
+    const t = tag.trim();
+    return t === "*" || t === etag || t === `W/${etag}`;
+  });
+}
+
+function jsonAnswer(request: Request, value: unknown): Response {
+  const json = JSON.stringify(value);
+  const headers: Record<string, string> = { "content-type": "application/json", "cache-control": JSON_CACHE_CONTROL };
+  if (request.method !== "GET") return new Response(json, { headers });
+  const etag = etagOf(json);
+  headers.etag = etag;
+  if (matchesEtag(request.headers.get("if-none-match"), etag)) {
+    delete headers["content-type"];
+    return new Response(null, { status: 304, headers });
+  }
+  return new Response(json, { headers });
 }
