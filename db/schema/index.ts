@@ -7,3 +7,4 @@ export * from "./filings";
 export * from "./calendar";
 export * from "./audit";
 export * from "./accounts";
+export * from "./stored";
