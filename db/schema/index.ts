@@ -8,3 +8,4 @@ export * from "./calendar";
 export * from "./audit";
 export * from "./accounts";
 export * from "./stored";
+export * from "./jobs";
