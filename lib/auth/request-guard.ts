@@ -68,6 +68,19 @@ export async function readJsonBody(request: Request, limit = MAX_JSON_BODY_BYTES
   }
 }
 
+/**
+ * A copy of a request whose body was read whole up to `limit` bytes (413 past it, by Content-Length or as read):
+ * for handlers that read the body themselves (the upload service's route).
+ */
+export async function cappedRequest(request: Request, limit = MAX_JSON_BODY_BYTES): Promise<Request> {
+  if (SAFE_METHODS.has(request.method.toUpperCase()) || !request.body) return request;
+  const tooLarge = () => new AppError("too_large:body", `The request body is larger than ${Math.round(limit / 1024)} KiB.`);
+  const declared = Number(request.headers.get("content-length") ?? "0");
+  if (Number.isFinite(declared) && declared > limit) throw tooLarge();
+  const text = await readCapped(request, limit, tooLarge);
+  return new Request(request, { body: text });
+}
+
 async function readCapped(request: Request, limit: number, tooLarge: () => AppError): Promise<string> {
   if (!request.body) return "";
   const reader = request.body.getReader();

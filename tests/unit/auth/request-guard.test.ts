@@ -90,3 +90,14 @@ describe("JSON bodies", () => {
     expect(await asyncCodeOf(readJsonBody(req("POST", { "content-type": "application/json" }, "{not json")))).toBe("bad_request:body 400");
   });
 });
+
+describe("cappedRequest (the upload service's route)", () => {
+  it("passes a small body through whole and refuses one past the limit, declared or not (413)", async () => {
+    const { cappedRequest } = await import("@/lib/auth/request-guard");
+    const small = await cappedRequest(new Request("http://localhost/api/uploadthing", { method: "POST", body: JSON.stringify({ a: 1 }) }), 64);
+    expect(await small.json()).toEqual({ a: 1 });
+    await expect(cappedRequest(new Request("http://localhost/x", { method: "POST", body: "x".repeat(65), headers: { "content-length": "65" } }), 64)).rejects.toMatchObject({ status: 413 });
+    const stream = new ReadableStream({ start: (c) => (c.enqueue(new TextEncoder().encode("y".repeat(100))), c.close()) });
+    await expect(cappedRequest(new Request("http://localhost/x", { method: "POST", body: stream, duplex: "half" } as RequestInit), 64)).rejects.toMatchObject({ status: 413 });
+  });
+});
