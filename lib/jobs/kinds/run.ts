@@ -1,0 +1,29 @@
+/**
+ * "run": compute a queued run (lib/runs/execute.ts: gather and store its inputs, check the method can be computed,
+ * compute, store the results), reporting stage and progress on the run row and keeping the job's lease alive.
+ * Payload `{ runId, excludeShortHistory }`; enqueued by startRun/reproduceRun (lib/data/runs.ts) in the run's own
+ * transaction with maxAttempts 1: a run whose worker stopped is not silently computed again but shown as
+ * interrupted, so the person starts it again (the run slot of the period is free at once).
+ */
+import "server-only";
+import type { Job } from "@/db/schema";
+import type { Database } from "@/db/client";
+import type { JobKind } from "../types";
+
+export interface RunJobPayload {
+  runId: string;
+  excludeShortHistory?: boolean;
+}
+
+export const runJob: JobKind = {
+  async handle(context) {
+    const { executeRun } = await import("@/lib/runs/execute");
+    const payload = context.job.payload as unknown as RunJobPayload;
+    const outcome = await executeRun(payload.runId, { excludeShortHistory: payload.excludeShortHistory, heartbeat: context.heartbeat, signal: context.signal });
+    return { outcome };
+  },
+  async onGivenUp(job: Job, db: Database, reason: string) {
+    const { markRunInterrupted } = await import("@/lib/runs/staleness");
+    await markRunInterrupted(db, (job.payload as unknown as RunJobPayload).runId, reason);
+  },
+};
