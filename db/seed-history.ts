@@ -8,7 +8,7 @@ import { and, eq } from "drizzle-orm";
 import type { Database } from "./client";
 import { reportingPeriods } from "./schema";
 import { actorFor, load } from "./seed-uploads";
-import { DEMO_PASSWORD } from "./seed";
+import { DEMO_PASSWORD } from "./demo-people";
 import { openPeriod } from "../lib/data/periods";
 import { startRun, useForFiling as chooseFilingRun } from "../lib/data/runs";
 import { executeRun } from "../lib/runs/execute";

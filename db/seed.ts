@@ -14,22 +14,9 @@ import { deadlineFor } from "../lib/calendar/deadline";
 import { now, setStampClock } from "../lib/clock";
 import { BASEL_PLUS_FACTORS } from "../lib/accounts/firm-defaults";
 
-/** The demo-only password of every demo user. Never use it anywhere else. */
-export const DEMO_PASSWORD = "ballast-demo-2026";
+import { DEMO_PASSWORD, DEMO_USERS, SECOND_FIRM_USERS } from "./demo-people";
 
-export const DEMO_USERS = [
-  { email: "ada.quayle@northmoor.example", name: "Ada Quayle", roles: ["admin"] },
-  { email: "tomas.reyne@northmoor.example", name: "Tomas Reyne", roles: ["compliance_officer"] },
-  { email: "priya.castell@northmoor.example", name: "Priya Castell", roles: ["risk_analyst"] },
-  { email: "helen.marsh@northmoor.example", name: "Helen Marsh", roles: ["compliance_head"] },
-  { email: "oskar.lind@northmoor.example", name: "Oskar Lind", roles: ["auditor"] },
-  { email: "nia.dorrance@northmoor.example", name: "Nia Dorrance", roles: ["compliance_officer", "risk_analyst"] },
-] as const;
-
-export const SECOND_FIRM_USERS = [
-  { email: "rafe.pellam@pellam.example", name: "Rafe Pellam", roles: ["admin", "compliance_head"] },
-  { email: "june.okafor@pellam.example", name: "June Okafor", roles: ["compliance_officer", "risk_analyst"] },
-] as const;
+export { DEMO_PASSWORD, DEMO_USERS, SECOND_FIRM_USERS };
 
 /** Plus factors by exception count over 250 days (Basel Committee 1996 backtesting framework, Table 2). */
 export { BASEL_PLUS_FACTORS };

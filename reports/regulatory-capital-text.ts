@@ -3,7 +3,7 @@
  * standardised building blocks line by line in summary. Content stored before regimes existed files the
  * internal-models figure (its capital). Pure.
  */
-import { fragment } from "./sections";
+import { fragment } from "./filing-templates";
 import { formatAmount, formatNumber } from "./format";
 import type { FilingViewModel } from "./view-model";
 import type { RegulatoryCapitalView } from "./regulatory-capital";

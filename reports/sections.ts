@@ -3,9 +3,8 @@
  * (a missing value fails loudly, naming the template), split into blocks the packs lay out. Lines are classified
  * before values go in, so text a person typed never becomes a heading or a bullet (see templates/filing/README.md).
  */
-import { readFileSync } from "node:fs";
-import path from "node:path";
-import { renderTemplate, type TemplateValues } from "@/lib/templates/render";
+import type { TemplateValues } from "@/lib/templates/render";
+import { filingTemplate, fill, fragment } from "./filing-templates";
 import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatTimestamp } from "./format";
 import { VAR_METHOD_LABELS, type FilingViewModel } from "./view-model";
 import { neutralise } from "./neutralise";
@@ -16,6 +15,8 @@ import { regulatoryCapitalValues } from "./regulatory-capital-text";
 function typed(text: string): string {
   return text.split(/\r?\n/).map(neutralise).join("\n");
 }
+
+export { filingTemplate, fragment };
 
 export type Block =
   | { kind: "h1" | "h2" | "p" | "bullet" | "note"; text: string }
@@ -33,32 +34,6 @@ export interface Section {
 export const MAIN_SECTIONS = ["cover", "regulatory-capital", "capital", "var-es", "stressed", "backtest", "method", "limitations", "data-quality", "changes", "sign-off", "cautions"] as const;
 export const APPENDIX_SECTIONS = ["positions", "risk-factors", "correlation", "contributions", "var-history", "method-annex"] as const;
 export type SectionId = (typeof MAIN_SECTIONS)[number] | (typeof APPENDIX_SECTIONS)[number];
-
-const TEMPLATE_DIR = path.join(process.cwd(), "templates", "filing");
-const cache = new Map<string, string>();
-
-/** The text of templates/filing/<name>.md (cached). */
-export function filingTemplate(name: string): string {
-  let text = cache.get(name);
-  if (text === undefined) {
-    text = readFileSync(path.join(TEMPLATE_DIR, `${name}.md`), "utf8");
-    cache.set(name, text);
-  }
-  return text;
-}
-
-function fill(name: string, text: string, values: TemplateValues): string {
-  try {
-    return renderTemplate(text, values);
-  } catch (error) {
-    throw new Error(`templates/filing/${name}.md: ${error instanceof Error ? error.message : String(error)}`);
-  }
-}
-
-/** A one-line fragment (templates/filing/fragments/<name>.md) filled in. */
-export function fragment(name: string, values: TemplateValues = {}): string {
-  return fill(`fragments/${name}`, filingTemplate(`fragments/${name}`).trim(), values);
-}
 
 /** Values that are a person's own typed text, never recased. */
 const TYPED_VALUES = new Set(["coverNote", "rationale", "attestation"]);

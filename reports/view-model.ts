@@ -11,7 +11,7 @@ import type { QualityReport, QualitySeverity } from "@/lib/uploads/data-quality"
 import { CHECK_LABELS } from "@/lib/uploads/data-quality";
 import type { MethodContent } from "@/lib/validation/method";
 import { ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
-import { DRAFT_CAUTION } from "@/app/_components/draft-caution";
+import { DRAFT_CAUTION } from "@/lib/domain/caution";
 import { describeComputedMethod } from "./method-text";
 
 const MODEL_SOURCE_WORDS: Record<string, string> = { factor: "the factor", "asset-class": "its asset class", default: "the firm-wide default", legacy: "the one covariance model" };

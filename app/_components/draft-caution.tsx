@@ -1,9 +1,10 @@
 /**
  * The caution every screen and export with a capital or risk figure carries. Its label says "Caution", not "Draft",
- * so that a signed filing is not headed "Draft" beside its "Signed" state.
+ * so that a signed filing is not headed "Draft" beside its "Signed" state. The text itself is lib/domain/caution.ts.
  */
-export const DRAFT_CAUTION =
-  "Draft computed under the stated method and the firm's configured rules, for review and sign-off by the firm's licensed compliance officer. Local rules and the regulator's current requirements govern.";
+import { DRAFT_CAUTION } from "@/lib/domain/caution";
+
+export { DRAFT_CAUTION };
 
 export function DraftCaution({ className = "" }: { className?: string }) {
   return (

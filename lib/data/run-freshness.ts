@@ -7,13 +7,12 @@ import "server-only";
 import { gunzipSync } from "node:zlib";
 import { and, count, desc, eq, inArray, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { capitalRuleProfiles, methodStatements, runInputs, runs, uploads } from "@/db/schema";
+import { capitalRuleProfiles, methodStatements, reportingPeriods, runInputs, runs, uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { neededFactors } from "@/lib/runs/compute";
 import { priceChanges, runFreshness, staleSummary, type CurrentInputs, type InputChange, type RunFreshness } from "@/lib/runs/freshness";
 import type { RunInputs } from "@/lib/runs/types";
-import { getPeriod } from "./periods";
 import { priceSeries } from "./prices";
 
 export type { RunFreshness } from "@/lib/runs/freshness";
@@ -68,7 +67,12 @@ async function priceState(firmId: string): Promise<string> {
 
 /** The freshness of each run of an open period (none for a signed or filed one), by run id. */
 export async function periodRunFreshness(actor: Actor, periodId: string, onlyRunIds?: readonly string[]): Promise<Map<string, RunFreshness>> {
-  const period = await getPeriod(actor, periodId);
+  // the three fields freshness needs, read here (the full period summary in ./periods reads the calendar too)
+  const [period] = await getDb()
+    .select({ id: reportingPeriods.id, periodEnd: reportingPeriods.periodEnd, state: reportingPeriods.state })
+    .from(reportingPeriods)
+    .where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
+  if (!period) throw new AppError("not_found:period", "No such reporting period.");
   return freshnessForPeriod(actor.firmId, period, onlyRunIds);
 }
 
@@ -77,36 +81,83 @@ export async function periodRunFreshness(actor: Actor, periodId: string, onlyRun
  * every query filters on `firmId`.
  */
 export async function freshnessForPeriod(firmId: string, period: { id: string; periodEnd: string; state: string }, onlyRunIds?: readonly string[]): Promise<Map<string, RunFreshness>> {
-  const periodId = period.id;
+  return (await freshnessForPeriods(firmId, [period], onlyRunIds)).get(period.id) ?? new Map();
+}
+
+/**
+ * The freshness of the runs of several periods at once, by period id then run id, in a fixed number of queries
+ * however many periods and runs there are (the periods list): the runs, the current inputs of every period and the
+ * price-history state, each read once. Only a run whose price comparison is not yet kept for the current state
+ * reads its stored inputs and its period's closes (once per run and state of the price history).
+ */
+export async function freshnessForPeriods(firmId: string, periods: readonly { id: string; periodEnd: string; state: string }[], onlyRunIds?: readonly string[]): Promise<Map<string, Map<string, RunFreshness>>> {
+  const out = new Map<string, Map<string, RunFreshness>>();
   // A signed or filed period's inputs are frozen with it: later changes belong to later periods.
-  if (period.state === "signed" || period.state === "filed") return new Map();
+  const open = periods.filter((p) => p.state !== "signed" && p.state !== "filed");
+  for (const p of periods) out.set(p.id, new Map());
+  if (open.length === 0) return out;
   const db = getDb();
-  const conditions = [eq(runs.firmId, firmId), eq(runs.periodId, periodId)];
+  const conditions = [eq(runs.firmId, firmId), inArray(runs.periodId, open.map((p) => p.id))];
   if (onlyRunIds) conditions.push(inArray(runs.id, [...onlyRunIds]));
   const rows = await db
-    .select({ id: runs.id, positionsUploadId: runs.positionsUploadId, methodStatementId: runs.methodStatementId, capitalProfileId: runs.capitalProfileId })
+    .select({ id: runs.id, periodId: runs.periodId, positionsUploadId: runs.positionsUploadId, methodStatementId: runs.methodStatementId, capitalProfileId: runs.capitalProfileId })
     .from(runs)
     .where(and(...conditions));
-  const out = new Map<string, RunFreshness>();
   if (rows.length === 0) return out;
-  const current = await currentInputsOfFirm(firmId, periodId);
+  const withRuns = open.filter((p) => rows.some((r) => r.periodId === p.id));
+  const current = await currentInputsOfPeriods(firmId, withRuns.map((p) => p.id));
   const state = await priceState(firmId);
-  let series: Awaited<ReturnType<typeof priceSeries>> | null = null;
-  for (const run of rows) {
-    const key = `${run.id}:${state}`;
-    let prices = priceCache.get(key);
-    if (!prices) {
-      const [stored] = await db
-        .select({ data: runInputs.data })
-        .from(runInputs)
-        .where(and(eq(runInputs.runId, run.id), eq(runInputs.firmId, firmId)));
-      if (stored) {
-        const inputs = JSON.parse(gunzipSync(Buffer.from(stored.data)).toString("utf8")) as RunInputs;
-        series ??= await priceSeries(firmId, period.periodEnd);
-        prices = rememberPrices(key, priceChanges(inputs.prices, series, [...neededFactors(inputs.positions, inputs.reportingCurrency).keys()]));
-      } else prices = [];
+  for (const period of withRuns) {
+    let series: Awaited<ReturnType<typeof priceSeries>> | null = null;
+    for (const run of rows.filter((r) => r.periodId === period.id)) {
+      const key = `${run.id}:${state}`;
+      let prices = priceCache.get(key);
+      if (!prices) {
+        const [stored] = await db
+          .select({ data: runInputs.data })
+          .from(runInputs)
+          .where(and(eq(runInputs.runId, run.id), eq(runInputs.firmId, firmId)));
+        if (stored) {
+          const inputs = JSON.parse(gunzipSync(Buffer.from(stored.data)).toString("utf8")) as RunInputs;
+          series ??= await priceSeries(firmId, period.periodEnd);
+          prices = rememberPrices(key, priceChanges(inputs.prices, series, [...neededFactors(inputs.positions, inputs.reportingCurrency).keys()]));
+        } else prices = [];
+      }
+      out.get(period.id)!.set(run.id, runFreshness(run, current.get(period.id)!, prices));
     }
-    out.set(run.id, runFreshness(run, current, prices));
+  }
+  return out;
+}
+
+/** The current inputs of several periods of one firm in three queries (positions of all, then method and profile). */
+async function currentInputsOfPeriods(firmId: string, periodIds: readonly string[]): Promise<Map<string, CurrentInputs>> {
+  const db = getDb();
+  const confirmed = periodIds.length
+    ? await db
+        .select({ id: uploads.id, periodId: uploads.periodId, fileName: uploads.fileName, confirmedAt: uploads.confirmedAt })
+        .from(uploads)
+        .where(and(eq(uploads.firmId, firmId), inArray(uploads.periodId, [...periodIds]), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")))
+    : [];
+  const [method] = await db
+    .select({ id: methodStatements.id, version: methodStatements.version })
+    .from(methodStatements)
+    .where(and(eq(methodStatements.firmId, firmId), eq(methodStatements.status, "approved")))
+    .orderBy(desc(methodStatements.version))
+    .limit(1);
+  const [profile] = await db
+    .select({ id: capitalRuleProfiles.id, name: capitalRuleProfiles.name })
+    .from(capitalRuleProfiles)
+    .where(and(eq(capitalRuleProfiles.firmId, firmId), eq(capitalRuleProfiles.active, true)))
+    .orderBy(desc(capitalRuleProfiles.createdAt))
+    .limit(1);
+  const out = new Map<string, CurrentInputs>();
+  for (const periodId of periodIds) {
+    const upload = confirmed.find((u) => u.periodId === periodId);
+    out.set(periodId, {
+      positions: upload ? { uploadId: upload.id, fileName: upload.fileName, confirmedAt: upload.confirmedAt } : null,
+      method: method ?? null,
+      capitalProfile: profile ?? null,
+    });
   }
   return out;
 }

@@ -7,7 +7,7 @@
  */
 import { existsSync, readFileSync } from "node:fs";
 import { CliError, parseOptions, printJson } from "./io";
-import { DRAFT_CAUTION } from "../../app/_components/draft-caution";
+import { DRAFT_CAUTION } from "../domain/caution";
 import { ENGINE_VERSION } from "../risk/version";
 import { asStored } from "../runs/compare";
 import { computeRun } from "../runs/compute";

@@ -9,7 +9,7 @@
  */
 import { existsSync, readFileSync } from "node:fs";
 import { CliError, parseNumber, parseOptions, printJson, readCsv, type CliOptions } from "./io";
-import { DRAFT_CAUTION } from "../../app/_components/draft-caution";
+import { DRAFT_CAUTION } from "../domain/caution";
 import {
   computeStandardised,
   parseIsoDate,

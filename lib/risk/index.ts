@@ -33,6 +33,7 @@ export * from "./backtest";
 export * from "./capital";
 // issue 13: volatility processes, D·R·D, candidate evidence
 export * from "./process";
-export { candidateEvidence, standardCandidates } from "./portfolio/candidates";
+export { standardCandidates } from "./portfolio/candidates";
+export { candidateEvidence } from "./portfolio/candidate-evidence";
 // standardised building blocks (1996): debt, equity, FX, commodities, options
 export * from "./standardised";

@@ -11,8 +11,7 @@ import { runBacktest } from "../backtest/backtest";
 import { capitalCharge, type CapitalProfile } from "../capital/capital";
 import { varMultiplier } from "../var/parametric";
 import { refitBlocks } from "./per-factor";
-// a circular import, used only inside functions (never at load time)
-import { runMonthEnd, type MonthEndInput, type MonthEndMethod, type MonthEndResult } from "./run-month-end";
+import type { MonthEndMethod } from "./run-month-end";
 
 /**
  * The standard candidates: moving average 20 and 250 days, EWMA λ = 0.94, EWMA λ fitted, ARCH(m), GARCH(1,1) with
@@ -135,18 +134,6 @@ export function candidateRows(ctx: CandidateContext, candidates: readonly Candid
     rows,
     statement: evidenceStatement(ctx, L - ctx.backtestFrom),
   };
-}
-
-/**
- * The candidates' backtests on the book: the run's own method first, then `given` configurations (basis "method",
- * each computed as a run with those pieces of the method changed), then the candidates (standard by default).
- * This runs the month-end computation; inside a run, ask for `method.candidates` instead.
- * @throws {RangeError} on impossible input (as runMonthEnd)
- */
-export function candidateEvidence(input: MonthEndInput, options: { candidates?: CandidateMethod[]; given?: CandidateMethod[]; archOrder?: number } = {}): CandidateEvidence {
-  const own = options.candidates ?? standardCandidates(options.archOrder ?? 5);
-  const result: MonthEndResult = runMonthEnd({ ...input, method: { ...(input.method ?? {}), candidates: { include: "none", extra: [...(options.given ?? []), ...own] } } });
-  return result.candidates as CandidateEvidence;
 }
 
 /** The method of a "method" candidate: the run's own with the candidate's pieces changed and no candidates. */

@@ -8,7 +8,7 @@ import { EWMA_FIT_MIN_RETURNS, fitEwma } from "../estimators/ewma";
 import { ARCH_MAX_ORDER, fitArch } from "../estimators/arch";
 import { GARCH_MIN_RETURNS, fitGarch11 } from "../estimators/garch11";
 import { backcastValue, backcastWeights, checkInit, describeInit, type InitRule } from "../estimators/initial-variance";
-import { archForecast } from "../forecast";
+import { archForecast } from "../forecast-kernels";
 import type { VolatilityFit } from "../types";
 import type { FitOptions, ProcessFit, VolatilityKind, VolatilityProcess, VolatilitySpec } from "./types";
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { runMonthEnd, portfolioVar, type MonthEndInput } from "@/lib/risk/portfolio/run-month-end";
-import { candidateEvidence, standardCandidates } from "@/lib/risk/portfolio/candidates";
+import { standardCandidates } from "@/lib/risk/portfolio/candidates";
+import { candidateEvidence } from "@/lib/risk/portfolio/candidate-evidence";
 import { refitBlocks } from "@/lib/risk/portfolio/per-factor";
 import { syntheticBook } from "./synthetic-book";
 
