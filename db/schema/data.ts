@@ -1,5 +1,6 @@
 import { sqliteTable, text, integer, real, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { id, createdAt, firmColumns } from "../columns";
+import type { ReadOptions } from "../../lib/uploads/types";
 
 /** An uploaded file: positions for a period, or price history for the firm. Confirmed by a person before use. */
 export const uploads = sqliteTable(
@@ -17,7 +18,7 @@ export const uploads = sqliteTable(
     /** where the upload service serves the stored bytes */
     fileUrl: text("file_url").notNull().default(""),
     /** how to read the file: number format, header mapping (JSON) */
-    options: text("options", { mode: "json" }).$type<Record<string, unknown>>(),
+    options: text("options", { mode: "json" }).$type<ReadOptions>(),
     rowCount: integer("row_count").notNull().default(0),
     errorCount: integer("error_count").notNull().default(0),
     warningCount: integer("warning_count").notNull().default(0),

@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import { sqliteTable, text, integer, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { id, createdAt, firmColumns } from "../columns";
+import type { FilingViewModel } from "../../reports/view-model";
 
 /** A draft filing assembled from a run. Signed versions are locked; a change is a new version pointing back. */
 export const filings = sqliteTable(
@@ -14,7 +15,7 @@ export const filings = sqliteTable(
     previousId: text("previous_id"),
     /** draft → in_review → changes_requested → in_review … → signed → filed */
     status: text("status").notNull().default("draft"),
-    content: text("content", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    content: text("content", { mode: "json" }).$type<FilingViewModel>().notNull(),
     coverNote: text("cover_note").notNull().default(""),
     reason: text("reason").notNull().default(""),
     preparedBy: text("prepared_by").notNull(),

@@ -1,5 +1,7 @@
 import { sqliteTable, text, integer, real, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { id, createdAt, firmColumns } from "../columns";
+import type { MethodEvidence } from "../../lib/method/evidence";
+import type { MethodContent } from "../../lib/validation/method";
 
 /** A version of the firm's method statement. Approved versions never change; a change is a new version. */
 export const methodStatements = sqliteTable(
@@ -10,10 +12,10 @@ export const methodStatements = sqliteTable(
     version: integer("version").notNull(),
     /** draft → approved → superseded */
     status: text("status").notNull().default("draft"),
-    content: text("content", { mode: "json" }).$type<Record<string, unknown>>().notNull(),
+    content: text("content", { mode: "json" }).$type<MethodContent>().notNull(),
     rationale: text("rationale").notNull().default(""),
     limitations: text("limitations", { mode: "json" }).$type<string[]>().notNull().default([]),
-    evidence: text("evidence", { mode: "json" }).$type<Record<string, unknown> | null>(),
+    evidence: text("evidence", { mode: "json" }).$type<MethodEvidence | null>(),
     reason: text("reason").notNull().default(""),
     previousId: text("previous_id"),
     createdBy: text("created_by").notNull(),

@@ -113,7 +113,7 @@ async function present(row: Row): Promise<MethodVersion> {
     limitations: row.limitations,
     engineLimitations: engine,
     analystLimitations: analyst,
-    evidence: (row.evidence as unknown as MethodEvidence | null) ?? null,
+    evidence: row.evidence ?? null,
     previousId: row.previousId,
     previousVersion,
   };
@@ -196,7 +196,7 @@ export async function createMethodDraft(actor: Actor, input: { reason?: string }
         firmId: actor.firmId,
         version,
         status: "draft",
-        content: content as unknown as Record<string, unknown>,
+        content,
         rationale: approved?.rationale ?? "",
         limitations: combineLimitations(content, analyst),
         evidence: null,
@@ -251,7 +251,7 @@ export async function updateMethodDraft(actor: Actor, methodId: string, input: u
   await getDb().transaction(async (tx) => {
     const updated = await tx
       .update(methodStatements)
-      .set({ content: draft.content as unknown as Record<string, unknown>, rationale: draft.rationale, limitations, reason: draft.reason, approvedBy: null })
+      .set({ content: draft.content, rationale: draft.rationale, limitations, reason: draft.reason, approvedBy: null })
       .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
       .returning({ id: methodStatements.id });
     if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
@@ -350,7 +350,7 @@ export async function attachEvidence(actor: Actor, methodId: string, options: { 
   await getDb().transaction(async (tx) => {
     const updated = await tx
       .update(methodStatements)
-      .set({ evidence: evidence as unknown as Record<string, unknown>, approvedBy: null })
+      .set({ evidence, approvedBy: null })
       .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
       .returning({ id: methodStatements.id });
     if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
@@ -513,7 +513,7 @@ export async function diffMethodVersions(actor: Actor, fromId?: string, toId?: s
   const from: Row | null = fromId ? await findRow(actor, fromId) : to.previousId ? await findRow(actor, to.previousId) : null;
   const toContent = readMethodContent(to.content);
   const fromContent = from ? readMethodContent(from.content) : null;
-  const evidenceDate = (r: Row | null) => (r?.evidence ? String((r.evidence as unknown as MethodEvidence).computedAt) : null);
+  const evidenceDate = (r: Row | null) => (r?.evidence ? String(r.evidence.computedAt) : null);
   return {
     from: from ? { id: from.id, version: from.version, status: from.status as MethodStatus } : null,
     to: { id: to.id, version: to.version, status: to.status as MethodStatus, reason: to.reason },

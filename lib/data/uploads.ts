@@ -214,7 +214,7 @@ export async function uploadExists(actor: Actor, uploadId: string): Promise<bool
 
 /** Re-read an upload's file under its current options (cached). */
 async function parsedFor(actor: Actor, row: typeof uploads.$inferSelect): Promise<ParsedUpload> {
-  const options = (row.options ?? { numberFormat: "plain" }) as unknown as ReadOptions;
+  const options = row.options ?? { numberFormat: "plain" };
   const key = `${row.id}:${JSON.stringify(options)}`;
   const cached = parsedCache.get(key);
   if (cached) return cached;
@@ -297,7 +297,7 @@ export async function updateUploadOptions(actor: Actor, uploadId: string, option
     if (!(field in fields)) throw new AppError("unprocessable:upload", `Unknown field "${field}" in the column mapping.`, { [`mapping.${field}`]: "Unknown field." });
     if (header.length > 200) throw new AppError("unprocessable:upload", "A column name is too long.", { [`mapping.${field}`]: "Too long." });
   }
-  const updated = { ...row, options: { ...options } as Record<string, unknown> };
+  const updated = { ...row, options: { ...options } };
   const parsed = await parsedFor(actor, updated);
   await getDb().transaction(async (tx) => {
     await tx
