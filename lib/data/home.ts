@@ -1,6 +1,6 @@
 /** What the month end needs from this person now: a short list of plain sentences, each with a link. */
 import "server-only";
-import { and, desc, eq } from "drizzle-orm";
+import { and, desc, eq, inArray } from "drizzle-orm";
 import { format, formatDistanceStrict, parseISO } from "date-fns";
 import { getDb } from "@/db/client";
 import { filings, methodStatements, pricePoints, runs, uploads } from "@/db/schema";
@@ -50,11 +50,22 @@ export async function homeItems(actor: Actor, openPeriods: readonly PeriodSummar
       });
     }
   }
+  // The runs and filings of every open period in one query each (the list must not cost a query per period).
+  const openIds = openPeriods.map((p) => p.id);
+  const allRuns = openIds.length
+    ? await db.select({ periodId: runs.periodId, status: runs.status, isFilingRun: runs.isFilingRun }).from(runs).where(and(eq(runs.firmId, actor.firmId), inArray(runs.periodId, openIds)))
+    : [];
+  const allFilings = openIds.length
+    ? await db
+        .select({ periodId: filings.periodId, status: filings.status, version: filings.version })
+        .from(filings)
+        .where(and(eq(filings.firmId, actor.firmId), inArray(filings.periodId, openIds)))
+        .orderBy(desc(filings.version))
+    : [];
   for (const period of openPeriods) {
     const label = format(parseISO(period.periodEnd), "MMMM yyyy");
-    const periodRuns = await db.select({ status: runs.status, isFilingRun: runs.isFilingRun }).from(runs).where(and(eq(runs.firmId, actor.firmId), eq(runs.periodId, period.id)));
-    const periodFilings = await db.select({ status: filings.status, version: filings.version }).from(filings).where(and(eq(filings.firmId, actor.firmId), eq(filings.periodId, period.id))).orderBy(desc(filings.version));
-    const latest = periodFilings[0];
+    const periodRuns = allRuns.filter((r) => r.periodId === period.id);
+    const latest = allFilings.find((f) => f.periodId === period.id);
     const positionsDone = period.steps.find((s) => s.key === "positions")?.done;
     if (roles.has("compliance_officer") && !positionsDone) items.push({ role: "compliance_officer", tone: "action", text: `Upload and confirm the positions for ${label}`, href: "/data" });
     if (roles.has("risk_analyst") && positionsDone && approved) {

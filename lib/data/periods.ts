@@ -9,7 +9,7 @@ import type { Actor } from "@/lib/auth/actor";
 import type { Role } from "@/lib/auth/roles";
 import { businessDaysBetween, deadlineFor, type DeadlineRule } from "@/lib/calendar/deadline";
 import { staleSummary, type RunFreshness } from "@/lib/runs/freshness";
-import { freshnessForPeriod } from "./run-freshness";
+import { freshnessForPeriods } from "./run-freshness";
 import { today } from "@/lib/clock";
 import { earliestPeriodMonth, periodEndOf } from "@/lib/validation/periods";
 
@@ -36,50 +36,62 @@ export async function getCalendar(firmId: string): Promise<{ rule: DeadlineRule;
   return { rule, holidays: new Set(rows.map((r) => r.date)) };
 }
 
-/** Which steps of a period are done, from what is stored; a stale run does not count, and the step says why. */
-async function stepStatus(firmId: string, period: typeof reportingPeriods.$inferSelect): Promise<{ done: Record<StepKey, boolean>; notes: Partial<Record<StepKey, string>> }> {
-  const periodId = period.id;
-  const periodState = period.state;
+type StepStatus = { done: Record<StepKey, boolean>; notes: Partial<Record<StepKey, string>> };
+
+/**
+ * Which steps of each period are done, from what is stored; a stale run does not count, and the step says why.
+ * A fixed number of queries however many periods there are: each table is read once for all of them.
+ */
+async function stepStatuses(firmId: string, periods: readonly (typeof reportingPeriods.$inferSelect)[]): Promise<Map<string, StepStatus>> {
+  const out = new Map<string, StepStatus>();
+  if (periods.length === 0) return out;
   const db = getDb();
+  const periodIds = periods.map((p) => p.id);
   const confirmed = await db
-    .select({ id: uploads.id })
+    .select({ periodId: uploads.periodId })
     .from(uploads)
-    .where(and(eq(uploads.firmId, firmId), eq(uploads.periodId, periodId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")))
-    .limit(1);
+    .where(and(eq(uploads.firmId, firmId), inArray(uploads.periodId, periodIds), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")));
   const approved = await db
     .select({ id: methodStatements.id })
     .from(methodStatements)
     .where(and(eq(methodStatements.firmId, firmId), eq(methodStatements.status, "approved")))
     .limit(1);
-  const completedRuns = await db
-    .select({ id: runs.id, isFilingRun: runs.isFilingRun })
+  const allCompleted = await db
+    .select({ id: runs.id, periodId: runs.periodId, isFilingRun: runs.isFilingRun })
     .from(runs)
-    .where(and(eq(runs.firmId, firmId), eq(runs.periodId, periodId), eq(runs.status, "completed")));
-  const freshness = completedRuns.length ? await freshnessForPeriod(firmId, period) : new Map<string, RunFreshness>();
-  const fresh = completedRuns.filter((r) => !freshness.get(r.id)?.stale);
-  const notes: Partial<Record<StepKey, string>> = {};
-  if (completedRuns.length > 0 && fresh.length === 0) {
-    notes.run = `Every completed run is stale: ${staleSummary(freshness.get(completedRuns[0].id)!)} Start a new run.`;
-  }
-  const filingRun = completedRuns.find((r) => r.isFilingRun);
-  if (filingRun && freshness.get(filingRun.id)?.stale) {
-    notes.filing = `The run chosen for the filing is stale (${staleSummary(freshness.get(filingRun.id)!)}): choose a current run before submitting.`;
-  }
-  const periodFilings = await db
-    .select({ status: filings.status })
+    .where(and(eq(runs.firmId, firmId), inArray(runs.periodId, periodIds), eq(runs.status, "completed")));
+  const withCompleted = periods.filter((p) => allCompleted.some((r) => r.periodId === p.id));
+  const freshnessByPeriod = withCompleted.length ? await freshnessForPeriods(firmId, withCompleted) : new Map<string, Map<string, RunFreshness>>();
+  const allFilings = await db
+    .select({ periodId: filings.periodId, status: filings.status })
     .from(filings)
-    .where(and(eq(filings.firmId, firmId), eq(filings.periodId, periodId)));
-  const statuses = new Set(periodFilings.map((f) => f.status));
-  const signed = statuses.has("signed") || statuses.has("filed") || periodState === "signed" || periodState === "filed";
-  const done = {
-    positions: confirmed.length > 0,
-    method: approved.length > 0,
-    run: fresh.length > 0,
-    filing: statuses.has("in_review") || signed,
-    signoff: signed,
-    file: periodState === "filed" || statuses.has("filed"),
-  };
-  return { done, notes };
+    .where(and(eq(filings.firmId, firmId), inArray(filings.periodId, periodIds)));
+  for (const period of periods) {
+    const completedRuns = allCompleted.filter((r) => r.periodId === period.id);
+    const freshness = freshnessByPeriod.get(period.id) ?? new Map<string, RunFreshness>();
+    const fresh = completedRuns.filter((r) => !freshness.get(r.id)?.stale);
+    const notes: Partial<Record<StepKey, string>> = {};
+    if (completedRuns.length > 0 && fresh.length === 0) {
+      notes.run = `Every completed run is stale: ${staleSummary(freshness.get(completedRuns[0].id)!)} Start a new run.`;
+    }
+    const filingRun = completedRuns.find((r) => r.isFilingRun);
+    if (filingRun && freshness.get(filingRun.id)?.stale) {
+      notes.filing = `The run chosen for the filing is stale (${staleSummary(freshness.get(filingRun.id)!)}): choose a current run before submitting.`;
+    }
+    const statuses = new Set(allFilings.filter((f) => f.periodId === period.id).map((f) => f.status));
+    const periodState = period.state;
+    const signed = statuses.has("signed") || statuses.has("filed") || periodState === "signed" || periodState === "filed";
+    const done = {
+      positions: confirmed.some((u) => u.periodId === period.id),
+      method: approved.length > 0,
+      run: fresh.length > 0,
+      filing: statuses.has("in_review") || signed,
+      signoff: signed,
+      file: periodState === "filed" || statuses.has("filed"),
+    };
+    out.set(period.id, { done, notes });
+  }
+  return out;
 }
 
 export interface PeriodSummary {
@@ -94,8 +106,8 @@ export interface PeriodSummary {
   filingReference: string | null;
 }
 
-async function summarise(firmId: string, period: typeof reportingPeriods.$inferSelect, holidaySet: Set<string>): Promise<PeriodSummary> {
-  const { done, notes } = await stepStatus(firmId, period);
+function summarise(period: typeof reportingPeriods.$inferSelect, status: StepStatus, holidaySet: Set<string>): PeriodSummary {
+  const { done, notes } = status;
   const steps = STEPS.map((s) => ({ ...s, done: done[s.key], ...(notes[s.key] ? { note: notes[s.key] } : {}) }));
   const next = steps.find((s) => !s.done) ?? null;
   const left = businessDaysBetween(today(), period.deadline, holidaySet);
@@ -120,7 +132,8 @@ export async function listPeriods(actor: Actor): Promise<PeriodSummary[]> {
     .where(eq(reportingPeriods.firmId, actor.firmId))
     .orderBy(desc(reportingPeriods.periodEnd));
   const { holidays: holidaySet } = await getCalendar(actor.firmId);
-  return Promise.all(rows.map((row) => summarise(actor.firmId, row, holidaySet)));
+  const statuses = await stepStatuses(actor.firmId, rows);
+  return rows.map((row) => summarise(row, statuses.get(row.id)!, holidaySet));
 }
 
 /** One period of the actor's firm; another firm's period looks absent. */
@@ -131,7 +144,8 @@ export async function getPeriod(actor: Actor, periodId: string): Promise<PeriodS
     .where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
   if (!row) throw new AppError("not_found:period", "No such reporting period.");
   const { holidays: holidaySet } = await getCalendar(actor.firmId);
-  return summarise(actor.firmId, row, holidaySet);
+  const statuses = await stepStatuses(actor.firmId, [row]);
+  return summarise(row, statuses.get(row.id)!, holidaySet);
 }
 
 /** Whether the actor's firm has this period (a cheap check for pages that answer 404 before they stream). */
