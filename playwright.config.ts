@@ -95,9 +95,11 @@ export default defineConfig({
       stderr: "pipe",
     },
     {
-      command: `node --conditions=react-server --import tsx db/seed.ts && node node_modules/next/dist/bin/next start -p ${PORT}`,
+      // The production web tier (scripts/serve.ts); E2E_WEB_CONCURRENCY=2 runs two web processes, so that a request may
+      // land on either and the suite shows the app keeps no state in one process.
+      command: `node --conditions=react-server --import tsx db/seed.ts && node --import tsx scripts/serve.ts`,
       url: `http://localhost:${PORT}/api/health`,
-      env: E2E_ENV,
+      env: { ...E2E_ENV, PORT: String(PORT), WEB_CONCURRENCY: process.env.E2E_WEB_CONCURRENCY ?? "1" },
       reuseExistingServer: false,
       timeout: 120_000,
       stdout: "ignore",

@@ -63,7 +63,8 @@ Every demo user's password: ${DEMO_PASSWORD}   (demo only)
 ${[...DEMO_USERS, ...SECOND_FIRM_USERS].map((u) => `  ${u.email.padEnd(34)} ${u.roles.join(" + ")}`).join("\n")}
 `);
 void Promise.all([startLocalUploadService(), startLocalMail()]).then(() => {
-  const server = spawn(process.execPath, [nextBin, "start", "-p", port, "-H", host], { stdio: "inherit", env: process.env });
+  // The production web tier (scripts/serve.ts): WEB_CONCURRENCY web processes, one per core unless it says otherwise.
+  const server = spawn(process.execPath, ["--import", "tsx", path.join(root, "scripts", "serve.ts")], { stdio: "inherit", env: { ...process.env, PORT: port, HOST: host } });
   startDemoReminderLoop(`http://${host === "0.0.0.0" || host === "::" ? "127.0.0.1" : host.includes(":") ? `[${host}]` : host}:${port}`);
   for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
   server.on("exit", (code) => process.exit(code ?? 0));
