@@ -183,3 +183,4 @@ export async function getDataQuality(actor: Actor, periodId: string): Promise<Da
   const key = await qualityInputsKey(getDb(), actor, periodId);
   return (await storedDataQuality(actor, periodId, key)) ?? refreshDataQuality(actor, periodId, key);
 }
+

@@ -38,10 +38,9 @@ import { storedCorrelationOf } from "@/lib/runs/stored-state";
 import { buildFilingViewModel, contentHash, FILING_STATUS_LABELS, type CorrelationView, type FilingStatus, type FilingViewModel, type SupersededSignature } from "@/reports/view-model";
 import { formatAmount, formatConfidence, formatMonth } from "@/reports/format";
 import { fragment } from "@/reports/sections";
-import { buildWordPack } from "@/reports/docx/filing-pack";
-import { buildWorkbookPack } from "@/reports/xlsx/filing-pack";
 import { packFileName } from "@/reports/file-names";
 import { filingRunOf, getRun, getRunInputs, runChange } from "./runs";
+import { enqueuePackRender, storedOrRenderPack, type PackRenderer, type PackSource } from "./packs";
 import { assertRunFresh, runFreshnessOf, type RunFreshness } from "./run-freshness";
 
 /** A filing version's stored status: the workflow states, and "superseded" for a signed version a later one replaced. */
@@ -159,6 +158,8 @@ export interface PackFile {
   fileName: string;
   contentType: string;
   bytes: Uint8Array;
+  /** SHA-256 of the bytes, hex */
+  sha256: string;
 }
 
 type FilingRow = typeof filings.$inferSelect;
@@ -234,7 +235,7 @@ function signatureView(s: SignatureRow, version: number, byId: Map<string, strin
 
 /** The stored content with the fields that change after signing (status, filing date, reference) as they are now. */
 function presentContent(row: FilingRow): FilingViewModel {
-  const vm = row.content as unknown as FilingViewModel;
+  const vm = row.content;
   const status: FilingStatus = row.status === "superseded" ? "signed" : (row.status as FilingStatus);
   return { ...vm, filing: { ...vm.filing, status, filedAt: row.filedAt, filingReference: row.filingReference } };
 }
@@ -456,7 +457,7 @@ async function changesSinceLast(actor: Actor, args: AssembleArgs, draft: FilingV
       .orderBy(desc(filings.version))
       .limit(1);
     if (!prior) continue;
-    const a = headline(prior.content as unknown as FilingViewModel);
+    const a = headline(prior.content);
     const b = headline(draft);
     const label = `${formatMonth(period.periodEnd)} (version ${prior.version}, ${prior.status})`;
     lines.push(`Capital: ${formatAmount(a.capital)} ${ccy} in the filing for ${label}, ${formatAmount(b.capital)} ${ccy} now (${signed(b.capital - a.capital)}).`);
@@ -561,7 +562,7 @@ async function previousOf(actor: Actor, row: FilingRow): Promise<AssembleArgs["p
     .select()
     .from(filings)
     .where(and(eq(filings.id, row.previousId), eq(filings.firmId, actor.firmId)));
-  return prev ? { version: prev.version, content: prev.content as unknown as FilingViewModel, runId: prev.runId, coverNote: prev.coverNote } : null;
+  return prev ? { version: prev.version, content: prev.content, runId: prev.runId, coverNote: prev.coverNote } : null;
 }
 
 async function supersededOf(actor: Actor, periodId: string): Promise<SupersededSignature[]> {
@@ -580,7 +581,7 @@ async function supersededOf(actor: Actor, periodId: string): Promise<SupersededS
 async function rebuild(actor: Actor, row: FilingRow, changes: { run?: RunRecord; coverNote?: string; explanations?: Record<string, string>; status?: FilingStatus; submittedBy?: string | null }) {
   const period = await findPeriod(actor, row.periodId);
   const run = changes.run ?? (await getRun(actor, row.runId));
-  const current = row.content as unknown as FilingViewModel;
+  const current = row.content;
   return assemble(actor, {
     period,
     run,
@@ -635,8 +636,9 @@ export async function prepareFiling(actor: Actor, periodId: string, input: Prepa
       if (clash) throw raced();
       const [row] = await tx
         .insert(filings)
-        .values({ firmId: actor.firmId, periodId, runId: run.id, version: 1, status: "draft", content: content as unknown as Record<string, unknown>, coverNote, preparedBy: actor.userId })
+        .values({ firmId: actor.firmId, periodId, runId: run.id, version: 1, status: "draft", content, coverNote, preparedBy: actor.userId })
         .returning({ id: filings.id });
+      await enqueuePackRender(tx, actor.firmId, [row.id]);
       await recordAudit(tx, actor, {
         action: "filing.prepare",
         entityType: "filing",
@@ -649,16 +651,17 @@ export async function prepareFiling(actor: Actor, periodId: string, input: Prepa
     return getFiling(actor, id);
   }
 
-  const before = existing.content as unknown as FilingViewModel;
+  const before = existing.content;
   const exceptionDates = new Set(run.results!.monthEnd.backtest.exceptionList.map((e) => e.date));
   const kept = Object.fromEntries(Object.entries(explanationsOf(before)).filter(([d]) => exceptionDates.has(d)));
   const dropped = Object.keys(explanationsOf(before)).filter((d) => !exceptionDates.has(d));
   const coverNote = input.coverNote ?? existing.coverNote;
   const content = await rebuild(actor, existing, { run, coverNote, explanations: kept });
   await getDb().transaction(async (tx) => {
+    await enqueuePackRender(tx, actor.firmId, [existing.id]);
     const updated = await tx
       .update(filings)
-      .set({ runId: run.id, content: content as unknown as Record<string, unknown>, coverNote })
+      .set({ runId: run.id, content, coverNote })
       .where(and(eq(filings.id, existing.id), eq(filings.firmId, actor.firmId), eq(filings.status, existing.status)))
       .returning({ id: filings.id });
     if (!updated.length) throw raced();
@@ -678,7 +681,7 @@ export async function updateFiling(actor: Actor, filingId: string, input: Update
   const row = await findRow(actor, filingId);
   if (LOCKED.includes(row.status as FilingRowStatus)) throw new AppError("conflict:filing_locked", lockedMessage(row));
   if (row.status === "in_review") throw new AppError("conflict:filing", `Version ${row.version} is in review; the compliance head requests changes before it can be edited again.`);
-  const current = row.content as unknown as FilingViewModel;
+  const current = row.content;
   const exceptionDates = new Set(current.figures.backtest.exceptionList.map((e) => e.date));
   const explanations = explanationsOf(current);
   if (input.explanations) {
@@ -693,9 +696,10 @@ export async function updateFiling(actor: Actor, filingId: string, input: Update
   const coverNote = input.coverNote !== undefined ? input.coverNote.trim() : row.coverNote;
   const content = await rebuild(actor, row, { coverNote, explanations });
   await getDb().transaction(async (tx) => {
+    await enqueuePackRender(tx, actor.firmId, [row.id]);
     const updated = await tx
       .update(filings)
-      .set({ coverNote, content: content as unknown as Record<string, unknown> })
+      .set({ coverNote, content })
       .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId), eq(filings.status, row.status)))
       .returning({ id: filings.id });
     if (!updated.length) throw raced();
@@ -735,9 +739,10 @@ export async function submitFiling(actor: Actor, filingId: string, input: Submit
   const content = await rebuild(actor, row, { run: marked, status: "in_review", submittedBy: actor.userId });
   const note = input.note.trim();
   await getDb().transaction(async (tx) => {
+    await enqueuePackRender(tx, actor.firmId, [row.id]);
     const updated = await tx
       .update(filings)
-      .set({ status: "in_review", submittedBy: actor.userId, content: content as unknown as Record<string, unknown> })
+      .set({ status: "in_review", submittedBy: actor.userId, content })
       .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId), eq(filings.status, row.status)))
       .returning({ id: filings.id });
     if (!updated.length) throw raced();
@@ -791,6 +796,7 @@ export async function requestChanges(actor: Actor, filingId: string, input: Requ
     throw new AppError("conflict:filing", row.status === "changes_requested" ? `Changes to version ${row.version} are already requested.` : `Version ${row.version} has not been submitted for review.`);
   }
   await getDb().transaction(async (tx) => {
+    await enqueuePackRender(tx, actor.firmId, [row.id]);
     const updated = await tx
       .update(filings)
       .set({ status: "changes_requested" })
@@ -901,7 +907,7 @@ export async function signFiling(actor: Actor, filingId: string, input: SignFili
   await assertRunFresh(actor, marked.id, "be signed");
 
   // the content exactly as stored, signed over its canonical form
-  const stored = row.content as unknown as FilingViewModel;
+  const stored = row.content;
   const hash = contentHash(stored);
   const signedAt = now().toISOString();
   const signOff = { signerName: actor.name, licenceReference: input.licenceReference.trim(), signedAt, contentHash: hash };
@@ -910,13 +916,14 @@ export async function signFiling(actor: Actor, filingId: string, input: SignFili
   const attestation = attestationText();
   const period = await findPeriod(actor, row.periodId);
   await getDb().transaction(async (tx) => {
+    await enqueuePackRender(tx, actor.firmId, [row.id]);
     // the stored content is checked unchanged since it was read, then signed
     const [now] = await tx.select({ content: filings.content, status: filings.status }).from(filings).where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId)));
-    if (!now || now.status !== "in_review" || contentHash(now.content as unknown as FilingViewModel) !== hash) throw raced();
+    if (!now || now.status !== "in_review" || contentHash(now.content) !== hash) throw raced();
     await tx.insert(signatures).values({ firmId: actor.firmId, filingId: row.id, signerId: actor.userId, signerName: actor.name, licenceReference: signOff.licenceReference, contentHash: hash, signedAt, attestation });
     await tx
       .update(filings)
-      .set({ status: "signed", content: signedContent as unknown as Record<string, unknown> })
+      .set({ status: "signed", content: signedContent })
       .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId)));
     await tx.update(reportingPeriods).set({ state: "signed" }).where(and(eq(reportingPeriods.id, row.periodId), eq(reportingPeriods.firmId, actor.firmId)));
     await recordAudit(tx, actor, {
@@ -945,7 +952,7 @@ export async function newFilingVersion(actor: Actor, filingId: string, input: Ne
   const period = await findPeriod(actor, row.periodId);
   const reason = input.reason.trim();
   const run = await markedCompletedRun(actor, period);
-  const old = row.content as unknown as FilingViewModel;
+  const old = row.content;
   const supersededAt = now().toISOString();
   const [sig] = (await signaturesOf(actor, [row.id])).filter((s) => s.supersededAt === null);
   const earlier = await supersededOf(actor, row.periodId);
@@ -990,12 +997,13 @@ export async function newFilingVersion(actor: Actor, filingId: string, input: Ne
         version: row.version + 1,
         previousId: row.id,
         status: "draft",
-        content: content as unknown as Record<string, unknown>,
+        content,
         coverNote: row.coverNote,
         reason,
         preparedBy: actor.userId,
       })
       .returning({ id: filings.id });
+    await enqueuePackRender(tx, actor.firmId, [row.id, created.id]);
     await tx.update(reportingPeriods).set({ state: "open" }).where(and(eq(reportingPeriods.id, row.periodId), eq(reportingPeriods.firmId, actor.firmId)));
     await recordAudit(tx, actor, {
       action: "filing.new_version",
@@ -1028,6 +1036,7 @@ export async function markFiled(actor: Actor, filingId: string, input: MarkFiled
   const reference = input.reference.trim();
   const period = await findPeriod(actor, row.periodId);
   await getDb().transaction(async (tx) => {
+    await enqueuePackRender(tx, actor.firmId, [row.id]);
     const updated = await tx
       .update(filings)
       .set({ status: "filed", filedAt: input.filedOn, filingReference: reference })
@@ -1055,7 +1064,7 @@ export async function verifyFiling(actor: Actor, filingId: string): Promise<Veri
   const [sig] = (await signaturesOf(actor, [row.id])).sort((a, b) => (a.supersededAt === null ? -1 : b.supersededAt === null ? 1 : 0));
   let recomputed: string;
   try {
-    recomputed = contentHash(row.content as unknown as FilingViewModel);
+    recomputed = contentHash(row.content);
   } catch {
     recomputed = createHash("sha256").update(JSON.stringify(row.content)).digest("hex");
   }
@@ -1085,22 +1094,37 @@ export async function verifyFiling(actor: Actor, filingId: string): Promise<Veri
 /** The file name of a pack (reports/file-names.ts), e.g. northmoor-2026-11-v2-draft.docx. */
 export { packFileName };
 
-/** Build one of the two packs of a filing version for download, and record the download in the audit trail. */
-export async function downloadPack(actor: Actor, filingId: string, kind: PackKind): Promise<PackFile> {
+/** What a filing version's packs are rendered from, as it is now (lib/data/packs.ts); another firm's is not found. */
+export async function packSource(actor: Actor, filingId: string): Promise<PackSource> {
   const row = await findRow(actor, filingId);
   const [firm, period] = await Promise.all([firmOf(actor), findPeriod(actor, row.periodId)]);
-  const vm = presentContent(row);
-  const built = kind === "docx" ? await buildWordPack(vm) : await buildWorkbookPack(vm);
-  const bytes = built instanceof Uint8Array ? built : new Uint8Array(built as ArrayBuffer);
-  const fileName = packFileName(firm.slug, period.periodEnd, row.version, row.status as FilingRowStatus, kind);
+  const status = row.status as FilingRowStatus;
+  return {
+    firmId: actor.firmId,
+    filingId: row.id,
+    version: row.version,
+    status,
+    state: status === "signed" || status === "filed" || status === "superseded" ? status : "draft",
+    content: presentContent(row),
+    fileName: (kind) => packFileName(firm.slug, period.periodEnd, row.version, status, kind),
+  };
+}
+
+/**
+ * One of the two packs of a filing version for download: the stored bytes of this version, state and content, or
+ * rendered once, stored and served (lib/data/packs.ts); each download is recorded in the audit trail.
+ */
+export async function downloadPack(actor: Actor, filingId: string, kind: PackKind, render?: PackRenderer): Promise<PackFile> {
+  const source = await packSource(actor, filingId);
+  const pack = await storedOrRenderPack(source, kind, render);
   await getDb().transaction(async (tx) => {
     await recordAudit(tx, actor, {
       action: "filing.download",
       entityType: "filing",
-      entityId: row.id,
-      summary: `Downloaded the ${PACK_KINDS[kind].label} pack ${fileName}`,
-      detail: { kind, fileName, version: row.version, status: row.status, bytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex") },
+      entityId: source.filingId,
+      summary: `Downloaded the ${PACK_KINDS[kind].label} pack ${pack.fileName}`,
+      detail: { kind, fileName: pack.fileName, version: source.version, status: source.status, bytes: pack.bytes.byteLength, sha256: pack.sha256 },
     });
   });
-  return { fileName, contentType: PACK_KINDS[kind].contentType, bytes };
+  return { fileName: pack.fileName, contentType: PACK_KINDS[kind].contentType, bytes: pack.bytes, sha256: pack.sha256 };
 }

@@ -13,6 +13,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { now } from "@/lib/clock";
 import { CHECK_LABELS, CONFIRMABLE_CHECKS, type QualityItem } from "@/lib/uploads/data-quality";
 import type { QualityConfirmInput } from "@/lib/validation/quality";
+import { enqueueQualityRefresh } from "./quality-jobs";
 
 /** The key of a finding: its dates, sorted and joined ("" for none). */
 export function itemKeyOf(item: Pick<QualityItem, "dates">): string {
@@ -67,6 +68,8 @@ export async function confirmQualityItem(actor: Actor, periodId: string, input: 
       detail: { periodId, check: input.check, instrument: input.instrument, dates: item.dates ?? [], reason },
       at,
     });
+    // the report carries confirmations: the worker computes it again
+    await enqueueQualityRefresh(tx, actor.firmId, [periodId]);
   });
   return { check: input.check, instrument: input.instrument, by: actor.name, at, reason };
 }

@@ -21,6 +21,7 @@ import { ATTRIBUTE_SQL_COLUMNS, attributeSqlValues } from "@/lib/uploads/positio
 import type { StandardisedProfile } from "@/lib/risk/standardised";
 import { standardisedProfileOfRow } from "./capital-profile";
 import { assertPeriodTakesData } from "./periods";
+import { enqueueQualityRefresh, periodsTakingPrices } from "./quality-jobs";
 
 export type UploadKind = "positions" | "prices";
 
@@ -404,6 +405,8 @@ export async function confirmUpload(actor: Actor, uploadId: string, input: { ack
         summary: `Confirmed ${stored} positions from "${row.fileName}"${superseded.length ? ` (supersedes ${superseded.length} earlier upload)` : ""}`,
         detail: { ...result, warningsAcknowledged: warnings, sha256: row.sha256 },
       });
+      // the period's data-quality report reads these positions: the worker computes it again
+      await enqueueQualityRefresh(tx, actor.firmId, [periodId]);
       return result;
     }
     if (parsed.kind === "prices") {
@@ -461,6 +464,8 @@ export async function confirmUpload(actor: Actor, uploadId: string, input: { ack
         summary: `Confirmed price history from "${row.fileName}": ${result.added} new, ${result.corrected} corrected, ${unchanged} unchanged`,
         detail: { ...result, warningsAcknowledged: warnings, sha256: row.sha256 },
       });
+      // every open period's data-quality report reads the price history: the worker computes them again
+      await enqueueQualityRefresh(tx, actor.firmId, await periodsTakingPrices(tx, actor.firmId));
       return result;
     }
     throw new AppError("unprocessable:upload", "This file could not be read.");

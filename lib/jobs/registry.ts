@@ -13,10 +13,14 @@
 import type { JobKind } from "./types";
 import { runJob } from "./kinds/run";
 import { remindersJob } from "./kinds/reminders";
+import { dataQualityJob } from "./kinds/data-quality";
+import { packRenderJob } from "./kinds/pack-render";
 
 export const JOB_KINDS: Record<string, JobKind> = {
   run: runJob,
   reminders: remindersJob,
+  "data-quality": dataQualityJob,
+  "pack-render": packRenderJob,
 };
 
 export type { JobKind, JobContext } from "./types";
