@@ -9,7 +9,7 @@
  */
 import { format } from "date-fns";
 
-const globalForClock = globalThis as unknown as { ballastStampClock?: Date | null };
+const globalForClock: typeof globalThis & { ballastStampClock?: Date | null } = globalThis;
 
 /** The real time of an act, for every stored timestamp (or the time a history-writing script set). */
 export function now(): Date {

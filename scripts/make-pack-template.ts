@@ -37,7 +37,7 @@ import {
   TITLE_STYLE,
   headerText,
 } from "@/reports/xlsx/layout";
-import type { PackWorkbook } from "@/reports/xlsx/workbook-types";
+import { asPackWorkbook } from "@/reports/xlsx/workbook-types";
 import { withSharedStyles } from "@/reports/xlsx/shared-styles";
 
 const TEMPLATE_PATH = path.join(process.cwd(), "templates", "filing-pack.xlsx");
@@ -46,7 +46,7 @@ const TEMPLATE_PATH = path.join(process.cwd(), "templates", "filing-pack.xlsx");
 const TEMPLATE_MARKING = "DRAFT — NOT SIGNED";
 
 async function makePackTemplate(): Promise<Buffer> {
-  const wb = (await XlsxPopulate.fromBlankAsync()) as unknown as PackWorkbook;
+  const wb = asPackWorkbook(await XlsxPopulate.fromBlankAsync());
   const first = wb.sheet(0)!;
   first.name(SHEETS[0]);
   for (const name of SHEETS.slice(1)) wb.addSheet(name);

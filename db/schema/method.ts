@@ -2,6 +2,7 @@ import { sqliteTable, text, integer, real, uniqueIndex } from "drizzle-orm/sqlit
 import { id, createdAt, firmColumns } from "../columns";
 import type { MethodEvidence } from "../../lib/method/evidence";
 import type { MethodContent } from "../../lib/validation/method";
+import type { StandardisedProfile } from "../../lib/risk/standardised/types";
 
 /** A version of the firm's method statement. Approved versions never change; a change is a new version. */
 export const methodStatements = sqliteTable(
@@ -50,7 +51,7 @@ export const capitalRuleProfiles = sqliteTable(
     /** which of the computed figures is the one filed: "internal_models" or "standardised" */
     filedRegime: text("filed_regime").notNull().default("internal_models"),
     /** the standardised building blocks' rates and choices (lib/validation/capital-profile.ts), null: the defaults */
-    standardised: text("standardised", { mode: "json" }).$type<Record<string, unknown> | null>(),
+    standardised: text("standardised", { mode: "json" }).$type<StandardisedProfile | null>(),
     /** show the risk-weighted-asset equivalent (capital × 12.5) beside the filed figure */
     showRwa: integer("show_rwa", { mode: "boolean" }).notNull().default(false),
     /** why this version was made */

@@ -7,7 +7,7 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
 import { and, count, eq, gte, inArray, isNull } from "drizzle-orm";
-import { getDb, type Tx } from "@/db/client";
+import { getDb, type Database, type Tx } from "@/db/client";
 import { accountRequests, accountTokens, auditEvents, calendarSettings, capitalRuleProfiles, firms, installSteps, memberships, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
@@ -383,7 +383,7 @@ export async function setPasswordWithToken(token: string, purpose: TokenPurpose,
   });
 }
 
-async function memberFirmIds(tx: Tx, userId: string): Promise<string[]> {
+async function memberFirmIds(tx: Tx | Database, userId: string): Promise<string[]> {
   const rows = await tx.select({ firmId: memberships.firmId }).from(memberships).where(and(eq(memberships.userId, userId), eq(memberships.active, true)));
   return rows.map((r) => r.firmId);
 }
@@ -406,7 +406,7 @@ export async function requestPasswordReset(email: string, address: string): Prom
     const db = getDb();
     const [user] = await db.select().from(users).where(eq(users.email, normalised));
     if (!user || !user.active) return;
-    const firmIds = await memberFirmIds(db as unknown as Tx, user.id);
+    const firmIds = await memberFirmIds(db, user.id);
     if (firmIds.length === 0) return;
     const issued = await db.transaction(async (tx) => {
       const fresh = await issueToken(tx, { userId: user.id, firmId: null, purpose: "reset", createdBy: null });

@@ -59,7 +59,7 @@ function filedOf(row: Row): CapitalRegime {
 
 /** The engine's standardised profile a stored row carries, with its RWA choice. */
 export function standardisedProfileOfRow(row: Pick<Row, "standardised" | "showRwa">): StandardisedProfile {
-  const stored = row.standardised as StandardisedProfile | null;
+  const stored = row.standardised;
   return { ...(stored ?? STANDARDISED_1996_PROFILE), showRwa: row.showRwa };
 }
 
@@ -141,7 +141,7 @@ function columnsOf(input: CapitalProfileValues) {
     regimes: input.regimes,
     filedRegime: input.filedRegime,
     showRwa: input.showRwa,
-    standardised: engineStandardisedProfile(input.standardised, input.showRwa) as unknown as Record<string, unknown>,
+    standardised: engineStandardisedProfile(input.standardised, input.showRwa),
   };
 }
 

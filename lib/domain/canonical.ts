@@ -12,6 +12,11 @@
  */
 import { createHash } from "node:crypto";
 
+/** A typed array (Float64Array and friends): written as the plain array of its numbers. */
+function isTypedArray(value: object): value is ArrayLike<number | bigint> {
+  return ArrayBuffer.isView(value) && !(value instanceof DataView);
+}
+
 /** Canonical JSON of a JSON-safe value. @throws {TypeError} naming the path of a value with no canonical form */
 export function canonicalJson(value: unknown, path = "$"): string {
   if (value === null || value === undefined) return "null";
@@ -25,9 +30,7 @@ export function canonicalJson(value: unknown, path = "$"): string {
       return JSON.stringify(value);
     case "object": {
       if (Array.isArray(value)) return `[${value.map((v, i) => canonicalJson(v, `${path}[${i}]`)).join(",")}]`;
-      if (ArrayBuffer.isView(value) && !(value instanceof DataView)) {
-        return canonicalJson(Array.from(value as unknown as ArrayLike<number | bigint>), path);
-      }
+      if (isTypedArray(value)) return canonicalJson(Array.from(value), path);
       const proto = Object.getPrototypeOf(value);
       if (proto !== Object.prototype && proto !== null) {
         throw new TypeError(`canonicalJson: ${path} is a ${proto?.constructor?.name ?? "non-plain object"}, not a plain object, so it has no JSON form`);

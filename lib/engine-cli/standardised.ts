@@ -64,7 +64,7 @@ export function readStandardisedPositions(path: string | undefined): Standardise
     throw new CliError(`${FLAG}: missing column "instrument_type" (or "asset_class" to infer it from) (columns: ${table.header.join(", ")})`);
   }
   return table.rows.map((row, r) => {
-    const p: Record<string, unknown> = {};
+    const p: Partial<Record<keyof StandardisedPosition, unknown>> = {};
     for (const [field, i] of index) {
       const cell = (row[i] ?? "").trim();
       if (cell === "") continue;
@@ -80,7 +80,8 @@ export function readStandardisedPositions(path: string | undefined): Standardise
       }
       p.instrumentType = inferred;
     }
-    return p as unknown as StandardisedPosition;
+    // numbers are checked above; the engine validates every other field by row, field and column
+    return p as StandardisedPosition;
   });
 }
 
@@ -110,7 +111,9 @@ function overlay(base: Json, given: Json, path: string): Json {
   return given;
 }
 
-function checkProfile(p: StandardisedProfile): void {
+function checkProfile(value: unknown): asserts value is StandardisedProfile {
+  // the overlay kept the defaults' shape and types; the choices and bands are checked here, field by field
+  const p = value as StandardisedProfile;
   if (!["maturity", "duration"].includes(p.interestRate.method)) throw new CliError(`--profile: interestRate.method must be maturity or duration`);
   if (!["simplified", "maturity"].includes(p.commodities.method)) throw new CliError(`--profile: commodities.method must be simplified or maturity`);
   const bands = p.interestRate.bands;
@@ -142,7 +145,7 @@ export function readProfile(path: string | undefined): StandardisedProfile {
     throw new CliError(`--profile: ${path} is not JSON (${error instanceof Error ? error.message : String(error)})`);
   }
   if (raw && typeof raw === "object" && !Array.isArray(raw) && "standardised" in raw) raw = raw.standardised;
-  const profile = overlay(STANDARDISED_1996_PROFILE as unknown as Json, raw, "profile") as unknown as StandardisedProfile;
+  const profile: unknown = overlay(JSON.parse(JSON.stringify(STANDARDISED_1996_PROFILE)) as Json, raw, "profile");
   checkProfile(profile);
   return profile;
 }

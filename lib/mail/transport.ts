@@ -66,7 +66,7 @@ export function createMailer(config: MailConfig): Mailer {
   };
 }
 
-const globalForMail = globalThis as unknown as { ballastMailer?: { key: string; mailer: Mailer } };
+const globalForMail: typeof globalThis & { ballastMailer?: { key: string; mailer: Mailer } } = globalThis;
 
 /** The process-wide mailer for the configured SMTP settings, or null when none are set. */
 export function getMailer(): Mailer | null {

@@ -84,6 +84,13 @@ export function isIsoCurrency(code: string): boolean {
   return isoCurrencies.has(code);
 }
 
+/** Each field's header aliases, from a field table ({ field: { aliases, … } }). */
+export function aliasesOf<F extends string>(fields: Record<F, { aliases: readonly string[] }>): Record<F, readonly string[]> {
+  const out = {} as Record<F, readonly string[]>;
+  for (const field of Object.keys(fields) as F[]) out[field] = fields[field].aliases;
+  return out;
+}
+
 /** Match required fields to header columns by their aliases, then by a person's explicit mapping. */
 export function matchColumns<F extends string>(
   header: readonly string[],

@@ -3,7 +3,7 @@
  * Pure: no database, no clock (today is passed in).
  */
 import { z } from "zod";
-import { isIsoCurrency, matchColumns, readDate, readNumber, readText } from "./cells";
+import { aliasesOf, isIsoCurrency, matchColumns, readDate, readNumber, readText } from "./cells";
 import { figureOutOfBounds } from "./limits";
 import { ASSET_CLASSES, parseAssetClass } from "./asset-classes";
 import type { Problem, RawTable, ReadOptions } from "./types";
@@ -164,7 +164,7 @@ export function chooseTable(tables: readonly RawTable[], fields: Record<string, 
 
 /** Parse and validate a positions table. */
 export function parsePositions(table: RawTable, options: ReadOptions, context: PositionParseContext): PositionsParse {
-  const aliases = Object.fromEntries(Object.entries(POSITION_FIELDS).map(([k, v]) => [k, v.aliases])) as unknown as Record<PositionField, readonly string[]>;
+  const aliases = aliasesOf<PositionField>(POSITION_FIELDS);
   const { index, unmatchedHeaders } = matchColumns(table.header, aliases, options.mapping);
   const missingColumns = REQUIRED_POSITION_FIELDS.filter((f) => index[f] === undefined);
   const problems: Problem[] = [];

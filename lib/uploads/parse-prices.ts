@@ -4,7 +4,7 @@
  * Pure: no database, no clock (today is passed in).
  */
 import { z } from "zod";
-import { matchColumns, normaliseHeader, readDate, readNumber, readText } from "./cells";
+import { aliasesOf, matchColumns, normaliseHeader, readDate, readNumber, readText } from "./cells";
 import { figureOutOfBounds } from "./limits";
 import type { Problem, RawTable, ReadOptions } from "./types";
 
@@ -54,7 +54,7 @@ function summarise(points: readonly PricePoint[]): PricesParse["summary"] {
 
 /** Long when the header names an instrument column and a close column; wide when it starts with a date column. */
 export function detectPriceLayout(header: readonly string[], mapping?: Record<string, string>): "long" | "wide" | null {
-  const aliases = Object.fromEntries(Object.entries(PRICE_FIELDS).map(([k, v]) => [k, v.aliases])) as unknown as Record<PriceField, readonly string[]>;
+  const aliases = aliasesOf<PriceField>(PRICE_FIELDS);
   const { index } = matchColumns(header, aliases, mapping);
   if (index.date !== undefined && index.instrument !== undefined && index.close !== undefined) return "long";
   if (index.date !== undefined && header.length >= 2) return "wide";
@@ -75,7 +75,7 @@ export function parsePrices(table: RawTable, options: ReadOptions, context: { to
     problems.push({ row: null, field: null, severity: "error", message: "The file has a header but no price rows." });
     return { ...base, missingColumns: [], summary: summarise([]) };
   }
-  const aliases = Object.fromEntries(Object.entries(PRICE_FIELDS).map(([k, v]) => [k, v.aliases])) as unknown as Record<PriceField, readonly string[]>;
+  const aliases = aliasesOf<PriceField>(PRICE_FIELDS);
   const { index } = matchColumns(table.header, aliases, options.mapping);
   const dateIndex = index.date!;
   const seen = new Map<string, number>();

@@ -182,7 +182,7 @@ export function standardisedPositionOf(p: PositionForBlocks, reportingCurrency?:
   for (const key of POSITION_ATTRIBUTE_KEYS) {
     if (key === "instrumentType") continue;
     const value = a[key];
-    if (value !== undefined) (out as unknown as Record<string, unknown>)[key] = value;
+    if (value !== undefined) Object.assign(out, { [key]: value });
   }
   if (instrumentType === "option" && out.quantity === undefined) out.quantity = p.quantity;
   return out;

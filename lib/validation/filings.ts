@@ -89,7 +89,8 @@ export type RequestChangesInput = z.infer<typeof requestChangesSchema>;
 export const signFilingSchema = z
   .object({
     password: z.string({ message: "Enter your password." }).min(1, "Enter your password.").max(200, "At most 200 characters."),
-    attest: z.literal(true, { message: "Tick the attestation to sign." }),
+    // a boolean that must be ticked (not a literal `true`, so that the form can start unticked without a cast)
+    attest: z.boolean({ message: "Tick the attestation to sign." }).refine((ticked) => ticked, "Tick the attestation to sign."),
     signerName: z.string({ message: "Type your name." }).trim().min(2, "Type your full name.").max(120, "At most 120 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
     licenceReference: z.string({ message: "Enter your reference." }).trim().min(2, "Enter your licence or registration reference.").max(80, "At most 80 characters.").refine(isCleanLine, CONTROL_CHARACTER_MESSAGE),
   })

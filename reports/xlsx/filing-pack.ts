@@ -34,7 +34,7 @@ import {
   type SheetName,
   type ValueKind,
 } from "./layout";
-import type { PackCell, PackSheet, PackWorkbook } from "./workbook-types";
+import { asPackWorkbook, type PackCell, type PackSheet, type PackWorkbook } from "./workbook-types";
 import { regulatoryCapitalOf } from "../regulatory-capital-text";
 import { withSharedStyles } from "./shared-styles";
 
@@ -198,7 +198,7 @@ export async function buildWorkbookPack(vm: FilingViewModel, options: WorkbookPa
   if (vm.signOff && vm.signOff.contentHash !== contentHash(vm)) {
     throw new Error("The signature's content hash does not match this filing's content: the pack is not built for content that differs from what was signed.");
   }
-  const wb = (await XlsxPopulate.fromFileAsync(options.templatePath ?? TEMPLATE_PATH)) as unknown as PackWorkbook;
+  const wb = asPackWorkbook(await XlsxPopulate.fromFileAsync(options.templatePath ?? TEMPLATE_PATH));
   const f = vm.figures;
   const ccy = f.currency;
   const H = f.horizonDays;

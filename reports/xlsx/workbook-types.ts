@@ -1,7 +1,7 @@
 /**
  * The part of xlsx-populate's API the filing pack and its template script use, typed here (lib/xlsx-populate.d.ts
  * covers what the upload readers use, and its interfaces are not open to merging). Workbooks from
- * `XlsxPopulate.fromFileAsync` / `fromBlankAsync` / `fromDataAsync` are cast to `PackWorkbook` once.
+ * `XlsxPopulate.fromFileAsync` / `fromBlankAsync` / `fromDataAsync` give a `PackWorkbook` through `asPackWorkbook`.
  */
 export type StyleValues = Record<string, unknown>;
 
@@ -70,4 +70,17 @@ export interface PackWorkbook {
   definedName(name: string): PackCell | undefined;
   definedName(name: string, refersTo: PackCell): PackWorkbook;
   outputAsync(): Promise<Buffer | Uint8Array>;
+}
+
+/** Whether a value is a workbook with the API above (xlsx-populate publishes no types; its objects are checked here). */
+function isPackWorkbook(value: unknown): value is PackWorkbook {
+  if (typeof value !== "object" || value === null) return false;
+  const methods = ["sheets", "sheet", "addSheet", "definedName", "outputAsync"] as const;
+  return methods.every((name) => typeof Reflect.get(value, name) === "function");
+}
+
+/** A workbook xlsx-populate opened, as a PackWorkbook. @throws when it is not one */
+export function asPackWorkbook(value: unknown): PackWorkbook {
+  if (!isPackWorkbook(value)) throw new TypeError("xlsx-populate returned something that is not a workbook");
+  return value;
 }

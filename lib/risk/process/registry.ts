@@ -237,8 +237,8 @@ export function volatilityProcess<K extends VolatilityKind>(kind: K): Volatility
   return p as VolatilityProcess<Extract<VolatilitySpec, { kind: K }>>;
 }
 
-// the registry entries take their own spec type; a spec of unknown kind goes through this one cast
-const anyProcess = (spec: VolatilitySpec): VolatilityProcess<VolatilitySpec> => volatilityProcess(spec.kind) as unknown as VolatilityProcess<VolatilitySpec>;
+// the registry entries take their own spec type; their methods are bivariant, so any one serves a spec of its kind
+const anyProcess = (spec: VolatilitySpec): VolatilityProcess<VolatilitySpec> => volatilityProcess(spec.kind);
 
 /**
  * Check a spec is well formed, naming the setting. @throws {RangeError}

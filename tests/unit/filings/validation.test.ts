@@ -22,6 +22,9 @@ describe("schemas", () => {
       "licenceReference: Enter your licence or registration reference.",
     ]);
     expect(signFilingSchema.safeParse({ password: "x", attest: true, signerName: "Helen Marsh", licenceReference: "AB-1" }).success).toBe(true);
+    // the attestation is a ticked box: neither "yes" nor a missing box passes, with the same message
+    expect(firstMessage(signFilingSchema.safeParse({ password: "x", attest: "yes", signerName: "Helen Marsh", licenceReference: "AB-1" }))).toEqual(["attest: Tick the attestation to sign."]);
+    expect(firstMessage(signFilingSchema.safeParse({ password: "x", signerName: "Helen Marsh", licenceReference: "AB-1" }))).toEqual(["attest: Tick the attestation to sign."]);
     expect(firstMessage(signFilingSchema.safeParse({ password: "x", attest: true, signerName: "Helen Marsh", licenceReference: "AB-1", extra: 1 }))).toHaveLength(1);
   });
 

@@ -7,12 +7,12 @@ import { DRAFT_CAUTION } from "@/app/_components/draft-caution";
 import { excelSerialDate, excelSerialTimestamp } from "@/reports/format";
 import { buildWorkbookPack } from "@/reports/xlsx/filing-pack";
 import { COLUMNS, FREEZE, NUMBER_FORMATS, SHEETS, SUMMARY_ITEMS, SUMMARY_VAR_HEADER_ROW, headerText, type SheetName } from "@/reports/xlsx/layout";
-import type { PackCell, PackSheet, PackWorkbook } from "@/reports/xlsx/workbook-types";
+import { asPackWorkbook, type PackCell, type PackSheet, type PackWorkbook } from "@/reports/xlsx/workbook-types";
 import type { FilingViewModel } from "@/reports/view-model";
 import { FORMULA_TEXT, packFixture } from "./fixture";
 
 async function open(bytes: Buffer): Promise<PackWorkbook> {
-  return (await XlsxPopulate.fromDataAsync(bytes)) as unknown as PackWorkbook;
+  return asPackWorkbook(await XlsxPopulate.fromDataAsync(bytes));
 }
 
 /** Data rows of a sheet's table (from row 5) as [value, number format] per cell, up to the first empty row. */

@@ -13,7 +13,7 @@ import XlsxPopulate from "xlsx-populate";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { buildWorkbookPack } from "@/reports/xlsx/filing-pack";
 import { remapSheet, shareStyles } from "@/reports/xlsx/shared-styles";
-import type { PackWorkbook } from "@/reports/xlsx/workbook-types";
+import { asPackWorkbook } from "@/reports/xlsx/workbook-types";
 import { packFixture } from "./fixture";
 
 // the first Python on the path, else the system's (Debian's python3-openpyxl installs there)
@@ -68,7 +68,7 @@ describe("shared cell styles", () => {
   });
 
   it("keeps every cell's value and number format (read back with xlsx-populate)", async () => {
-    const wb = (await XlsxPopulate.fromDataAsync(bytes)) as unknown as PackWorkbook;
+    const wb = asPackWorkbook(await XlsxPopulate.fromDataAsync(bytes));
     const positions = wb.sheet("Positions")!;
     expect(typeof positions.cell(5, 4).value()).toBe("number");
     expect(positions.cell(5, 4).style("numberFormat")).toBe("#,##0;-#,##0");
@@ -90,7 +90,7 @@ describe(`a standard Python reader opens the pack${reason}`, () => {
     ].join("\n");
     writeFileSync(path.join(dir, "read.py"), script);
     const read = JSON.parse(execFileSync(python!, [path.join(dir, "read.py"), file], { encoding: "utf8" })) as Record<string, { A2: unknown; D5: unknown; D5format: string; rows: number }>;
-    const wb = (await XlsxPopulate.fromDataAsync(readFileSync(file))) as unknown as PackWorkbook;
+    const wb = asPackWorkbook(await XlsxPopulate.fromDataAsync(readFileSync(file)));
     expect(Object.keys(read)).toEqual(wb.sheets().map((s) => s.name()));
     for (const name of Object.keys(read)) expect(read[name].A2, name).toBe("DRAFT — NOT SIGNED");
     expect(read.Positions.D5).toBe(wb.sheet("Positions")!.cell(5, 4).value());

@@ -220,7 +220,7 @@ export function SignDialog({
     formState: { errors },
   } = useForm<SignFilingInput>({
     resolver: zodResolver(signFilingSchema),
-    defaultValues: { password: "", attest: false as unknown as true, signerName: "", licenceReference: lastReference ?? "" },
+    defaultValues: { password: "", attest: false, signerName: "", licenceReference: lastReference ?? "" },
   });
   const [open, setOpen] = useState(false);
   useEffect(() => {
