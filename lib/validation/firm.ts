@@ -51,4 +51,7 @@ export const memberUpdateSchema = z
   .refine((v) => v.roles !== undefined || v.active !== undefined, "Send roles, active, or both.");
 export type MemberUpdateInput = z.infer<typeof memberUpdateSchema>;
 
-export const idParam = (name: string) => z.object({ [name]: z.string().uuid() });
+/** A route's `[name]` segment as a UUID, typed by its name (so that `params.periodId` is a string without a cast). */
+export function idParam<K extends string>(name: K) {
+  return z.object({ [name]: z.string().uuid() } as { [P in K]: z.ZodString });
+}

@@ -5,5 +5,5 @@ import { idParam, memberUpdateSchema } from "@/lib/validation/firm";
 /** Change a member's roles, or deactivate / reactivate them (administrators). */
 export const PATCH = route(
   { permission: "users.manage", params: idParam("memberId"), body: memberUpdateSchema },
-  async ({ actor, params, body }) => ({ member: await updateMember(actor, params.memberId as string, body) }),
+  async ({ actor, params, body }) => ({ member: await updateMember(actor, params.memberId, body) }),
 );

@@ -5,6 +5,6 @@ import { idParam } from "@/lib/validation/firm";
 
 /** One run with its stored results and its freshness (any member who reads periods). */
 export const GET = route({ permission: "periods.read", params: idParam("runId") }, async ({ actor, params }) => {
-  const run = await getRun(actor, params.runId as string);
+  const run = await getRun(actor, params.runId);
   return { run, reportingCurrency: actor.reportingCurrency, freshness: await runFreshnessOf(actor, run.id) };
 });

@@ -3,4 +3,4 @@ import { getUploadPreview } from "@/lib/data/uploads";
 import { idParam } from "@/lib/validation/firm";
 
 /** One upload with its problems and totals (any member). */
-export const GET = route({ permission: "member", params: idParam("uploadId") }, ({ actor, params }) => getUploadPreview(actor, params.uploadId as string));
+export const GET = route({ permission: "member", params: idParam("uploadId") }, ({ actor, params }) => getUploadPreview(actor, params.uploadId));

@@ -5,5 +5,5 @@ import { filingCommentSchema } from "@/lib/validation/filings";
 
 /** A review comment on one section (compliance head). */
 export const POST = route({ permission: "filing.review", params: idParam("filingId"), body: filingCommentSchema }, async ({ actor, params, body }) => ({
-  filing: await commentOnFiling(actor, params.filingId as string, body),
+  filing: await commentOnFiling(actor, params.filingId, body),
 }));

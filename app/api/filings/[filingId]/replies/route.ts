@@ -5,5 +5,5 @@ import { filingCommentSchema } from "@/lib/validation/filings";
 
 /** The compliance officer's answer on one section. */
 export const POST = route({ permission: "filing.prepare", params: idParam("filingId"), body: filingCommentSchema }, async ({ actor, params, body }) => ({
-  filing: await replyOnFiling(actor, params.filingId as string, body),
+  filing: await replyOnFiling(actor, params.filingId, body),
 }));

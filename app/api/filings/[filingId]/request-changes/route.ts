@@ -5,5 +5,5 @@ import { requestChangesSchema } from "@/lib/validation/filings";
 
 /** Send the version in review back to the compliance officer, with the reason (compliance head). */
 export const POST = route({ permission: "filing.review", params: idParam("filingId"), body: requestChangesSchema }, async ({ actor, params, body }) => ({
-  filing: await requestChanges(actor, params.filingId as string, body),
+  filing: await requestChanges(actor, params.filingId, body),
 }));

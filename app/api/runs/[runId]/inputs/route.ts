@@ -7,7 +7,7 @@ import { idParam } from "@/lib/validation/firm";
  * --json` recomputes the run from it. Every export is recorded in the audit trail.
  */
 export const GET = route({ permission: "periods.read", params: idParam("runId") }, async ({ actor, params }) => {
-  const file = await exportRunInputs(actor, params.runId as string);
+  const file = await exportRunInputs(actor, params.runId);
   return new Response(Buffer.from(file.bytes), {
     status: 200,
     headers: {

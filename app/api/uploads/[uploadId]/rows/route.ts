@@ -5,5 +5,5 @@ import { rowsQuery } from "@/lib/validation/uploads";
 
 /** One page of a pending upload's parsed rows (any member). */
 export const GET = route({ permission: "member", params: idParam("uploadId"), query: rowsQuery }, ({ actor, params, query }) =>
-  getUploadRows(actor, params.uploadId as string, query.page, query.pageSize),
+  getUploadRows(actor, params.uploadId, query.page, query.pageSize),
 );

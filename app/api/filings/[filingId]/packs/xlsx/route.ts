@@ -4,4 +4,4 @@ import { idParam } from "@/lib/validation/firm";
 import { packResponse } from "../pack-response";
 
 /** The spreadsheet filing pack of this version (any member); every download is recorded in the audit trail. */
-export const GET = route({ permission: "member", params: idParam("filingId") }, async ({ actor, params }) => packResponse(await downloadPack(actor, params.filingId as string, "xlsx")));
+export const GET = route({ permission: "member", params: idParam("filingId") }, async ({ actor, params }) => packResponse(await downloadPack(actor, params.filingId, "xlsx")));

@@ -6,7 +6,7 @@ import { qualityConfirmSchema } from "@/lib/validation/quality";
 
 /** Confirm a finding of the period's data-quality report that asks for it (risk analyst, compliance officer): why it is real. */
 export const POST = route({ permission: "quality.confirm", params: idParam("periodId"), body: qualityConfirmSchema }, async ({ actor, params, body }) => {
-  const periodId = params.periodId as string;
+  const periodId = params.periodId;
   const { report } = await getDataQuality(actor, periodId);
   return Response.json({ confirmation: await confirmQualityItem(actor, periodId, body, report.items) }, { status: 201 });
 });
