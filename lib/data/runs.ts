@@ -1,14 +1,15 @@
 /**
- * Runs of a reporting period: starting one (its inputs gathered and stored with their hashes, refused clearly when
- * something is missing), reading them (firm-scoped), reproducing one from its stored inputs, and marking the one
- * the filing uses. The computation itself runs in lib/runs/execute.ts, after the request has been answered.
+ * Runs of a reporting period: starting one (refused clearly when something is missing, without reading the book;
+ * queued with its job in one transaction), reading them (firm-scoped), reproducing one from its stored inputs, and
+ * marking the one the filing uses. A worker process (`npm run worker`, job kind "run") gathers the inputs, stores
+ * them with their hashes and computes the run (lib/runs/execute.ts).
  */
 import "server-only";
 import { createHash } from "node:crypto";
 import { gunzipSync, gzipSync } from "node:zlib";
-import { and, desc, eq, inArray, lt } from "drizzle-orm";
+import { and, desc, eq, inArray, lt, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { capitalRuleProfiles, methodStatements, positions, reportingPeriods, runInputs, runs, users } from "@/db/schema";
+import { capitalRuleProfiles, methodStatements, positions, reportingPeriods, runInputs, runs, uploads, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import { now, today } from "@/lib/clock";
@@ -22,10 +23,10 @@ import { methodContentSchema, type MethodContent } from "@/lib/validation/method
 import { alignReturns } from "@/lib/runs/align";
 import { regimeFieldsOf, storedAttributesOf } from "@/lib/runs/standardised";
 import { canonicalJson } from "@/lib/domain/canonical";
-import { inputHashesOf } from "@/lib/runs/compare";
-import { assessHistory, engineInputOf, neededFactors } from "@/lib/runs/compute";
+import { assessHistory, engineInputOf, neededFactors, type HistoryAssessment } from "@/lib/runs/compute";
 import { capitalProfileOf } from "@/lib/runs/method-map";
-import { markIfInterrupted } from "@/lib/runs/staleness";
+import { markIfInterrupted, runJobKey, type RunJobPayload } from "@/lib/runs/staleness";
+import { enqueue } from "@/lib/jobs/queue";
 import type { RunChange, RunInputHashes, RunInputs, RunListItem, RunRecord, RunResults, RunStatus, StoredPosition } from "@/lib/runs/types";
 import { confirmedPositionsUpload, getDataQuality } from "./data-quality";
 import { getPeriod } from "./periods";
@@ -267,8 +268,8 @@ export async function methodCheckOnLatestBook(actor: Actor, content: MethodConte
   return { periodEnd: book.periodEnd, items: methodInfeasibilities(book.inputs, content) };
 }
 
-/** Gather the inputs of a new run as they stand now, or refuse naming what is missing. */
-async function gatherInputs(actor: Actor, periodId: string) {
+/** The approved method statement version a run would use now, parsed, or a refusal naming what is missing. */
+async function runnableBasics(actor: Actor, periodId: string) {
   const period = await getPeriod(actor, periodId);
   assertOpen(period);
   const db = getDb();
@@ -285,80 +286,81 @@ async function gatherInputs(actor: Actor, periodId: string) {
   if (!upload || !method) throw new AppError("unprocessable:run", `A run cannot start: ${missing.join("; and ")}.`, { run: missing.join("; ") });
   const parsed = methodContentSchema.safeParse(method.content);
   if (!parsed.success) throw new AppError("unprocessable:run", `The approved method statement (version ${method.version}) cannot be read: ${parsed.error.issues[0]?.message ?? "invalid content"}.`);
-
   const [profileRow] = await db
-    .select()
+    .select({ id: capitalRuleProfiles.id })
     .from(capitalRuleProfiles)
     .where(and(eq(capitalRuleProfiles.firmId, actor.firmId), eq(capitalRuleProfiles.active, true)))
     .orderBy(desc(capitalRuleProfiles.createdAt))
     .limit(1);
-  const capitalProfile = profileRow
-    ? { ...capitalProfileOf(profileRow), ...regimeFieldsOf(profileRow) }
-    : { id: null, name: "Engine default (no capital rule profile stored)", profile: BASEL_CAPITAL_PROFILE, plusFactors: { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 }, backtestDays: 250 };
-
-  const stored = await storedPositionsOf(actor, upload.id);
-
-  const { dates, factors } = await closesOf(actor, stored, period.periodEnd);
-
-  const quality = await getDataQuality(actor, periodId);
-  const inputs: RunInputs = {
-    positions: stored,
-    prices: { dates, factors },
-    method: { id: method.id, version: method.version, approvedAt: method.approvedAt, content: parsed.data },
-    capitalProfile,
-    periodEnd: period.periodEnd,
-    reportingCurrency: actor.reportingCurrency,
-    context: {
-      periodId,
-      upload: { uploadId: upload.id, fileName: upload.fileName },
-      dataQuality: { report: quality.report, items: quality.report.items.length, errors: quality.report.counts.error, warnings: quality.report.counts.warning },
-    },
-  };
-  return { period, upload, method, inputs };
-}
-
-export interface StartOptions {
-  /** run without the factors short of the method's minimum history (they are listed in the results) */
-  excludeShortHistory?: boolean;
-}
-
-/** Insert a queued run with its stored inputs, in one transaction with its audit record. */
-async function insertRun(
-  actor: Actor,
-  values: { periodId: string; methodStatementId: string; positionsUploadId: string; capitalProfileId: string | null; reproducesRunId: string | null },
-  inputs: RunInputs,
-  audit: { action: string; summary: string; detail: Record<string, unknown> },
-): Promise<string> {
-  const hashes = inputHashesOf(inputs);
-  const packed = packInputs(inputs);
-  const stamp = now().toISOString();
-  try {
-    return await getDb().transaction(async (tx) => {
-      const [row] = await tx
-        .insert(runs)
-        .values({ firmId: actor.firmId, ...values, status: "queued", stage: "queued", progress: 0, inputHashes: hashes as unknown as Record<string, string>, startedBy: actor.userId, startedAt: stamp, heartbeatAt: new Date().toISOString() /* wall clock: staleness */ })
-        .returning({ id: runs.id });
-      await tx.insert(runInputs).values({ runId: row.id, firmId: actor.firmId, data: packed.data, bytes: packed.bytes });
-      await recordAudit(tx, actor, { action: audit.action, entityType: "run", entityId: row.id, summary: audit.summary, detail: { ...audit.detail, inputHashes: hashes } });
-      return row.id;
-    });
-  } catch (error) {
-    if (isUniqueViolation(error, "runs_one_active_per_period")) throw await activeRunConflict(actor.firmId, values.periodId);
-    throw error;
-  }
+  return { period, upload, method, content: parsed.data, capitalProfileId: profileRow?.id ?? null };
 }
 
 /**
- * Start a run for a period: refuses without confirmed positions, without an approved method statement, or when a
- * factor lacks the method's minimum history (unless asked to run without those factors, which are then listed).
- * Returns the queued run; the caller executes it (lib/runs/execute.ts) after answering.
+ * The history check of a run start without loading any close: per factor the book needs (each position's
+ * instrument, then each foreign currency's exchange rate, in first-appearance order as `neededFactors`), the
+ * returns `alignReturns` would find, counted in SQL over the price dates alone. A date inside a factor's own history
+ * (between its first and last close up to the period end) on which the factor has no close is left out for every
+ * factor; a factor's usable returns are the kept dates of its history, less one, when its history reaches the last
+ * kept date, else none (the same answer as `assessHistory`, tests/unit/runs/history-sql.test.ts).
  */
-export async function startRun(actor: Actor, periodId: string, options: StartOptions = {}): Promise<RunRecord> {
-  await markIfInterrupted(actor.firmId, { periodId });
-  const { period, upload, method, inputs } = await gatherInputs(actor, periodId);
-  const assessment = assessHistory(inputs, alignReturns(inputs.prices));
+export async function assessHistoryOfUpload(
+  actor: Pick<Actor, "firmId" | "reportingCurrency">,
+  uploadId: string,
+  periodEnd: string,
+  minHistory: number,
+): Promise<HistoryAssessment> {
+  const db = getDb();
+  const firmId = actor.firmId;
+  const rc = actor.reportingCurrency;
+  const byInstrument = await db.all<{ code: string; firstRow: number; assetClass: string }>(
+    sql`SELECT instrument_code AS code, min(row_number) AS firstRow, asset_class AS assetClass FROM positions WHERE firm_id = ${firmId} AND upload_id = ${uploadId} GROUP BY instrument_code ORDER BY firstRow`,
+  );
+  const byCurrency = await db.all<{ currency: string; firstRow: number }>(
+    sql`SELECT currency, min(row_number) AS firstRow FROM positions WHERE firm_id = ${firmId} AND upload_id = ${uploadId} AND currency <> ${rc} GROUP BY currency ORDER BY firstRow`,
+  );
+  const needed = new Map<string, string>();
+  for (const r of byInstrument) needed.set(r.code, r.assetClass);
+  for (const r of byCurrency) if (!needed.has(`${r.currency}${rc}`)) needed.set(`${r.currency}${rc}`, "fx");
+  const counted = await db.all<{ code: string; returns: number }>(sql`
+    WITH needed AS (SELECT value AS code FROM json_each(${JSON.stringify([...needed.keys()])})),
+    ids AS MATERIALIZED (SELECT i.id, i.code FROM instruments i JOIN needed n ON n.code = i.code WHERE i.firm_id = ${firmId}),
+    p AS MATERIALIZED (SELECT pp.instrument_id AS iid, pp.date AS d FROM price_points pp JOIN ids ON ids.id = pp.instrument_id
+          WHERE pp.firm_id = ${firmId} AND pp.current = 1 AND pp.date <= ${periodEnd}),
+    spans AS MATERIALIZED (SELECT iid, min(d) AS f, max(d) AS l FROM p GROUP BY iid),
+    dates AS MATERIALIZED (SELECT d, count(*) AS present FROM p GROUP BY d),
+    kept AS MATERIALIZED (SELECT d FROM dates WHERE present = (SELECT count(*) FROM spans WHERE spans.f <= dates.d AND spans.l >= dates.d)),
+    lastKept AS MATERIALIZED (SELECT max(d) AS m FROM kept)
+    SELECT ids.code AS code,
+      CASE WHEN spans.f <= lastKept.m AND spans.l >= lastKept.m
+        THEN max(0, (SELECT count(*) FROM kept WHERE kept.d >= spans.f AND kept.d <= spans.l) - 1) ELSE 0 END AS returns
+    FROM ids JOIN spans ON spans.iid = ids.id, lastKept`);
+  const returnsOf = new Map(counted.map((r) => [r.code, Number(r.returns)]));
+  const factors: HistoryAssessment["factors"] = [];
+  const short: HistoryAssessment["short"] = [];
+  for (const [factor, assetClass] of needed) {
+    const returns = returnsOf.get(factor) ?? 0;
+    factors.push({ factor, returns });
+    if (!returnsOf.has(factor)) {
+      if (assetClass !== "fx") short.push({ factor, reason: "no price history up to the period end" });
+    } else if (returns < minHistory) {
+      short.push({ factor, reason: `${returns} returns up to the period end without a break; the method statement's minimum history is ${minHistory}` });
+    }
+  }
+  const [{ total }] = await db.all<{ total: number }>(sql`SELECT count(*) AS total FROM positions WHERE firm_id = ${firmId} AND upload_id = ${uploadId}`);
+  const shortCodes = short.map((s) => s.factor);
+  const affected = shortCodes.length
+    ? await db.all<{ book: string; instrument: string }>(
+        sql`SELECT book, instrument_code AS instrument FROM positions WHERE firm_id = ${firmId} AND upload_id = ${uploadId} AND instrument_code IN (SELECT value FROM json_each(${JSON.stringify(shortCodes)})) ORDER BY row_number`,
+      )
+    : [];
+  const positionsAffected = affected.map((p) => `${p.book} · ${p.instrument}`);
+  return { minHistory, factors, short, positionsAffected, positionsUsable: Number(total) - positionsAffected.length };
+}
+
+/** Refuse a start (or, in the worker, the computation) on a history assessment, naming the factors. */
+function assertHistory(assessment: HistoryAssessment, periodEnd: string, options: StartOptions) {
   if (assessment.positionsUsable === 0) {
-    throw new AppError("unprocessable:history", `A run cannot start: no position's price history reaches the method statement's minimum of ${assessment.minHistory} returns up to ${period.periodEnd}.`, { excludeShortHistory: "No position would be left." });
+    throw new AppError("unprocessable:history", `A run cannot start: no position's price history reaches the method statement's minimum of ${assessment.minHistory} returns up to ${periodEnd}.`, { excludeShortHistory: "No position would be left." });
   }
   if (assessment.short.length && !options.excludeShortHistory) {
     const list = assessment.short.map((s) => `${s.factor} (${s.reason})`).join("; ");
@@ -368,17 +370,120 @@ export async function startRun(actor: Actor, periodId: string, options: StartOpt
       { excludeShortHistory: `Leaves out ${assessment.positionsAffected.length} position(s): ${assessment.positionsAffected.join(", ")}.` },
     );
   }
+}
+
+/**
+ * Gather a queued run's inputs as they stand now (the worker does this, not the request): the positions of the
+ * upload, the method statement version and capital rule profile recorded at its start, the closes of the factors up
+ * to the period end and the period's data-quality report; then check the history and that the method can be
+ * computed for every factor (refusing with the same messages as a start, naming asset class, factor and reason).
+ */
+export async function gatherRunInputs(actor: Actor, run: Pick<RunRow, "periodId" | "positionsUploadId" | "methodStatementId" | "capitalProfileId">, options: StartOptions = {}): Promise<RunInputs> {
+  const db = getDb();
+  const period = await getPeriod(actor, run.periodId);
+  const [upload] = await db.select().from(uploads).where(and(eq(uploads.firmId, actor.firmId), eq(uploads.id, run.positionsUploadId)));
+  const [method] = await db.select().from(methodStatements).where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.id, run.methodStatementId)));
+  if (!upload || !method) throw new AppError("unprocessable:run", "The run's positions upload or method statement is no longer stored.");
+  const parsed = methodContentSchema.safeParse(method.content);
+  if (!parsed.success) throw new AppError("unprocessable:run", `The approved method statement (version ${method.version}) cannot be read: ${parsed.error.issues[0]?.message ?? "invalid content"}.`);
+  const [profileRow] = run.capitalProfileId
+    ? await db.select().from(capitalRuleProfiles).where(and(eq(capitalRuleProfiles.firmId, actor.firmId), eq(capitalRuleProfiles.id, run.capitalProfileId)))
+    : [];
+  const capitalProfile = profileRow
+    ? { ...capitalProfileOf(profileRow), ...regimeFieldsOf(profileRow) }
+    : { id: null, name: "Engine default (no capital rule profile stored)", profile: BASEL_CAPITAL_PROFILE, plusFactors: { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 }, backtestDays: 250 };
+
+  const stored = await storedPositionsOf(actor, upload.id);
+  const { dates, factors } = await closesOf(actor, stored, period.periodEnd);
+  const quality = await getDataQuality(actor, run.periodId);
+  const inputs: RunInputs = {
+    positions: stored,
+    prices: { dates, factors },
+    method: { id: method.id, version: method.version, approvedAt: method.approvedAt, content: parsed.data },
+    capitalProfile,
+    periodEnd: period.periodEnd,
+    reportingCurrency: actor.reportingCurrency,
+    context: {
+      periodId: run.periodId,
+      upload: { uploadId: upload.id, fileName: upload.fileName },
+      dataQuality: { report: quality.report, items: quality.report.items.length, errors: quality.report.counts.error, warnings: quality.report.counts.warning },
+    },
+  };
+  assertHistory(assessHistory(inputs, alignReturns(inputs.prices)), period.periodEnd, options);
   // a choice that cannot be computed for a factor refuses the run, naming the asset class, the factor and why
   const infeasible = methodInfeasibilities(inputs, inputs.method.content);
   if (infeasible.length) {
-    throw new AppError("unprocessable:method", infeasibilityMessage(infeasible, `A run cannot start with method statement version ${method.version}`), {
+    throw new AppError("unprocessable:method", infeasibilityMessage(infeasible, `A run cannot be computed with method statement version ${method.version}`), {
       method: infeasible.map((i) => `${i.factor}: ${i.reason}`).join("; "),
     });
   }
+  return inputs;
+}
+
+export interface StartOptions {
+  /** run without the factors short of the method's minimum history (they are listed in the results) */
+  excludeShortHistory?: boolean;
+}
+
+/**
+ * Insert a queued run and its job, in one transaction with its audit record (inputs: copied from an original run's
+ * stored inputs for a reproduction; otherwise the worker gathers and stores them).
+ */
+async function insertRun(
+  actor: Actor,
+  values: { periodId: string; methodStatementId: string; positionsUploadId: string; capitalProfileId: string | null; reproducesRunId: string | null; inputHashes?: RunInputHashes | null },
+  options: StartOptions,
+  audit: { action: string; summary: string; detail: Record<string, unknown> },
+): Promise<string> {
+  const stamp = now().toISOString();
+  const { inputHashes, ...columns } = values;
+  try {
+    return await getDb().transaction(async (tx) => {
+      const [row] = await tx
+        .insert(runs)
+        .values({ firmId: actor.firmId, ...columns, status: "queued", stage: "queued", progress: 0, inputHashes: (inputHashes ?? null) as unknown as Record<string, string> | null, startedBy: actor.userId, startedAt: stamp, heartbeatAt: new Date().toISOString() /* wall clock */ })
+        .returning({ id: runs.id });
+      if (values.reproducesRunId) {
+        // the original's stored inputs, byte for byte, copied in the database (never read into this process)
+        await tx.run(sql`INSERT INTO run_inputs (run_id, firm_id, data, bytes, created_at) SELECT ${row.id}, firm_id, data, bytes, ${stamp} FROM run_inputs WHERE run_id = ${values.reproducesRunId} AND firm_id = ${actor.firmId}`);
+      }
+      const payload: RunJobPayload = { runId: row.id, excludeShortHistory: options.excludeShortHistory ?? false };
+      await enqueue(tx, { kind: "run", firmId: actor.firmId, payload: { ...payload }, dedupeKey: runJobKey(row.id), maxAttempts: 1 });
+      await recordAudit(tx, actor, { action: audit.action, entityType: "run", entityId: row.id, summary: audit.summary, detail: { ...audit.detail, ...(inputHashes ? { inputHashes } : {}) } });
+      return row.id;
+    });
+  } catch (error) {
+    if (isUniqueViolation(error, "runs_one_active_per_period")) throw await activeRunConflict(actor.firmId, values.periodId);
+    throw error;
+  }
+}
+
+/** Whether a run of the period is queued or running (one indexed row read). */
+async function assertNoActiveRun(actor: Actor, periodId: string) {
+  const [active] = await getDb()
+    .select({ id: runs.id })
+    .from(runs)
+    .where(and(eq(runs.firmId, actor.firmId), eq(runs.periodId, periodId), inArray(runs.status, ["queued", "running"])))
+    .limit(1);
+  if (active) throw await activeRunConflict(actor.firmId, periodId);
+}
+
+/**
+ * Start a run for a period: refuses, before any heavy read, when a run of the period is in progress, the period is
+ * signed or filed, no positions are confirmed, no method statement is approved, or a factor lacks the method's
+ * minimum history (unless asked to run without those factors, which are then listed) — the history counted in SQL.
+ * Returns the queued run at once; a worker (`npm run worker`, job kind "run") gathers its inputs and computes it.
+ */
+export async function startRun(actor: Actor, periodId: string, options: StartOptions = {}): Promise<RunRecord> {
+  await markIfInterrupted(actor.firmId, { periodId });
+  const { period, upload, method, content, capitalProfileId } = await runnableBasics(actor, periodId);
+  await assertNoActiveRun(actor, periodId);
+  const assessment = await assessHistoryOfUpload(actor, upload.id, period.periodEnd, content.minHistory);
+  assertHistory(assessment, period.periodEnd, options);
   const id = await insertRun(
     actor,
-    { periodId, methodStatementId: method.id, positionsUploadId: upload.id, capitalProfileId: inputs.capitalProfile.id, reproducesRunId: null },
-    inputs,
+    { periodId, methodStatementId: method.id, positionsUploadId: upload.id, capitalProfileId, reproducesRunId: null },
+    options,
     {
       action: "run.start",
       summary: `Started a run for the period ending ${period.periodEnd} (method statement version ${method.version}${assessment.short.length ? `, without ${assessment.short.length} factor(s) short of history` : ""})`,
@@ -388,18 +493,18 @@ export async function startRun(actor: Actor, periodId: string, options: StartOpt
   return getRun(actor, id);
 }
 
-/** Re-run a completed run from its stored inputs (never today's data) as a new run pointing at it. */
+/** Re-run a completed run from its stored inputs (never today's data) as a new run pointing at it, through the queue. */
 export async function reproduceRun(actor: Actor, runId: string): Promise<RunRecord> {
   const original = await getRun(actor, runId);
   if (original.status !== "completed") throw new AppError("conflict:run", "Only a completed run can be reproduced.");
   const period = await getPeriod(actor, original.periodId);
   await markIfInterrupted(actor.firmId, { periodId: original.periodId });
+  await assertNoActiveRun(actor, original.periodId);
   const [row] = await getDb().select().from(runs).where(and(eq(runs.id, runId), eq(runs.firmId, actor.firmId)));
-  const inputs = await getRunInputs(actor, runId);
   const id = await insertRun(
     actor,
-    { periodId: original.periodId, methodStatementId: row.methodStatementId, positionsUploadId: row.positionsUploadId, capitalProfileId: row.capitalProfileId, reproducesRunId: runId },
-    inputs,
+    { periodId: original.periodId, methodStatementId: row.methodStatementId, positionsUploadId: row.positionsUploadId, capitalProfileId: row.capitalProfileId, reproducesRunId: runId, inputHashes: original.inputHashes },
+    {},
     {
       action: "run.reproduce",
       summary: `Started reproducing the run of ${original.startedAt.slice(0, 16).replace("T", " ")} UTC for the period ending ${period.periodEnd} from its stored inputs`,

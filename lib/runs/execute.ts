@@ -1,19 +1,25 @@
 /**
- * Execute a queued run on the server, after its request has been answered: read its stored inputs, compute,
- * record stage and percentage as it goes (with a heartbeat), then store the results and its completion in one
- * transaction with the audit record. A failure is stored with its reason; earlier runs are never touched.
+ * Execute a queued run in a worker process (job kind "run", lib/jobs/kinds/run.ts): gather its inputs as they stand
+ * (or read the stored ones: a reproduction, or a run given back by a stopping worker), store them with their hashes,
+ * check the method can be computed, compute, record stage and percentage as it goes (extending the job's lease),
+ * then store the results and its completion in one transaction with the audit record. A failure is stored with its
+ * reason; earlier runs are never touched.
  */
 import "server-only";
-import { and, eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
-import { runInputs, runs, users } from "@/db/schema";
+import { and, eq, inArray } from "drizzle-orm";
+import { getDb, type Database } from "@/db/client";
+import { firms, memberships, runInputs, runs, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
+import type { Actor } from "@/lib/auth/actor";
+import { parseRoles } from "@/lib/auth/roles";
 import { now } from "@/lib/clock";
 import { ENGINE_VERSION } from "@/lib/risk/version";
-import { unpackInputs } from "@/lib/data/runs";
+import { gatherRunInputs, packInputs, unpackInputs } from "@/lib/data/runs";
+import { jobByKey } from "@/lib/jobs/queue";
+import { runJobKey, type RunJobPayload } from "./staleness";
 import { inputHashesOf, compareRuns, asStored } from "./compare";
 import { computeRun } from "./compute";
-import { RUN_STAGES, type RunInputHashes, type RunResults } from "./types";
+import { RUN_STAGES, type RunInputHashes, type RunInputs, type RunResults } from "./types";
 
 /** Progress 0..1 of a stage at a fraction of its own work. */
 export function progressOf(stage: string, fraction: number): number {
@@ -26,34 +32,96 @@ export function progressOf(stage: string, fraction: number): number {
 
 const running = new Set<string>();
 
+export interface ExecuteOptions {
+  /** leave out the factors short of the method's minimum history (as asked at the start) */
+  excludeShortHistory?: boolean;
+  /** extend the job's lease; false when it was lost (the run is then interrupted: stop) */
+  heartbeat?: () => Promise<boolean>;
+  signal?: AbortSignal;
+}
+
+/** How often a progress report also extends the job's lease (the worker's own timer cannot fire during a long step). */
+const LEASE_EXTEND_MS = 2000;
+
+/** The person who started the run, as the gate would build their actor in the run's firm. */
+async function starterOf(db: Database, run: { startedBy: string; firmId: string }): Promise<Actor> {
+  const [row] = await db
+    .select({ user: users, firm: firms, roles: memberships.roles })
+    .from(firms)
+    .leftJoin(users, eq(users.id, run.startedBy))
+    .leftJoin(memberships, and(eq(memberships.userId, run.startedBy), eq(memberships.firmId, run.firmId)))
+    .where(eq(firms.id, run.firmId));
+  if (!row) throw new Error("the run's firm is not stored");
+  return {
+    userId: run.startedBy,
+    name: row.user?.name ?? "",
+    email: row.user?.email ?? "",
+    firmId: row.firm.id,
+    firmName: row.firm.name,
+    reportingCurrency: row.firm.reportingCurrency,
+    roles: row.roles ? parseRoles(row.roles) : [],
+    firms: [{ id: row.firm.id, name: row.firm.name }],
+  };
+}
+
 /** Run a queued run to completion or failure. Never throws: the outcome is stored on the run. */
-export async function executeRun(runId: string): Promise<"completed" | "failed" | "skipped"> {
+export async function executeRun(runId: string, options: ExecuteOptions = {}): Promise<"completed" | "failed" | "skipped"> {
   if (running.has(runId)) return "skipped";
   running.add(runId);
   const db = getDb();
   try {
     const [run] = await db.select().from(runs).where(eq(runs.id, runId));
-    if (!run || run.status !== "queued") return "skipped";
-    const [person] = await db.select({ name: users.name }).from(users).where(eq(users.id, run.startedBy));
-    const actor = { userId: run.startedBy, name: person?.name ?? "", firmId: run.firmId };
+    // "running": a run given back by a worker that stopped gracefully starts again from its stored inputs
+    if (!run || (run.status !== "queued" && run.status !== "running")) return "skipped";
+    const actor = await starterOf(db, run);
     const where = and(eq(runs.id, runId), eq(runs.firmId, run.firmId));
+    const active = and(where, inArray(runs.status, ["queued", "running"]));
     let lastStage = "";
     let lastProgress = -1;
+    let lastLease = Date.now();
+    const keepLease = async (force = false) => {
+      if (options.signal?.aborted) throw new Error("the worker stopped computing it");
+      if (!options.heartbeat || (!force && Date.now() - lastLease < LEASE_EXTEND_MS)) return;
+      lastLease = Date.now();
+      if (!(await options.heartbeat())) throw new Error("the worker lost the run's lease (it was taken as interrupted)");
+    };
     const report = async (stage: string, fraction: number) => {
+      await keepLease();
       const progress = progressOf(stage, fraction);
       if (stage === lastStage && progress - lastProgress < 0.02 && fraction < 1) return;
       lastStage = stage;
       lastProgress = progress;
-      await db.update(runs).set({ status: "running", stage, progress, heartbeatAt: new Date().toISOString() }).where(where);
+      await db.update(runs).set({ status: "running", stage, progress, heartbeatAt: new Date().toISOString() }).where(active);
     };
     try {
       await report("inputs", 0);
       const [stored] = await db.select({ data: runInputs.data }).from(runInputs).where(and(eq(runInputs.runId, runId), eq(runInputs.firmId, run.firmId)));
-      if (!stored) throw new Error("the run's stored inputs are missing");
-      const inputs = unpackInputs(stored.data);
-      const hashes = inputHashesOf(inputs);
-      const recorded = run.inputHashes as unknown as RunInputHashes | null;
-      if (recorded && recorded.combined !== hashes.combined) throw new Error("the stored inputs no longer match the hashes recorded when the run started");
+      let inputs: RunInputs;
+      let hashes: RunInputHashes;
+      if (stored) {
+        inputs = unpackInputs(stored.data);
+        hashes = inputHashesOf(inputs);
+        const recorded = run.inputHashes as unknown as RunInputHashes | null;
+        if (recorded && recorded.combined !== hashes.combined) throw new Error("the stored inputs no longer match the hashes recorded when the run started");
+      } else {
+        // gathered here, not in the request: positions, closes, data quality; refused like a start would be
+        // what the person asked at the start travels in the run's job
+        const excludeShortHistory = options.excludeShortHistory ?? Boolean(((await jobByKey(db, runJobKey(runId)))?.payload as RunJobPayload | undefined)?.excludeShortHistory);
+        inputs = await gatherRunInputs(actor, run, { excludeShortHistory });
+        await keepLease(true);
+        hashes = inputHashesOf(inputs);
+        const packed = packInputs(inputs);
+        const kept = await db.transaction(async (tx) => {
+          const rows = await tx.update(runs).set({ inputHashes: hashes as unknown as Record<string, string> }).where(active).returning({ id: runs.id });
+          if (rows.length === 0) return false;
+          await tx.insert(runInputs).values({ runId, firmId: run.firmId, data: packed.data, bytes: packed.bytes });
+          return true;
+        });
+        if (!kept) throw new Error("the run was finished meanwhile (interrupted)");
+        // compute from exactly what was stored (the canonical JSON read back), as a reproduction or the CLI would
+        inputs = unpackInputs(packed.data);
+        await report("inputs", 1);
+      }
       let results: RunResults = await computeRun(inputs, { fromStoredInputsOf: run.reproducesRunId }, report);
       await report("storing", 0);
       results = asStored(results);
@@ -71,10 +139,12 @@ export async function executeRun(runId: string): Promise<"completed" | "failed" 
       }
       const finishedAt = now().toISOString();
       await db.transaction(async (tx) => {
-        await tx
+        const completed = await tx
           .update(runs)
           .set({ status: "completed", stage: "done", progress: 1, results: results as unknown as Record<string, unknown>, engineVersion: ENGINE_VERSION, finishedAt, heartbeatAt: finishedAt })
-          .where(where);
+          .where(active)
+          .returning({ id: runs.id });
+        if (completed.length === 0) throw new Error("the run was finished meanwhile (interrupted)");
         const r = results.reproduction;
         await recordAudit(tx, actor, {
           action: "run.complete",
@@ -92,7 +162,8 @@ export async function executeRun(runId: string): Promise<"completed" | "failed" 
       const finishedAt = now().toISOString();
       try {
         await db.transaction(async (tx) => {
-          await tx.update(runs).set({ status: "failed", stage: "failed", error: `The run failed: ${message}`, finishedAt, heartbeatAt: finishedAt }).where(where);
+          const failed = await tx.update(runs).set({ status: "failed", stage: "failed", error: `The run failed: ${message}`, finishedAt, heartbeatAt: finishedAt }).where(active).returning({ id: runs.id });
+          if (failed.length === 0) throw new Error("the run was already finished");
           await recordAudit(tx, actor, { action: "run.fail", entityType: "run", entityId: runId, summary: `Run failed: ${message.slice(0, 200)}`, detail: { error: message } });
         });
       } catch (storeError) {

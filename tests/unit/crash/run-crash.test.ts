@@ -5,7 +5,7 @@ import { runsDatabase, actorFor, PEOPLE, demoPeriodId } from "../runs/setup";
 import { getRun, startRun } from "@/lib/data/runs";
 
 describe("crash consistency of runs", () => {
-  it("a process killed while a run computes leaves the run without half-stored results; it is marked interrupted and a new run can start", async () => {
+  it("a worker killed while a run computes leaves the run without half-stored results; it is marked interrupted and a new run can start", async () => {
     const db = await runsDatabase({ withMethod: true });
     const child = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", path.join(__dirname, "run-child.ts")], {
       env: { ...process.env },
@@ -16,7 +16,7 @@ describe("crash consistency of runs", () => {
       child.stdout.on("data", (chunk: Buffer) => {
         const match = /started (\S+)/.exec(chunk.toString());
         if (match) {
-          // The run is stored and queued; kill the process as it starts computing.
+          // The run's job is claimed by the child's worker; kill the process as it starts computing.
           child.kill("SIGKILL");
           resolve(match[1]);
         }
@@ -32,8 +32,8 @@ describe("crash consistency of runs", () => {
     } else {
       expect(["queued", "running"]).toContain(row.status);
       expect(row.results).toBeNull();
-      // Time passes with no progress report (back-dated here instead of waiting ten minutes).
-      await db.$client.execute({ sql: "UPDATE runs SET heartbeat_at = '2000-01-01T00:00:00.000Z' WHERE id = ?", args: [runId] });
+      // The worker's lease runs out with no heartbeat (back-dated here instead of waiting the 15 s lease).
+      await db.$client.execute({ sql: "UPDATE jobs SET lease_expires_at = '2000-01-01T00:00:00.000Z' WHERE dedupe_key = ? AND state = 'running'", args: [`run:${runId}`] });
       const analyst = await actorFor(PEOPLE.analyst);
       const interrupted = await getRun(analyst, runId);
       expect(interrupted.status).toBe("failed");

@@ -173,8 +173,10 @@ describe("a run of the demo period", () => {
 
   it("gives the same hashes to the same inputs gathered again", async () => {
     const second = await startRun(analyst, periodId, { excludeShortHistory: true });
-    expect(second.inputHashes).toEqual(run.inputHashes);
+    // the start answers before reading the book: the worker gathers the inputs and records their hashes
+    expect(second.inputHashes).toBeNull();
     await executeRun(second.id);
+    expect((await getRun(analyst, second.id)).inputHashes).toEqual(run.inputHashes);
   }, 60_000);
 
   it("reproduces from the stored inputs: every figure matches", async () => {
@@ -345,7 +347,7 @@ describe("failure and interruption", () => {
       .returning();
     const read = await getRun(auditor, left.id);
     expect(read.status).toBe("failed");
-    expect(read.error).toMatch(/^Interrupted: the run stopped reporting progress for more than 10 minutes/);
+    expect(read.error).toMatch(/^Interrupted: the worker computing this run stopped \(no heartbeat for 15 seconds\)\. Start the run again/);
     // and the period's slot is free for a new run
     const next = await startRun(analyst, periodId, { excludeShortHistory: true });
     expect(next.status).toBe("queued");
