@@ -1,6 +1,7 @@
 /** The gate for server-rendered pages: signed-out visitors go to sign-in; a missing permission is reported. */
 import "server-only";
-import { redirect } from "next/navigation";
+import { notFound, redirect } from "next/navigation";
+import { AppError } from "@/lib/errors";
 import { getActor, type Actor } from "./actor";
 import { can, type Permission } from "./permissions";
 
@@ -9,4 +10,14 @@ export async function pageActor(permission?: Permission): Promise<{ actor: Actor
   const actor = await getActor();
   if (!actor) redirect("/sign-in");
   return { actor, allowed: permission ? can(actor, permission) : true };
+}
+
+/** A page's read, with another firm's or a missing record shown as the not-found page (every other error is thrown on). */
+export async function orNotFound<T>(read: Promise<T>): Promise<T> {
+  try {
+    return await read;
+  } catch (error) {
+    if (error instanceof AppError && error.kind === "not_found") notFound();
+    throw error;
+  }
 }

@@ -1,11 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
-import { pageActor } from "@/lib/auth/page";
+import { orNotFound, pageActor } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { coApprovalRequired, getMethodVersion } from "@/lib/data/method";
-import { AppError } from "@/lib/errors";
 import { ApprovalLine, MethodView } from "../_components/method-view";
 import { DraftEditor } from "./draft-editor";
 import { ApprovalPanel } from "./approval-panel";
@@ -15,10 +13,7 @@ export const metadata: Metadata = { title: "Method statement version" };
 export default async function MethodVersionPage({ params }: { params: Promise<{ methodId: string }> }) {
   const { methodId } = await params;
   const { actor } = await pageActor();
-  const version = await getMethodVersion(actor, methodId).catch((error) => {
-    if (error instanceof AppError && error.kind === "not_found") notFound();
-    throw error;
-  });
+  const version = await orNotFound(getMethodVersion(actor, methodId));
   const coApproval = await coApprovalRequired(actor);
   const isDraft = version.status === "draft";
   const canEdit = isDraft && can(actor, "method.edit");

@@ -1,11 +1,9 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
 import { inputClass, secondaryButtonClass } from "@/app/_components/field";
-import { pageActor } from "@/lib/auth/page";
+import { orNotFound, pageActor } from "@/lib/auth/page";
 import { diffMethodVersions, listMethodVersions } from "@/lib/data/method";
-import { AppError } from "@/lib/errors";
 import { methodDiffQuerySchema } from "@/lib/validation/method";
 import { VersionStatus } from "../_components/version-status";
 
@@ -19,10 +17,7 @@ export default async function CompareMethodPage({ searchParams }: { searchParams
   const parsed = methodDiffQuerySchema.safeParse({ from: typeof raw.from === "string" && raw.from ? raw.from : undefined, to: typeof raw.to === "string" && raw.to ? raw.to : undefined });
   const query = parsed.success ? parsed.data : {};
   const versions = await listMethodVersions(actor);
-  const diff = await diffMethodVersions(actor, query.from, query.to).catch((error) => {
-    if (error instanceof AppError && error.kind === "not_found") notFound();
-    throw error;
-  });
+  const diff = await orNotFound(diffMethodVersions(actor, query.from, query.to));
   const options = versions.map((v) => (
     <option key={v.id} value={v.id}>
       Version {v.version} ({STATUS_WORD[v.status]})

@@ -1,16 +1,14 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
 import { DeadlineBadge } from "@/app/_components/deadline-badge";
 import { StatusBadge } from "@/app/_components/status-badge";
 import { formatDate, formatMonth, formatTimestamp } from "@/app/_components/format";
 import { UploadStatus } from "@/app/_components/upload-status";
 import { listUploads } from "@/lib/data/uploads";
-import { pageActor } from "@/lib/auth/page";
+import { orNotFound, pageActor } from "@/lib/auth/page";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { getPeriod } from "@/lib/data/periods";
-import { AppError } from "@/lib/errors";
 import { can } from "@/lib/auth/permissions";
 import { WithdrawPeriod } from "./withdraw-period";
 
@@ -19,10 +17,7 @@ export const metadata: Metadata = { title: "Period" };
 export default async function PeriodPage({ params }: { params: Promise<{ periodId: string }> }) {
   const { periodId } = await params;
   const { actor } = await pageActor("periods.read");
-  const period = await getPeriod(actor, periodId).catch((error) => {
-    if (error instanceof AppError && error.kind === "not_found") notFound();
-    throw error;
-  });
+  const period = await orNotFound(getPeriod(actor, periodId));
   const uploads = await listUploads(actor, { periodId: period.id, kind: "positions" });
   return (
     <>

@@ -1,12 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
 import { StatusBadge } from "@/app/_components/status-badge";
 import { formatMonth } from "@/app/_components/format";
-import { pageActor } from "@/lib/auth/page";
+import { orNotFound, pageActor } from "@/lib/auth/page";
 import { getDataQuality } from "@/lib/data/data-quality";
-import { AppError } from "@/lib/errors";
 import { can } from "@/lib/auth/permissions";
 import { CONFIRMABLE_CHECKS } from "@/lib/uploads/data-quality";
 import { ConfirmItem } from "./confirm-item";
@@ -20,10 +18,7 @@ export default async function DataQualityPage({ params, searchParams }: { params
   const { periodId } = await params;
   const { check } = await searchParams;
   const { actor } = await pageActor();
-  const data = await getDataQuality(actor, periodId).catch((error) => {
-    if (error instanceof AppError && error.kind === "not_found") notFound();
-    throw error;
-  });
+  const data = await orNotFound(getDataQuality(actor, periodId));
   const { report } = data;
   const items = check ? report.items.filter((i) => i.check === check) : report.items;
   const canConfirm = can(actor, "quality.confirm");

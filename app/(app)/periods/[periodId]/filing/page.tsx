@@ -1,13 +1,12 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { PageHeader } from "@/app/_components/page-header";
-import { pageActor } from "@/lib/auth/page";
+import { orNotFound, pageActor } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { today } from "@/lib/clock";
-import { attestationText, fourEyesNote, periodFiling, type FilingDetail, type PeriodFiling } from "@/lib/data/filings";
-import { AppError } from "@/lib/errors";
+import { attestationText, fourEyesNote, packSource, periodFiling, type FilingDetail, type PeriodFiling } from "@/lib/data/filings";
+import { packStates } from "@/lib/data/packs";
 import { formatDate, formatTimestamp } from "@/reports/format";
 import { filingSections, type Block } from "@/reports/sections";
 import { contentHash } from "@/reports/view-model";
@@ -15,6 +14,7 @@ import { CoverNoteForm, ExplanationsForm, MarkFiledForm, NewVersionForm, Prepare
 import { FILING_STATE_LABELS, FilingStatus } from "./_components/filing-status";
 import { SectionComments, type SectionComment } from "./_components/section-comments";
 import { SectionTable } from "./_components/section-tables";
+import { PackStatus } from "./_components/pack-status";
 import { StaleRunNotice } from "../runs/_components/stale-run";
 
 export const metadata: Metadata = { title: "Filing" };
@@ -143,10 +143,7 @@ function Versions({ data }: { data: PeriodFiling }) {
 export default async function FilingPage({ params }: { params: Promise<{ periodId: string }> }) {
   const { periodId } = await params;
   const { actor } = await pageActor("periods.read");
-  const data = await periodFiling(actor, periodId).catch((error) => {
-    if (error instanceof AppError && error.kind === "not_found") notFound();
-    throw error;
-  });
+  const data = await orNotFound(periodFiling(actor, periodId));
   const f = data.current;
   const officer = can(actor, "filing.prepare");
   const head = can(actor, "filing.review");
@@ -167,6 +164,7 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
   };
   const unexplained = f ? f.exceptions.filter((e) => !e.explanation).length : 0;
   const cannotSign = f && signer && f.status === "in_review" ? await fourEyesNote(actor, f.id) : null;
+  const packs = f ? await packStates(await packSource(actor, f.id)) : [];
 
   return (
     <>
@@ -323,6 +321,7 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
                 <a href={`/api/filings/${f.id}/packs/xlsx`} download className="font-medium underline" data-testid="download-xlsx">
                   Spreadsheet pack (.xlsx), version {f.version}
                 </a>
+                <PackStatus states={packs} />
                 <p className="text-xs text-ink-muted">{f.signature ? "Signed: the packs carry the sign-off block with the content hash." : "Marked DRAFT on every page until signed."} Downloads are recorded in the audit trail.</p>
               </div>
             </Card>

@@ -1,13 +1,11 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
 import { QueryProvider } from "@/app/_components/query-provider";
 import { formatDate, formatMonth } from "@/app/_components/format";
-import { pageActor } from "@/lib/auth/page";
+import { orNotFound, pageActor } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { getPeriod } from "@/lib/data/periods";
-import { AppError } from "@/lib/errors";
 import { RunsPanel } from "./runs-panel";
 
 export const metadata: Metadata = { title: "Runs" };
@@ -15,10 +13,7 @@ export const metadata: Metadata = { title: "Runs" };
 export default async function RunsPage({ params }: { params: Promise<{ periodId: string }> }) {
   const { periodId } = await params;
   const { actor } = await pageActor("periods.read");
-  const period = await getPeriod(actor, periodId).catch((error) => {
-    if (error instanceof AppError && error.kind === "not_found") notFound();
-    throw error;
-  });
+  const period = await orNotFound(getPeriod(actor, periodId));
   const locked = period.state === "signed" || period.state === "filed";
   return (
     <>

@@ -3,10 +3,9 @@ import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
 import { QueryProvider } from "@/app/_components/query-provider";
 import { formatMonth, formatTimestamp } from "@/app/_components/format";
-import { pageActor } from "@/lib/auth/page";
+import { orNotFound, pageActor } from "@/lib/auth/page";
 import { getPeriod } from "@/lib/data/periods";
 import { listRuns } from "@/lib/data/runs";
-import { AppError } from "@/lib/errors";
 import { RunTabs } from "../_components/run-tabs";
 import { StaleRunBadge, StaleRunNotice } from "../_components/stale-run";
 
@@ -14,12 +13,8 @@ import { StaleRunBadge, StaleRunNotice } from "../_components/stale-run";
 export default async function RunLayout({ children, params }: { children: React.ReactNode; params: Promise<{ periodId: string; runId: string }> }) {
   const { periodId, runId } = await params;
   const { actor } = await pageActor("periods.read");
-  const notFoundIfAbsent = (error: unknown): never => {
-    if (error instanceof AppError && error.kind === "not_found") notFound();
-    throw error;
-  };
-  const period = await getPeriod(actor, periodId).catch(notFoundIfAbsent);
-  const run = (await listRuns(actor, periodId).catch(notFoundIfAbsent)).find((r) => r.id === runId);
+  const period = await orNotFound(getPeriod(actor, periodId));
+  const run = (await orNotFound(listRuns(actor, periodId))).find((r) => r.id === runId);
   if (!run) notFound();
   const base = `/periods/${periodId}/runs/${runId}`;
   return (
