@@ -14,6 +14,8 @@ process.env.E2E_UPLOADTHING_TOKEN = uploadToken;
 /** The browser tests' own database file (E2E_DB_FILE lets side-by-side runs keep theirs apart; scripts/e2e-slot.sh). */
 export const E2E_DB_FILE = process.env.E2E_DB_FILE ?? "data/e2e.db";
 process.env.E2E_DB_FILE = E2E_DB_FILE;
+/** The job worker's health port (scripts/worker.ts), so that the suite waits for it. */
+const WORKER_PORT = Number(process.env.E2E_WORKER_PORT ?? UPLOAD_PORT + 5);
 const MAIL_SMTP_PORT = Number(process.env.E2E_MAIL_SMTP_PORT ?? 4125);
 const MAIL_HTTP_PORT = Number(process.env.E2E_MAIL_HTTP_PORT ?? 4126);
 process.env.E2E_REMINDERS_SECRET ??= randomBytes(24).toString("base64url");
@@ -102,6 +104,17 @@ export default defineConfig({
       env: { ...E2E_ENV, PORT: String(PORT), WEB_CONCURRENCY: process.env.E2E_WEB_CONCURRENCY ?? "1" },
       reuseExistingServer: false,
       timeout: 120_000,
+      stdout: "ignore",
+      stderr: "pipe",
+    },
+    {
+      // One job worker (npm run worker) on the same database and settings, after the seed above: it computes the runs
+      // the specs start. The reminder round stays on demand (the specs call the cron route and count the mail).
+      command: "node --conditions=react-server --import tsx scripts/worker.ts",
+      url: `http://127.0.0.1:${WORKER_PORT}/health`,
+      env: { ...E2E_ENV, WORKER_HEALTH_PORT: String(WORKER_PORT), REMINDERS_INTERVAL_MINUTES: "0", WORKER_GRACE_SECONDS: "2" },
+      reuseExistingServer: false,
+      timeout: 60_000,
       stdout: "ignore",
       stderr: "pipe",
     },

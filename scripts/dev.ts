@@ -1,9 +1,10 @@
-/** `npm run dev`: settings on first run, migrations applied, then `next dev` with hot reload. */
+/** `npm run dev`: settings on first run, migrations applied, then `next dev` with hot reload and one job worker. */
 import { spawn, spawnSync } from "node:child_process";
 import path from "node:path";
 import { ensureLocalEnv } from "./local-env";
 import { startLocalUploadService } from "./local-services";
 import { startLocalMail } from "./mail-listener";
+import { WORKER_NODE_ARGS } from "./worker";
 
 ensureLocalEnv();
 const migrated = spawnSync(process.execPath, ["--import", "tsx", "db/migrate.ts"], { stdio: "inherit", env: process.env });
@@ -13,6 +14,15 @@ void Promise.all([startLocalUploadService(), startLocalMail()]).then(() => {
     stdio: "inherit",
     env: process.env,
   });
-  for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
-  server.on("exit", (code) => process.exit(code ?? 0));
+  // one job worker (npm run worker) on the same settings: it computes runs and sends the reminder rounds
+  const worker = spawn(process.execPath, WORKER_NODE_ARGS, { stdio: "inherit", env: process.env });
+  for (const signal of ["SIGINT", "SIGTERM"] as const)
+    process.on(signal, () => {
+      server.kill(signal);
+      worker.kill(signal);
+    });
+  server.on("exit", (code) => {
+    worker.kill("SIGTERM");
+    process.exit(code ?? 0);
+  });
 });

@@ -3,7 +3,8 @@
  * reminders, … lib/jobs/registry.ts) against DATABASE_URL. Start as many as you like, on any machine that reaches
  * the database; each claims one job at a time. SIGTERM/SIGINT: stop claiming, let the job in hand finish for up to
  * WORKER_GRACE_SECONDS (20), then give it back to the queue and exit. A second signal exits at once (the job's
- * lease then runs out and another worker takes it over).
+ * lease then runs out and another worker takes it over). WORKER_HEALTH_PORT: answer GET on 127.0.0.1:PORT (health
+ * check). REMINDERS_INTERVAL_MINUTES: the reminder round's schedule (10; 0 = none: cron calls it instead).
  *
  * Runs with `node --conditions=react-server --import tsx` so that the app's server-only modules load outside Next.js.
  */
@@ -27,6 +28,16 @@ async function main() {
       console.log(`worker ${worker.owner}: ${signal}, stopping`);
       void worker.stop(graceMs).then(() => process.exit(0));
     });
+  }
+  const healthPort = Number(process.env.WORKER_HEALTH_PORT ?? 0);
+  if (healthPort > 0) {
+    // for a supervisor or the browser tests: answers once the worker works
+    const { createServer } = await import("node:http");
+    createServer((_request, response) => {
+      response.writeHead(200, { "content-type": "application/json" }).end(JSON.stringify({ ok: true, owner: worker.owner }));
+    })
+      .listen(healthPort, "127.0.0.1")
+      .unref();
   }
   console.log(`worker ${worker.owner}: working on ${Object.keys(JOB_KINDS).join(", ")} (database ${process.env.DATABASE_URL ?? "file:./data/ballast.db"})`);
   worker.start();
