@@ -2,8 +2,9 @@
 
 import { useMemo, useState } from "react";
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { apiFetch } from "@/app/_components/api";
+import { DataTable } from "@/app/_components/data-table";
 import { inputClass, secondaryButtonClass } from "@/app/_components/field";
 import { formatTimestamp } from "@/app/_components/format";
 
@@ -100,47 +101,7 @@ export function AuditTable() {
           {error instanceof Error ? error.message : "Could not load the audit trail."}
         </p>
       ) : null}
-      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-        <table className="w-full text-sm">
-          <caption className="sr-only">Audit events, newest first</caption>
-          <thead className="bg-paper-sunk text-left text-ink-soft">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => (
-                  <th key={header.id} scope="col" className="px-3 py-2 font-medium">
-                    {flexRender(header.column.columnDef.header, header.getContext())}
-                  </th>
-                ))}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {isPending ? (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
-                  Loading the audit trail…
-                </td>
-              </tr>
-            ) : table.getRowModel().rows.length === 0 ? (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
-                  No event matches these filters.
-                </td>
-              </tr>
-            ) : (
-              table.getRowModel().rows.map((row) => (
-                <tr key={row.id} className="border-t border-ink-line align-top" data-testid="audit-row">
-                  {row.getVisibleCells().map((cell) => (
-                    <td key={cell.id} className="px-3 py-2">
-                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                    </td>
-                  ))}
-                </tr>
-              ))
-            )}
-          </tbody>
-        </table>
-      </div>
+      <DataTable table={table} caption="Audit events, newest first" loading={isPending} loadingText="Loading the audit trail…" emptyText="No event matches these filters." rowTestId="audit-row" />
       <div className="flex items-center justify-between text-sm">
         <span>
           Page {page} of {pages}

@@ -4,8 +4,9 @@ import Link from "next/link";
 import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { createColumnHelper, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { apiFetch, ApiError } from "@/app/_components/api";
+import { DataTable } from "@/app/_components/data-table";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
 import { formatTimestamp } from "@/app/_components/format";
@@ -150,47 +151,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
             {error instanceof Error ? error.message : "Could not load the runs."}
           </p>
         ) : null}
-        <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-          <table className="w-full text-sm">
-            <caption className="sr-only">Runs of this period, newest first</caption>
-            <thead className="bg-paper-sunk text-left text-ink-soft">
-              {table.getHeaderGroups().map((group) => (
-                <tr key={group.id}>
-                  {group.headers.map((header) => (
-                    <th key={header.id} scope="col" className="px-3 py-2 font-medium">
-                      {flexRender(header.column.columnDef.header, header.getContext())}
-                    </th>
-                  ))}
-                </tr>
-              ))}
-            </thead>
-            <tbody>
-              {isPending ? (
-                <tr>
-                  <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
-                    Loading the runs…
-                  </td>
-                </tr>
-              ) : runs.length === 0 ? (
-                <tr>
-                  <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
-                    No run yet for this period.
-                  </td>
-                </tr>
-              ) : (
-                table.getRowModel().rows.map((row) => (
-                  <tr key={row.id} className="border-t border-ink-line align-top" data-testid="run-row">
-                    {row.getVisibleCells().map((cell) => (
-                      <td key={cell.id} className="px-3 py-2">
-                        {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                      </td>
-                    ))}
-                  </tr>
-                ))
-              )}
-            </tbody>
-          </table>
-        </div>
+        <DataTable table={table} caption="Runs of this period, newest first" loading={isPending} loadingText="Loading the runs…" emptyText="No run yet for this period." rowTestId="run-row" />
       </section>
     </div>
   );

@@ -2,8 +2,9 @@
 
 import { useState } from "react";
 import { Bar, BarChart, CartesianGrid, Cell, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import { DraftCaution } from "@/app/_components/draft-caution";
+import { DataTable } from "@/app/_components/data-table";
 import { inputClass } from "@/app/_components/field";
 import { formatDate } from "@/app/_components/format";
 import type { PositionContribution } from "@/lib/risk";
@@ -83,39 +84,7 @@ function PositionsTable({ rows, currency, total }: { rows: PositionContribution[
   // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({ data: rows, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
   return (
-    <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-      <table className="w-full min-w-[900px] text-sm" data-testid="contributions-table">
-        <caption className="sr-only">Component VaR by position; column headers sort</caption>
-        <thead className="bg-paper-sunk text-left text-ink-soft">
-          {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => {
-                const sorted = h.column.getIsSorted();
-                return (
-                  <th key={h.id} scope="col" className="px-3 py-2 font-medium" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}>
-                    <button type="button" className="inline-flex items-center gap-1 text-left" onClick={h.column.getToggleSortingHandler()}>
-                      {flexRender(h.column.columnDef.header, h.getContext())}
-                      <span aria-hidden="true">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
-                    </button>
-                  </th>
-                );
-              })}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} className="border-t border-ink-line">
-              {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className="px-3 py-1.5">
-                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <DataTable table={table} caption="Component VaR by position; column headers sort" sortable tableTestId="contributions-table" minWidth="min-w-[900px]" cellClassName="px-3 py-1.5" rowClassName="border-t border-ink-line" />
   );
 }
 

@@ -1,9 +1,10 @@
 "use client";
 
-import { Fragment, useMemo, useState } from "react";
+import { useMemo, useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { createColumnHelper, flexRender, getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { createColumnHelper, getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import { apiFetch } from "@/app/_components/api";
+import { DataTable } from "@/app/_components/data-table";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { inputClass } from "@/app/_components/field";
 import { formatDate } from "@/app/_components/format";
@@ -139,90 +140,58 @@ function Table({ runId }: { runId: string }) {
           {table.getRowModel().rows.length} of {data.factors.length} factors
         </p>
       </form>
-      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-        <table className="w-full min-w-[1000px] text-sm" data-testid="factors-table">
-          <caption className="sr-only">Every factor of the run with its volatility under each estimator; column headers sort</caption>
-          <thead className="bg-paper-sunk text-left text-ink-soft">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted();
-                  return (
-                    <th key={header.id} scope="col" className="px-3 py-2 font-medium" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}>
-                      <button type="button" className="inline-flex items-center gap-1 text-left" onClick={header.column.getToggleSortingHandler()}>
-                        {flexRender(header.column.columnDef.header, header.getContext())}
-                        <span aria-hidden="true">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
-                      </button>
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.length === 0 ? (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-muted">
-                  No factor matches.
-                </td>
-              </tr>
-            ) : (
-              table.getRowModel().rows.map((row) => (
-                <Fragment key={row.id}>
-                  <tr className="border-t border-ink-line align-top" data-testid="factor-row">
-                    {row.getVisibleCells().map((cell) => (
-                      <td key={cell.id} className="px-3 py-2">
-                        {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                      </td>
-                    ))}
-                  </tr>
-                  {open === row.original.factor ? (
-                    <tr className="bg-paper-sunk/50">
-                      <td colSpan={columns.length} className="px-3 py-3">
-                        <p className="mb-2 text-xs text-ink-soft">
-                          {row.original.factor}: {row.original.returns.toLocaleString("en-GB")} returns
-                          {row.original.firstDate && row.original.lastDate ? ` from ${formatDate(row.original.firstDate)} to ${formatDate(row.original.lastDate)}` : ""}; chosen by{" "}
-                          {row.original.chosenFrom === "asset-class" ? "its asset class" : "the firm-wide default"}.
-                        </p>
-                        <table className="w-full text-xs">
-                          <caption className="sr-only">Every estimator for {row.original.factor}</caption>
-                          <thead>
-                            <tr className="text-left text-ink-muted">
-                              <th scope="col" className="py-1 pr-2">Estimator</th>
-                              <th scope="col" className="py-1 pr-2 text-right">Daily</th>
-                              <th scope="col" className="py-1 pr-2 text-right">Annual</th>
-                              <th scope="col" className="py-1 pr-2 text-right">Long-run daily</th>
-                              <th scope="col" className="py-1 pr-2">Parameters</th>
-                              <th scope="col" className="py-1 pr-2 text-right">Log-likelihood</th>
-                              <th scope="col" className="py-1">Warnings</th>
-                            </tr>
-                          </thead>
-                          <tbody className="figure">
-                            {row.original.estimates.map((e) => (
-                              <tr key={e.estimator} className={`border-t border-ink-line/60 ${row.original.chosen.kind === e.estimator ? "font-semibold" : ""}`}>
-                                <th scope="row" className="py-1 pr-2 text-left font-normal">
-                                  {e.label}
-                                  {row.original.chosen.kind === e.estimator ? " (chosen)" : ""}
-                                </th>
-                                <td className="py-1 pr-2 text-right">{pct(e.currentVolatility, 3)}</td>
-                                <td className="py-1 pr-2 text-right">{pct(e.annualisedVolatility)}</td>
-                                <td className="py-1 pr-2 text-right">{pct(e.longRunVolatility, 3)}</td>
-                                <td className="py-1 pr-2">{e.error ? `not fitted: ${e.error}` : params(e.params)}</td>
-                                <td className="py-1 pr-2 text-right">{num(e.logLikelihood, 1)}</td>
-                                <td className="py-1">{[...(e.fallbackFrom ? [`fell back from ${e.fallbackFrom.kind}: ${e.fallbackFrom.reason}`] : []), ...e.warnings.map((w) => w.message)].join(" ") || "—"}</td>
-                              </tr>
-                            ))}
-                          </tbody>
-                        </table>
-                      </td>
+      <DataTable
+        table={table}
+        caption="Every factor of the run with its volatility under each estimator; column headers sort"
+        sortable
+        emptyText="No factor matches."
+        rowTestId="factor-row"
+        tableTestId="factors-table"
+        minWidth="min-w-[1000px]"
+        afterRow={(row, span) =>
+          open === row.original.factor ? (
+            <tr className="bg-paper-sunk/50">
+              <td colSpan={span} className="px-3 py-3">
+                <p className="mb-2 text-xs text-ink-soft">
+                  {row.original.factor}: {row.original.returns.toLocaleString("en-GB")} returns
+                  {row.original.firstDate && row.original.lastDate ? ` from ${formatDate(row.original.firstDate)} to ${formatDate(row.original.lastDate)}` : ""}; chosen by{" "}
+                  {row.original.chosenFrom === "asset-class" ? "its asset class" : "the firm-wide default"}.
+                </p>
+                <table className="w-full text-xs">
+                  <caption className="sr-only">Every estimator for {row.original.factor}</caption>
+                  <thead>
+                    <tr className="text-left text-ink-muted">
+                      <th scope="col" className="py-1 pr-2">Estimator</th>
+                      <th scope="col" className="py-1 pr-2 text-right">Daily</th>
+                      <th scope="col" className="py-1 pr-2 text-right">Annual</th>
+                      <th scope="col" className="py-1 pr-2 text-right">Long-run daily</th>
+                      <th scope="col" className="py-1 pr-2">Parameters</th>
+                      <th scope="col" className="py-1 pr-2 text-right">Log-likelihood</th>
+                      <th scope="col" className="py-1">Warnings</th>
                     </tr>
-                  ) : null}
-                </Fragment>
-              ))
-            )}
-          </tbody>
-        </table>
-      </div>
+                  </thead>
+                  <tbody className="figure">
+                    {row.original.estimates.map((e) => (
+                      <tr key={e.estimator} className={`border-t border-ink-line/60 ${row.original.chosen.kind === e.estimator ? "font-semibold" : ""}`}>
+                        <th scope="row" className="py-1 pr-2 text-left font-normal">
+                          {e.label}
+                          {row.original.chosen.kind === e.estimator ? " (chosen)" : ""}
+                        </th>
+                        <td className="py-1 pr-2 text-right">{pct(e.currentVolatility, 3)}</td>
+                        <td className="py-1 pr-2 text-right">{pct(e.annualisedVolatility)}</td>
+                        <td className="py-1 pr-2 text-right">{pct(e.longRunVolatility, 3)}</td>
+                        <td className="py-1 pr-2">{e.error ? `not fitted: ${e.error}` : params(e.params)}</td>
+                        <td className="py-1 pr-2 text-right">{num(e.logLikelihood, 1)}</td>
+                        <td className="py-1">{[...(e.fallbackFrom ? [`fell back from ${e.fallbackFrom.kind}: ${e.fallbackFrom.reason}`] : []), ...e.warnings.map((w) => w.message)].join(" ") || "—"}</td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </td>
+            </tr>
+          ) : null
+        }
+      />
       {data.excludedFactors.length ? (
         <p className="text-sm text-ink-soft">
           Left out of the run: {data.excludedFactors.map((f) => `${f.factor} (${f.reason})`).join("; ")}.
