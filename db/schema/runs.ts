@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import { sqliteTable, text, integer, real, index, uniqueIndex, blob } from "drizzle-orm/sqlite-core";
 import { id, createdAt, firmColumns } from "../columns";
+import type { RunInputHashes, RunResults } from "../../lib/runs/types";
 
 /** A run computes every figure of a period from stated inputs; it is never edited. */
 export const runs = sqliteTable(
@@ -16,9 +17,9 @@ export const runs = sqliteTable(
     status: text("status").notNull().default("queued"),
     stage: text("stage").notNull().default("queued"),
     progress: real("progress").notNull().default(0),
-    inputHashes: text("input_hashes", { mode: "json" }).$type<Record<string, string>>(),
+    inputHashes: text("input_hashes", { mode: "json" }).$type<RunInputHashes>(),
     engineVersion: text("engine_version"),
-    results: text("results", { mode: "json" }).$type<Record<string, unknown>>(),
+    results: text("results", { mode: "json" }).$type<RunResults>(),
     error: text("error"),
     isFilingRun: integer("is_filing_run", { mode: "boolean" }).notNull().default(false),
     reproducesRunId: text("reproduces_run_id"),

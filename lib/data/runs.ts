@@ -28,6 +28,7 @@ import { capitalProfileOf } from "@/lib/runs/method-map";
 import { markIfInterrupted, runJobKey, type RunJobPayload } from "@/lib/runs/staleness";
 import { enqueue } from "@/lib/jobs/queue";
 import type { RunChange, RunInputHashes, RunInputs, RunListItem, RunRecord, RunResults, RunStatus, StoredPosition } from "@/lib/runs/types";
+import { dataQualityReport } from "@/lib/uploads/data-quality";
 import { confirmedPositionsUpload, getDataQuality } from "./data-quality";
 import { getPeriod } from "./periods";
 import { priceSeries } from "./prices";
@@ -49,9 +50,9 @@ function toRecord(row: { run: RunRow; startedByName: string | null; methodVersio
     status: r.status as RunStatus,
     stage: r.stage,
     progress: r.progress,
-    inputHashes: (r.inputHashes as unknown as RunInputHashes | null) ?? null,
+    inputHashes: r.inputHashes ?? null,
     engineVersion: r.engineVersion,
-    results: (r.results as unknown as RunResults | null) ?? null,
+    results: r.results ?? null,
     error: r.error,
     isFilingRun: r.isFilingRun,
     reproducesRunId: r.reproducesRunId,
@@ -251,7 +252,7 @@ export async function latestBookInputs(actor: Actor, content: MethodContent, per
       capitalProfile,
       periodEnd,
       reportingCurrency: actor.reportingCurrency,
-      context: { periodId: p.id, upload: { uploadId: upload.id, fileName: upload.fileName }, dataQuality: { report: { items: [], counts: { error: 0, warning: 0, info: 0 } }, items: 0, errors: 0, warnings: 0 } as unknown as RunInputs["context"]["dataQuality"] },
+      context: { periodId: p.id, upload: { uploadId: upload.id, fileName: upload.fileName }, dataQuality: { report: dataQualityReport([], new Map(), { reportingCurrency: actor.reportingCurrency, periodEnd }), items: 0, errors: 0, warnings: 0 } },
     };
     return { periodId: p.id, periodEnd, inputs };
   }
@@ -441,7 +442,7 @@ async function insertRun(
     return await getDb().transaction(async (tx) => {
       const [row] = await tx
         .insert(runs)
-        .values({ firmId: actor.firmId, ...columns, status: "queued", stage: "queued", progress: 0, inputHashes: (inputHashes ?? null) as unknown as Record<string, string> | null, startedBy: actor.userId, startedAt: stamp, heartbeatAt: new Date().toISOString() /* wall clock */ })
+        .values({ firmId: actor.firmId, ...columns, status: "queued", stage: "queued", progress: 0, inputHashes: inputHashes ?? null, startedBy: actor.userId, startedAt: stamp, heartbeatAt: new Date().toISOString() /* wall clock */ })
         .returning({ id: runs.id });
       if (values.reproducesRunId) {
         // the original's stored inputs, byte for byte, copied in the database (never read into this process)

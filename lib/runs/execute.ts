@@ -101,7 +101,7 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
       if (stored) {
         inputs = unpackInputs(stored.data);
         hashes = inputHashesOf(inputs);
-        const recorded = run.inputHashes as unknown as RunInputHashes | null;
+        const recorded = run.inputHashes;
         if (recorded && recorded.combined !== hashes.combined) throw new Error("the stored inputs no longer match the hashes recorded when the run started");
       } else {
         // gathered here, not in the request: positions, closes, data quality; refused like a start would be
@@ -112,7 +112,7 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
         hashes = inputHashesOf(inputs);
         const packed = packInputs(inputs);
         const kept = await db.transaction(async (tx) => {
-          const rows = await tx.update(runs).set({ inputHashes: hashes as unknown as Record<string, string> }).where(active).returning({ id: runs.id });
+          const rows = await tx.update(runs).set({ inputHashes: hashes }).where(active).returning({ id: runs.id });
           if (rows.length === 0) return false;
           await tx.insert(runInputs).values({ runId, firmId: run.firmId, data: packed.data, bytes: packed.bytes });
           return true;
@@ -128,11 +128,11 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
       if (run.reproducesRunId) {
         const [original] = await db.select().from(runs).where(and(eq(runs.id, run.reproducesRunId), eq(runs.firmId, run.firmId)));
         if (original?.results) {
-          const originalResults = original.results as unknown as RunResults;
+          const originalResults = original.results;
           // the data-quality report belongs to the original's start; a reproduction reads no live data
           results = { ...results, dataQuality: originalResults.dataQuality };
           results.reproduction = compareRuns(
-            { id: original.id, results: originalResults, inputHashes: original.inputHashes as unknown as RunInputHashes | null, engineVersion: original.engineVersion },
+            { id: original.id, results: originalResults, inputHashes: original.inputHashes, engineVersion: original.engineVersion },
             { results, inputHashes: hashes, engineVersion: ENGINE_VERSION },
           );
         }
@@ -141,7 +141,7 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
       await db.transaction(async (tx) => {
         const completed = await tx
           .update(runs)
-          .set({ status: "completed", stage: "done", progress: 1, results: results as unknown as Record<string, unknown>, engineVersion: ENGINE_VERSION, finishedAt, heartbeatAt: finishedAt })
+          .set({ status: "completed", stage: "done", progress: 1, results, engineVersion: ENGINE_VERSION, finishedAt, heartbeatAt: finishedAt })
           .where(active)
           .returning({ id: runs.id });
         if (completed.length === 0) throw new Error("the run was finished meanwhile (interrupted)");
