@@ -20,7 +20,7 @@
  */
 import "server-only";
 import { createHash } from "node:crypto";
-import { and, count, desc, eq, gte, inArray, lt } from "drizzle-orm";
+import { and, count, desc, eq, gte, inArray, lt, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { auditEvents, filings, firms, memberships, methodStatements, reportingPeriods, reviewComments, signatures, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
@@ -40,7 +40,7 @@ import { formatAmount, formatConfidence, formatMonth } from "@/reports/format";
 import { fragment } from "@/reports/sections";
 import { packFileName } from "@/reports/file-names";
 import { filingRunOf, getRun, getRunInputs, runChange } from "./runs";
-import { enqueuePackRender, storedOrRenderPack, type PackRenderer, type PackSource } from "./packs";
+import { enqueuePackRender, packContentKey, storedOrRenderPack, type PackRenderer, type PackSource } from "./packs";
 import { assertRunFresh, runFreshnessOf, type RunFreshness } from "./run-freshness";
 
 /** A filing version's stored status: the workflow states, and "superseded" for a signed version a later one replaced. */
@@ -234,7 +234,7 @@ function signatureView(s: SignatureRow, version: number, byId: Map<string, strin
 }
 
 /** The stored content with the fields that change after signing (status, filing date, reference) as they are now. */
-function presentContent(row: FilingRow): FilingViewModel {
+function presentContent(row: Pick<FilingRow, "content" | "status" | "filedAt" | "filingReference">): FilingViewModel {
   const vm = row.content;
   const status: FilingStatus = row.status === "superseded" ? "signed" : (row.status as FilingStatus);
   return { ...vm, filing: { ...vm.filing, status, filedAt: row.filedAt, filingReference: row.filingReference } };
@@ -1094,9 +1094,17 @@ export async function verifyFiling(actor: Actor, filingId: string): Promise<Veri
 /** The file name of a pack (reports/file-names.ts), e.g. northmoor-2026-11-v2-draft.docx. */
 export { packFileName };
 
-/** What a filing version's packs are rendered from, as it is now (lib/data/packs.ts); another firm's is not found. */
+/**
+ * What a filing version's packs are rendered from, as it is now (lib/data/packs.ts); another firm's is not found.
+ * The content is read as stored text and keyed by its SHA-256 with the fields a read overlays (status, filing date,
+ * reference); it is parsed only when a pack must be rendered.
+ */
 export async function packSource(actor: Actor, filingId: string): Promise<PackSource> {
-  const row = await findRow(actor, filingId);
+  const [row] = await getDb()
+    .select({ id: filings.id, periodId: filings.periodId, version: filings.version, status: filings.status, filedAt: filings.filedAt, filingReference: filings.filingReference, text: sql<string>`${filings.content}` })
+    .from(filings)
+    .where(and(eq(filings.id, filingId), eq(filings.firmId, actor.firmId)));
+  if (!row) throw new AppError("not_found:filing", "No such filing.");
   const [firm, period] = await Promise.all([firmOf(actor), findPeriod(actor, row.periodId)]);
   const status = row.status as FilingRowStatus;
   return {
@@ -1105,7 +1113,8 @@ export async function packSource(actor: Actor, filingId: string): Promise<PackSo
     version: row.version,
     status,
     state: status === "signed" || status === "filed" || status === "superseded" ? status : "draft",
-    content: presentContent(row),
+    contentKey: packContentKey(row.text, { status, filedAt: row.filedAt, filingReference: row.filingReference }),
+    content: () => presentContent({ content: JSON.parse(row.text) as FilingViewModel, status, filedAt: row.filedAt, filingReference: row.filingReference }),
     fileName: (kind) => packFileName(firm.slug, period.periodEnd, row.version, status, kind),
   };
 }

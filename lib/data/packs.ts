@@ -30,7 +30,10 @@ export interface PackSource {
   status: string;
   /** the state in the pack's name: draft | signed | filed | superseded */
   state: string;
-  content: FilingViewModel;
+  /** SHA-256 of the stored content and the fields a read overlays on it (packContentKey) */
+  contentKey: string;
+  /** the content as a read presents it (parsed on demand: only a render needs it) */
+  content(): FilingViewModel;
   fileName(kind: PackKind): string;
 }
 
@@ -54,9 +57,10 @@ export const renderPack: PackRenderer = async (content, kind) => {
   return built instanceof Uint8Array ? built : new Uint8Array(built as ArrayBuffer);
 };
 
-/** The SHA-256 of the content a pack is rendered from (status, filing date and reference as they are now included). */
-export function packContentKey(content: FilingViewModel): string {
-  return createHash("sha256").update(JSON.stringify(content)).digest("hex");
+/** The SHA-256 of the content a pack is rendered from: the stored content text and the status, filing date and
+ * reference a read overlays on it. */
+export function packContentKey(storedText: string, overlay: { status: string; filedAt: string | null; filingReference: string | null }): string {
+  return createHash("sha256").update(storedText).update("\u0000").update(JSON.stringify([overlay.status, overlay.filedAt, overlay.filingReference])).digest("hex");
 }
 
 const sha256Of = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
@@ -83,14 +87,14 @@ const inFlight = new Map<string, Promise<StoredPack>>();
 
 /** The stored pack of this version, state and content; rendered, stored and served when there is none yet. */
 export async function storedOrRenderPack(source: PackSource, kind: PackKind, render: PackRenderer = renderPack): Promise<StoredPack> {
-  const contentKey = packContentKey(source.content);
+  const contentKey = source.contentKey;
   const found = await findStored(getDb(), source, kind, contentKey);
   if (found) return { fileName: found.fileName, sha256: found.sha256, bytes: new Uint8Array(found.bytes), rendered: false };
   const flight = `${source.filingId}|${source.version}|${source.state}|${kind}|${contentKey}`;
   const running = inFlight.get(flight);
   if (running) return running;
   const work = (async (): Promise<StoredPack> => {
-    const bytes = await render(source.content, kind);
+    const bytes = await render(source.content(), kind);
     const sha256 = sha256Of(bytes);
     const fileName = source.fileName(kind);
     return getDb().transaction(async (tx) => {
@@ -128,7 +132,7 @@ export type PackState =
 
 /** The packs of a filing version as it is now, and the newest render job for it. */
 export async function packStates(source: PackSource): Promise<PackState[]> {
-  const contentKey = packContentKey(source.content);
+  const contentKey = source.contentKey;
   const db = getDb();
   const rows = await db
     .select({ format: packFiles.format, sha256: packFiles.sha256, sizeBytes: packFiles.sizeBytes })
