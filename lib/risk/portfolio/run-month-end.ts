@@ -14,7 +14,7 @@ import { runBacktest, type BacktestResult } from "../backtest/backtest";
 import { trafficLight } from "../backtest/traffic-light";
 import { BASEL_CAPITAL_PROFILE, capitalCharge, type CapitalProfile, type CapitalResult } from "../capital/capital";
 import { esMultiplier, varMultiplier, type ParametricOptions } from "../var/parametric";
-import { HISTORICAL_QUANTILE_CONVENTION, historicalTail } from "../var/historical";
+import { HISTORICAL_QUANTILE_CONVENTION, historicalTail, tailOfSortedLosses } from "../var/historical";
 import { describeScaling, garchHorizonVariance, overlappingSums, type HorizonScaling } from "../var/scaling";
 import { searchStressWindow } from "../var/stressed";
 import { equalWeightCovariance, ewmaCovariance, standardisedCorrelation } from "./covariance";
@@ -234,18 +234,7 @@ function sortedLosses(pnl: ArrayLike<number>, start: number, end: number, out: F
 
 /** VaR (type-7) and ES (fractional tail mean) from ascending losses; the convention of historicalTail. */
 function tailOfSorted(losses: Float64Array, confidence: number): VarFigure {
-  const n = losses.length;
-  const h = (n - 1) * confidence;
-  const lo = Math.floor(h);
-  const frac = h - lo;
-  const v = frac === 0 || lo + 1 >= n ? losses[lo] : losses[lo] + frac * (losses[lo + 1] - losses[lo]);
-  const k = n * (1 - confidence);
-  const whole = Math.floor(k + 1e-9);
-  const rest = k - whole > 1e-9 ? k - whole : 0;
-  let s = 0;
-  for (let j = 0; j < whole; j++) s += losses[n - 1 - j];
-  if (rest > 0) s += rest * losses[n - 1 - whole];
-  return { var: v, es: s / k };
+  return tailOfSortedLosses(losses, confidence);
 }
 
 function scenarioPnl(sc: Scenarios, e: ArrayLike<number>): Float64Array {

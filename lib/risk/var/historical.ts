@@ -89,10 +89,7 @@ export function lossQuantile(pnl: ArrayLike<number>, start: number, end: number,
   const losses = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
   for (let i = 0; i < n; i++) losses[i] = -pnl[start + i];
   losses.sort();
-  const h = (n - 1) * confidence;
-  const lo = Math.floor(h);
-  const frac = h - lo;
-  return frac === 0 || lo + 1 >= n ? losses[lo] : losses[lo] + frac * (losses[lo + 1] - losses[lo]);
+  return type7OfSorted(losses, confidence);
 }
 
 /** Historical VaR and ES together for a window [start, end) of a P&L series (sorting once). */
@@ -102,15 +99,26 @@ export function lossQuantileAndEs(pnl: ArrayLike<number>, start: number, end: nu
   const losses = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
   for (let i = 0; i < n; i++) losses[i] = -pnl[start + i];
   losses.sort();
+  return tailOfSortedLosses(losses, confidence);
+}
+
+/** The type-7 quantile of ascending losses at `confidence` (the one quantile kernel of the historical figures). */
+export function type7OfSorted(losses: ArrayLike<number>, confidence: number): number {
+  const n = losses.length;
   const h = (n - 1) * confidence;
   const lo = Math.floor(h);
   const frac = h - lo;
-  const v = frac === 0 || lo + 1 >= n ? losses[lo] : losses[lo] + frac * (losses[lo + 1] - losses[lo]);
+  return frac === 0 || lo + 1 >= n ? losses[lo] : losses[lo] + frac * (losses[lo + 1] - losses[lo]);
+}
+
+/** VaR (type-7) and ES (fractional tail mean of the n·(1 − confidence) largest losses) from ascending losses. */
+export function tailOfSortedLosses(losses: ArrayLike<number>, confidence: number): { var: number; es: number } {
+  const n = losses.length;
   const k = n * (1 - confidence);
   const whole = Math.floor(k + 1e-9);
   const rest = k - whole > 1e-9 ? k - whole : 0;
   let s = 0;
   for (let j = 0; j < whole; j++) s += losses[n - 1 - j];
   if (rest > 0) s += rest * losses[n - 1 - whole];
-  return { var: v, es: s / k };
+  return { var: type7OfSorted(losses, confidence), es: s / k };
 }
