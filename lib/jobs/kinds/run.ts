@@ -8,12 +8,8 @@
 import "server-only";
 import type { Job } from "@/db/schema";
 import type { Database } from "@/db/client";
+import type { RunJobPayload } from "@/lib/runs/staleness";
 import type { JobKind } from "../types";
-
-export interface RunJobPayload {
-  runId: string;
-  excludeShortHistory?: boolean;
-}
 
 export const runJob: JobKind = {
   async handle(context) {
