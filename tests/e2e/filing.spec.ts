@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { test, expect, type APIRequestContext, type Browser, type Page } from "@playwright/test";
 import { readFileSync } from "node:fs";
 import JSZip from "jszip";
@@ -260,7 +261,15 @@ test("both packs download with their content types and open; each download is in
   expect(word.headers()["content-disposition"]).toBe('attachment; filename="pellam-2026-10-v1-signed.docx"');
   const sheet = await api.get(`/api/filings/${filingId}/packs/xlsx`);
   expect(sheet.headers()["content-type"]).toBe("application/vnd.openxmlformats-officedocument.spreadsheetml.sheet");
+  // the stored pack: its SHA-256 in the headers is the bytes' own, and the page shows it once stored
+  const wordSha = createHash("sha256").update(await word.body()).digest("hex");
+  expect(word.headers()["x-ballast-pack-sha256"]).toBe(wordSha);
+  expect(word.headers()["etag"]).toBe(`"${wordSha}"`);
+  expect(createHash("sha256").update(await (await api.get(`/api/filings/${filingId}/packs/docx`)).body()).digest("hex")).toBe(wordSha);
   await api.dispose();
+  await page.reload();
+  await expect(page.getByTestId("pack-status-docx")).toContainText(`SHA-256 ${wordSha}`);
+  await page.getByTestId("pack-status").screenshot({ path: `${SCREENS}/filing-pack-status.png` });
 
   // Rafe Pellam is the firm's administrator too, so he reads the audit trail
   const admin = await signedInApi(HEAD.email);
