@@ -10,7 +10,7 @@ import type { RegulatoryCapitalView } from "./regulatory-capital";
 import type { QualityReport, QualitySeverity } from "@/lib/uploads/data-quality";
 import { CHECK_LABELS } from "@/lib/uploads/data-quality";
 import type { MethodContent } from "@/lib/validation/method";
-import { ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
+import { ASSET_CLASS_LABELS, VAR_METHOD_LABELS } from "@/lib/domain/labels";
 import { DRAFT_CAUTION } from "@/lib/domain/caution";
 import { describeComputedMethod } from "./method-text";
 
@@ -29,11 +29,7 @@ export const FILING_STATUS_LABELS: Record<FilingStatus, string> = {
   filed: "Filed",
 };
 
-export const VAR_METHOD_LABELS: Record<VarMethod, string> = {
-  parametric: "Parametric",
-  historical: "Historical simulation",
-  filtered: "Filtered historical simulation",
-};
+export { VAR_METHOD_LABELS };
 
 /* ------------------------------------------------------------------------------------------------------------ */
 /* The view model                                                                                               */

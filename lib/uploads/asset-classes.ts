@@ -1,16 +1,7 @@
-/** The asset classes a position can carry, with the spellings accepted in files. */
-export const ASSET_CLASSES = ["equity", "etf", "government_bond", "corporate_bond", "commodity_future", "fx", "other"] as const;
-export type AssetClass = (typeof ASSET_CLASSES)[number];
+import { ASSET_CLASSES, ASSET_CLASS_LABELS, type AssetClass } from "@/lib/domain/labels";
 
-export const ASSET_CLASS_LABELS: Record<AssetClass, string> = {
-  equity: "Equities",
-  etf: "Exchange-traded funds",
-  government_bond: "Government bonds",
-  corporate_bond: "Corporate bonds",
-  commodity_future: "Commodity futures",
-  fx: "Foreign exchange",
-  other: "Other",
-};
+/** The asset classes and their words live in lib/domain/labels.ts; re-exported for the readers of files. */
+export { ASSET_CLASSES, ASSET_CLASS_LABELS, type AssetClass };
 
 /**
  * The one table of spellings a file may use for each asset class (compared without case, spaces, underscores,

@@ -3,10 +3,11 @@
  * for the page. Figures in tabular numerals, right-aligned, with their units in the column headings.
  */
 import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatTimestamp } from "@/reports/format";
+import { VAR_METHOD_LABELS } from "@/lib/domain/labels";
 import type { FilingViewModel } from "@/reports/view-model";
 import { FILING_STATE_LABELS, type FilingState } from "./filing-status";
 
-const VAR_METHOD: Record<string, string> = { parametric: "Parametric", historical: "Historical simulation", filtered: "Filtered historical simulation" };
+const VAR_METHOD: Record<string, string> = VAR_METHOD_LABELS;
 
 interface Column {
   header: string;

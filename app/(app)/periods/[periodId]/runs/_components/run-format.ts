@@ -1,4 +1,5 @@
 /** Figures of a run as pages show them: money in the firm's reporting currency, percentages, plain numbers. */
+import { ASSET_CLASS_LABELS, RUN_STAGE_LABELS, VAR_METHOD_LABELS } from "@/lib/domain/labels";
 const moneyFormats = new Map<string, Intl.NumberFormat>();
 
 /** Whole units of the reporting currency, e.g. "€1,086,585". */
@@ -37,32 +38,9 @@ export function compactMoney(value: number): string {
   return `${+value.toFixed(0)}`;
 }
 
-export const ASSET_CLASS_WORDS: Record<string, string> = {
-  equity: "Equities",
-  etf: "Exchange-traded funds",
-  government_bond: "Government bonds",
-  corporate_bond: "Corporate bonds",
-  commodity_future: "Commodity futures",
-  fx: "Foreign exchange",
-  other: "Other",
-  unclassified: "Unclassified",
-};
+/** Asset classes, VaR methods and stages in words: the one tables of lib/domain/labels.ts (plus "unclassified"). */
+export const ASSET_CLASS_WORDS: Record<string, string> = { ...ASSET_CLASS_LABELS, unclassified: "Unclassified" };
 
-export const METHOD_WORDS: Record<string, string> = { parametric: "Parametric", historical: "Historical simulation", filtered: "Filtered historical simulation" };
+export const METHOD_WORDS: Record<string, string> = VAR_METHOD_LABELS;
 
-export const STAGE_WORDS: Record<string, string> = {
-  queued: "Waiting to start",
-  inputs: "Reading positions, price history and method",
-  "factor-volatility": "Fitting each factor's volatility",
-  exposures: "Mapping positions to factors",
-  volatility: "Volatility for the covariance",
-  covariance: "Covariance and its check",
-  var: "Value-at-risk and expected shortfall",
-  stressed: "Stressed value-at-risk",
-  history: "Value-at-risk history",
-  backtest: "Backtest",
-  capital: "Capital",
-  storing: "Storing the results",
-  done: "Completed",
-  failed: "Failed",
-};
+export const STAGE_WORDS: Record<string, string> = RUN_STAGE_LABELS;
