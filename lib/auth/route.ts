@@ -16,9 +16,11 @@ import type { Permission } from "./permissions";
 
 type Schema = z.ZodType;
 
-interface RouteOptions<P extends Schema | undefined, Q extends Schema | undefined, B extends Schema | undefined> {
+type Gate = Permission | "member" | "public";
+
+interface RouteOptions<P extends Schema | undefined, Q extends Schema | undefined, B extends Schema | undefined, G extends Gate> {
   /** the permission required; "member" = any signed-in member of the firm; "public" = no sign-in */
-  permission: Permission | "member" | "public";
+  permission: G;
   params?: P;
   query?: Q;
   body?: B;
@@ -26,8 +28,11 @@ interface RouteOptions<P extends Schema | undefined, Q extends Schema | undefine
 
 type Infer<S> = S extends Schema ? z.infer<S> : undefined;
 
-export interface RouteContext<P, Q, B> {
-  actor: Actor;
+/** Who is asking: nobody on a public route, the signed-in member otherwise. */
+type ActorOf<G extends Gate> = G extends "public" ? null : Actor;
+
+export interface RouteContext<P, Q, B, A extends Actor | null = Actor> {
+  actor: A;
   params: P;
   query: Q;
   body: B;
@@ -52,18 +57,15 @@ function describe(fields: FieldErrors): string {
 }
 
 /** Wrap a route handler with the gate, validation and the error shape. */
-export function route<P extends Schema | undefined = undefined, Q extends Schema | undefined = undefined, B extends Schema | undefined = undefined>(
-  options: RouteOptions<P, Q, B>,
-  handler: (ctx: RouteContext<Infer<P>, Infer<Q>, Infer<B>>) => Promise<Response | unknown>,
+export function route<P extends Schema | undefined = undefined, Q extends Schema | undefined = undefined, B extends Schema | undefined = undefined, G extends Gate = Gate>(
+  options: RouteOptions<P, Q, B, G>,
+  handler: (ctx: RouteContext<Infer<P>, Infer<Q>, Infer<B>, ActorOf<G>>) => Promise<Response | unknown>,
 ) {
   return async (request: Request, context: { params: Promise<Record<string, string | string[] | undefined>> }): Promise<Response> => {
     try {
       // Writes from another site are refused before anything else (cross-site request forgery).
       assertSameOrigin(request);
-      const actor =
-        options.permission === "public"
-          ? (null as unknown as Actor)
-          : await requireActor(options.permission === "member" ? undefined : options.permission);
+      const actor: Actor | null = options.permission === "public" ? null : await requireActor(options.permission === "member" ? undefined : options.permission);
 
       let params: unknown = undefined;
       if (options.params) {
@@ -95,7 +97,8 @@ export function route<P extends Schema | undefined = undefined, Q extends Schema
         body = parsed.data;
       }
 
-      const result = await handler({ actor, params, query, body, request } as RouteContext<Infer<P>, Infer<Q>, Infer<B>>);
+      // params, query and body were parsed by the schemas above; the actor is null exactly on a public route
+      const result = await handler({ actor, params, query, body, request } as RouteContext<Infer<P>, Infer<Q>, Infer<B>, ActorOf<G>>);
       if (result instanceof Response) return withCacheControl(result);
       return jsonAnswer(request, result ?? { ok: true });
     } catch (error) {

@@ -5,13 +5,14 @@
  * (enqueueQualityRefresh). Safe to run again: a report already stored for the current inputs is left as it is.
  */
 import "server-only";
+import { periodPayloadSchema, readPayload } from "../payload";
 import type { JobKind } from "../types";
 import { firmWorkerActor } from "./firm-actor";
 
 export const dataQualityJob: JobKind = {
   async handle(context) {
     const { storedDataQuality, refreshDataQuality, qualityInputsKey } = await import("@/lib/data/data-quality");
-    const { periodId } = context.job.payload as { periodId: string };
+    const { periodId } = readPayload(context.job, periodPayloadSchema);
     const actor = await firmWorkerActor(context.db, context.job.firmId);
     await context.progress("checking the stored report", 0);
     const key = await qualityInputsKey(context.db, actor, periodId);

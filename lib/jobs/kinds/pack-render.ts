@@ -5,6 +5,7 @@
  * Safe to run again: a pack already stored for the version, state and content is not rendered again.
  */
 import "server-only";
+import { filingPayloadSchema, readPayload } from "../payload";
 import type { JobKind } from "../types";
 import { firmWorkerActor } from "./firm-actor";
 
@@ -12,7 +13,7 @@ export const packRenderJob: JobKind = {
   async handle(context) {
     const { packSource } = await import("@/lib/data/filings");
     const { storedOrRenderPack, PACK_FORMATS } = await import("@/lib/data/packs");
-    const { filingId } = context.job.payload as { filingId: string };
+    const { filingId } = readPayload(context.job, filingPayloadSchema);
     const actor = await firmWorkerActor(context.db, context.job.firmId);
     const source = await packSource(actor, filingId);
     const done: { format: string; sha256: string; rendered: boolean }[] = [];

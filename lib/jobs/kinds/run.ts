@@ -8,18 +8,18 @@
 import "server-only";
 import type { Job } from "@/db/schema";
 import type { Database } from "@/db/client";
-import type { RunJobPayload } from "@/lib/runs/staleness";
+import { readPayload, runPayloadSchema } from "../payload";
 import type { JobKind } from "../types";
 
 export const runJob: JobKind = {
   async handle(context) {
     const { executeRun } = await import("@/lib/runs/execute");
-    const payload = context.job.payload as unknown as RunJobPayload;
+    const payload = readPayload(context.job, runPayloadSchema);
     const outcome = await executeRun(payload.runId, { excludeShortHistory: payload.excludeShortHistory, heartbeat: context.heartbeat, signal: context.signal });
     return { outcome };
   },
   async onGivenUp(job: Job, db: Database, reason: string) {
     const { markRunInterrupted } = await import("@/lib/runs/staleness");
-    await markRunInterrupted(db, (job.payload as unknown as RunJobPayload).runId, reason);
+    await markRunInterrupted(db, readPayload(job, runPayloadSchema).runId, reason);
   },
 };
