@@ -39,14 +39,17 @@ export function PackStatus({ states }: { states: PackState[] }) {
     return () => clearInterval(timer);
   }, [active, router]);
   return (
-    <ul className="flex flex-col gap-1 text-xs text-ink-muted" role="status" aria-live="polite" data-testid="pack-status">
-      {states.map((s) => (
-        <li key={s.kind} data-testid={`pack-status-${s.kind}`} data-stored={s.stored ? "yes" : "no"}>
-          <span aria-hidden="true">{s.stored ? "✓ " : preparing(s) ? "… " : "○ "}</span>
-          {LABEL[s.kind]} {describe(s)}
-          {s.stored ? <span className="block break-all font-mono">SHA-256 {s.sha256}</span> : null}
-        </li>
-      ))}
-    </ul>
+    // the live region wraps the list (a status role on the <ul> itself would take away its list semantics)
+    <div role="status" aria-live="polite" data-testid="pack-status">
+      <ul className="flex flex-col gap-1 text-xs text-ink-muted">
+        {states.map((s) => (
+          <li key={s.kind} data-testid={`pack-status-${s.kind}`} data-stored={s.stored ? "yes" : "no"}>
+            <span aria-hidden="true">{s.stored ? "✓ " : preparing(s) ? "… " : "○ "}</span>
+            {LABEL[s.kind]} {describe(s)}
+            {s.stored ? <span className="block break-all font-mono">SHA-256 {s.sha256}</span> : null}
+          </li>
+        ))}
+      </ul>
+    </div>
   );
 }
