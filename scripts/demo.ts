@@ -9,7 +9,7 @@ import path from "node:path";
 import { ensureLocalEnv } from "./local-env";
 import { startLocalUploadService } from "./local-services";
 import { startLocalMail } from "./mail-listener";
-import { WORKER_NODE_ARGS } from "./worker";
+import { startWorkerBeside } from "./worker";
 import { DEMO_USERS, SECOND_FIRM_USERS, DEMO_PASSWORD } from "../db/seed";
 
 const root = process.cwd();
@@ -67,14 +67,5 @@ void Promise.all([startLocalUploadService(), startLocalMail()]).then(() => {
   const server = spawn(process.execPath, ["--import", "tsx", path.join(root, "scripts", "serve.ts")], { stdio: "inherit", env: { ...process.env, PORT: port, HOST: host } });
   // One job worker (npm run worker) with the same settings: it computes runs and sends the reminder round every
   // REMINDERS_INTERVAL_MINUTES (10). More workers: `npm run worker` in another terminal.
-  const worker = spawn(process.execPath, WORKER_NODE_ARGS, { stdio: "inherit", env: process.env });
-  for (const signal of ["SIGINT", "SIGTERM"] as const)
-    process.on(signal, () => {
-      server.kill(signal);
-      worker.kill(signal);
-    });
-  server.on("exit", (code) => {
-    worker.kill("SIGTERM");
-    process.exit(code ?? 0);
-  });
+  startWorkerBeside(server);
 });

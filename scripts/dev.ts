@@ -4,7 +4,7 @@ import path from "node:path";
 import { ensureLocalEnv } from "./local-env";
 import { startLocalUploadService } from "./local-services";
 import { startLocalMail } from "./mail-listener";
-import { WORKER_NODE_ARGS } from "./worker";
+import { startWorkerBeside } from "./worker";
 
 ensureLocalEnv();
 const migrated = spawnSync(process.execPath, ["--import", "tsx", "db/migrate.ts"], { stdio: "inherit", env: process.env });
@@ -15,14 +15,5 @@ void Promise.all([startLocalUploadService(), startLocalMail()]).then(() => {
     env: process.env,
   });
   // one job worker (npm run worker) on the same settings: it computes runs and sends the reminder rounds
-  const worker = spawn(process.execPath, WORKER_NODE_ARGS, { stdio: "inherit", env: process.env });
-  for (const signal of ["SIGINT", "SIGTERM"] as const)
-    process.on(signal, () => {
-      server.kill(signal);
-      worker.kill(signal);
-    });
-  server.on("exit", (code) => {
-    worker.kill("SIGTERM");
-    process.exit(code ?? 0);
-  });
+  startWorkerBeside(server);
 });

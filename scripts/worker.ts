@@ -8,11 +8,30 @@
  *
  * Runs with `node --conditions=react-server --import tsx` so that the app's server-only modules load outside Next.js.
  */
+import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync } from "node:fs";
 import path from "node:path";
 
 /** The node arguments a worker process runs with (for scripts that start one). */
 export const WORKER_NODE_ARGS = ["--conditions=react-server", "--import", "tsx", path.join("scripts", "worker.ts")];
+
+/**
+ * Start one worker beside a web server the script started (the demo, `npm run dev`), with the same settings: a
+ * signal stops both, and the script ends with the server, stopping the worker.
+ */
+export function startWorkerBeside(server: ChildProcess): ChildProcess {
+  const worker = spawn(process.execPath, WORKER_NODE_ARGS, { stdio: "inherit", env: process.env });
+  for (const signal of ["SIGINT", "SIGTERM"] as const)
+    process.on(signal, () => {
+      server.kill(signal);
+      worker.kill(signal);
+    });
+  server.on("exit", (code) => {
+    worker.kill("SIGTERM");
+    process.exit(code ?? 0);
+  });
+  return worker;
+}
 
 async function main() {
   const { getDb } = await import("../db/client");

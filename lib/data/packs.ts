@@ -13,7 +13,7 @@ import { createHash } from "node:crypto";
 import { and, desc, eq, inArray, ne } from "drizzle-orm";
 import { getDb, type Database, type Tx } from "@/db/client";
 import { jobs, packFiles } from "@/db/schema";
-import { enqueue } from "@/lib/jobs/queue";
+import { enqueueLatest } from "@/lib/jobs/queue";
 import type { PackKind } from "@/lib/validation/filings";
 import type { FilingViewModel } from "@/reports/view-model";
 import { buildWordPack } from "@/reports/docx/filing-pack";
@@ -163,14 +163,5 @@ export function packJobKeys(filingId: string): [string, string] {
  * missing in any case.
  */
 export async function enqueuePackRender(tx: Tx, firmId: string, filingIds: string[]): Promise<void> {
-  for (const filingId of filingIds) {
-    const keys = packJobKeys(filingId);
-    const active = await tx
-      .select({ state: jobs.state, dedupeKey: jobs.dedupeKey })
-      .from(jobs)
-      .where(and(inArray(jobs.dedupeKey, keys), inArray(jobs.state, ["queued", "running"])));
-    if (active.some((j) => j.state === "queued")) continue;
-    const free = keys.find((k) => !active.some((j) => j.dedupeKey === k));
-    if (free) await enqueue(tx, { kind: "pack-render", firmId, payload: { filingId }, dedupeKey: free, maxAttempts: 3 });
-  }
+  for (const filingId of filingIds) await enqueueLatest(tx, { kind: "pack-render", firmId, payload: { filingId }, maxAttempts: 3 }, packJobKeys(filingId));
 }

@@ -4,10 +4,10 @@
  * Its own module, so those can enqueue without importing the report (no import cycle).
  */
 import "server-only";
-import { and, eq, inArray, notInArray } from "drizzle-orm";
+import { and, eq, notInArray } from "drizzle-orm";
 import type { Tx } from "@/db/client";
-import { jobs, reportingPeriods } from "@/db/schema";
-import { enqueue } from "@/lib/jobs/queue";
+import { reportingPeriods } from "@/db/schema";
+import { enqueueLatest } from "@/lib/jobs/queue";
 
 /** The dedupe keys of a period's report jobs: one queued or running under each (the second for inputs that changed
  * while the first was computing). */
@@ -21,16 +21,7 @@ export function qualityJobKeys(periodId: string): [string, string] {
  * is added then. Without a worker the page computes the report on its next view, as before.
  */
 export async function enqueueQualityRefresh(tx: Tx, firmId: string, periodIds: string[]): Promise<void> {
-  for (const periodId of periodIds) {
-    const keys = qualityJobKeys(periodId);
-    const active = await tx
-      .select({ state: jobs.state, dedupeKey: jobs.dedupeKey })
-      .from(jobs)
-      .where(and(inArray(jobs.dedupeKey, keys), inArray(jobs.state, ["queued", "running"])));
-    if (active.some((j) => j.state === "queued")) continue;
-    const free = keys.find((k) => !active.some((j) => j.dedupeKey === k));
-    if (free) await enqueue(tx, { kind: "data-quality", firmId, payload: { periodId }, dedupeKey: free, maxAttempts: 3 });
-  }
+  for (const periodId of periodIds) await enqueueLatest(tx, { kind: "data-quality", firmId, payload: { periodId }, maxAttempts: 3 }, qualityJobKeys(periodId));
 }
 
 /** The firm's periods whose report a new price history can change: those not signed or filed. */

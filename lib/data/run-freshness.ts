@@ -17,17 +17,9 @@ import { priceSeries } from "./prices";
 
 export type { RunFreshness } from "@/lib/runs/freshness";
 
-/** The period's current inputs: confirmed positions, approved method statement, capital rule profile in force. */
-export async function currentInputs(actor: Actor, periodId: string): Promise<CurrentInputs> {
-  return currentInputsOfFirm(actor.firmId, periodId);
-}
-
-async function currentInputsOfFirm(firmId: string, periodId: string): Promise<CurrentInputs> {
+/** The firm's approved method version and capital rule profile in force (what every period's runs are compared to). */
+async function firmRules(firmId: string) {
   const db = getDb();
-  const [upload] = await db
-    .select()
-    .from(uploads)
-    .where(and(eq(uploads.firmId, firmId), eq(uploads.periodId, periodId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")));
   const [method] = await db
     .select({ id: methodStatements.id, version: methodStatements.version })
     .from(methodStatements)
@@ -40,6 +32,21 @@ async function currentInputsOfFirm(firmId: string, periodId: string): Promise<Cu
     .where(and(eq(capitalRuleProfiles.firmId, firmId), eq(capitalRuleProfiles.active, true)))
     .orderBy(desc(capitalRuleProfiles.createdAt))
     .limit(1);
+  return { method, profile };
+}
+
+/** The period's current inputs: confirmed positions, approved method statement, capital rule profile in force. */
+export async function currentInputs(actor: Actor, periodId: string): Promise<CurrentInputs> {
+  return currentInputsOfFirm(actor.firmId, periodId);
+}
+
+async function currentInputsOfFirm(firmId: string, periodId: string): Promise<CurrentInputs> {
+  const db = getDb();
+  const [upload] = await db
+    .select()
+    .from(uploads)
+    .where(and(eq(uploads.firmId, firmId), eq(uploads.periodId, periodId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")));
+  const { method, profile } = await firmRules(firmId);
   return {
     positions: upload ? { uploadId: upload.id, fileName: upload.fileName, confirmedAt: upload.confirmedAt } : null,
     method: method ?? null,
@@ -138,18 +145,7 @@ async function currentInputsOfPeriods(firmId: string, periodIds: readonly string
         .from(uploads)
         .where(and(eq(uploads.firmId, firmId), inArray(uploads.periodId, [...periodIds]), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")))
     : [];
-  const [method] = await db
-    .select({ id: methodStatements.id, version: methodStatements.version })
-    .from(methodStatements)
-    .where(and(eq(methodStatements.firmId, firmId), eq(methodStatements.status, "approved")))
-    .orderBy(desc(methodStatements.version))
-    .limit(1);
-  const [profile] = await db
-    .select({ id: capitalRuleProfiles.id, name: capitalRuleProfiles.name })
-    .from(capitalRuleProfiles)
-    .where(and(eq(capitalRuleProfiles.firmId, firmId), eq(capitalRuleProfiles.active, true)))
-    .orderBy(desc(capitalRuleProfiles.createdAt))
-    .limit(1);
+  const { method, profile } = await firmRules(firmId);
   const out = new Map<string, CurrentInputs>();
   for (const periodId of periodIds) {
     const upload = confirmed.find((u) => u.periodId === periodId);

@@ -73,6 +73,21 @@ export async function enqueue(db: Db, job: NewJob, clock: Clock = wallClock): Pr
   return row;
 }
 
+/**
+ * Ask for work on the newest state of something (a period's report, a filing's packs) inside the caller's
+ * transaction: nothing is added while a job under `keys` is still queued (it reads the newest state when it runs);
+ * while one runs, the next is queued under the second key.
+ */
+export async function enqueueLatest(tx: Db, job: Omit<NewJob, "dedupeKey">, keys: readonly [string, string]): Promise<void> {
+  const active = await tx
+    .select({ state: jobs.state, dedupeKey: jobs.dedupeKey })
+    .from(jobs)
+    .where(and(inArray(jobs.dedupeKey, [...keys]), inArray(jobs.state, ["queued", "running"])));
+  if (active.some((j) => j.state === "queued")) return;
+  const free = keys.find((k) => !active.some((j) => j.dedupeKey === k));
+  if (free) await enqueue(tx, { ...job, dedupeKey: free });
+}
+
 /** Whether an error is the one-active-job-per-key index refusing a second job. */
 export function isDuplicateJob(error: unknown): boolean {
   for (let e: unknown = error; e; e = (e as { cause?: unknown }).cause) {

@@ -22,6 +22,7 @@ import { and, desc, eq, inArray } from "drizzle-orm";
 import { emit } from "../emit";
 import { startUploadStandIn, storeFileInStandIn } from "../../../scripts/upload-standin";
 import { DEMO_PASSWORD } from "../../../db/seed";
+import { mulberry32 } from "../../../lib/risk/random";
 
 const PORT = 3210;
 const UPLOAD_PORT = 4210;
@@ -53,17 +54,8 @@ const env: NodeJS.ProcessEnv = {
 // This process reads and writes the same database for the set-up (data functions read DATABASE_URL).
 Object.assign(process.env, { DATABASE_URL: env.DATABASE_URL, BALLAST_CLOCK: env.BALLAST_CLOCK, UPLOAD_STANDIN_DIR: env.UPLOAD_STANDIN_DIR });
 
-/** mulberry32: a small seeded generator, so the files are the same on every run. */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** mulberry32 (lib/risk/random.ts): a small seeded generator, so the files are the same on every run. */
+const seeded = mulberry32;
 
 /** 200,000 positions: the demo November book repeated per book, each copy's sizes scaled by a seeded factor 1–5. */
 function bookFile(rows = 200_000): Uint8Array {
