@@ -1,6 +1,0 @@
-import { PageLoading } from "@/app/_components/page-loading";
-
-/** While the comparison is read on the server. */
-export default function Loading() {
-  return <PageLoading what="Loading the comparison…" />;
-}
