@@ -1,7 +1,7 @@
 import { test, expect } from "@playwright/test";
 import { readFileSync } from "node:fs";
 import { createClient } from "@libsql/client";
-import { DEMO_USERS, signedInApi } from "./helpers";
+import { databaseSnapshot, DEMO_USERS, signedInApi } from "./helpers";
 
 /**
  * The malformed-request corpus (tests/fixtures/bad-input/requests.json): each payload gets its status, the
@@ -37,17 +37,7 @@ function commitWatcher() {
   };
 }
 
-async function snapshot(): Promise<string> {
-  const client = createClient({ url: `file:./${process.env.E2E_DB_FILE ?? "data/e2e.db"}` });
-  try {
-    const tables = await client.execute("SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE '__drizzle%' AND name <> 'sign_in_attempts' ORDER BY name");
-    const out: Record<string, unknown[]> = {};
-    for (const { name } of tables.rows) out[String(name)] = (await client.execute(`SELECT * FROM "${String(name)}" ORDER BY rowid`)).rows.map((r) => ({ ...r }));
-    return JSON.stringify(out);
-  } finally {
-    client.close();
-  }
-}
+const snapshot = () => databaseSnapshot();
 
 test("every malformed request is refused plainly and changes nothing", async () => {
   expect(corpus.cases.length).toBeGreaterThanOrEqual(40);

@@ -1,4 +1,5 @@
 import { request as playwrightRequest, type APIRequestContext, type Page, expect } from "@playwright/test";
+import { createClient } from "@libsql/client";
 import { DEMO_PASSWORD, DEMO_USERS, SECOND_FIRM_USERS } from "@/db/seed";
 
 export const BASE_URL = `http://localhost:${process.env.E2E_PORT ?? 3100}`;
@@ -51,4 +52,28 @@ export function bookDatedTo(text: string, from: string, to: string): string {
     return cells.join(",");
   });
   return [head, ...moved].join("\n") + "\n";
+}
+
+/**
+ * Written on their own schedule, not by the request under test: the job queue the worker works through, and what it
+ * computes once and stores for reading (the data-quality report, rendered packs), which a page view may also store.
+ */
+const WORKER_TABLES = ["jobs", "data_quality_reports", "pack_files"];
+
+/** Every stored row but sign-in attempts and the worker's tables, as one string (to show a request changed nothing). */
+export async function databaseSnapshot(options: { ignore?: string[] } = {}): Promise<string> {
+  const client = createClient({ url: `file:./${process.env.E2E_DB_FILE ?? "data/e2e.db"}` });
+  try {
+    const tables = await client.execute(
+      `SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE '__drizzle%' AND name <> 'sign_in_attempts' AND name NOT IN (${WORKER_TABLES.map((t) => `'${t}'`).join(", ")}) ORDER BY name`,
+    );
+    const out: Record<string, unknown[]> = {};
+    for (const { name } of tables.rows) {
+      if (options.ignore?.includes(String(name))) continue;
+      out[String(name)] = (await client.execute(`SELECT * FROM "${String(name)}" ORDER BY rowid`)).rows.map((r) => ({ ...r }));
+    }
+    return JSON.stringify(out);
+  } finally {
+    client.close();
+  }
 }

@@ -2,9 +2,8 @@ import { test, expect, request as playwrightRequest, type APIRequestContext, typ
 import { readdirSync, readFileSync, statSync, existsSync } from "node:fs";
 import { randomUUID } from "node:crypto";
 import path from "node:path";
-import { createClient } from "@libsql/client";
 import { ROUTES, type RouteCase } from "../permission-table";
-import { BASE_URL, DEMO_PASSWORD, DEMO_USERS, signedInApi, signInThroughPage } from "./helpers";
+import { BASE_URL, databaseSnapshot, DEMO_PASSWORD, DEMO_USERS, signedInApi, signInThroughPage } from "./helpers";
 
 /** Collect the browser's reports of content-security-policy violations on a page. */
 function watchViolations(page: Page): string[] {
@@ -71,21 +70,6 @@ test("no secret reaches the browser's files", () => {
 });
 
 /** Every table but the sign-in log (signing the personas in writes it) and any named, for "nothing changed" checks. */
-async function databaseSnapshot(options: { ignore?: string[] } = {}): Promise<string> {
-  const client = createClient({ url: `file:./${process.env.E2E_DB_FILE ?? "data/e2e.db"}` });
-  try {
-    const tables = await client.execute("SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE '__drizzle%' AND name <> 'sign_in_attempts' ORDER BY name");
-    const out: Record<string, unknown[]> = {};
-    for (const { name } of tables.rows) {
-      if (options.ignore?.includes(String(name))) continue;
-      out[String(name)] = (await client.execute(`SELECT * FROM "${String(name)}" ORDER BY rowid`)).rows.map((r) => ({ ...r }));
-    }
-    return JSON.stringify(out);
-  } finally {
-    client.close();
-  }
-}
-
 function personaFor(route: RouteCase): string {
   const user =
     route.allowed === "public" || route.allowed === "member"
