@@ -26,37 +26,6 @@ async function main() {
   process.exit(result.failed > 0 || result.mail !== "ok" ? 1 : 0);
 }
 
-/**
- * The demo's periodic trigger: calls the scheduler route on the running app every REMINDERS_INTERVAL_MINUTES (10),
- * first once the app answers. Lives in the demo process, not in the app, so a production server never schedules
- * itself; a hosted deployment calls POST /api/cron/reminders from its own scheduler instead.
- */
-export function startDemoReminderLoop(baseUrl: string): void {
-  const minutes = Number(process.env.REMINDERS_INTERVAL_MINUTES ?? 10);
-  const call = async () => {
-    try {
-      const response = await fetch(`${baseUrl}/api/cron/reminders`, { method: "POST", headers: { authorization: `Bearer ${process.env.REMINDERS_SECRET}` } });
-      const body = await response.json();
-      if (!response.ok) console.error(`reminders: ${body?.error?.message ?? response.status}`);
-      else if (body.sent || body.failed || body.opened?.length) {
-        console.log(`reminders (${body.asOf}): ${body.sent} sent, ${body.failed} not sent${body.opened?.length ? `, ${body.opened.length} period(s) opened` : ""}${body.problems?.length ? ` (${body.problems.join(" ")})` : ""}`);
-      }
-    } catch (error) {
-      console.error(`reminders: the app did not answer (${error instanceof Error ? error.message : error})`);
-    }
-  };
-  const waitForApp = async (triesLeft: number): Promise<void> => {
-    const up = await fetch(`${baseUrl}/api/health`).then((r) => r.ok, () => false);
-    if (up || triesLeft <= 0) return;
-    await new Promise((resolve) => setTimeout(resolve, 1000));
-    return waitForApp(triesLeft - 1);
-  };
-  void waitForApp(60).then(async () => {
-    await call();
-    setInterval(call, Math.max(1, minutes) * 60_000).unref();
-  });
-}
-
 if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(__filename)) {
   if (existsSync(".env.local")) process.loadEnvFile(".env.local");
   main().catch((error) => {

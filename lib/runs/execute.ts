@@ -16,7 +16,8 @@ import { now } from "@/lib/clock";
 import { ENGINE_VERSION } from "@/lib/risk/version";
 import { gatherRunInputs, packInputs, unpackInputs } from "@/lib/data/runs";
 import { jobByKey } from "@/lib/jobs/queue";
-import { runJobKey, type RunJobPayload } from "./staleness";
+import { readPayload, runPayloadSchema } from "@/lib/jobs/payload";
+import { runJobKey } from "./staleness";
 import { inputHashesOf, compareRuns, asStored } from "./compare";
 import { computeRun } from "./compute";
 import { RUN_STAGES, type RunInputHashes, type RunInputs, type RunResults } from "./types";
@@ -106,7 +107,8 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
       } else {
         // gathered here, not in the request: positions, closes, data quality; refused like a start would be
         // what the person asked at the start travels in the run's job
-        const excludeShortHistory = options.excludeShortHistory ?? Boolean(((await jobByKey(db, runJobKey(runId)))?.payload as RunJobPayload | undefined)?.excludeShortHistory);
+        const job = options.excludeShortHistory === undefined ? await jobByKey(db, runJobKey(runId)) : undefined;
+        const excludeShortHistory = options.excludeShortHistory ?? Boolean(job && readPayload(job, runPayloadSchema).excludeShortHistory);
         inputs = await gatherRunInputs(actor, run, { excludeShortHistory });
         await keepLease(true);
         hashes = inputHashesOf(inputs);

@@ -10,12 +10,11 @@ import { and, eq, inArray, lt, sql } from "drizzle-orm";
 import { getDb, type Database, type Tx } from "@/db/client";
 import { jobs, runs } from "@/db/schema";
 import { LEASE_MS, takeOverExpired } from "@/lib/jobs/queue";
+import type { runPayloadSchema } from "@/lib/jobs/payload";
+import type { z } from "zod";
 
-/** The payload of a "run" job (lib/jobs/kinds/run.ts). */
-export interface RunJobPayload {
-  runId: string;
-  excludeShortHistory?: boolean;
-}
+/** The payload of a "run" job (lib/jobs/kinds/run.ts): the schema in lib/jobs/payload.ts. */
+export type RunJobPayload = z.infer<typeof runPayloadSchema>;
 
 /** The dedupe key of a run's job: one active job per run. */
 export const runJobKey = (runId: string) => `run:${runId}`;
