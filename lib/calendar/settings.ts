@@ -6,6 +6,7 @@ import { calendarSettings, holidays, memberships } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
+import { enqueueQualityRefresh, periodsTakingPrices } from "@/lib/data/quality-jobs";
 import { parseHolidayCsv, type HolidayCsvInput, type HolidayListInput, type ReminderSettingsInput } from "./validation";
 
 export interface ReminderSettings {
@@ -63,6 +64,8 @@ async function writeHolidays(actor: Actor, list: Holiday[], audit: { action: str
     await tx.delete(holidays).where(eq(holidays.firmId, actor.firmId));
     if (list.length) await tx.insert(holidays).values(list.map((h) => ({ firmId: actor.firmId, date: h.date, name: h.name })));
     await recordAudit(tx, actor, { ...audit, entityType: "firm", entityId: actor.firmId });
+    // the business-day checks of every open period's data-quality report read the holidays: the worker computes them again
+    await enqueueQualityRefresh(tx, actor.firmId, await periodsTakingPrices(tx, actor.firmId));
   });
   return listHolidays(actor);
 }

@@ -12,6 +12,7 @@ import { recordAudit } from "@/lib/audit/record";
 import { now } from "@/lib/clock";
 import { canonicalJson } from "@/lib/domain/canonical";
 import type { Actor } from "@/lib/auth/actor";
+import { enqueueQualityRefresh, periodsTakingPrices } from "./quality-jobs";
 import { STANDARDISED_1996_PROFILE, type StandardisedProfile } from "@/lib/risk/standardised";
 import {
   CAPITAL_REGIMES,
@@ -205,6 +206,8 @@ export async function saveCapitalProfile(actor: Actor, input: CapitalProfileValu
       detail: { version, previousId: current?.id ?? null, reason: input.reason, changed, before, after: next },
       at: createdAt,
     });
+    // a profile filing the standardised figure adds attribute findings to the open periods' data-quality reports
+    await enqueueQualityRefresh(tx, actor.firmId, await periodsTakingPrices(tx, actor.firmId));
     return inserted.id;
   });
   const versions = await listCapitalProfileVersions(actor);

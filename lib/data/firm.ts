@@ -7,6 +7,7 @@ import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
 import type { FirmSettingsInput } from "@/lib/validation/firm";
+import { enqueueQualityRefresh, periodsTakingPrices } from "./quality-jobs";
 
 /** The firm's settings as the settings form shows them. */
 export async function getFirmSettings(actor: Actor) {
@@ -64,6 +65,8 @@ export async function updateFirmSettings(actor: Actor, input: FirmSettingsInput)
       summary: Object.keys(changed).length ? `Changed firm settings: ${Object.keys(changed).join(", ")}` : "Saved firm settings (no change)",
       detail: { before, after: input },
     });
+    // the open periods' data-quality reports convert to the reporting currency: the worker computes them again
+    if (input.reportingCurrency !== before.reportingCurrency) await enqueueQualityRefresh(tx, actor.firmId, await periodsTakingPrices(tx, actor.firmId));
   });
   return getFirmSettings(actor);
 }
