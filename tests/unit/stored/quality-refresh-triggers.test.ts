@@ -13,6 +13,7 @@ import { listHolidays, replaceHolidays } from "@/lib/calendar/settings";
 import { currentCapitalProfile, saveCapitalProfile } from "@/lib/data/capital-profile";
 import { getFirmSettings, updateFirmSettings } from "@/lib/data/firm";
 import { capitalProfileSchema } from "@/lib/validation/capital-profile";
+import { firmSettingsSchema } from "@/lib/validation/firm";
 
 let db: Database;
 let officer: Actor;
@@ -55,9 +56,9 @@ describe("data-quality refresh after a change of what the report reads", () => {
   it("is queued when the reporting currency changes, and not for another firm setting", async () => {
     await clearReportJobs();
     const settings = await getFirmSettings(officer);
-    await updateFirmSettings(officer, { ...settings, licenceLabel: `${settings.licenceLabel} (renewed)` });
+    await updateFirmSettings(officer, firmSettingsSchema.parse({ ...settings, licenceLabel: `${settings.licenceLabel} (renewed)` }));
     expect(await pendingReportJobs(), "a licence label is not read by the report").toBe(0);
-    await updateFirmSettings(officer, { ...settings, reportingCurrency: settings.reportingCurrency === "EUR" ? "GBP" : "EUR" });
+    await updateFirmSettings(officer, firmSettingsSchema.parse({ ...settings, reportingCurrency: settings.reportingCurrency === "EUR" ? "GBP" : "EUR" }));
     expect(await pendingReportJobs()).toBe(1);
   });
 });
