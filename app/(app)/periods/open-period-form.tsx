@@ -6,18 +6,19 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { openPeriodSchema, type OpenPeriodInput } from "@/lib/validation/periods";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+import { primaryButtonClass } from "@/app/_components/field";
+import { TextField } from "@/app/_components/form/fields";
 
 /** Open the period of a month by hand (periods also open automatically at month end). */
 export function OpenPeriodForm({ defaultMonth }: { defaultMonth: string }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
+  const form = useForm<OpenPeriodInput>({ resolver: zodResolver(openPeriodSchema), defaultValues: { month: defaultMonth } });
   const {
-    register,
     handleSubmit,
     setError,
-    formState: { errors, isSubmitting },
-  } = useForm<OpenPeriodInput>({ resolver: zodResolver(openPeriodSchema), defaultValues: { month: defaultMonth } });
+    formState: { isSubmitting },
+  } = form;
 
   const onSubmit = handleSubmit(async (values) => {
     setMessage(null);
@@ -33,9 +34,7 @@ export function OpenPeriodForm({ defaultMonth }: { defaultMonth: string }) {
 
   return (
     <form onSubmit={onSubmit} noValidate className="mb-6 flex flex-wrap items-end gap-3 rounded-lg border border-ink-line bg-paper-raised p-4">
-      <Field id="month" label="Open the period for month" hint="A month's period opens once the month has ended." error={errors.month?.message}>
-        <input id="month" type="month" max={defaultMonth} className={inputClass} aria-invalid={Boolean(errors.month)} {...register("month")} />
-      </Field>
+      <TextField form={form} name="month" label="Open the period for month" hint="A month's period opens once the month has ended." type="month" max={defaultMonth} />
       <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
         {isSubmitting ? "Opening…" : "Open period"}
       </button>

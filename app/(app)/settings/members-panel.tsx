@@ -6,7 +6,8 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { newMemberSchema, type NewMemberInput } from "@/lib/validation/firm";
 import { ROLES, ROLE_LABELS, type Role } from "@/lib/auth/roles";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { TextField, setFieldErrors } from "@/app/_components/form/fields";
 import { StatusBadge } from "@/app/_components/status-badge";
 import type { Member } from "@/lib/data/members";
 
@@ -150,14 +151,13 @@ function InvitationLine({ member, onChanged }: { member: Member; onChanged: (m: 
 export function MembersPanel({ initial, currentUserId }: { initial: Member[]; currentUserId: string }) {
   const [members, setMembers] = useState(initial);
   const [status, setStatus] = useState<string | null>(null);
+  const form = useForm<NewMemberInput>({ resolver: zodResolver(newMemberSchema), defaultValues: { name: "", email: "", roles: [] } });
   const {
-    register,
     control,
     handleSubmit,
     reset,
-    setError,
     formState: { errors, isSubmitting },
-  } = useForm<NewMemberInput>({ resolver: zodResolver(newMemberSchema), defaultValues: { name: "", email: "", roles: [] } });
+  } = form;
 
   const onSubmit = handleSubmit(async (values) => {
     setStatus(null);
@@ -167,9 +167,7 @@ export function MembersPanel({ initial, currentUserId }: { initial: Member[]; cu
       reset();
       setStatus(invitationStatus(member.name, member.email, invitation));
     } catch (e) {
-      if (e instanceof ApiError && e.fields) {
-        for (const [field, message] of Object.entries(e.fields)) setError(field as keyof NewMemberInput, { message });
-      }
+      if (e instanceof ApiError) setFieldErrors(form, e.fields);
       setStatus(e instanceof Error ? e.message : "Could not add the person.");
     }
   });
@@ -186,12 +184,8 @@ export function MembersPanel({ initial, currentUserId }: { initial: Member[]; cu
           Invite a person
         </h3>
         <div className="grid gap-4 sm:grid-cols-2">
-          <Field id="new-name" label="Name" error={errors.name?.message}>
-            <input id="new-name" className={inputClass} aria-invalid={Boolean(errors.name)} {...register("name")} />
-          </Field>
-          <Field id="new-email" label="E-mail" error={errors.email?.message}>
-            <input id="new-email" type="email" className={inputClass} aria-invalid={Boolean(errors.email)} {...register("email")} />
-          </Field>
+          <TextField form={form} name="name" id="new-name" label="Name" />
+          <TextField form={form} name="email" id="new-email" label="E-mail" type="email" />
         </div>
         <p className="text-sm text-ink-muted">
           Ballast e-mails them a link to choose their own password; it works once, for 72 hours. Someone who already has a Ballast account signs in with

@@ -7,18 +7,18 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { tokenPasswordSchema, type TokenPasswordInput } from "@/lib/validation/accounts";
 import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass, FormError } from "@/app/_components/field";
+import { primaryButtonClass, FormError } from "@/app/_components/field";
+import { TextField, setFieldErrors } from "@/app/_components/form/fields";
 
 /** Choose a password through an invitation or reset link; then sign in with it. */
 export function SetPasswordForm({ token, purpose, email }: { token: string; purpose: "invite" | "reset"; email: string }) {
   const [done, setDone] = useState(false);
   const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<TokenPasswordInput>({ resolver: zodResolver(tokenPasswordSchema), defaultValues: { token, password: "", confirm: "" } });
   const {
-    register,
     handleSubmit,
-    setError,
-    formState: { errors, isSubmitting },
-  } = useForm<TokenPasswordInput>({ resolver: zodResolver(tokenPasswordSchema), defaultValues: { token, password: "", confirm: "" } });
+    formState: { isSubmitting },
+  } = form;
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
@@ -26,7 +26,7 @@ export function SetPasswordForm({ token, purpose, email }: { token: string; purp
       await apiFetch("/api/account/set-password", { method: "POST", body: { ...values, purpose } });
       setDone(true);
     } catch (e) {
-      if (e instanceof ApiError && e.fields) for (const [field, message] of Object.entries(e.fields)) setError(field as keyof TokenPasswordInput, { message });
+      if (e instanceof ApiError) setFieldErrors(form, e.fields);
       setFormError(e instanceof Error ? e.message : "Could not set the password.");
     }
   });
@@ -45,12 +45,16 @@ export function SetPasswordForm({ token, purpose, email }: { token: string; purp
     <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">
       <FormError message={formError} />
       <input type="hidden" autoComplete="username" value={email} readOnly />
-      <Field id="password" label="New password" hint={`At least ${MIN_PASSWORD_LENGTH} characters; a phrase of several words is easiest to remember.`} error={errors.password?.message}>
-        <input id="password" type="password" autoComplete="new-password" autoFocus className={inputClass} aria-invalid={Boolean(errors.password)} {...register("password")} />
-      </Field>
-      <Field id="confirm" label="The same password again" error={errors.confirm?.message}>
-        <input id="confirm" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(errors.confirm)} {...register("confirm")} />
-      </Field>
+      <TextField
+        form={form}
+        name="password"
+        label="New password"
+        hint={`At least ${MIN_PASSWORD_LENGTH} characters; a phrase of several words is easiest to remember.`}
+        type="password"
+        autoComplete="new-password"
+        autoFocus
+      />
+      <TextField form={form} name="confirm" label="The same password again" type="password" autoComplete="new-password" />
       <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
         {isSubmitting ? "Saving…" : "Set password"}
       </button>

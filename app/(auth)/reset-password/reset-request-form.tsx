@@ -6,17 +6,18 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { resetRequestSchema, type ResetRequestInput } from "@/lib/validation/accounts";
 import { apiFetch } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass, FormError } from "@/app/_components/field";
+import { primaryButtonClass, FormError } from "@/app/_components/field";
+import { TextField } from "@/app/_components/form/fields";
 
 /** The reset request: one answer whatever the address, so the form cannot tell who has an account. */
 export function ResetRequestForm() {
   const [answer, setAnswer] = useState<string | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<ResetRequestInput>({ resolver: zodResolver(resetRequestSchema), defaultValues: { email: "" } });
   const {
-    register,
     handleSubmit,
-    formState: { errors, isSubmitting },
-  } = useForm<ResetRequestInput>({ resolver: zodResolver(resetRequestSchema), defaultValues: { email: "" } });
+    formState: { isSubmitting },
+  } = form;
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
@@ -41,9 +42,7 @@ export function ResetRequestForm() {
   return (
     <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">
       <FormError message={formError} />
-      <Field id="email" label="E-mail" error={errors.email?.message}>
-        <input id="email" type="email" autoComplete="username" autoFocus className={inputClass} aria-invalid={Boolean(errors.email)} {...register("email")} />
-      </Field>
+      <TextField form={form} name="email" label="E-mail" type="email" autoComplete="username" autoFocus />
       <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
         {isSubmitting ? "Sending…" : "Send reset link"}
       </button>

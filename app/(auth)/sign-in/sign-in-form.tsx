@@ -7,7 +7,8 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { signIn } from "next-auth/react";
 import { signInSchema, type SignInInput } from "@/lib/validation/auth";
 import { safeNextPath } from "@/lib/auth/safe-redirect";
-import { Field, inputClass, primaryButtonClass } from "@/app/_components/field";
+import { primaryButtonClass } from "@/app/_components/field";
+import { TextField } from "@/app/_components/form/fields";
 
 const GENERIC = "That e-mail and password do not match an active account.";
 const RATE_LIMITED = "Too many failed sign-in attempts for this account from here. Wait a few minutes and try again; each further failure doubles the wait.";
@@ -15,11 +16,11 @@ const RATE_LIMITED = "Too many failed sign-in attempts for this account from her
 export function SignInForm({ next, expired }: { next: string; expired: boolean }) {
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(expired ? "Your session ended. Sign in again." : null);
+  const form = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: "", password: "" } });
   const {
-    register,
     handleSubmit,
-    formState: { errors, isSubmitting },
-  } = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: "", password: "" } });
+    formState: { isSubmitting },
+  } = form;
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
@@ -40,29 +41,8 @@ export function SignInForm({ next, expired }: { next: string; expired: boolean }
           {formError}
         </p>
       ) : null}
-      <Field id="email" label="E-mail" error={errors.email?.message}>
-        <input
-          id="email"
-          type="email"
-          autoComplete="username"
-          autoFocus
-          className={inputClass}
-          aria-invalid={Boolean(errors.email)}
-          aria-describedby={errors.email ? "email-error" : undefined}
-          {...register("email")}
-        />
-      </Field>
-      <Field id="password" label="Password" error={errors.password?.message}>
-        <input
-          id="password"
-          type="password"
-          autoComplete="current-password"
-          className={inputClass}
-          aria-invalid={Boolean(errors.password)}
-          aria-describedby={errors.password ? "password-error" : undefined}
-          {...register("password")}
-        />
-      </Field>
+      <TextField form={form} name="email" label="E-mail" type="email" autoComplete="username" autoFocus />
+      <TextField form={form} name="password" label="Password" type="password" autoComplete="current-password" />
       <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
         {isSubmitting ? "Signing in…" : "Sign in"}
       </button>

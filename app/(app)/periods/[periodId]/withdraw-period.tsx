@@ -6,18 +6,18 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { withdrawPeriodSchema, type WithdrawPeriodInput } from "@/lib/validation/periods";
 import { apiFetch } from "@/app/_components/api";
-import { Field, inputClass } from "@/app/_components/field";
+import { TextField } from "@/app/_components/form/fields";
 
 /** Withdraw an empty period opened by mistake, with a reason (the server refuses once anything has entered it). */
 export function WithdrawPeriod({ periodId, label }: { periodId: string; label: string }) {
   const router = useRouter();
   const [open, setOpen] = useState(false);
   const [error, setErrorText] = useState<string | null>(null);
+  const form = useForm<WithdrawPeriodInput>({ resolver: zodResolver(withdrawPeriodSchema), defaultValues: { reason: "" } });
   const {
-    register,
     handleSubmit,
-    formState: { errors, isSubmitting },
-  } = useForm<WithdrawPeriodInput>({ resolver: zodResolver(withdrawPeriodSchema), defaultValues: { reason: "" } });
+    formState: { isSubmitting },
+  } = form;
 
   const onSubmit = handleSubmit(async (values) => {
     setErrorText(null);
@@ -42,9 +42,7 @@ export function WithdrawPeriod({ periodId, label }: { periodId: string; label: s
       <p className="basis-full text-sm">
         Withdraw {label}? Only a period nothing has entered yet can be withdrawn. The withdrawal is recorded in the audit trail.
       </p>
-      <Field id="withdraw-reason" label="Why" error={errors.reason?.message}>
-        <input id="withdraw-reason" className={inputClass} aria-invalid={Boolean(errors.reason)} {...register("reason")} />
-      </Field>
+      <TextField form={form} name="reason" id="withdraw-reason" label="Why" />
       <button type="submit" className="rounded-md border border-alert px-3 py-2 text-sm font-medium text-alert" disabled={isSubmitting}>
         {isSubmitting ? "Withdrawing…" : "Withdraw period"}
       </button>

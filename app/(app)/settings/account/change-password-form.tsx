@@ -7,18 +7,18 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { changePasswordSchema, type ChangePasswordInput } from "@/lib/validation/accounts";
 import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass, FormError } from "@/app/_components/field";
+import { primaryButtonClass, FormError } from "@/app/_components/field";
+import { TextField, setFieldErrors } from "@/app/_components/form/fields";
 
 /** Change one's own password with the current one; then go to sign-in (the session has ended). */
 export function ChangePasswordForm({ email }: { email: string }) {
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm<ChangePasswordInput>({ resolver: zodResolver(changePasswordSchema), defaultValues: { currentPassword: "", newPassword: "", confirm: "" } });
   const {
-    register,
     handleSubmit,
-    setError,
-    formState: { errors, isSubmitting },
-  } = useForm<ChangePasswordInput>({ resolver: zodResolver(changePasswordSchema), defaultValues: { currentPassword: "", newPassword: "", confirm: "" } });
+    formState: { isSubmitting },
+  } = form;
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
@@ -27,7 +27,7 @@ export function ChangePasswordForm({ email }: { email: string }) {
       router.replace("/sign-in?changed=1");
       router.refresh();
     } catch (e) {
-      if (e instanceof ApiError && e.fields) for (const [field, message] of Object.entries(e.fields)) setError(field as keyof ChangePasswordInput, { message });
+      if (e instanceof ApiError) setFieldErrors(form, e.fields);
       setFormError(e instanceof Error ? e.message : "Could not change the password.");
     }
   });
@@ -36,15 +36,9 @@ export function ChangePasswordForm({ email }: { email: string }) {
     <form onSubmit={onSubmit} noValidate className="mt-4 flex flex-col gap-4">
       <FormError message={formError} />
       <input type="hidden" autoComplete="username" value={email} readOnly />
-      <Field id="currentPassword" label="Current password" error={errors.currentPassword?.message}>
-        <input id="currentPassword" type="password" autoComplete="current-password" className={inputClass} aria-invalid={Boolean(errors.currentPassword)} {...register("currentPassword")} />
-      </Field>
-      <Field id="newPassword" label="New password" hint={`At least ${MIN_PASSWORD_LENGTH} characters.`} error={errors.newPassword?.message}>
-        <input id="newPassword" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(errors.newPassword)} {...register("newPassword")} />
-      </Field>
-      <Field id="confirm" label="The new password again" error={errors.confirm?.message}>
-        <input id="confirm" type="password" autoComplete="new-password" className={inputClass} aria-invalid={Boolean(errors.confirm)} {...register("confirm")} />
-      </Field>
+      <TextField form={form} name="currentPassword" label="Current password" type="password" autoComplete="current-password" />
+      <TextField form={form} name="newPassword" label="New password" hint={`At least ${MIN_PASSWORD_LENGTH} characters.`} type="password" autoComplete="new-password" />
+      <TextField form={form} name="confirm" label="The new password again" type="password" autoComplete="new-password" />
       <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
         {isSubmitting ? "Changing…" : "Change password"}
       </button>
