@@ -15,7 +15,7 @@ import { readTables } from "@/lib/uploads/read-table";
 import { chooseTable, parsePositions, POSITION_FIELDS, type PositionsParse } from "@/lib/uploads/parse-positions";
 import { parsePrices, PRICE_FIELDS, type PricePoint, type PricesParse } from "@/lib/uploads/parse-prices";
 import { bulkInsert, orderedId } from "@/db/bulk-insert";
-import { FileRejected, type DateFormat, type NumberFormat, type Problem, type ReadOptions } from "@/lib/uploads/types";
+import { FileRejected, type DateFormat, type NumberFormat, type ParseProgress, type Problem, type ReadOptions } from "@/lib/uploads/types";
 import { fetchStoredFile, deleteStoredFiles, sha256 } from "@/lib/uploads/file-store";
 import { ATTRIBUTE_SQL_COLUMNS, attributeSqlValues } from "@/lib/uploads/position-attributes";
 import type { StandardisedProfile } from "@/lib/risk/standardised";
@@ -87,7 +87,7 @@ export async function parseUploadBytes(
   bytes: Uint8Array,
   kind: UploadKind,
   options: ReadOptions,
-  context: { firmId: string; reportingCurrency: string; periodEnd?: string },
+  context: { firmId: string; reportingCurrency: string; periodEnd?: string; onProgress?: ParseProgress },
 ): Promise<ParsedUpload> {
   try {
     const tables = await readTables(bytes);
@@ -101,9 +101,9 @@ export async function parseUploadBytes(
     if (kind === "positions") {
       const fx = await fxRates(context.firmId, context.reportingCurrency, context.periodEnd ?? today());
       const filedStandardised = await filedStandardisedProfile(context.firmId);
-      return { kind, ...parsePositions(table, options, { today: today(), reportingCurrency: context.reportingCurrency, periodEnd: context.periodEnd, fxToReporting: fx.rates, fxDates: fx.dates, filedStandardisedProfile: filedStandardised }) };
+      return { kind, ...parsePositions(table, options, { today: today(), reportingCurrency: context.reportingCurrency, periodEnd: context.periodEnd, fxToReporting: fx.rates, fxDates: fx.dates, filedStandardisedProfile: filedStandardised, onProgress: context.onProgress }) };
     }
-    return { kind, ...parsePrices(table, options, { today: today() }) };
+    return { kind, ...parsePrices(table, options, { today: today(), onProgress: context.onProgress }) };
   } catch (error) {
     if (error instanceof FileRejected) return { kind: "rejected", message: error.message, problems: [{ row: null, field: null, severity: "error", message: error.message }] };
     throw error;

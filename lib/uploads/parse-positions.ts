@@ -6,7 +6,7 @@ import { z } from "zod";
 import { aliasesOf, isIsoCurrency, matchColumns, readDate, readNumber, readText } from "./cells";
 import { figureOutOfBounds } from "./limits";
 import { ASSET_CLASSES, parseAssetClass } from "./asset-classes";
-import type { Problem, RawTable, ReadOptions } from "./types";
+import { PROGRESS_EVERY, type ParseProgress, type Problem, type RawTable, type ReadOptions } from "./types";
 import type { StandardisedProfile } from "@/lib/risk/standardised";
 import { POSITION_ATTRIBUTE_FIELDS, positionAttributesSchema, readPositionAttributes, standardisedRequirementProblems } from "./position-attributes";
 
@@ -86,6 +86,8 @@ export interface PositionParseContext {
   fxDates?: Record<string, string>;
   /** set when the firm's capital rule profile files the standardised figure (its rates): a position lacking an attribute its blocks need is an error */
   filedStandardisedProfile?: StandardisedProfile | null;
+  /** told how many rows are checked so far (lib/uploads/types.ts ParseProgress) */
+  onProgress?: ParseProgress;
 }
 
 /** Relative tolerance of the market value cross-check, unless the caller states another: 0.5 % (and at least 1 unit). */
@@ -323,7 +325,9 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
 
     problems.push(...rowProblems);
     if (checked.success && !rowProblems.some((p) => p.severity === "error")) rows.push(checked.data);
+    if ((i + 1) % PROGRESS_EVERY === 0) context.onProgress?.(i + 1, table.rows.length);
   });
+  context.onProgress?.(table.rows.length, table.rows.length);
 
   if (context.filedStandardisedProfile && rows.length > 0) {
     // The filed standardised figure needs each position's attributes: a lacking one refuses its row, before confirmation.

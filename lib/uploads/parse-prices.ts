@@ -6,7 +6,7 @@
 import { z } from "zod";
 import { aliasesOf, matchColumns, normaliseHeader, readDate, readNumber, readText } from "./cells";
 import { figureOutOfBounds } from "./limits";
-import type { Problem, RawTable, ReadOptions } from "./types";
+import { PROGRESS_EVERY, type ParseProgress, type Problem, type RawTable, type ReadOptions } from "./types";
 
 export const PRICE_FIELDS = {
   date: { label: "date", required: true, aliases: ["date", "pricedate", "asof", "asofdate", "day"] },
@@ -62,7 +62,7 @@ export function detectPriceLayout(header: readonly string[], mapping?: Record<st
 }
 
 /** Parse and validate a price table (long or wide). */
-export function parsePrices(table: RawTable, options: ReadOptions, context: { today: string }): PricesParse {
+export function parsePrices(table: RawTable, options: ReadOptions, context: { today: string; onProgress?: ParseProgress }): PricesParse {
   const problems: Problem[] = [];
   const points: PricePoint[] = [];
   const layout = detectPriceLayout(table.header, options.mapping);
@@ -132,7 +132,10 @@ export function parsePrices(table: RawTable, options: ReadOptions, context: { to
       problems.push({ row: null, field: null, severity: "error", message: `The file has ${total.toLocaleString("en")} rows; a price file may hold at most ${MAX_PRICE_POINTS.toLocaleString("en")}.` });
       return { ...base, missingColumns: [], summary: summarise([]) };
     }
-    table.rows.forEach((raw, i) => accept(i + 2, raw[dateIndex], readText(raw[index.instrument!]).toUpperCase(), raw[index.close!], "close"));
+    table.rows.forEach((raw, i) => {
+      accept(i + 2, raw[dateIndex], readText(raw[index.instrument!]).toUpperCase(), raw[index.close!], "close");
+      if ((i + 1) % PROGRESS_EVERY === 0) context.onProgress?.(i + 1, total);
+    });
   } else {
     const columns = table.header.map((h, i) => ({ name: h.trim(), i })).filter((c) => c.i !== dateIndex && c.name !== "");
     total = columns.length * table.rows.length;
@@ -142,9 +145,12 @@ export function parsePrices(table: RawTable, options: ReadOptions, context: { to
     }
     const dupHeaders = columns.filter((c, k) => columns.findIndex((d) => normaliseHeader(d.name) === normaliseHeader(c.name)) !== k);
     for (const c of dupHeaders) problems.push({ row: 1, field: c.name, severity: "error", message: `instrument column "${c.name}" appears twice` });
+    const rowsPerReport = Math.max(1, Math.ceil(PROGRESS_EVERY / Math.max(1, columns.length)));
     table.rows.forEach((raw, i) => {
       for (const c of columns) accept(i + 2, raw[dateIndex], c.name.toUpperCase(), raw[c.i], c.name);
+      if ((i + 1) % rowsPerReport === 0) context.onProgress?.((i + 1) * columns.length, total);
     });
   }
+  context.onProgress?.(total, total);
   return { ...base, missingColumns: [], summary: summarise(points) };
 }

@@ -37,6 +37,15 @@ export interface ReadOptions {
   mapping?: Record<string, string>;
 }
 
+/**
+ * Told how far a parser has got: `done` of `total` rows checked (for a wide price file, prices). Called every
+ * PROGRESS_EVERY rows and once at the end; a parse that refuses the file before its rows is not reported.
+ */
+export type ParseProgress = (done: number, total: number) => void;
+
+/** How many rows a parser checks between two progress reports. */
+export const PROGRESS_EVERY = 10_000;
+
 /** A table read from a CSV or a workbook sheet: header cells and data rows of raw cell values. */
 export interface RawTable {
   header: string[];
