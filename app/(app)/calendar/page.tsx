@@ -15,6 +15,7 @@ import { listReminderLog } from "@/lib/reminders/log";
 import { mailListenerUrl } from "@/lib/mail/inbox";
 import { ReminderPreference } from "./reminder-preference";
 import { ReminderLog } from "./reminder-log";
+import { SimpleTable } from "@/app/_components/simple-table";
 
 export const metadata: Metadata = { title: "Calendar" };
 
@@ -52,49 +53,34 @@ export default async function CalendarPage() {
         {view.open.length === 0 ? (
           <p className="rounded-lg border border-dashed border-ink-line bg-paper-raised p-6 text-ink-soft">No period is open; the next one opens at month end.</p>
         ) : (
-          <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-            <table className="w-full text-sm" data-testid="open-deadlines">
-              <caption className="sr-only">Open reporting periods and their deadlines</caption>
-              <thead className="bg-paper-sunk text-left text-ink-soft">
-                <tr>
-                  <th scope="col" className="px-4 py-2 font-medium">Period</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Deadline</th>
-                  <th scope="col" className="px-4 py-2 text-right font-medium">Business days left</th>
-                  <th scope="col" className="px-4 py-2 font-medium">State</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Next step and owner</th>
-                  <th scope="col" className="px-4 py-2 font-medium">Next reminder</th>
-                </tr>
-              </thead>
-              <tbody>
-                {view.open.map((p) => (
-                  <tr key={p.id} className={`border-t border-ink-line ${p.overdue ? "bg-alert-bg/40" : ""}`} data-testid="deadline-row">
-                    <th scope="row" className="px-4 py-2 text-left font-medium">
-                      <Link href={`/periods/${p.id}`} className="hover:underline">
-                        {formatMonth(p.periodEnd)}
-                      </Link>
-                    </th>
-                    <td className="figure px-4 py-2">{formatDate(p.deadline)}</td>
-                    <td className="figure px-4 py-2 text-right">{p.overdue ? `−${Math.abs(p.businessDaysLeft)}` : p.businessDaysLeft}</td>
-                    <td className="px-4 py-2">
-                      <DeadlineBadge businessDaysLeft={p.businessDaysLeft} overdue={p.overdue} done={false} />
-                    </td>
-                    <td className="px-4 py-2">
-                      {p.nextStep ? (
-                        <>
-                          {p.nextStep.label}
-                          <span className="block text-xs text-ink-muted">
-                            {ROLE_LABELS[p.nextStep.owner]}
-                            {actor.roles.includes(p.nextStep.owner) ? " · yours" : ""}
-                          </span>
-                        </>
-                      ) : null}
-                    </td>
-                    <td className="px-4 py-2 text-ink-soft">{p.overdue ? (view.reminders.remindOverdue ? "Overdue notice" : "None") : p.nextReminder ? formatDate(p.nextReminder) : "None left"}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <SimpleTable caption="Open reporting periods and their deadlines" testId="open-deadlines" padding="px-4 py-2" columns={["Period", "Deadline", { label: "Business days left", align: "right" }, "State", "Next step and owner", "Next reminder"]}>
+            {view.open.map((p) => (
+              <tr key={p.id} className={`border-t border-ink-line ${p.overdue ? "bg-alert-bg/40" : ""}`} data-testid="deadline-row">
+                <th scope="row" className="px-4 py-2 text-left font-medium">
+                  <Link href={`/periods/${p.id}`} className="hover:underline">
+                    {formatMonth(p.periodEnd)}
+                  </Link>
+                </th>
+                <td className="figure px-4 py-2">{formatDate(p.deadline)}</td>
+                <td className="figure px-4 py-2 text-right">{p.overdue ? `−${Math.abs(p.businessDaysLeft)}` : p.businessDaysLeft}</td>
+                <td className="px-4 py-2">
+                  <DeadlineBadge businessDaysLeft={p.businessDaysLeft} overdue={p.overdue} done={false} />
+                </td>
+                <td className="px-4 py-2">
+                  {p.nextStep ? (
+                    <>
+                      {p.nextStep.label}
+                      <span className="block text-xs text-ink-muted">
+                        {ROLE_LABELS[p.nextStep.owner]}
+                        {actor.roles.includes(p.nextStep.owner) ? " · yours" : ""}
+                      </span>
+                    </>
+                  ) : null}
+                </td>
+                <td className="px-4 py-2 text-ink-soft">{p.overdue ? (view.reminders.remindOverdue ? "Overdue notice" : "None") : p.nextReminder ? formatDate(p.nextReminder) : "None left"}</td>
+              </tr>
+            ))}
+          </SimpleTable>
         )}
       </section>
 

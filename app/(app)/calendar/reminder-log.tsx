@@ -1,6 +1,7 @@
 import { StatusBadge } from "@/app/_components/status-badge";
 import { formatMonth, formatTimestamp } from "@/app/_components/format";
 import type { ReminderLogEntry } from "@/lib/reminders/log";
+import { SimpleTable } from "@/app/_components/simple-table";
 
 const STATUS: Record<ReminderLogEntry["status"], { tone: "ok" | "caution" | "alert" | "neutral"; label: string }> = {
   sent: { tone: "ok", label: "Sent" },
@@ -25,45 +26,31 @@ export function ReminderLog({ entries }: { entries: ReminderLogEntry[] }) {
           {problems.length} reminder{problems.length === 1 ? " has" : "s have"} not been confirmed as sent. {problems[0].lastError ?? ""}
         </p>
       ) : null}
-      <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-        <table className="w-full text-sm" data-testid="reminder-log">
-          <caption className="sr-only">Reminder delivery</caption>
-          <thead className="bg-paper-sunk text-left text-ink-soft">
-            <tr>
-              <th scope="col" className="px-4 py-2 font-medium">To</th>
-              <th scope="col" className="px-4 py-2 font-medium">Period</th>
-              <th scope="col" className="px-4 py-2 font-medium">When</th>
-              <th scope="col" className="px-4 py-2 font-medium">Status</th>
-              <th scope="col" className="px-4 py-2 font-medium">Detail</th>
+      <SimpleTable caption="Reminder delivery" testId="reminder-log" padding="px-4 py-2" columns={["To", "Period", "When", "Status", "Detail"]}>
+        {entries.map((e) => {
+          const s = STATUS[e.status];
+          return (
+            <tr key={e.id} className="border-t border-ink-line" data-testid="reminder-row">
+              <td className="px-4 py-2">
+                {e.name}
+                <span className="block text-xs text-ink-muted">{e.email}</span>
+              </td>
+              <td className="px-4 py-2">{formatMonth(e.periodEnd)}</td>
+              <td className="px-4 py-2">{e.offsetDays < 0 ? "Overdue" : `${e.offsetDays} business day${e.offsetDays === 1 ? "" : "s"} before`}</td>
+              <td className="px-4 py-2">
+                <StatusBadge tone={s.tone}>{s.label}</StatusBadge>
+              </td>
+              <td className="px-4 py-2 text-xs text-ink-soft">
+                {e.status === "sent" && e.sentAt ? `Sent ${formatTimestamp(e.sentAt)}` : null}
+                {e.status === "sending" ? "Sending started but was not confirmed (the scheduler stopped). It is not sent again automatically; check with the person." : null}
+                {e.lastError && e.status !== "sent" ? <span className="block">{e.lastError}</span> : null}
+                {e.status === "retry" && e.nextAttemptAt ? <span className="block">Next try after {formatTimestamp(e.nextAttemptAt)}</span> : null}
+                {e.attempts > 1 ? <span className="block">{e.attempts} tries</span> : null}
+              </td>
             </tr>
-          </thead>
-          <tbody>
-            {entries.map((e) => {
-              const s = STATUS[e.status];
-              return (
-                <tr key={e.id} className="border-t border-ink-line" data-testid="reminder-row">
-                  <td className="px-4 py-2">
-                    {e.name}
-                    <span className="block text-xs text-ink-muted">{e.email}</span>
-                  </td>
-                  <td className="px-4 py-2">{formatMonth(e.periodEnd)}</td>
-                  <td className="px-4 py-2">{e.offsetDays < 0 ? "Overdue" : `${e.offsetDays} business day${e.offsetDays === 1 ? "" : "s"} before`}</td>
-                  <td className="px-4 py-2">
-                    <StatusBadge tone={s.tone}>{s.label}</StatusBadge>
-                  </td>
-                  <td className="px-4 py-2 text-xs text-ink-soft">
-                    {e.status === "sent" && e.sentAt ? `Sent ${formatTimestamp(e.sentAt)}` : null}
-                    {e.status === "sending" ? "Sending started but was not confirmed (the scheduler stopped). It is not sent again automatically; check with the person." : null}
-                    {e.lastError && e.status !== "sent" ? <span className="block">{e.lastError}</span> : null}
-                    {e.status === "retry" && e.nextAttemptAt ? <span className="block">Next try after {formatTimestamp(e.nextAttemptAt)}</span> : null}
-                    {e.attempts > 1 ? <span className="block">{e.attempts} tries</span> : null}
-                  </td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
-      </div>
+          );
+        })}
+      </SimpleTable>
     </>
   );
 }

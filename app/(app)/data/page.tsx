@@ -10,6 +10,7 @@ import { listUploads } from "@/lib/data/uploads";
 import { priceCoverage } from "@/lib/data/prices";
 import { FileUpload } from "./file-upload";
 import { PositionColumnGuide } from "./column-guide";
+import { SimpleTable } from "@/app/_components/simple-table";
 
 export const metadata: Metadata = { title: "Data" };
 
@@ -77,43 +78,26 @@ export default async function DataPage() {
             above show the columns.
           </div>
         ) : (
-          <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-            <table className="w-full text-sm">
-              <caption className="sr-only">Uploaded files, newest first</caption>
-              <thead className="bg-paper-sunk text-left text-ink-soft">
-                <tr>
-                  <th scope="col" className="px-3 py-2 font-medium">File</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Kind</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Period</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Status</th>
-                  <th scope="col" className="px-3 py-2 text-right font-medium">Rows</th>
-                  <th scope="col" className="px-3 py-2 text-right font-medium">Errors</th>
-                  <th scope="col" className="px-3 py-2 text-right font-medium">Warnings</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Received</th>
-                </tr>
-              </thead>
-              <tbody>
-                {uploads.map((u) => (
-                  <tr key={u.id} className="border-t border-ink-line" data-testid="upload-row">
-                    <td className="px-3 py-2">
-                      <Link href={`/data/uploads/${u.id}`} className="font-medium underline-offset-2 hover:underline">
-                        {u.fileName}
-                      </Link>
-                    </td>
-                    <td className="px-3 py-2">{u.kind === "positions" ? "Positions" : "Price history"}</td>
-                    <td className="px-3 py-2">{u.periodId ? periodLabel.get(u.periodId) : "—"}</td>
-                    <td className="px-3 py-2">
-                      <UploadStatus status={u.status} />
-                    </td>
-                    <td className="figure px-3 py-2 text-right">{u.rowCount.toLocaleString("en")}</td>
-                    <td className="figure px-3 py-2 text-right">{u.errorCount.toLocaleString("en")}</td>
-                    <td className="figure px-3 py-2 text-right">{u.warningCount.toLocaleString("en")}</td>
-                    <td className="figure px-3 py-2 whitespace-nowrap">{formatTimestamp(u.createdAt)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <SimpleTable caption="Uploaded files, newest first" columns={["File", "Kind", "Period", "Status", { label: "Rows", align: "right" }, { label: "Errors", align: "right" }, { label: "Warnings", align: "right" }, "Received"]}>
+            {uploads.map((u) => (
+              <tr key={u.id} className="border-t border-ink-line" data-testid="upload-row">
+                <td className="px-3 py-2">
+                  <Link href={`/data/uploads/${u.id}`} className="font-medium underline-offset-2 hover:underline">
+                    {u.fileName}
+                  </Link>
+                </td>
+                <td className="px-3 py-2">{u.kind === "positions" ? "Positions" : "Price history"}</td>
+                <td className="px-3 py-2">{u.periodId ? periodLabel.get(u.periodId) : "—"}</td>
+                <td className="px-3 py-2">
+                  <UploadStatus status={u.status} />
+                </td>
+                <td className="figure px-3 py-2 text-right">{u.rowCount.toLocaleString("en")}</td>
+                <td className="figure px-3 py-2 text-right">{u.errorCount.toLocaleString("en")}</td>
+                <td className="figure px-3 py-2 text-right">{u.warningCount.toLocaleString("en")}</td>
+                <td className="figure px-3 py-2 whitespace-nowrap">{formatTimestamp(u.createdAt)}</td>
+              </tr>
+            ))}
+          </SimpleTable>
         )}
       </section>
 

@@ -10,6 +10,7 @@ import { listPeriods } from "@/lib/data/periods";
 import { today } from "@/lib/clock";
 import { latestMonthEnd } from "@/lib/calendar/deadline";
 import { OpenPeriodForm } from "./open-period-form";
+import { SimpleTable } from "@/app/_components/simple-table";
 
 export const metadata: Metadata = { title: "Periods" };
 
@@ -23,39 +24,25 @@ export default async function PeriodsPage() {
       {periods.length === 0 ? (
         <p className="rounded-lg border border-dashed border-ink-line bg-paper-raised p-6 text-ink-soft">No period has been opened yet.</p>
       ) : (
-        <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-          <table className="w-full text-sm">
-            <caption className="sr-only">Reporting periods</caption>
-            <thead className="bg-paper-sunk text-left text-ink-soft">
-              <tr>
-                <th scope="col" className="px-4 py-2 font-medium">Period</th>
-                <th scope="col" className="px-4 py-2 font-medium">Deadline</th>
-                <th scope="col" className="px-4 py-2 font-medium">Status</th>
-                <th scope="col" className="px-4 py-2 font-medium">Waiting on</th>
-                <th scope="col" className="px-4 py-2 text-right font-medium">Steps done</th>
-              </tr>
-            </thead>
-            <tbody>
-              {periods.map((p) => (
-                <tr key={p.id} className="border-t border-ink-line">
-                  <td className="px-4 py-2">
-                    <Link href={`/periods/${p.id}`} className="font-medium hover:underline">
-                      {formatMonth(p.periodEnd)}
-                    </Link>
-                  </td>
-                  <td className="figure px-4 py-2">{formatDate(p.deadline)}</td>
-                  <td className="px-4 py-2">
-                    <DeadlineBadge businessDaysLeft={p.businessDaysLeft} overdue={p.overdue} done={p.nextStep === null} />
-                  </td>
-                  <td className="px-4 py-2">{p.nextStep ? `${p.nextStep.label} (${ROLE_LABELS[p.nextStep.owner]})` : "Nothing: filed"}</td>
-                  <td className="figure px-4 py-2 text-right">
-                    {p.steps.filter((s) => s.done).length} / {p.steps.length}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <SimpleTable caption="Reporting periods" padding="px-4 py-2" columns={["Period", "Deadline", "Status", "Waiting on", { label: "Steps done", align: "right" }]}>
+          {periods.map((p) => (
+            <tr key={p.id} className="border-t border-ink-line">
+              <td className="px-4 py-2">
+                <Link href={`/periods/${p.id}`} className="font-medium hover:underline">
+                  {formatMonth(p.periodEnd)}
+                </Link>
+              </td>
+              <td className="figure px-4 py-2">{formatDate(p.deadline)}</td>
+              <td className="px-4 py-2">
+                <DeadlineBadge businessDaysLeft={p.businessDaysLeft} overdue={p.overdue} done={p.nextStep === null} />
+              </td>
+              <td className="px-4 py-2">{p.nextStep ? `${p.nextStep.label} (${ROLE_LABELS[p.nextStep.owner]})` : "Nothing: filed"}</td>
+              <td className="figure px-4 py-2 text-right">
+                {p.steps.filter((s) => s.done).length} / {p.steps.length}
+              </td>
+            </tr>
+          ))}
+        </SimpleTable>
       )}
     </>
   );

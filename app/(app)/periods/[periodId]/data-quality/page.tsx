@@ -8,6 +8,7 @@ import { getDataQuality } from "@/lib/data/data-quality";
 import { can } from "@/lib/auth/permissions";
 import { CONFIRMABLE_CHECKS } from "@/lib/uploads/data-quality";
 import { ConfirmItem } from "./confirm-item";
+import { SimpleTable } from "@/app/_components/simple-table";
 
 export const metadata: Metadata = { title: "Data quality" };
 
@@ -68,44 +69,31 @@ export default async function DataQualityPage({ params, searchParams }: { params
       {items.length === 0 ? (
         <p className="rounded-lg border border-ink-line bg-paper-raised p-6 text-ink-soft">{data.uploadId ? "No problems found." : "Nothing to check yet."}</p>
       ) : (
-        <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
-          <table className="w-full text-sm">
-            <caption className="sr-only">Data-quality items</caption>
-            <thead className="bg-paper-sunk text-left text-ink-soft">
-              <tr>
-                <th scope="col" className="px-3 py-2 font-medium">Severity</th>
-                <th scope="col" className="px-3 py-2 font-medium">Check</th>
-                <th scope="col" className="px-3 py-2 font-medium">Instrument</th>
-                <th scope="col" className="px-3 py-2 font-medium">Finding</th>
-              </tr>
-            </thead>
-            <tbody>
-              {items.map((item, i) => (
-                <tr key={i} className="border-t border-ink-line align-top" data-testid="quality-item">
-                  <td className="px-3 py-2">
-                    <StatusBadge tone={tone[item.severity]}>{word[item.severity]}</StatusBadge>
-                  </td>
-                  <td className="px-3 py-2 whitespace-nowrap">{report.byCheck.find((c) => c.check === item.check)?.label}</td>
-                  <td className="px-3 py-2 font-medium">{item.instrument}</td>
-                  <td className="px-3 py-2">
-                    {item.message}
-                    {item.confirmation ? (
-                      <p className="mt-1 text-ink-soft" data-testid="quality-confirmation">
-                        <StatusBadge tone="ok">Confirmed</StatusBadge> by {item.confirmation.by} on {item.confirmation.at.slice(0, 16).replace("T", " ")} UTC: {item.confirmation.reason}
-                      </p>
-                    ) : CONFIRMABLE_CHECKS.includes(item.check) ? (
-                      canConfirm ? (
-                        <ConfirmItem periodId={periodId} check={item.check} instrument={item.instrument} dates={item.dates ?? []} />
-                      ) : (
-                        <p className="mt-1 text-ink-muted">Not confirmed yet: a risk analyst or the compliance officer confirms it.</p>
-                      )
-                    ) : null}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <SimpleTable caption="Data-quality items" columns={["Severity", "Check", "Instrument", "Finding"]}>
+          {items.map((item, i) => (
+            <tr key={i} className="border-t border-ink-line align-top" data-testid="quality-item">
+              <td className="px-3 py-2">
+                <StatusBadge tone={tone[item.severity]}>{word[item.severity]}</StatusBadge>
+              </td>
+              <td className="px-3 py-2 whitespace-nowrap">{report.byCheck.find((c) => c.check === item.check)?.label}</td>
+              <td className="px-3 py-2 font-medium">{item.instrument}</td>
+              <td className="px-3 py-2">
+                {item.message}
+                {item.confirmation ? (
+                  <p className="mt-1 text-ink-soft" data-testid="quality-confirmation">
+                    <StatusBadge tone="ok">Confirmed</StatusBadge> by {item.confirmation.by} on {item.confirmation.at.slice(0, 16).replace("T", " ")} UTC: {item.confirmation.reason}
+                  </p>
+                ) : CONFIRMABLE_CHECKS.includes(item.check) ? (
+                  canConfirm ? (
+                    <ConfirmItem periodId={periodId} check={item.check} instrument={item.instrument} dates={item.dates ?? []} />
+                  ) : (
+                    <p className="mt-1 text-ink-muted">Not confirmed yet: a risk analyst or the compliance officer confirms it.</p>
+                  )
+                ) : null}
+              </td>
+            </tr>
+          ))}
+        </SimpleTable>
       )}
       <p className="mt-4 text-xs text-ink-muted">
         Settings: at least {report.settings.minReturns} returns; gaps over {report.settings.maxGapBusinessDays} business days; {report.settings.staleDays}+ unchanged
