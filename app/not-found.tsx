@@ -1,8 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { Logo } from "@/app/_components/logo";
-import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
-import { ProblemNotice } from "@/app/_components/problem-notice";
+import { NotFoundNotice } from "@/app/_components/not-found-notice";
 
 export const metadata: Metadata = { title: "Page not found" };
 
@@ -15,22 +14,9 @@ export default function NotFound() {
           <Logo />
         </Link>
       </div>
-      <ProblemNotice
-        code="Not found"
-        title="There is no page at this address"
-        actions={
-          <>
-            <Link href="/home" className={primaryButtonClass}>
-              Go to this month
-            </Link>
-            <Link href="/" className={secondaryButtonClass}>
-              Ballast start page
-            </Link>
-          </>
-        }
-      >
+      <NotFoundNotice title="There is no page at this address" other={{ href: "/", label: "Ballast start page" }}>
         <p>The link may be mistyped or out of date. Nothing was changed by following it.</p>
-      </ProblemNotice>
+      </NotFoundNotice>
     </main>
   );
 }
