@@ -6,6 +6,7 @@
  */
 import { useState } from "react";
 import { useRouter } from "next/navigation";
+import { TextField, TextAreaField, SelectField } from "@/app/_components/form/fields";
 import { useForm, useWatch, type FieldErrors, type UseFormRegister } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { apiFetch, ApiError } from "@/app/_components/api";
@@ -102,6 +103,10 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
   const [saved, setSaved] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
   const [evidencePending, setEvidencePending] = useState(false);
   const [evidenceError, setEvidenceError] = useState<string | null>(null);
+  const form = useForm<MethodDraft>({
+    resolver: zodResolver(methodDraftSchema) as never,
+    defaultValues: { content: version.content, rationale: version.rationale, analystLimitations: version.analystLimitations, reason: version.reason },
+  });
   const {
     register,
     handleSubmit,
@@ -110,10 +115,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
     setError,
     reset,
     formState: { errors, isSubmitting, isDirty },
-  } = useForm<MethodDraft>({
-    resolver: zodResolver(methodDraftSchema) as never,
-    defaultValues: { content: version.content, rationale: version.rationale, analystLimitations: version.analystLimitations, reason: version.reason },
-  });
+  } = form;
   const content = useWatch({ control, name: "content" }) as MethodDraft["content"];
   const analystLimitations = (useWatch({ control, name: "analystLimitations" }) ?? []) as string[];
 
@@ -210,15 +212,13 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
 
         <Group legend="Portfolio volatility, correlation and VaR" hint="Where each factor's volatility in VaR, expected shortfall, the backtest and capital comes from.">
           <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-            <Field id="content.portfolioVolatility" label="Portfolio volatilities" error={errorAt(errors, "content.portfolioVolatility")}>
-              <select className={inputClass} {...a11y(errors, "content.portfolioVolatility")} {...register("content.portfolioVolatility")}>
-                {Object.entries(PORTFOLIO_VOLATILITY_LABELS).map(([k, l]) => (
-                  <option key={k} value={k}>
-                    {l}
-                  </option>
-                ))}
-              </select>
-            </Field>
+            <SelectField form={form} name="content.portfolioVolatility" label="Portfolio volatilities">
+              {Object.entries(PORTFOLIO_VOLATILITY_LABELS).map(([k, l]) => (
+                <option key={k} value={k}>
+                  {l}
+                </option>
+              ))}
+            </SelectField>
             {content.portfolioVolatility === "asset-class" ? (
               <>
                 <Field id="content.correlation.kind" label="Correlation" error={errorAt(errors, "content.correlation.kind")}>
@@ -238,32 +238,22 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
                   </select>
                 </Field>
                 {content.correlation.kind === "ewma" ? (
-                  <Field id="content.correlation.lambda" label="Correlation λ" hint="Between 0 and 1, e.g. 0.94." error={errorAt(errors, "content.correlation.lambda")}>
-                    <input type="text" inputMode="decimal" className={inputClass} {...a11y(errors, "content.correlation.lambda", true)} {...register("content.correlation.lambda" as Path)} />
-                  </Field>
+                  <TextField form={form} name={"content.correlation.lambda" as Path} label="Correlation λ" hint="Between 0 and 1, e.g. 0.94." type="text" inputMode="decimal" />
                 ) : content.correlation.kind === "equal" ? (
-                  <Field id="content.correlation.window" label="Correlation window (days)" error={errorAt(errors, "content.correlation.window")}>
-                    <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.correlation.window")} {...register("content.correlation.window" as Path)} />
-                  </Field>
+                  <TextField form={form} name={"content.correlation.window" as Path} label="Correlation window (days)" type="text" inputMode="numeric" />
                 ) : null}
               </>
             ) : (
               <>
-                <Field id="content.covariance" label="Covariance" error={errorAt(errors, "content.covariance")}>
-                  <select className={inputClass} {...a11y(errors, "content.covariance")} {...register("content.covariance")}>
-                    {Object.entries(COVARIANCE_LABELS).map(([k, l]) => (
-                      <option key={k} value={k}>
-                        {l}
-                      </option>
-                    ))}
-                  </select>
-                </Field>
-                <Field id="content.covarianceLambda" label="Covariance λ" hint="Between 0 and 1." error={errorAt(errors, "content.covarianceLambda")}>
-                  <input type="text" inputMode="decimal" className={inputClass} {...a11y(errors, "content.covarianceLambda", true)} {...register("content.covarianceLambda")} />
-                </Field>
-                <Field id="content.covarianceWindow" label="Covariance window (days)" error={errorAt(errors, "content.covarianceWindow")}>
-                  <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.covarianceWindow")} {...register("content.covarianceWindow")} />
-                </Field>
+                <SelectField form={form} name="content.covariance" label="Covariance">
+                  {Object.entries(COVARIANCE_LABELS).map(([k, l]) => (
+                    <option key={k} value={k}>
+                      {l}
+                    </option>
+                  ))}
+                </SelectField>
+                <TextField form={form} name="content.covarianceLambda" label="Covariance λ" hint="Between 0 and 1." type="text" inputMode="decimal" />
+                <TextField form={form} name="content.covarianceWindow" label="Covariance window (days)" type="text" inputMode="numeric" />
               </>
             )}
             <Field id="content.backtestRefit.mode" label="Backtest parameters" error={errorAt(errors, "content.backtestRefit.mode")}>
@@ -278,25 +268,19 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
               </select>
             </Field>
             {content.backtestRefit.mode === "every" ? (
-              <Field id="content.backtestRefit.days" label="Re-estimate every (business days)" hint="21 is about a month." error={errorAt(errors, "content.backtestRefit.days")}>
-                <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.backtestRefit.days", true)} {...register("content.backtestRefit.days" as Path)} />
-              </Field>
+              <TextField form={form} name={"content.backtestRefit.days" as Path} label="Re-estimate every (business days)" hint="21 is about a month." type="text" inputMode="numeric" />
             ) : null}
-            <Field id="content.varMethod" label="VaR method" error={errorAt(errors, "content.varMethod")}>
-              <select className={inputClass} {...a11y(errors, "content.varMethod")} {...register("content.varMethod")}>
-                {Object.entries(VAR_METHOD_LABELS).map(([k, l]) => (
-                  <option key={k} value={k}>
-                    {l}
-                  </option>
-                ))}
-              </select>
-            </Field>
-            <Field id="content.distribution" label="Return distribution" error={errorAt(errors, "content.distribution")}>
-              <select className={inputClass} {...a11y(errors, "content.distribution")} {...register("content.distribution")}>
-                <option value="normal">Normal</option>
-                <option value="t">Student-t</option>
-              </select>
-            </Field>
+            <SelectField form={form} name="content.varMethod" label="VaR method">
+              {Object.entries(VAR_METHOD_LABELS).map(([k, l]) => (
+                <option key={k} value={k}>
+                  {l}
+                </option>
+              ))}
+            </SelectField>
+            <SelectField form={form} name="content.distribution" label="Return distribution">
+              <option value="normal">Normal</option>
+              <option value="t">Student-t</option>
+            </SelectField>
           </div>
           <fieldset className="mt-4">
             <legend className="text-sm font-medium">Confidence levels</legend>
@@ -306,9 +290,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
             <div className="mt-2 flex flex-wrap items-start gap-3">
               {content.confidences.map((_, i) => (
                 <div key={i} className="flex items-start gap-1">
-                  <Field id={`content.confidences.${i}`} label={`Level ${i + 1}`} error={errorAt(errors, `content.confidences.${i}`)}>
-                    <input type="text" inputMode="decimal" className={`${inputClass} w-28`} {...a11y(errors, `content.confidences.${i}`)} {...register(`content.confidences.${i}` as Path)} />
-                  </Field>
+                  <TextField form={form} name={`content.confidences.${i}` as Path} label={`Level ${i + 1}`} type="text" inputMode="decimal" className={`${inputClass} w-28`} />
                   {content.confidences.length > 1 ? (
                     <button
                       type="button"
@@ -337,24 +319,16 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
 
         <Group legend="Horizon and windows">
           <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-            <Field id="content.horizonDays" label="Horizon (days)" error={errorAt(errors, "content.horizonDays")}>
-              <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.horizonDays")} {...register("content.horizonDays")} />
-            </Field>
-            <Field id="content.scaling" label="Horizon scaling" error={errorAt(errors, "content.scaling")}>
-              <select className={inputClass} {...a11y(errors, "content.scaling")} {...register("content.scaling")}>
-                {Object.entries(SCALING_LABELS).map(([k, l]) => (
-                  <option key={k} value={k}>
-                    {l}
-                  </option>
-                ))}
-              </select>
-            </Field>
-            <Field id="content.historicalWindow" label="Historical window (days)" error={errorAt(errors, "content.historicalWindow")}>
-              <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.historicalWindow")} {...register("content.historicalWindow")} />
-            </Field>
-            <Field id="content.minHistory" label="Minimum history (returns)" hint="Factors with fewer returns are left out of a run and listed." error={errorAt(errors, "content.minHistory")}>
-              <input type="text" inputMode="numeric" className={inputClass} {...a11y(errors, "content.minHistory", true)} {...register("content.minHistory")} />
-            </Field>
+            <TextField form={form} name="content.horizonDays" label="Horizon (days)" type="text" inputMode="numeric" />
+            <SelectField form={form} name="content.scaling" label="Horizon scaling">
+              {Object.entries(SCALING_LABELS).map(([k, l]) => (
+                <option key={k} value={k}>
+                  {l}
+                </option>
+              ))}
+            </SelectField>
+            <TextField form={form} name="content.historicalWindow" label="Historical window (days)" type="text" inputMode="numeric" />
+            <TextField form={form} name="content.minHistory" label="Minimum history (returns)" hint="Factors with fewer returns are left out of a run and listed." type="text" inputMode="numeric" />
             <Field id="content.stressWindow.mode" label="Stress window">
               <select
                 id="content.stressWindow.mode"
@@ -368,21 +342,15 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
             </Field>
             {content.stressWindow.mode === "chosen" ? (
               <>
-                <Field id="content.stressWindow.start" label="Stress window starts" error={errorAt(errors, "content.stressWindow.start")}>
-                  <input type="date" className={inputClass} {...a11y(errors, "content.stressWindow.start")} {...register("content.stressWindow.start" as Path)} />
-                </Field>
-                <Field id="content.stressWindow.end" label="Stress window ends" error={errorAt(errors, "content.stressWindow.end")}>
-                  <input type="date" className={inputClass} {...a11y(errors, "content.stressWindow.end")} {...register("content.stressWindow.end" as Path)} />
-                </Field>
+                <TextField form={form} name={"content.stressWindow.start" as Path} label="Stress window starts" type="date" />
+                <TextField form={form} name={"content.stressWindow.end" as Path} label="Stress window ends" type="date" />
               </>
             ) : null}
           </div>
         </Group>
 
         <Group legend="Rationale">
-          <Field id="rationale" label="Why this method suits the firm, in your words" error={errorAt(errors, "rationale")}>
-            <textarea rows={7} className={inputClass} {...a11y(errors, "rationale")} {...register("rationale")} />
-          </Field>
+          <TextAreaField form={form} name="rationale" label="Why this method suits the firm, in your words" rows={7} />
         </Group>
 
         <Group legend="Limitations" hint="The engine's limitations of each chosen estimator are filled in and cannot be removed; add your own below.">
@@ -398,9 +366,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
             {analystLimitations.map((_, i) => (
               <div key={i} className="flex items-start gap-2">
                 <div className="flex-1">
-                  <Field id={`analystLimitations.${i}`} label={`Your limitation ${i + 1}`} error={errorAt(errors, `analystLimitations.${i}`)}>
-                    <textarea rows={2} className={`${inputClass} w-full`} {...a11y(errors, `analystLimitations.${i}`)} {...register(`analystLimitations.${i}` as Path)} />
-                  </Field>
+                  <TextAreaField form={form} name={`analystLimitations.${i}` as Path} label={`Your limitation ${i + 1}`} rows={2} className={`${inputClass} w-full`} />
                 </div>
                 <button
                   type="button"
@@ -422,9 +388,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
 
         {version.previousId ? (
           <Group legend="Reason for the change">
-            <Field id="reason" label={`Why version ${version.previousVersion} needs to change`} error={errorAt(errors, "reason")}>
-              <textarea rows={3} className={inputClass} {...a11y(errors, "reason")} {...register("reason")} />
-            </Field>
+            <TextAreaField form={form} name="reason" label={`Why version ${version.previousVersion} needs to change`} rows={3} />
           </Group>
         ) : null}
 
