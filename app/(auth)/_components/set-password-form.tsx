@@ -15,12 +15,8 @@ export function SetPasswordForm({ token, purpose, email }: { token: string; purp
   const [done, setDone] = useState(false);
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<TokenPasswordInput>({ resolver: zodResolver(tokenPasswordSchema), defaultValues: { token, password: "", confirm: "" } });
-  const {
-    handleSubmit,
-    formState: { isSubmitting },
-  } = form;
 
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     try {
       await apiFetch("/api/account/set-password", { method: "POST", body: { ...values, purpose } });
@@ -55,8 +51,8 @@ export function SetPasswordForm({ token, purpose, email }: { token: string; purp
         autoFocus
       />
       <TextField form={form} name="confirm" label="The same password again" type="password" autoComplete="new-password" />
-      <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
-        {isSubmitting ? "Saving…" : "Set password"}
+      <button type="submit" className={primaryButtonClass} disabled={form.formState.isSubmitting}>
+        {form.formState.isSubmitting ? "Saving…" : "Set password"}
       </button>
     </form>
   );

@@ -14,12 +14,8 @@ export function ResetRequestForm() {
   const [answer, setAnswer] = useState<string | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<ResetRequestInput>({ resolver: zodResolver(resetRequestSchema), defaultValues: { email: "" } });
-  const {
-    handleSubmit,
-    formState: { isSubmitting },
-  } = form;
 
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     try {
       const { message } = await apiFetch<{ message: string }>("/api/account/reset", { method: "POST", body: values });
@@ -43,8 +39,8 @@ export function ResetRequestForm() {
     <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">
       <FormError message={formError} />
       <TextField form={form} name="email" label="E-mail" type="email" autoComplete="username" autoFocus />
-      <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
-        {isSubmitting ? "Sending…" : "Send reset link"}
+      <button type="submit" className={primaryButtonClass} disabled={form.formState.isSubmitting}>
+        {form.formState.isSubmitting ? "Sending…" : "Send reset link"}
       </button>
       <Link href="/sign-in" className="text-sm underline">
         Back to sign-in

@@ -19,12 +19,8 @@ export function FirstRunForm() {
     resolver: zodResolver(firstRunSchema),
     defaultValues: { firmName: "", reportingCurrency: "EUR", adminName: "", adminEmail: "", password: "", confirm: "" },
   });
-  const {
-    handleSubmit,
-    formState: { isSubmitting },
-  } = form;
 
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     try {
       const { email } = await apiFetch<{ email: string }>("/api/setup", { method: "POST", body: values });
@@ -66,8 +62,8 @@ export function FirstRunForm() {
         <TextField form={form} name="password" label="Password" hint={`At least ${MIN_PASSWORD_LENGTH} characters.`} type="password" autoComplete="new-password" />
         <TextField form={form} name="confirm" label="The same password again" type="password" autoComplete="new-password" />
       </fieldset>
-      <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
-        {isSubmitting ? "Creating…" : "Create the firm"}
+      <button type="submit" className={primaryButtonClass} disabled={form.formState.isSubmitting}>
+        {form.formState.isSubmitting ? "Creating…" : "Create the firm"}
       </button>
     </form>
   );

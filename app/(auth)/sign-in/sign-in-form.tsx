@@ -17,12 +17,8 @@ export function SignInForm({ next, expired }: { next: string; expired: boolean }
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(expired ? "Your session ended. Sign in again." : null);
   const form = useForm<SignInInput>({ resolver: zodResolver(signInSchema), defaultValues: { email: "", password: "" } });
-  const {
-    handleSubmit,
-    formState: { isSubmitting },
-  } = form;
 
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     const result = await signIn("credentials", { ...values, redirect: false });
     if (!result || result.error) {
@@ -43,8 +39,8 @@ export function SignInForm({ next, expired }: { next: string; expired: boolean }
       ) : null}
       <TextField form={form} name="email" label="E-mail" type="email" autoComplete="username" autoFocus />
       <TextField form={form} name="password" label="Password" type="password" autoComplete="current-password" />
-      <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
-        {isSubmitting ? "Signing in…" : "Sign in"}
+      <button type="submit" className={primaryButtonClass} disabled={form.formState.isSubmitting}>
+        {form.formState.isSubmitting ? "Signing in…" : "Sign in"}
       </button>
     </form>
   );

@@ -36,21 +36,21 @@ export function useFieldBinding<T extends FieldValues>({ form, name, id = name, 
   };
 }
 
-/** A labelled text-like input (text, e-mail, password, date, month…) bound to the form. */
-export function TextField<T extends FieldValues>({
-  form,
-  name,
-  label,
-  hint,
-  id,
-  rules,
-  className = inputClass,
-  ...input
-}: Bound<T> & Omit<InputHTMLAttributes<HTMLInputElement>, Own>) {
+/**
+ * Splits a bound field's props: what the Field wrapper shows (id, label, hint, error) and what goes on the element
+ * (the caller's HTML attributes, the input class unless told otherwise, and the binding).
+ */
+function useBound<T extends FieldValues, A extends object>({ form, name, label, hint, id, rules, className = inputClass, ...html }: Bound<T> & A & { className?: string }) {
   const bound = useFieldBinding({ form, name, id, hint, rules });
+  return { field: { id: bound.id, label, hint, error: bound.error }, element: { className, ...html, ...bound.props } };
+}
+
+/** A labelled text-like input (text, e-mail, password, date, month…) bound to the form. */
+export function TextField<T extends FieldValues>(props: Bound<T> & Omit<InputHTMLAttributes<HTMLInputElement>, Own>) {
+  const { field, element } = useBound(props);
   return (
-    <Field id={bound.id} label={label} hint={hint} error={bound.error}>
-      <input className={className} {...input} {...bound.props} />
+    <Field {...field}>
+      <input {...element} />
     </Field>
   );
 }
@@ -61,42 +61,21 @@ export function NumberField<T extends FieldValues>(props: Bound<T> & Omit<InputH
 }
 
 /** A labelled text area bound to the form. */
-export function TextAreaField<T extends FieldValues>({
-  form,
-  name,
-  label,
-  hint,
-  id,
-  rules,
-  className = inputClass,
-  ...area
-}: Bound<T> & Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, Own>) {
-  const bound = useFieldBinding({ form, name, id, hint, rules });
+export function TextAreaField<T extends FieldValues>(props: Bound<T> & Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, Own>) {
+  const { field, element } = useBound(props);
   return (
-    <Field id={bound.id} label={label} hint={hint} error={bound.error}>
-      <textarea className={className} {...area} {...bound.props} />
+    <Field {...field}>
+      <textarea {...element} />
     </Field>
   );
 }
 
 /** A labelled select bound to the form; the options are its children. */
-export function SelectField<T extends FieldValues>({
-  form,
-  name,
-  label,
-  hint,
-  id,
-  rules,
-  className = inputClass,
-  children,
-  ...select
-}: Bound<T> & Omit<SelectHTMLAttributes<HTMLSelectElement>, Own> & { children: ReactNode }) {
-  const bound = useFieldBinding({ form, name, id, hint, rules });
+export function SelectField<T extends FieldValues>({ children, ...props }: Bound<T> & Omit<SelectHTMLAttributes<HTMLSelectElement>, Own> & { children: ReactNode }) {
+  const { field, element } = useBound(props);
   return (
-    <Field id={bound.id} label={label} hint={hint} error={bound.error}>
-      <select className={className} {...select} {...bound.props}>
-        {children}
-      </select>
+    <Field {...field}>
+      <select {...element}>{children}</select>
     </Field>
   );
 }

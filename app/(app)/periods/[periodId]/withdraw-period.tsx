@@ -14,12 +14,8 @@ export function WithdrawPeriod({ periodId, label }: { periodId: string; label: s
   const [open, setOpen] = useState(false);
   const [error, setErrorText] = useState<string | null>(null);
   const form = useForm<WithdrawPeriodInput>({ resolver: zodResolver(withdrawPeriodSchema), defaultValues: { reason: "" } });
-  const {
-    handleSubmit,
-    formState: { isSubmitting },
-  } = form;
 
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = form.handleSubmit(async (values) => {
     setErrorText(null);
     try {
       await apiFetch(`/api/periods/${periodId}`, { method: "DELETE", body: values });
@@ -43,8 +39,8 @@ export function WithdrawPeriod({ periodId, label }: { periodId: string; label: s
         Withdraw {label}? Only a period nothing has entered yet can be withdrawn. The withdrawal is recorded in the audit trail.
       </p>
       <TextField form={form} name="reason" id="withdraw-reason" label="Why" />
-      <button type="submit" className="rounded-md border border-alert px-3 py-2 text-sm font-medium text-alert" disabled={isSubmitting}>
-        {isSubmitting ? "Withdrawing…" : "Withdraw period"}
+      <button type="submit" className="rounded-md border border-alert px-3 py-2 text-sm font-medium text-alert" disabled={form.formState.isSubmitting}>
+        {form.formState.isSubmitting ? "Withdrawing…" : "Withdraw period"}
       </button>
       <button type="button" className="px-3 py-2 text-sm underline" onClick={() => setOpen(false)}>
         Keep it

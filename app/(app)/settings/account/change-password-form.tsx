@@ -15,12 +15,8 @@ export function ChangePasswordForm({ email }: { email: string }) {
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<ChangePasswordInput>({ resolver: zodResolver(changePasswordSchema), defaultValues: { currentPassword: "", newPassword: "", confirm: "" } });
-  const {
-    handleSubmit,
-    formState: { isSubmitting },
-  } = form;
 
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = form.handleSubmit(async (values) => {
     setFormError(null);
     try {
       await apiFetch("/api/account/password", { method: "POST", body: values });
@@ -39,8 +35,8 @@ export function ChangePasswordForm({ email }: { email: string }) {
       <TextField form={form} name="currentPassword" label="Current password" type="password" autoComplete="current-password" />
       <TextField form={form} name="newPassword" label="New password" hint={`At least ${MIN_PASSWORD_LENGTH} characters.`} type="password" autoComplete="new-password" />
       <TextField form={form} name="confirm" label="The new password again" type="password" autoComplete="new-password" />
-      <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
-        {isSubmitting ? "Changing…" : "Change password"}
+      <button type="submit" className={primaryButtonClass} disabled={form.formState.isSubmitting}>
+        {form.formState.isSubmitting ? "Changing…" : "Change password"}
       </button>
     </form>
   );
