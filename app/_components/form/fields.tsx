@@ -70,12 +70,23 @@ export function TextAreaField<T extends FieldValues>(props: Bound<T> & Omit<Text
   );
 }
 
-/** A labelled select bound to the form; the options are its children. */
-export function SelectField<T extends FieldValues>({ children, ...props }: Bound<T> & Omit<SelectHTMLAttributes<HTMLSelectElement>, Own> & { children: ReactNode }) {
+/** A labelled select bound to the form; the options are its children, or `options` as [value, label] pairs (e.g. a label table's entries). */
+export function SelectField<T extends FieldValues>({
+  children,
+  options,
+  ...props
+}: Bound<T> & Omit<SelectHTMLAttributes<HTMLSelectElement>, Own> & { children?: ReactNode; options?: [string, ReactNode][] }) {
   const { field, element } = useBound(props);
   return (
     <Field {...field}>
-      <select {...element}>{children}</select>
+      <select {...element}>
+        {options?.map(([value, label]) => (
+          <option key={value} value={value}>
+            {label}
+          </option>
+        ))}
+        {children}
+      </select>
     </Field>
   );
 }

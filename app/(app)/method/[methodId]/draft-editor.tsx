@@ -212,13 +212,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
 
         <Group legend="Portfolio volatility, correlation and VaR" hint="Where each factor's volatility in VaR, expected shortfall, the backtest and capital comes from.">
           <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-            <SelectField form={form} name="content.portfolioVolatility" label="Portfolio volatilities">
-              {Object.entries(PORTFOLIO_VOLATILITY_LABELS).map(([k, l]) => (
-                <option key={k} value={k}>
-                  {l}
-                </option>
-              ))}
-            </SelectField>
+            <SelectField form={form} name="content.portfolioVolatility" label="Portfolio volatilities" options={Object.entries(PORTFOLIO_VOLATILITY_LABELS)} />
             {content.portfolioVolatility === "asset-class" ? (
               <>
                 <Field id="content.correlation.kind" label="Correlation" error={errorAt(errors, "content.correlation.kind")}>
@@ -245,13 +239,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
               </>
             ) : (
               <>
-                <SelectField form={form} name="content.covariance" label="Covariance">
-                  {Object.entries(COVARIANCE_LABELS).map(([k, l]) => (
-                    <option key={k} value={k}>
-                      {l}
-                    </option>
-                  ))}
-                </SelectField>
+                <SelectField form={form} name="content.covariance" label="Covariance" options={Object.entries(COVARIANCE_LABELS)} />
                 <TextField form={form} name="content.covarianceLambda" label="Covariance λ" hint="Between 0 and 1." type="text" inputMode="decimal" />
                 <TextField form={form} name="content.covarianceWindow" label="Covariance window (days)" type="text" inputMode="numeric" />
               </>
@@ -270,13 +258,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
             {content.backtestRefit.mode === "every" ? (
               <TextField form={form} name={"content.backtestRefit.days" as Path} label="Re-estimate every (business days)" hint="21 is about a month." type="text" inputMode="numeric" />
             ) : null}
-            <SelectField form={form} name="content.varMethod" label="VaR method">
-              {Object.entries(VAR_METHOD_LABELS).map(([k, l]) => (
-                <option key={k} value={k}>
-                  {l}
-                </option>
-              ))}
-            </SelectField>
+            <SelectField form={form} name="content.varMethod" label="VaR method" options={Object.entries(VAR_METHOD_LABELS)} />
             <SelectField form={form} name="content.distribution" label="Return distribution">
               <option value="normal">Normal</option>
               <option value="t">Student-t</option>
@@ -320,13 +302,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
         <Group legend="Horizon and windows">
           <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
             <TextField form={form} name="content.horizonDays" label="Horizon (days)" type="text" inputMode="numeric" />
-            <SelectField form={form} name="content.scaling" label="Horizon scaling">
-              {Object.entries(SCALING_LABELS).map(([k, l]) => (
-                <option key={k} value={k}>
-                  {l}
-                </option>
-              ))}
-            </SelectField>
+            <SelectField form={form} name="content.scaling" label="Horizon scaling" options={Object.entries(SCALING_LABELS)} />
             <TextField form={form} name="content.historicalWindow" label="Historical window (days)" type="text" inputMode="numeric" />
             <TextField form={form} name="content.minHistory" label="Minimum history (returns)" hint="Factors with fewer returns are left out of a run and listed." type="text" inputMode="numeric" />
             <Field id="content.stressWindow.mode" label="Stress window">
