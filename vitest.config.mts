@@ -15,6 +15,9 @@ export default defineConfig({
   test: {
     include: ["tests/unit/**/*.test.ts", "tests/reference/**/*.test.ts"],
     environment: "node",
+    // Builds the template worlds (migrated / seeded / loaded / method databases) once per run; each test file opens a
+    // copy (tests/unit/helpers/template-worlds.ts) instead of migrating and seeding its own.
+    globalSetup: ["tests/unit/helpers/global-setup.ts"],
     testTimeout: 30_000,
     // Several files build a seeded database world in beforeAll (migrations, seed, confirmed uploads, a run). On an
     // idle machine that takes 2–6 s; on a busy one (a build beside it, CI sharing two cores) several times that.

@@ -1,26 +1,25 @@
 /**
  * A fresh, migrated and seeded database file for one test file, and actors built from it the way the gate
- * builds them. Sets DATABASE_URL before any data function opens the database.
+ * builds them. Sets DATABASE_URL before any data function opens the database. The worlds are copies of templates
+ * built once per run (tests/unit/helpers/template-worlds.ts), not migrated and seeded again in every file.
  */
-import { mkdtempSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
-import { migrateDatabase } from "@/db/migrate";
-import { openDatabase, getDb, type Database } from "@/db/client";
-import { seedDemo } from "@/db/seed";
+import { getDb, type Database } from "@/db/client";
 import type { Actor } from "@/lib/auth/actor";
 import { actorForEmail } from "@/db/actor-for";
+import { copyOfWorld, type World } from "./template-worlds";
 
-/** Create a database for this test file; returns the handle data functions will use. */
-export async function freshDatabase(): Promise<Database> {
-  const dir = mkdtempSync(path.join(tmpdir(), "ballast-test-"));
-  const url = `file:${path.join(dir, "test.db")}`;
-  process.env.DATABASE_URL = url;
-  await migrateDatabase(url);
-  const seedDb = openDatabase(url);
-  await seedDemo(seedDb, new Date("2026-12-01T09:00:00Z"));
-  seedDb.$client.close();
+/** Open a private copy of a template world as this file's database (and its stand-in folder, when it has one). */
+export async function worldDatabase(world: World, options: { clock?: string } = {}): Promise<Database> {
+  const { file, filesDir } = await copyOfWorld(world);
+  if (options.clock) process.env.BALLAST_CLOCK = options.clock;
+  if (filesDir) process.env.UPLOAD_STANDIN_DIR = filesDir;
+  process.env.DATABASE_URL = `file:${file}`;
   return getDb();
+}
+
+/** Create a database for this test file (migrated and seeded with the demo firms); returns the handle data functions will use. */
+export function freshDatabase(): Promise<Database> {
+  return worldDatabase("seeded");
 }
 
 /** The actor for a seeded person, as lib/auth/actor.ts would resolve it. */

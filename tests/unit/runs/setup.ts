@@ -1,10 +1,7 @@
 /** A fresh demo database with the demo price history and positions, and (when asked) the approved demo method. */
-import { mkdtempSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
 import { and, eq } from "drizzle-orm";
-import { actorFor, freshDatabase } from "../helpers/db";
-import { seedDemoUploads } from "@/db/seed-uploads";
+import { actorFor } from "../helpers/db";
+import { demoDatabase } from "../helpers/demo-world";
 import { seedDemoMethod } from "@/db/seed-method";
 import type { Database } from "@/db/client";
 import { reportingPeriods } from "@/db/schema";
@@ -17,14 +14,7 @@ export const PEOPLE = {
   pellamAnalyst: "june.okafor@pellam.example",
 };
 
-export async function runsDatabase(options: { withMethod: boolean }): Promise<Database> {
-  process.env.BALLAST_CLOCK = "2026-12-01";
-  process.env.UPLOAD_STANDIN_DIR = mkdtempSync(path.join(tmpdir(), "ballast-runs-files-"));
-  const db = await freshDatabase();
-  await seedDemoUploads(db, "2026-11-30");
-  if (options.withMethod) await seedDemoMethod(db);
-  return db;
-}
+export const runsDatabase = demoDatabase;
 
 export { seedDemoMethod };
 
