@@ -171,6 +171,8 @@ test("holiday CSV with bad dates is refused row by row and stores nothing; the s
   await page.goto("/settings");
   const list = page.getByTestId("holiday-list");
   const before = await list.locator("li").count();
+  // the picker is enabled once the page is hydrated (a file set before that would be dropped)
+  await expect(page.getByLabel("Holiday CSV file")).toBeEnabled();
   await page.getByLabel("Holiday CSV file").setInputFiles({
     name: "holidays-2027.csv",
     mimeType: "text/csv",

@@ -7,10 +7,13 @@ import { formatDate } from "@/app/_components/format";
 import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
 import { dateProblem } from "@/lib/calendar/validation";
 import type { Holiday } from "@/lib/calendar/settings";
+import { useHydrated } from "@/app/_components/use-hydrated";
 
 /** The firm's holidays: add and remove by hand, or take a CSV file (any bad row refuses the whole file). */
 export function HolidaysPanel({ initial }: { initial: Holiday[] }) {
   const router = useRouter();
+  // a file chosen before the page is hydrated would be dropped: the picker waits for it
+  const hydrated = useHydrated();
   const [list, setList] = useState<Holiday[]>(initial);
   const [date, setDate] = useState("");
   const [name, setName] = useState("");
@@ -130,7 +133,7 @@ export function HolidaysPanel({ initial }: { initial: Holiday[] }) {
           </label>
           <label className={`${secondaryButtonClass} cursor-pointer`}>
             Choose CSV file…
-            <input type="file" accept=".csv,text/csv" className="sr-only" disabled={busy} onChange={upload} aria-label="Holiday CSV file" />
+            <input type="file" accept=".csv,text/csv" className="sr-only" disabled={busy || !hydrated} onChange={upload} aria-label="Holiday CSV file" />
           </label>
         </div>
       </fieldset>
