@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { sqliteTable, text, integer, real, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { id, createdAt, firmColumns } from "../columns";
 import type { ReadOptions } from "../../lib/uploads/types";
@@ -23,7 +24,12 @@ export const uploads = sqliteTable(
     errorCount: integer("error_count").notNull().default(0),
     warningCount: integer("warning_count").notNull().default(0),
     cancelledAt: text("cancelled_at"),
-    /** pending → confirmed | cancelled; confirmed → superseded */
+    /**
+     * reading (a worker reads and checks the file) → pending (waiting for a person) | duplicate (the same file was
+     * uploaded before: summary.duplicateOf) | failed (it could not be read: summary.rejected); pending → confirming
+     * (a worker stores the rows) → confirmed (or back to pending, summary.confirmError, when that failed) | cancelled;
+     * confirmed → superseded
+     */
     status: text("status").notNull().default("pending"),
     summary: text("summary", { mode: "json" }).$type<Record<string, unknown>>(),
     problems: text("problems", { mode: "json" }).$type<unknown[]>(),
@@ -65,9 +71,33 @@ export const pricePoints = sqliteTable(
     uploadId: text("upload_id"),
     current: integer("current", { mode: "boolean" }).notNull().default(true),
     replacedByUpload: text("replaced_by_upload"),
+    /** written by a confirmation still in progress (current = false until its last step makes it current) */
+    staged: integer("staged", { mode: "boolean" }).notNull().default(false),
     createdAt: createdAt(),
   },
-  (t) => [index("price_points_firm_instrument_date").on(t.firmId, t.instrumentId, t.date)],
+  (t) => [
+    index("price_points_firm_instrument_date").on(t.firmId, t.instrumentId, t.date),
+    index("price_points_staged").on(t.uploadId).where(sql`${t.staged} = 1`),
+  ],
+);
+
+/**
+ * What the worker read from an upload's file, in numbered parts of up to UPLOAD_PART_SIZE items: the rows that
+ * passed ("rows") and the problems ("problems"). The preview pages through them and the confirmation stores them,
+ * so neither reads the file again. Replaced when the file is read again; deleted when the upload is decided.
+ */
+export const uploadParts = sqliteTable(
+  "upload_parts",
+  {
+    id: id(),
+    ...firmColumns,
+    uploadId: text("upload_id").notNull(),
+    /** rows | problems */
+    part: text("part").notNull(),
+    seq: integer("seq").notNull(),
+    items: text("items", { mode: "json" }).$type<unknown[]>().notNull(),
+  },
+  (t) => [uniqueIndex("upload_parts_upload_part_seq").on(t.uploadId, t.part, t.seq)],
 );
 
 /** One month-end position row from a confirmed positions upload. */
