@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import { useRouter } from "next/navigation";
-import { useFieldArray, useForm, useWatch, type FieldPath } from "react-hook-form";
+import { useFieldArray, useForm, useWatch, type FieldPath, type UseFormReturn } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import {
   capitalProfileSchema,
@@ -15,24 +15,34 @@ import {
   type CapitalProfileValues,
 } from "@/lib/validation/capital-profile";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { CheckboxField, NumberField, SelectField, setFieldErrors, TextAreaField, TextField, useFieldBinding } from "@/app/_components/form/fields";
 import type { CapitalProfileVersion } from "@/lib/data/capital-profile";
 
 type Path = FieldPath<CapitalProfileInput>;
+type Form = UseFormReturn<CapitalProfileInput>;
 
-/** The error message react-hook-form holds at a dotted path. */
-function errorAt(errors: unknown, path: string): string | undefined {
-  let node = errors as Record<string, unknown> | undefined;
-  for (const part of path.split(".")) {
-    if (!node) return undefined;
-    node = node[part] as Record<string, unknown> | undefined;
-  }
-  return (node as { message?: string } | undefined)?.message;
-}
+/** A field's id: its path with dashes for dots. */
+const idOf = (path: string) => path.replace(/\./g, "-");
 
 /** An empty number input is missing (the schema then names it), never read as 0. */
 const emptyToUndefined = (v: unknown) => (v === "" || v === null || v === undefined ? undefined : Number(v));
 const emptyToNull = (v: unknown) => (v === "" || v === null || v === undefined ? null : Number(v));
+
+/** A figure typed into a table cell (its column heading and row say what it is, in its aria-label), bound to the form, its error below it when `showError`. */
+function CellInput({ form, name, label, step = "any", showError = false }: { form: Form; name: Path; label: string; step?: string; showError?: boolean }) {
+  const { error, props } = useFieldBinding({ form, name, id: idOf(name) });
+  return (
+    <>
+      <input type="number" step={step} aria-label={label} className={`${inputClass} figure w-24`} {...props} />
+      {showError && error ? (
+        <p className="text-sm text-alert" role="alert">
+          {error}
+        </p>
+      ) : null}
+    </>
+  );
+}
 
 function years(y: number | null | undefined): string {
   if (y === undefined) return "—";
@@ -44,17 +54,16 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
   const router = useRouter();
   const [status, setStatus] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
   const initial = current?.form ?? defaultCapitalProfileForm();
-  const {
-    register,
-    handleSubmit,
-    control,
-    setError,
-    reset,
-    formState: { errors, isSubmitting, isDirty },
-  } = useForm<CapitalProfileInput, unknown, CapitalProfileValues>({
+  const form = useForm<CapitalProfileInput, unknown, CapitalProfileValues>({
     resolver: zodResolver(capitalProfileSchema),
     defaultValues: initial,
   });
+  const {
+    handleSubmit,
+    control,
+    reset,
+    formState: { isSubmitting, isDirty },
+  } = form;
   const plusFactors = useFieldArray({ control, name: "internal.plusFactors" });
   const bands = useWatch({ control, name: "standardised.bands" }) ?? initial.standardised.bands;
   const tiers = useWatch({ control, name: "standardised.qualifying" }) ?? initial.standardised.qualifying;
@@ -69,31 +78,28 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
       setStatus({ tone: "ok", text: `Saved as version ${saved.version}. Runs started from now use it.` });
       router.refresh();
     } catch (error) {
-      if (error instanceof ApiError && error.fields) {
-        for (const [field, message] of Object.entries(error.fields)) setError(field as Path, { message });
-      }
+      if (error instanceof ApiError) setFieldErrors(form, error.fields);
       setStatus({ tone: "alert", text: error instanceof Error ? error.message : "Could not save." });
     }
   });
 
-  const a11y = (path: string) => {
-    const message = errorAt(errors, path);
-    const id = path.replace(/\./g, "-");
-    return { id, "aria-invalid": Boolean(message), "aria-describedby": message ? `${id}-error` : undefined };
-  };
-  const num = (path: Path, label: string, hint?: string, step = "any") => {
-    const id = path.replace(/\./g, "-");
-    return (
-      <Field id={id} label={label} hint={hint} error={errorAt(errors, path)}>
-        <input type="number" step={step} inputMode="decimal" className={`${inputClass} figure`} {...a11y(path)} {...register(path, { setValueAs: path === "standardised.fxEligibleCapital" ? emptyToNull : emptyToUndefined })} />
-      </Field>
-    );
-  };
+  const num = (path: Path, label: string, hint?: string, step = "any") => (
+    <NumberField
+      form={form}
+      name={path}
+      id={idOf(path)}
+      label={label}
+      hint={hint}
+      step={step}
+      inputMode="decimal"
+      className={`${inputClass} figure`}
+      rules={{ setValueAs: path === "standardised.fxEligibleCapital" ? emptyToNull : emptyToUndefined }}
+    />
+  );
   const check = (path: Path, label: string) => (
-    <label className="flex items-start gap-2 text-sm">
-      <input type="checkbox" className="mt-1" {...register(path)} />
-      <span>{label}</span>
-    </label>
+    <CheckboxField form={form} name={path}>
+      {label}
+    </CheckboxField>
   );
   const nextVersion = (versions[0]?.version ?? 0) + 1;
 
@@ -118,27 +124,15 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
           <h3 id="cp-regime" className="font-semibold xl:col-span-2">
             Which figure is filed
           </h3>
-          <Field id="cp-name" label="Profile name" error={errors.name?.message}>
-            <input className={inputClass} {...a11y("name")} id="cp-name" {...register("name")} />
-          </Field>
-          <Field id="regimes" label="A run computes" error={errors.regimes?.message}>
-            <select className={inputClass} {...a11y("regimes")} {...register("regimes")}>
-              {REGIME_CHOICES.map((c) => (
-                <option key={c} value={c}>
-                  {REGIME_CHOICE_LABELS[c]}
-                </option>
-              ))}
-            </select>
-          </Field>
-          <Field id="filedRegime" label="Filed figure" hint="The draft filing and both packs carry this figure; the other is shown beside it as comparison." error={errors.filedRegime?.message}>
-            <select className={inputClass} {...a11y("filedRegime")} {...register("filedRegime")}>
-              {CAPITAL_REGIMES.map((r) => (
-                <option key={r} value={r}>
-                  {REGIME_LABELS[r]}
-                </option>
-              ))}
-            </select>
-          </Field>
+          <TextField form={form} name="name" id="cp-name" label="Profile name" />
+          <SelectField form={form} name="regimes" label="A run computes" options={REGIME_CHOICES.map((c) => [c, REGIME_CHOICE_LABELS[c]])} />
+          <SelectField
+            form={form}
+            name="filedRegime"
+            label="Filed figure"
+            hint="The draft filing and both packs carry this figure; the other is shown beside it as comparison."
+            options={CAPITAL_REGIMES.map((r) => [r, REGIME_LABELS[r]])}
+          />
           <div className="self-end">{check("showRwa", "Show the risk-weighted-asset equivalent (capital × 12.5)")}</div>
         </section>
 
@@ -165,11 +159,10 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
               {plusFactors.fields.map((f, i) => (
                 <tr key={f.id}>
                   <td className="pr-4 py-1">
-                    <input type="number" step="1" aria-label={`Exceptions, row ${i + 1}`} className={`${inputClass} figure w-24`} {...a11y(`internal.plusFactors.${i}.exceptions`)} {...register(`internal.plusFactors.${i}.exceptions`)} />
-                    {errorAt(errors, `internal.plusFactors.${i}.exceptions`) ? <p className="text-sm text-alert" role="alert">{errorAt(errors, `internal.plusFactors.${i}.exceptions`)}</p> : null}
+                    <CellInput form={form} name={`internal.plusFactors.${i}.exceptions`} label={`Exceptions, row ${i + 1}`} step="1" showError />
                   </td>
                   <td className="pr-4 py-1">
-                    <input type="number" step="any" aria-label={`Plus factor, row ${i + 1}`} className={`${inputClass} figure w-24`} {...a11y(`internal.plusFactors.${i}.addOn`)} {...register(`internal.plusFactors.${i}.addOn`)} />
+                    <CellInput form={form} name={`internal.plusFactors.${i}.addOn`} label={`Plus factor, row ${i + 1}`} />
                   </td>
                   <td>
                     <button type="button" className="text-sm underline" onClick={() => plusFactors.remove(i)}>
@@ -189,15 +182,11 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
           <summary className="cursor-pointer font-semibold">Standardised 1996 building blocks</summary>
           <div className="mt-4 flex flex-col gap-6">
             <div className="grid gap-4 sm:grid-cols-2 xl:grid-cols-3">
-              <Field id="standardised-name" label="Rule set name" error={errorAt(errors, "standardised.name")}>
-                <input className={inputClass} {...a11y("standardised.name")} {...register("standardised.name")} />
-              </Field>
-              <Field id="standardised-interestRateMethod" label="Debt general market risk" error={errorAt(errors, "standardised.interestRateMethod")}>
-                <select className={inputClass} {...a11y("standardised.interestRateMethod")} {...register("standardised.interestRateMethod")}>
-                  <option value="maturity">Maturity method</option>
-                  <option value="duration">Duration method</option>
-                </select>
-              </Field>
+              <TextField form={form} name="standardised.name" id="standardised-name" label="Rule set name" />
+              <SelectField form={form} name="standardised.interestRateMethod" id="standardised-interestRateMethod" label="Debt general market risk">
+                <option value="maturity">Maturity method</option>
+                <option value="duration">Duration method</option>
+              </SelectField>
               {num("standardised.couponThresholdPercent", "Coupon threshold (%)", "Coupons at or above it use the first ladder column.")}
             </div>
 
@@ -218,7 +207,7 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
                     <tr key={i}>
                       <td className="pr-4 figure">{t.upToMonths === null ? "over the last edge" : `${t.upToMonths} months`}</td>
                       <td>
-                        <input type="number" step="any" aria-label={`Qualifying weight up to ${t.upToMonths ?? "open"} months`} className={`${inputClass} figure w-24`} {...a11y(`standardised.qualifying.${i}.ratePercent`)} {...register(`standardised.qualifying.${i}.ratePercent`)} />
+                        <CellInput form={form} name={`standardised.qualifying.${i}.ratePercent`} label={`Qualifying weight up to ${t.upToMonths ?? "open"} months`} />
                       </td>
                     </tr>
                   ))}
@@ -251,10 +240,10 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
                       <td className="pr-3 text-right figure">{years(b.highCouponUpToYears)}</td>
                       <td className="pr-3 text-right figure">{years(b.lowCouponUpToYears)}</td>
                       <td className="pr-3">
-                        <input type="number" step="any" aria-label={`Risk weight, band ${b.band}`} className={`${inputClass} figure w-24`} {...a11y(`standardised.bands.${i}.weightPercent`)} {...register(`standardised.bands.${i}.weightPercent`)} />
+                        <CellInput form={form} name={`standardised.bands.${i}.weightPercent`} label={`Risk weight, band ${b.band}`} />
                       </td>
                       <td>
-                        <input type="number" step="any" aria-label={`Yield change, band ${b.band}`} className={`${inputClass} figure w-24`} {...a11y(`standardised.bands.${i}.yieldChangePercent`)} {...register(`standardised.bands.${i}.yieldChangePercent`)} />
+                        <CellInput form={form} name={`standardised.bands.${i}.yieldChangePercent`} label={`Yield change, band ${b.band}`} />
                       </td>
                     </tr>
                   ))}
@@ -294,12 +283,10 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
 
             <fieldset className="grid gap-4 sm:grid-cols-2 xl:grid-cols-4">
               <legend className="mb-2 font-medium">Commodities and options</legend>
-              <Field id="standardised-commodityMethod" label="Commodities approach" error={errorAt(errors, "standardised.commodityMethod")}>
-                <select className={inputClass} {...a11y("standardised.commodityMethod")} {...register("standardised.commodityMethod")}>
-                  <option value="simplified">Simplified</option>
-                  <option value="maturity">Maturity ladder</option>
-                </select>
-              </Field>
+              <SelectField form={form} name="standardised.commodityMethod" id="standardised-commodityMethod" label="Commodities approach">
+                <option value="simplified">Simplified</option>
+                <option value="maturity">Maturity ladder</option>
+              </SelectField>
               {num("standardised.commodityNetPercent", "Simplified: on the net (%)")}
               {num("standardised.commodityGrossPercent", "Simplified: on the gross (%)")}
               {num("standardised.commoditySpreadPercent", "Ladder: spread rate (%)")}
@@ -311,9 +298,7 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
           </div>
         </details>
 
-        <Field id="reason" label="Why this version" hint="Kept with the version and in the audit log; runs record the version they used." error={errors.reason?.message}>
-          <textarea rows={2} className={inputClass} {...a11y("reason")} id="reason" {...register("reason")} />
-        </Field>
+        <TextAreaField form={form} name="reason" label="Why this version" hint="Kept with the version and in the audit log; runs record the version they used." rows={2} />
       </fieldset>
 
       {editable ? (
