@@ -2,7 +2,8 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import XlsxPopulate from "xlsx-populate";
-import { actorFor, freshDatabase, snapshot } from "./helpers/db";
+import { snapshot } from "./helpers/db";
+import { SEEDED, worldAs } from "./helpers/people";
 import { receiveUploadBytes, confirmUpload, getUploadPreview } from "@/lib/data/uploads";
 import { listPeriods } from "@/lib/data/periods";
 import type { Database } from "@/db/client";
@@ -48,10 +49,7 @@ let analyst: Actor;
 let periodId: string;
 
 beforeAll(async () => {
-  process.env.BALLAST_CLOCK = "2026-12-01";
-  db = await freshDatabase();
-  officer = await actorFor("tomas.reyne@northmoor.example");
-  analyst = await actorFor("priya.castell@northmoor.example");
+  ({ db, officer, analyst } = await worldAs({ officer: SEEDED.northmoorOfficer, analyst: SEEDED.northmoorAnalyst }));
   periodId = (await listPeriods(officer))[0].id;
 });
 

@@ -5,7 +5,8 @@
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
-import { actorFor, freshDatabase, snapshot } from "../helpers/db";
+import { snapshot } from "../helpers/db";
+import { SEEDED, worldAs } from "../helpers/people";
 import type { Database } from "@/db/client";
 import { auditEvents, capitalRuleProfiles } from "@/db/schema";
 import { capitalProfileScreen, currentCapitalProfile, getCapitalProfileVersion, saveCapitalProfile } from "@/lib/data/capital-profile";
@@ -26,10 +27,7 @@ let officer: Actor;
 let pellam: Actor;
 
 beforeAll(async () => {
-  process.env.BALLAST_CLOCK = "2026-12-01";
-  db = await freshDatabase();
-  officer = await actorFor("tomas.reyne@northmoor.example");
-  pellam = await actorFor("june.okafor@pellam.example");
+  ({ db, officer, pellam } = await worldAs({ officer: SEEDED.northmoorOfficer, pellam: SEEDED.pellamOfficer }));
 });
 
 function fileStandardised(base: CapitalProfileValues): CapitalProfileValues {

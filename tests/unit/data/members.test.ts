@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { actorFor, freshDatabase, snapshot } from "../helpers/db";
+import { snapshot } from "../helpers/db";
+import { SEEDED, worldAs } from "../helpers/people";
 import { listMembers, updateMember } from "@/lib/data/members";
 import { inviteMember } from "@/lib/data/accounts";
 import { updateFirmSettings, getFirmSettings } from "@/lib/data/firm";
@@ -15,11 +16,7 @@ let otherAdmin: Actor;
 let officer: Actor;
 
 beforeAll(async () => {
-  process.env.BALLAST_CLOCK = "2026-12-01";
-  db = await freshDatabase();
-  admin = await actorFor("ada.quayle@northmoor.example");
-  otherAdmin = await actorFor("rafe.pellam@pellam.example");
-  officer = await actorFor("tomas.reyne@northmoor.example");
+  ({ db, admin, otherAdmin, officer } = await worldAs({ admin: SEEDED.northmoorAdmin, otherAdmin: SEEDED.pellamAdmin, officer: SEEDED.northmoorOfficer }));
 });
 
 describe("members", () => {

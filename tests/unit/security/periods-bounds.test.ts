@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { actorFor, freshDatabase, snapshot } from "../helpers/db";
+import { actorFor, snapshot } from "../helpers/db";
+import { SEEDED, worldAs } from "../helpers/people";
 import { listPeriods, openPeriod, withdrawPeriod } from "@/lib/data/periods";
 import { listAuditEvents } from "@/lib/data/audit";
 import { openPeriodSchema, withdrawPeriodSchema } from "@/lib/validation/periods";
@@ -11,10 +12,7 @@ let officer: Actor;
 let otherAdmin: Actor;
 
 beforeAll(async () => {
-  process.env.BALLAST_CLOCK = "2026-12-01";
-  db = await freshDatabase();
-  officer = await actorFor("tomas.reyne@northmoor.example");
-  otherAdmin = await actorFor("rafe.pellam@pellam.example");
+  ({ db, officer, otherAdmin } = await worldAs({ officer: SEEDED.northmoorOfficer, otherAdmin: SEEDED.pellamAdmin }));
 });
 
 describe("period months are bounded", () => {

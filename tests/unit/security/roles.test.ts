@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { actorFor, freshDatabase, snapshot } from "../helpers/db";
+import { actorFor, snapshot } from "../helpers/db";
+import { SEEDED, worldAs } from "../helpers/people";
 import { listMembers, updateMember } from "@/lib/data/members";
 import type { Database } from "@/db/client";
 import type { Actor } from "@/lib/auth/actor";
@@ -8,9 +9,7 @@ let db: Database;
 let admin: Actor;
 
 beforeAll(async () => {
-  process.env.BALLAST_CLOCK = "2026-12-01";
-  db = await freshDatabase();
-  admin = await actorFor("ada.quayle@northmoor.example");
+  ({ db, admin } = await worldAs({ admin: SEEDED.northmoorAdmin }));
 });
 
 const withoutAudit = (s: Record<string, unknown[]>) => ({ ...s, audit_events: undefined });
