@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { snapshot } from "../helpers/db";
-import { actorFor, demoPeriodId, PEOPLE, runsDatabase } from "../runs/setup";
+import { actorFor, demoWorldAs, PEOPLE } from "../runs/setup";
 import type { Database } from "@/db/client";
 import { auditEvents } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
@@ -15,9 +15,7 @@ let analyst: Actor;
 let periodId: string;
 
 beforeAll(async () => {
-  db = await runsDatabase({ withMethod: false });
-  analyst = await actorFor(PEOPLE.analyst);
-  periodId = await demoPeriodId(db, analyst);
+  ({ db, periodId, analyst } = await demoWorldAs({ withMethod: false }, { analyst: PEOPLE.analyst }));
 });
 
 describe("confirming a data-quality finding", () => {

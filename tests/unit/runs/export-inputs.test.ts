@@ -8,7 +8,7 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { and, eq } from "drizzle-orm";
-import { actorFor, demoPeriodId, PEOPLE, runsDatabase } from "./setup";
+import { actorFor, demoWorldAs, PEOPLE } from "./setup";
 import { auditEvents } from "@/db/schema";
 import { exportRunInputs, getRun, startRun } from "@/lib/data/runs";
 import { executeRun } from "@/lib/runs/execute";
@@ -25,9 +25,9 @@ let analyst: Actor;
 let runId: string;
 
 beforeAll(async () => {
-  db = await runsDatabase({ withMethod: true });
-  analyst = await actorFor(PEOPLE.analyst);
-  const run = await startRun(analyst, await demoPeriodId(db, analyst), { excludeShortHistory: true });
+  let periodId: string;
+  ({ db, periodId, analyst } = await demoWorldAs({ withMethod: true }, { analyst: PEOPLE.analyst }));
+  const run = await startRun(analyst, periodId, { excludeShortHistory: true });
   expect(await executeRun(run.id)).toBe("completed");
   runId = run.id;
 }, 300_000);

@@ -20,7 +20,7 @@ import { inputHashesOf } from "@/lib/runs/compare";
 import { claim, LEASE_MS, release, wallClock } from "@/lib/jobs/queue";
 import { runJob } from "@/lib/jobs/kinds/run";
 import { Worker } from "@/lib/jobs/worker";
-import { actorFor, demoPeriodId, PEOPLE, runsDatabase } from "./setup";
+import { demoWorldAs, PEOPLE } from "./setup";
 
 let db: Database;
 let analyst: Actor;
@@ -28,9 +28,7 @@ let periodId: string;
 let worker: Worker;
 
 beforeAll(async () => {
-  db = await runsDatabase({ withMethod: true });
-  analyst = await actorFor(PEOPLE.analyst);
-  periodId = await demoPeriodId(db, analyst);
+  ({ db, periodId, analyst } = await demoWorldAs({ withMethod: true }, { analyst: PEOPLE.analyst }));
   worker = new Worker({ db, kinds: { run: runJob }, owner: "test-worker", log: () => undefined });
 }, 120_000);
 

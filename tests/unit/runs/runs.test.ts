@@ -18,7 +18,7 @@ import { volatilityDetail } from "@/lib/runs/volatility-detail";
 import { ENGINE_VERSION } from "@/lib/risk/version";
 import type { RunInputs, RunRecord } from "@/lib/runs/types";
 import { snapshot } from "../helpers/db";
-import { actorFor, demoPeriodId, PEOPLE, runsDatabase, seedDemoMethod } from "./setup";
+import { actorFor, demoWorldAs, PEOPLE, seedDemoMethod } from "./setup";
 
 let db: Database;
 let analyst: Actor;
@@ -36,11 +36,7 @@ async function refusal(promise: Promise<unknown>): Promise<AppError> {
 }
 
 beforeAll(async () => {
-  db = await runsDatabase({ withMethod: false });
-  analyst = await actorFor(PEOPLE.analyst);
-  auditor = await actorFor(PEOPLE.auditor);
-  pellam = await actorFor(PEOPLE.pellamAnalyst);
-  periodId = await demoPeriodId(db, analyst);
+  ({ db, periodId, analyst, auditor, pellam } = await demoWorldAs({ withMethod: false }, { analyst: PEOPLE.analyst, auditor: PEOPLE.auditor, pellam: PEOPLE.pellamAnalyst }));
 }, 120_000);
 
 describe("refusals store nothing", () => {

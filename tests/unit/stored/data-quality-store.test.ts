@@ -5,7 +5,7 @@
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
-import { actorFor, demoPeriodId, PEOPLE, runsDatabase } from "../runs/setup";
+import { demoWorldAs, PEOPLE } from "../runs/setup";
 import type { Database } from "@/db/client";
 import { dataQualityReports, instruments, positions, pricePoints, uploads } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
@@ -29,11 +29,7 @@ async function storedRow() {
 }
 
 beforeAll(async () => {
-  db = await runsDatabase({ withMethod: false });
-  analyst = await actorFor(PEOPLE.analyst);
-  officer = await actorFor(PEOPLE.officer);
-  pellam = await actorFor(PEOPLE.pellamAnalyst);
-  periodId = await demoPeriodId(db, analyst);
+  ({ db, periodId, analyst, officer, pellam } = await demoWorldAs({ withMethod: false }, { analyst: PEOPLE.analyst, officer: PEOPLE.officer, pellam: PEOPLE.pellamAnalyst }));
 });
 
 describe("stored data-quality report", () => {

@@ -5,7 +5,7 @@
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { and, eq, inArray } from "drizzle-orm";
-import { actorFor, demoPeriodId, PEOPLE, runsDatabase } from "../runs/setup";
+import { demoWorldAs, PEOPLE } from "../runs/setup";
 import type { Database } from "@/db/client";
 import { jobs } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
@@ -33,9 +33,7 @@ async function clearReportJobs() {
 }
 
 beforeAll(async () => {
-  db = await runsDatabase({ withMethod: false });
-  officer = await actorFor(PEOPLE.officer);
-  periodId = await demoPeriodId(db, officer);
+  ({ db, periodId, officer } = await demoWorldAs({ withMethod: false }, { officer: PEOPLE.officer }));
 });
 
 describe("data-quality refresh after a change of what the report reads", () => {
