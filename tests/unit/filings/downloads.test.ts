@@ -6,12 +6,10 @@
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { createHash } from "node:crypto";
-import { and, eq } from "drizzle-orm";
 import JSZip from "jszip";
 import XlsxPopulate from "xlsx-populate";
-import { actorFor } from "../helpers/db";
-import { attestation, filingWorld, NORTHMOOR, PELLAM, type FilingWorld } from "./setup";
-import { auditEvents } from "@/db/schema";
+import { actorFor, auditRecords } from "../helpers/db";
+import { attestation, NORTHMOOR, PELLAM, preparedFilingWorld, type FilingWorld } from "./setup";
 import { AppError } from "@/lib/errors";
 
 let w: FilingWorld;
@@ -28,16 +26,10 @@ async function wordText(bytes: Uint8Array): Promise<string> {
   return text;
 }
 
-const downloads = async () =>
-  w.db
-    .select()
-    .from(auditEvents)
-    .where(and(eq(auditEvents.action, "filing.download"), eq(auditEvents.entityId, filingId)));
+const downloads = async () => auditRecords("filing.download", { entityId: filingId });
 
 beforeAll(async () => {
-  w = await filingWorld();
-  const { prepareFiling } = await data();
-  filingId = (await prepareFiling(w.officer, w.periodId)).id;
+  ({ filingId, ...w } = await preparedFilingWorld());
 });
 
 describe("packs of a draft", () => {

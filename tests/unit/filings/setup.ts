@@ -44,6 +44,13 @@ export async function filingWorld(options: { run: boolean } = { run: true }): Pr
   return { db, periodId: period.id, runId, officer: await actorFor(NORTHMOOR.officer), head: await actorFor(NORTHMOOR.head), analyst };
 }
 
+/** filingWorld and the draft filing the compliance officer prepares from its run. */
+export async function preparedFilingWorld(): Promise<FilingWorld & { filingId: string }> {
+  const w = await filingWorld();
+  const { prepareFiling } = await import("@/lib/data/filings");
+  return { ...w, filingId: (await prepareFiling(w.officer, w.periodId)).id };
+}
+
 /** Give a seeded person exactly these roles at their firm, and return their actor as the gate would build it. */
 export async function withRoles(email: string, roles: string[]): Promise<Actor> {
   const [user] = await getDb().select({ id: users.id }).from(users).where(eq(users.email, email));

@@ -4,10 +4,10 @@
  * wrong one refused, audited and rate-limited like sign-in), and what a signature stores.
  */
 import { beforeAll, describe, expect, it } from "vitest";
-import { and, eq } from "drizzle-orm";
-import { actorFor } from "../helpers/db";
-import { attestation, filingWorld, NORTHMOOR, setActive, withRoles, type FilingWorld } from "./setup";
-import { auditEvents, filings, reportingPeriods, signatures } from "@/db/schema";
+import { eq } from "drizzle-orm";
+import { actorFor, auditRecords } from "../helpers/db";
+import { attestation, NORTHMOOR, preparedFilingWorld, setActive, withRoles, type FilingWorld } from "./setup";
+import { filings, reportingPeriods, signatures } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { MAX_FAILURES_PER_ACCOUNT } from "@/lib/auth/rate-limit";
 import { contentHash, type FilingViewModel } from "@/reports/view-model";
@@ -37,18 +37,13 @@ async function refusedUnchanged(call: () => Promise<unknown>): Promise<AppError>
   return error as AppError;
 }
 
-const refusedAudits = async (userId: string) =>
-  w.db
-    .select()
-    .from(auditEvents)
-    .where(and(eq(auditEvents.action, "filing.sign_refused"), eq(auditEvents.actorId, userId)));
+const refusedAudits = async (userId: string) => auditRecords("filing.sign_refused", { actorId: userId });
 
 beforeAll(async () => {
   // Priya (risk analyst) starts the run; Tomas prepares; Nia (compliance officer + risk analyst) submits.
-  w = await filingWorld();
+  ({ filingId, ...w } = await preparedFilingWorld());
   nia = await actorFor(NORTHMOOR.analystOfficer);
-  const { prepareFiling, submitFiling } = await data();
-  filingId = (await prepareFiling(w.officer, w.periodId)).id;
+  const { submitFiling } = await data();
   await submitFiling(nia, filingId);
 });
 
@@ -154,7 +149,7 @@ describe("a signature", () => {
     // the real time of the act (not the pinned business day), the same instant as the audit record
     expect(Date.parse(sig.signedAt)).toBeGreaterThanOrEqual(before);
     expect(Date.parse(sig.signedAt)).toBeLessThanOrEqual(Date.now());
-    const [signEvent] = await w.db.select().from(auditEvents).where(and(eq(auditEvents.entityId, filingId), eq(auditEvents.action, "filing.sign")));
+    const [signEvent] = await auditRecords("filing.sign", { entityId: filingId });
     expect(signEvent.at).toBe(sig.signedAt);
     expect(sig.attestation).toContain("By signing, the compliance head confirms");
     // the sign-off block is in the stored content, and the hash of the stored content is unchanged by it
@@ -165,7 +160,7 @@ describe("a signature", () => {
     expect((await verifyFiling(await actorFor(NORTHMOOR.auditor), filingId)).matches).toBe(true);
     const [period] = await w.db.select().from(reportingPeriods).where(eq(reportingPeriods.id, w.periodId));
     expect(period.state).toBe("signed");
-    const [event] = await w.db.select().from(auditEvents).where(and(eq(auditEvents.action, "filing.sign"), eq(auditEvents.entityId, filingId)));
+    const [event] = await auditRecords("filing.sign", { entityId: filingId });
     expect((event.detail as { contentHash: string }).contentHash).toBe(expected);
   });
 });

@@ -4,7 +4,7 @@
  * clear message and nothing changes; submitting a draft whose run is no longer the period's marked run is refused.
  */
 import { beforeAll, describe, expect, it } from "vitest";
-import { completedRun, attestation, filingWorld, type FilingWorld } from "./setup";
+import { completedRun, attestation, preparedFilingWorld, type FilingWorld } from "./setup";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 
@@ -72,9 +72,7 @@ async function refusesAllBut(filingId: string, allowed: Action[], messages: Part
 let filingId: string;
 
 beforeAll(async () => {
-  w = await filingWorld();
-  const { prepareFiling } = await data();
-  filingId = (await prepareFiling(w.officer, w.periodId)).id;
+  ({ filingId, ...w } = await preparedFilingWorld());
 });
 
 describe("each state refuses what does not belong to it", () => {

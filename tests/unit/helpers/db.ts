@@ -3,7 +3,9 @@
  * builds them. Sets DATABASE_URL before any data function opens the database. The worlds are copies of templates
  * built once per run (tests/unit/helpers/template-worlds.ts), not migrated and seeded again in every file.
  */
+import { and, eq } from "drizzle-orm";
 import { getDb, type Database } from "@/db/client";
+import { auditEvents } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
 import { actorForEmail } from "@/db/actor-for";
 import { copyOfWorld, type World } from "./template-worlds";
@@ -25,6 +27,15 @@ export function freshDatabase(): Promise<Database> {
 /** The actor for a seeded person, as lib/auth/actor.ts would resolve it. */
 export async function actorFor(email: string): Promise<Actor> {
   return actorForEmail(getDb(), email);
+}
+
+/** The audit records of one action about one entity, or by one person. */
+export function auditRecords(action: string, match: { entityId: string } | { actorId: string }) {
+  const [column, value] = "entityId" in match ? [auditEvents.entityId, match.entityId] : [auditEvents.actorId, match.actorId];
+  return getDb()
+    .select()
+    .from(auditEvents)
+    .where(and(eq(auditEvents.action, action), eq(column, value)));
 }
 
 /** Every row of every table, for "nothing changed" checks. */

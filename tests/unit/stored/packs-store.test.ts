@@ -8,7 +8,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { createHash } from "node:crypto";
 import { and, eq, like } from "drizzle-orm";
 import { actorFor } from "../helpers/db";
-import { attestation, filingWorld, PELLAM, type FilingWorld } from "./../filings/setup";
+import { attestation, PELLAM, preparedFilingWorld, type FilingWorld } from "./../filings/setup";
 import { jobs, packFiles } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { PackRenderer } from "@/lib/data/packs";
@@ -35,9 +35,7 @@ const sha = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("he
 const storedOf = (id: string) => w.db.select().from(packFiles).where(eq(packFiles.filingId, id));
 
 beforeAll(async () => {
-  w = await filingWorld();
-  const { prepareFiling } = await data();
-  filingId = (await prepareFiling(w.officer, w.periodId)).id;
+  ({ filingId, ...w } = await preparedFilingWorld());
 });
 
 describe("stored packs", () => {
