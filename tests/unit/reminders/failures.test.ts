@@ -1,31 +1,16 @@
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
-import { actorFor, freshDatabase } from "../helpers/db";
-import type { Database } from "@/db/client";
-import { reminderLog } from "@/db/schema";
+import { describe, expect, it } from "vitest";
+import { actorFor } from "../helpers/db";
+import { reminderWorld } from "../helpers/reminder-world";
 import { DEMO_USERS, SECOND_FIRM_USERS } from "@/db/seed";
-import { startMailListener, type MailListener } from "@/lib/mail/listener";
 import type { Mailer } from "@/lib/mail/transport";
 import { runReminders } from "@/lib/reminders/run";
 import { listReminderLog } from "@/lib/reminders/log";
 import { closedPort, delayRecorder, logRows, mailerFor, RUN } from "./helpers";
 
-let db: Database;
-let listener: MailListener;
+const world = reminderWorld();
 const [, tomas, , , , nia] = DEMO_USERS;
 const june = SECOND_FIRM_USERS[1];
 const everyone = [june.email, nia.email, tomas.email].sort();
-
-beforeAll(async () => {
-  db = await freshDatabase();
-  listener = await startMailListener({ smtpPort: 0 });
-});
-afterAll(async () => {
-  await listener.close();
-});
-beforeEach(async () => {
-  await db.delete(reminderLog);
-  listener.messages.length = 0;
-});
 
 describe("when mail fails", () => {
   it("an unreachable mail server: a clear status for the admin, no crash, and the reminders go out once it is back", async () => {
@@ -51,12 +36,12 @@ describe("when mail fails", () => {
     expect(shown.find((r) => r.status === "retry")?.lastError).toContain("Could not reach the mail server");
 
     // Back up: the waiting ones go at once; the failed one after its retry time; nobody gets two.
-    const up = mailerFor(listener);
+    const up = mailerFor(world.listener);
     expect(await runReminders({ ...RUN, mailer: up })).toMatchObject({ sent: 2, failed: 0 });
     expect(await runReminders({ ...RUN, mailer: up, now: new Date("2026-12-14T06:16:00Z") })).toMatchObject({ sent: 1, failed: 0 });
     expect(await runReminders({ ...RUN, mailer: up, now: new Date("2026-12-14T09:00:00Z") })).toMatchObject({ sent: 0 });
     up.close();
-    expect(listener.messages.flatMap((m) => m.to).sort()).toEqual(everyone);
+    expect(world.listener.messages.flatMap((m) => m.to).sort()).toEqual(everyone);
     expect((await logRows()).every((r) => r.status === "sent")).toBe(true);
   });
 
@@ -78,7 +63,7 @@ describe("when mail fails", () => {
   });
 
   it("a crash in the middle of a batch sends no duplicates on restart", async () => {
-    const real = mailerFor(listener);
+    const real = mailerFor(world.listener);
     let calls = 0;
     let crashed!: () => void;
     const crash = new Promise<void>((resolve) => (crashed = resolve));
@@ -98,18 +83,18 @@ describe("when mail fails", () => {
     };
     void runReminders({ ...RUN, mailer: dying });
     await crash;
-    expect(listener.messages).toHaveLength(2);
+    expect(world.listener.messages).toHaveLength(2);
 
     // Restart: the unconfirmed one stays unconfirmed (shown to the admin), the rest are sent, nobody twice.
     const restart = await runReminders({ ...RUN, mailer: real });
     real.close();
     expect(restart).toMatchObject({ sent: 1 });
-    expect(listener.messages.flatMap((m) => m.to).sort()).toEqual(everyone);
+    expect(world.listener.messages.flatMap((m) => m.to).sort()).toEqual(everyone);
     const rows = await logRows();
     expect(rows.map((r) => r.status).sort()).toEqual(["sending", "sent", "sent"]);
     const admin = await actorFor(DEMO_USERS[0].email);
     expect((await listReminderLog(admin)).filter((r) => r.status === "sending")).toHaveLength(1);
-    expect(await runReminders({ ...RUN, mailer: mailerFor(listener) })).toMatchObject({ sent: 0 });
-    expect(listener.messages).toHaveLength(3);
+    expect(await runReminders({ ...RUN, mailer: mailerFor(world.listener) })).toMatchObject({ sent: 0 });
+    expect(world.listener.messages).toHaveLength(3);
   });
 });

@@ -1,36 +1,23 @@
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { eq, like } from "drizzle-orm";
-import { actorFor, freshDatabase } from "../helpers/db";
-import type { Database } from "@/db/client";
+import { actorFor } from "../helpers/db";
+import { reminderWorld } from "../helpers/reminder-world";
 import { auditEvents, reminderLog, reportingPeriods } from "@/db/schema";
 import { DEMO_USERS, SECOND_FIRM_USERS } from "@/db/seed";
-import { startMailListener, type MailListener } from "@/lib/mail/listener";
+import { startMailListener } from "@/lib/mail/listener";
 import { runReminders } from "@/lib/reminders/run";
 import { setMyReminderPreference } from "@/lib/calendar/settings";
 import { delayRecorder, logRows, mailerFor, RUN } from "./helpers";
 
-let db: Database;
-let listener: MailListener;
+const world = reminderWorld();
 const [, tomas, , , , nia] = DEMO_USERS;
 const june = SECOND_FIRM_USERS[1];
 
-beforeAll(async () => {
-  db = await freshDatabase();
-  listener = await startMailListener({ smtpPort: 0 });
-});
-afterAll(async () => {
-  await listener.close();
-});
-beforeEach(async () => {
-  await db.delete(reminderLog);
-  listener.messages.length = 0;
-});
-
-const recipients = () => listener.messages.flatMap((m) => m.to).sort();
+const recipients = () => world.listener.messages.flatMap((m) => m.to).sort();
 
 describe("the scheduler", () => {
   it("five business days before the deadline, e-mails whoever owns the open step; a second run sends nothing new", async () => {
-    const mailer = mailerFor(listener);
+    const mailer = mailerFor(world.listener);
     const first = await runReminders({ ...RUN, mailer });
     // The seeded periods wait on month-end positions: compliance officers at both firms.
     expect(first).toMatchObject({ asOf: "2026-12-14", mail: "ok", opened: [], due: 3, recorded: 3, sent: 3, failed: 0, problems: [] });
@@ -38,7 +25,7 @@ describe("the scheduler", () => {
 
     const second = await runReminders({ ...RUN, mailer });
     expect(second).toMatchObject({ due: 3, recorded: 0, sent: 0, failed: 0 });
-    expect(listener.messages).toHaveLength(3);
+    expect(world.listener.messages).toHaveLength(3);
     // A later run the same day, or a day later, still sends nothing new.
     expect(await runReminders({ ...RUN, asOf: "2026-12-15", mailer })).toMatchObject({ recorded: 0, sent: 0 });
     mailer.close();
@@ -52,7 +39,7 @@ describe("the scheduler", () => {
       ].sort(),
     );
     // Every reminder sent is in the audit trail, in its own firm.
-    const sent = await db.select().from(auditEvents).where(eq(auditEvents.action, "reminder.sent"));
+    const sent = await world.db.select().from(auditEvents).where(eq(auditEvents.action, "reminder.sent"));
     expect(sent).toHaveLength(3);
     const admin = await actorFor(DEMO_USERS[0].email);
     expect(sent.filter((e) => e.firmId === admin.firmId).map((e) => e.summary).sort()).toEqual([
@@ -63,12 +50,12 @@ describe("the scheduler", () => {
   });
 
   it("writes the firm, period, deadline, days left, the step and a link, and no figures", async () => {
-    const mailer = mailerFor(listener);
+    const mailer = mailerFor(world.listener);
     await runReminders({ ...RUN, mailer });
     mailer.close();
     const admin = await actorFor(DEMO_USERS[0].email);
-    const [period] = await db.select().from(reportingPeriods).where(eq(reportingPeriods.firmId, admin.firmId));
-    const message = listener.messages.find((m) => m.to.includes(tomas.email))!;
+    const [period] = await world.db.select().from(reportingPeriods).where(eq(reportingPeriods.firmId, admin.firmId));
+    const message = world.listener.messages.find((m) => m.to.includes(tomas.email))!;
     expect(message.subject).toBe("5 business days left: Upload and confirm month-end positions for November 2026 (Northmoor Brokerage Ltd)");
     expect(message.from).toContain("reminders@ballast.example");
     expect(message.firmId).toBe(admin.firmId);
@@ -89,7 +76,7 @@ describe("the scheduler", () => {
       expect(part).not.toMatch(/\d[\d,]*\.\d/);
     }
     // The June reminder belongs to the other firm and carries its firm id.
-    expect(listener.messages.find((m) => m.to.includes(june.email))!.subject).toContain("(Pellam Capital Partners)");
+    expect(world.listener.messages.find((m) => m.to.includes(june.email))!.subject).toContain("(Pellam Capital Partners)");
   });
 
   it("an SMTP listener that refuses, then accepts: the send is retried with backoff and each person gets one e-mail", async () => {
@@ -111,15 +98,15 @@ describe("the scheduler", () => {
   it("people who turned reminders off get only the overdue notice", async () => {
     const officer = await actorFor(tomas.email);
     await setMyReminderPreference(officer, false);
-    const mailer = mailerFor(listener);
+    const mailer = mailerFor(world.listener);
     await runReminders({ ...RUN, mailer });
     expect(recipients()).toEqual([june.email, nia.email].sort());
-    listener.messages.length = 0;
+    world.listener.messages.length = 0;
     // Tuesday 22 Dec is the first day past the deadline.
     const overdue = await runReminders({ ...RUN, asOf: "2026-12-22", mailer });
     expect(overdue.sent).toBe(3);
     expect(recipients()).toEqual([june.email, nia.email, tomas.email].sort());
-    const notice = listener.messages.find((m) => m.to.includes(tomas.email))!;
+    const notice = world.listener.messages.find((m) => m.to.includes(tomas.email))!;
     expect(notice.subject).toMatch(/^Overdue by 1 business day: /);
     expect(notice.text).toContain("The filing deadline for Northmoor Brokerage Ltd has passed");
     expect(notice.text).toContain("Overdue notices go to everyone who owns the step");
@@ -132,15 +119,15 @@ describe("the scheduler", () => {
   it("a reminder still waiting when a later one is due is not sent; the later one is", async () => {
     const admin = await actorFor(DEMO_USERS[0].email);
     const tomasActor = await actorFor(tomas.email);
-    const [period] = await db.select().from(reportingPeriods).where(eq(reportingPeriods.firmId, admin.firmId));
-    await db.insert(reminderLog).values({ firmId: admin.firmId, periodId: period.id, step: "positions", offsetDays: 10, userId: tomasActor.userId, email: tomas.email, status: "retry", attempts: 3, lastError: "earlier failure" });
-    const mailer = mailerFor(listener);
+    const [period] = await world.db.select().from(reportingPeriods).where(eq(reportingPeriods.firmId, admin.firmId));
+    await world.db.insert(reminderLog).values({ firmId: admin.firmId, periodId: period.id, step: "positions", offsetDays: 10, userId: tomasActor.userId, email: tomas.email, status: "retry", attempts: 3, lastError: "earlier failure" });
+    const mailer = mailerFor(world.listener);
     const result = await runReminders({ ...RUN, mailer });
     mailer.close();
     expect(result).toMatchObject({ sent: 3, skipped: 1 });
     const stale = (await logRows()).find((r) => r.offsetDays === 10)!;
     expect(stale).toMatchObject({ status: "skipped", lastError: "A later reminder replaced this one." });
-    expect(listener.messages.filter((m) => m.to.includes(tomas.email))).toHaveLength(1);
+    expect(world.listener.messages.filter((m) => m.to.includes(tomas.email))).toHaveLength(1);
   });
 
   it("without a configured mail server it says so, and records nothing", async () => {
@@ -148,6 +135,6 @@ describe("the scheduler", () => {
     expect(result.mail).toBe("not_configured");
     expect(result.problems[0]).toContain("SMTP_HOST");
     expect(await logRows()).toEqual([]);
-    expect(await db.select().from(auditEvents).where(like(auditEvents.action, "reminder.failed"))).toEqual([]);
+    expect(await world.db.select().from(auditEvents).where(like(auditEvents.action, "reminder.failed"))).toEqual([]);
   });
 });
