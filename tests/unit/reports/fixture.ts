@@ -152,3 +152,12 @@ async function build(): Promise<PackFixture> {
   });
   return { runInputs, run, input, vm, signed };
 }
+
+/** The fixture's draft and its signed version, each built into a pack by `build` and read back by `read` (in that order). */
+export async function builtPacks<T>(build: (vm: FilingViewModel) => Promise<Buffer>, read: (bytes: Buffer) => Promise<T>) {
+  const f = await packFixture();
+  const draftBytes = await build(f.vm);
+  const draft = await read(draftBytes);
+  const signed = await read(await build(f.signed));
+  return { vm: f.vm, signedVm: f.signed, draftBytes, draft, signed };
+}

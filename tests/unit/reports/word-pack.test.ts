@@ -7,7 +7,7 @@ import { STYLE } from "@/reports/docx/styles";
 import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatPercent } from "@/reports/format";
 import { filingSections } from "@/reports/sections";
 import type { FilingViewModel } from "@/reports/view-model";
-import { FORMULA_TEXT, packFixture } from "./fixture";
+import { builtPacks, FORMULA_TEXT } from "./fixture";
 
 interface Unpacked {
   zip: JSZip;
@@ -66,11 +66,7 @@ let draft: Unpacked;
 let signed: Unpacked;
 
 beforeAll(async () => {
-  const f = await packFixture();
-  vm = f.vm;
-  signedVm = f.signed;
-  draft = await unpack(await buildWordPack(f.vm));
-  signed = await unpack(await buildWordPack(f.signed));
+  ({ vm, signedVm, draft, signed } = await builtPacks(buildWordPack, unpack));
 });
 
 describe("the Word pack", () => {

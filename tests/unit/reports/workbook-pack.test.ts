@@ -9,7 +9,7 @@ import { buildWorkbookPack } from "@/reports/xlsx/filing-pack";
 import { COLUMNS, FREEZE, NUMBER_FORMATS, SHEETS, SUMMARY_ITEMS, SUMMARY_VAR_HEADER_ROW, headerText, type SheetName } from "@/reports/xlsx/layout";
 import { asPackWorkbook, type PackCell, type PackSheet, type PackWorkbook } from "@/reports/xlsx/workbook-types";
 import type { FilingViewModel } from "@/reports/view-model";
-import { FORMULA_TEXT, packFixture } from "./fixture";
+import { builtPacks, FORMULA_TEXT, packFixture } from "./fixture";
 
 async function open(bytes: Buffer): Promise<PackWorkbook> {
   return asPackWorkbook(await XlsxPopulate.fromDataAsync(bytes));
@@ -34,11 +34,7 @@ let signed: PackWorkbook;
 let draftBytes: Buffer;
 
 beforeAll(async () => {
-  const f = await packFixture();
-  vm = f.vm;
-  draftBytes = await buildWorkbookPack(f.vm);
-  draft = await open(draftBytes);
-  signed = await open(await buildWorkbookPack(f.signed));
+  ({ vm, draftBytes, draft, signed } = await builtPacks(buildWorkbookPack, open));
 });
 
 describe("the workbook pack", () => {
