@@ -3,6 +3,7 @@
 /** The estimator comparison per asset class: a titled bar chart of QLIKE and the table behind it. */
 import { Bar, BarChart, CartesianGrid, Cell, LabelList, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { DraftCaution } from "@/app/_components/draft-caution";
+import { FigureTable } from "@/app/_components/figure-table";
 import { formatDate, formatTimestamp } from "@/app/_components/format";
 import type { BookEvidence, ClassEvidence, MethodEvidence } from "@/lib/method/evidence";
 
@@ -47,41 +48,33 @@ function RankingTable({ c }: { c: ClassEvidence }) {
   const cmp = c.comparison!;
   return (
     <div className="relative overflow-x-auto">
-      <table className="w-full min-w-[720px] text-sm">
-        <caption className="mb-1 text-left text-xs text-ink-muted">
-          {c.label}: ranked by QLIKE (lower is better). Mean squared error compares σ² with r²; log-likelihood out of sample, higher is better; AIC and BIC in sample where a likelihood is defined;
-          exceptions of the normal 99 % one-day VaR against {num(cmp.expectedExceptions, 1)} expected.
-        </caption>
-        <thead>
-          <tr className="border-b border-ink-line text-right text-ink-muted">
-            <th scope="col" className="py-1.5 pr-2 text-left font-medium">Rank</th>
-            <th scope="col" className="py-1.5 pr-2 text-left font-medium">Estimator</th>
-            <th scope="col" className="py-1.5 pr-2 font-medium">QLIKE</th>
-            <th scope="col" className="py-1.5 pr-2 font-medium">MSE</th>
-            <th scope="col" className="py-1.5 pr-2 font-medium">Log-likelihood (out of sample)</th>
-            <th scope="col" className="py-1.5 pr-2 font-medium">AIC</th>
-            <th scope="col" className="py-1.5 pr-2 font-medium">BIC</th>
-            <th scope="col" className="py-1.5 font-medium">VaR exceptions</th>
+      <FigureTable
+        className="w-full min-w-[720px] text-sm"
+        caption={
+          <>
+            {c.label}: ranked by QLIKE (lower is better). Mean squared error compares σ² with r²; log-likelihood out of sample, higher is better; AIC and BIC in sample where a likelihood is defined;
+            exceptions of the normal 99 % one-day VaR against {num(cmp.expectedExceptions, 1)} expected.
+          </>
+        }
+        leftColumns={2}
+        columns={["Rank", "Estimator", "QLIKE", "MSE", "Log-likelihood (out of sample)", "AIC", "BIC", "VaR exceptions"]}
+      >
+        {cmp.ranking.map((r, i) => (
+          <tr key={r.id} className="border-b border-ink-line/60 text-right">
+            <td className="py-1.5 pr-2 text-left">{i + 1}</td>
+            <th scope="row" className="py-1.5 pr-2 text-left font-normal">
+              {r.label}
+              {r.warnings.length ? <span className="sr-only">. {r.warnings.join(" ")}</span> : null}
+            </th>
+            <td className="py-1.5 pr-2">{num(r.qlike, 4)}</td>
+            <td className="py-1.5 pr-2">{sci(r.mse)}</td>
+            <td className="py-1.5 pr-2">{num(r.outOfSampleLogLikelihood, 1)}</td>
+            <td className="py-1.5 pr-2">{num(r.aic, 1)}</td>
+            <td className="py-1.5 pr-2">{num(r.bic, 1)}</td>
+            <td className="py-1.5">{r.varExceptions}</td>
           </tr>
-        </thead>
-        <tbody className="figure">
-          {cmp.ranking.map((r, i) => (
-            <tr key={r.id} className="border-b border-ink-line/60 text-right">
-              <td className="py-1.5 pr-2 text-left">{i + 1}</td>
-              <th scope="row" className="py-1.5 pr-2 text-left font-normal">
-                {r.label}
-                {r.warnings.length ? <span className="sr-only">. {r.warnings.join(" ")}</span> : null}
-              </th>
-              <td className="py-1.5 pr-2">{num(r.qlike, 4)}</td>
-              <td className="py-1.5 pr-2">{sci(r.mse)}</td>
-              <td className="py-1.5 pr-2">{num(r.outOfSampleLogLikelihood, 1)}</td>
-              <td className="py-1.5 pr-2">{num(r.aic, 1)}</td>
-              <td className="py-1.5 pr-2">{num(r.bic, 1)}</td>
-              <td className="py-1.5">{r.varExceptions}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
+        ))}
+      </FigureTable>
       {cmp.failed.length ? (
         <p className="mt-1 text-xs text-ink-muted">Could not be fitted: {cmp.failed.map((f) => `${f.label} (${f.error})`).join("; ")}</p>
       ) : null}
@@ -139,41 +132,33 @@ export function BookEvidenceView({ book }: { book: BookEvidence }) {
         </div>
       </figure>
       <div className="relative overflow-x-auto">
-        <table className="w-full min-w-[820px] text-sm" data-testid="book-evidence-table">
-          <caption className="mb-1 text-left text-xs text-ink-muted">
-            The table behind the chart. Kupiec: unconditional coverage; Christoffersen: independence and conditional coverage (p-values, higher is better). Mean VaR and capital in the
-            reporting currency; capital adds the run&apos;s stressed-VaR term, the same for every row.
-          </caption>
-          <thead>
-            <tr className="border-b border-ink-line text-right text-ink-muted">
-              <th scope="col" className="py-1.5 pr-2 text-left font-medium">Method</th>
-              <th scope="col" className="py-1.5 pr-2 font-medium">Exceptions</th>
-              <th scope="col" className="py-1.5 pr-2 text-left font-medium">Zone</th>
-              <th scope="col" className="py-1.5 pr-2 font-medium">Kupiec p</th>
-              <th scope="col" className="py-1.5 pr-2 font-medium">Independence p</th>
-              <th scope="col" className="py-1.5 pr-2 font-medium">Cond. coverage p</th>
-              <th scope="col" className="py-1.5 pr-2 font-medium">Mean VaR</th>
-              <th scope="col" className="py-1.5 font-medium">Capital</th>
+        <FigureTable
+          className="w-full min-w-[820px] text-sm"
+          testId="book-evidence-table"
+          caption={
+            <>
+              The table behind the chart. Kupiec: unconditional coverage; Christoffersen: independence and conditional coverage (p-values, higher is better). Mean VaR and capital in the
+              reporting currency; capital adds the run&apos;s stressed-VaR term, the same for every row.
+            </>
+          }
+          columns={["Method", "Exceptions", { label: "Zone", align: "left" }, "Kupiec p", "Independence p", "Cond. coverage p", "Mean VaR", "Capital"]}
+        >
+          {ev.rows.map((r) => (
+            <tr key={r.id} className="border-b border-ink-line/60 text-right">
+              <th scope="row" className="max-w-[22rem] py-1.5 pr-2 text-left font-normal">
+                {labelOf(r)}
+                {r.error ? <span className="block text-xs text-alert">Could not be computed: {r.error}</span> : null}
+              </th>
+              <td className="py-1.5 pr-2">{r.exceptions ?? "—"}</td>
+              <td className="py-1.5 pr-2 text-left">{r.zone ? ZONE_WORDS[r.zone] : "—"}</td>
+              <td className="py-1.5 pr-2">{num(r.kupiecPValue, 3)}</td>
+              <td className="py-1.5 pr-2">{num(r.christoffersenIndependencePValue, 3)}</td>
+              <td className="py-1.5 pr-2">{num(r.christoffersenPValue, 3)}</td>
+              <td className="py-1.5 pr-2">{amount(r.meanVar)}</td>
+              <td className="py-1.5">{amount(r.capital)}</td>
             </tr>
-          </thead>
-          <tbody className="figure">
-            {ev.rows.map((r) => (
-              <tr key={r.id} className="border-b border-ink-line/60 text-right">
-                <th scope="row" className="max-w-[22rem] py-1.5 pr-2 text-left font-normal">
-                  {labelOf(r)}
-                  {r.error ? <span className="block text-xs text-alert">Could not be computed: {r.error}</span> : null}
-                </th>
-                <td className="py-1.5 pr-2">{r.exceptions ?? "—"}</td>
-                <td className="py-1.5 pr-2 text-left">{r.zone ? ZONE_WORDS[r.zone] : "—"}</td>
-                <td className="py-1.5 pr-2">{num(r.kupiecPValue, 3)}</td>
-                <td className="py-1.5 pr-2">{num(r.christoffersenIndependencePValue, 3)}</td>
-                <td className="py-1.5 pr-2">{num(r.christoffersenPValue, 3)}</td>
-                <td className="py-1.5 pr-2">{amount(r.meanVar)}</td>
-                <td className="py-1.5">{amount(r.capital)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </FigureTable>
       </div>
       <p className="text-xs text-ink-muted">{ev.statement}</p>
     </div>

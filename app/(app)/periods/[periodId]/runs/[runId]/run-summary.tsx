@@ -6,6 +6,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "@/app/_components/api";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { FigureTable } from "@/app/_components/figure-table";
 import { formatDate, formatTimestamp } from "@/app/_components/format";
 import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunRecord, RunResults } from "@/lib/runs/types";
@@ -49,41 +50,36 @@ function VarTable({ results, currency }: { results: RunResults; currency: string
   const m = results.monthEnd;
   return (
     <div className="relative overflow-x-auto">
-      <table className="w-full min-w-[640px] text-sm" data-testid="var-table">
-        <caption className="mb-1 text-left text-xs text-ink-muted">
-          Value-at-risk and expected shortfall of the book as of {formatDate(m.asOf)}, in {currency}, at one day and {m.horizonDays} days. The primary method ({METHOD_WORDS[m.primaryMethod]}) drives the
-          history, backtest and capital.
-        </caption>
-        <thead>
-          <tr className="border-b border-ink-line text-right text-ink-muted">
-            <th scope="col" className="py-1.5 pr-2 text-left font-medium">Method</th>
-            <th scope="col" className="py-1.5 pr-2 text-left font-medium">Confidence</th>
-            <th scope="col" className="py-1.5 pr-2 font-medium">VaR 1 day</th>
-            <th scope="col" className="py-1.5 pr-2 font-medium">ES 1 day</th>
-            <th scope="col" className="py-1.5 pr-2 font-medium">VaR {m.horizonDays} days</th>
-            <th scope="col" className="py-1.5 font-medium">ES {m.horizonDays} days</th>
-          </tr>
-        </thead>
-        <tbody className="figure">
-          {m.methods.flatMap((method) =>
-            method.byConfidence.map((c, i) => (
-              <tr key={`${method.method}-${c.confidence}`} className={`border-b border-ink-line/60 text-right ${method.method === m.primaryMethod ? "font-semibold" : ""}`}>
-                {i === 0 ? (
-                  <th scope="rowgroup" rowSpan={method.byConfidence.length} className="py-1.5 pr-2 text-left align-top font-medium">
-                    {METHOD_WORDS[method.method]}
-                    {method.method === m.primaryMethod ? <span className="block text-xs font-normal text-ink-muted">primary</span> : null}
-                  </th>
-                ) : null}
-                <td className="py-1.5 pr-2 text-left">{confidence(c.confidence)}</td>
-                <td className="py-1.5 pr-2">{money(c.oneDay.var, currency)}</td>
-                <td className="py-1.5 pr-2">{money(c.oneDay.es, currency)}</td>
-                <td className="py-1.5 pr-2">{money(c.tenDay.var, currency)}</td>
-                <td className="py-1.5">{money(c.tenDay.es, currency)}</td>
-              </tr>
-            )),
-          )}
-        </tbody>
-      </table>
+      <FigureTable
+        className="w-full min-w-[640px] text-sm"
+        testId="var-table"
+        caption={
+          <>
+            Value-at-risk and expected shortfall of the book as of {formatDate(m.asOf)}, in {currency}, at one day and {m.horizonDays} days. The primary method ({METHOD_WORDS[m.primaryMethod]}) drives the
+            history, backtest and capital.
+          </>
+        }
+        leftColumns={2}
+        columns={["Method", "Confidence", "VaR 1 day", "ES 1 day", `VaR ${m.horizonDays} days`, `ES ${m.horizonDays} days`]}
+      >
+        {m.methods.flatMap((method) =>
+          method.byConfidence.map((c, i) => (
+            <tr key={`${method.method}-${c.confidence}`} className={`border-b border-ink-line/60 text-right ${method.method === m.primaryMethod ? "font-semibold" : ""}`}>
+              {i === 0 ? (
+                <th scope="rowgroup" rowSpan={method.byConfidence.length} className="py-1.5 pr-2 text-left align-top font-medium">
+                  {METHOD_WORDS[method.method]}
+                  {method.method === m.primaryMethod ? <span className="block text-xs font-normal text-ink-muted">primary</span> : null}
+                </th>
+              ) : null}
+              <td className="py-1.5 pr-2 text-left">{confidence(c.confidence)}</td>
+              <td className="py-1.5 pr-2">{money(c.oneDay.var, currency)}</td>
+              <td className="py-1.5 pr-2">{money(c.oneDay.es, currency)}</td>
+              <td className="py-1.5 pr-2">{money(c.tenDay.var, currency)}</td>
+              <td className="py-1.5">{money(c.tenDay.es, currency)}</td>
+            </tr>
+          )),
+        )}
+      </FigureTable>
       <ul className="mt-2 list-disc pl-5 text-xs text-ink-muted">
         {m.methods.map((method) => (
           <li key={method.method}>
@@ -274,25 +270,15 @@ export function RunSummary({ periodId, runId, canReproduce, canChooseForFiling }
                 <p className="mb-2 text-sm" data-testid="stress-window">
                   Window {formatDate(s.window.start)} to {formatDate(s.window.end)} ({s.window.days} days, {s.window.chosenBy === "search" ? "found by search" : "chosen by the analyst"}).
                 </p>
-                <table className="w-full text-sm">
-                  <caption className="sr-only">Stressed VaR by confidence</caption>
-                  <thead>
-                    <tr className="border-b border-ink-line text-right text-ink-muted">
-                      <th scope="col" className="py-1.5 pr-2 text-left font-medium">Confidence</th>
-                      <th scope="col" className="py-1.5 pr-2 font-medium">sVaR 1 day</th>
-                      <th scope="col" className="py-1.5 font-medium">sVaR {m.horizonDays} days</th>
+                <FigureTable caption="Stressed VaR by confidence" hiddenCaption columns={["Confidence", "sVaR 1 day", `sVaR ${m.horizonDays} days`]}>
+                  {s.byConfidence.map((c) => (
+                    <tr key={c.confidence} className="border-b border-ink-line/60 text-right">
+                      <td className="py-1.5 pr-2 text-left">{confidence(c.confidence)}</td>
+                      <td className="py-1.5 pr-2">{money(c.oneDay.var, currency)}</td>
+                      <td className="py-1.5">{money(c.tenDay.var, currency)}</td>
                     </tr>
-                  </thead>
-                  <tbody className="figure">
-                    {s.byConfidence.map((c) => (
-                      <tr key={c.confidence} className="border-b border-ink-line/60 text-right">
-                        <td className="py-1.5 pr-2 text-left">{confidence(c.confidence)}</td>
-                        <td className="py-1.5 pr-2">{money(c.oneDay.var, currency)}</td>
-                        <td className="py-1.5">{money(c.tenDay.var, currency)}</td>
-                      </tr>
-                    ))}
-                  </tbody>
-                </table>
+                  ))}
+                </FigureTable>
                 <p className="mt-2 text-xs text-ink-muted">
                   {s.statement}
                   {s.searchRule ? ` ${s.searchRule}` : ""}

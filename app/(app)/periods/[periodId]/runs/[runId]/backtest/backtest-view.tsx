@@ -4,6 +4,7 @@ import { useMemo } from "react";
 import { CHART_PALETTE } from "@/lib/charts/palette";
 import { Bar, CartesianGrid, Cell, ComposedChart, Legend, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
 import { DraftCaution } from "@/app/_components/draft-caution";
+import { FigureRow, FigureTable } from "@/app/_components/figure-table";
 import { formatDate } from "@/app/_components/format";
 import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunResults } from "@/lib/runs/types";
@@ -84,27 +85,11 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
         <details className="text-sm">
           <summary className="cursor-pointer text-ink-soft">Every day in a table</summary>
           <div className="max-h-96 overflow-auto" tabIndex={0} role="region" aria-label="Every backtest day (scrolls)">
-            <table className="mt-2 w-full text-xs">
-              <caption className="sr-only">P&amp;L and VaR of each backtest day</caption>
-              <thead className="sticky top-0 bg-paper-raised">
-                <tr className="border-b border-ink-line text-right text-ink-muted">
-                  <th scope="col" className="py-1 pr-2 text-left font-medium">Date</th>
-                  <th scope="col" className="py-1 pr-2 font-medium">P&amp;L</th>
-                  <th scope="col" className="py-1 pr-2 font-medium">VaR</th>
-                  <th scope="col" className="py-1 font-medium">Exception</th>
-                </tr>
-              </thead>
-              <tbody className="figure">
-                {s.dates.map((d, i) => (
-                  <tr key={d} className="border-b border-ink-line/60 text-right">
-                    <th scope="row" className="py-1 pr-2 text-left font-normal">{d}</th>
-                    <td className="py-1 pr-2">{money(s.pnl[i], currency)}</td>
-                    <td className="py-1 pr-2">{money(s.var[i], currency)}</td>
-                    <td className="py-1">{s.exception[i] ? "yes" : ""}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <FigureTable className="mt-2 w-full text-xs" caption="P&L and VaR of each backtest day" hiddenCaption headClassName="sticky top-0 bg-paper-raised" pad="py-1" columns={["Date", "P&L", "VaR", "Exception"]}>
+              {s.dates.map((d, i) => (
+                <FigureRow key={d} pad="py-1" head={d} cells={[money(s.pnl[i], currency), money(s.var[i], currency), s.exception[i] ? "yes" : ""]} />
+              ))}
+            </FigureTable>
           </div>
         </details>
       </section>
@@ -114,72 +99,36 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
           <h2 id="bt-tests" className="mb-3 font-semibold">
             Statistical tests
           </h2>
-          <table className="w-full text-sm" data-testid="backtest-tests">
-            <caption className="mb-1 text-left text-xs text-ink-muted">Likelihood-ratio statistics with their χ² p-values; a small p-value speaks against the VaR model.</caption>
-            <thead>
-              <tr className="border-b border-ink-line text-right text-ink-muted">
-                <th scope="col" className="py-1.5 pr-2 text-left font-medium">Test</th>
-                <th scope="col" className="py-1.5 pr-2 font-medium">Statistic</th>
-                <th scope="col" className="py-1.5 font-medium">p-value</th>
+          <FigureTable
+            testId="backtest-tests"
+            caption="Likelihood-ratio statistics with their χ² p-values; a small p-value speaks against the VaR model."
+            columns={["Test", "Statistic", "p-value"]}
+          >
+            <FigureRow head={`Kupiec test (proportion of failures): observed rate ${pct(k.observedRate)} against ${pct(k.expectedRate)}`} cells={[num(k.lr, 3), num(k.pValue, 3)]} />
+            {ch ? (
+              <>
+                <FigureRow head="Christoffersen test of independence" cells={[num(ch.lrInd, 3), num(ch.pValueInd, 3)]} />
+                <FigureRow className="text-right" head="Christoffersen test of conditional coverage" cells={[num(ch.lrCc, 3), num(ch.pValueCc, 3)]} />
+              </>
+            ) : (
+              <tr>
+                <td colSpan={3} className="py-1.5 text-ink-muted">
+                  The Christoffersen tests need at least one exception and one day without.
+                </td>
               </tr>
-            </thead>
-            <tbody className="figure">
-              <tr className="border-b border-ink-line/60 text-right">
-                <th scope="row" className="py-1.5 pr-2 text-left font-normal">
-                  Kupiec test (proportion of failures): observed rate {pct(k.observedRate)} against {pct(k.expectedRate)}
-                </th>
-                <td className="py-1.5 pr-2">{num(k.lr, 3)}</td>
-                <td className="py-1.5">{num(k.pValue, 3)}</td>
-              </tr>
-              {ch ? (
-                <>
-                  <tr className="border-b border-ink-line/60 text-right">
-                    <th scope="row" className="py-1.5 pr-2 text-left font-normal">Christoffersen test of independence</th>
-                    <td className="py-1.5 pr-2">{num(ch.lrInd, 3)}</td>
-                    <td className="py-1.5">{num(ch.pValueInd, 3)}</td>
-                  </tr>
-                  <tr className="text-right">
-                    <th scope="row" className="py-1.5 pr-2 text-left font-normal">Christoffersen test of conditional coverage</th>
-                    <td className="py-1.5 pr-2">{num(ch.lrCc, 3)}</td>
-                    <td className="py-1.5">{num(ch.pValueCc, 3)}</td>
-                  </tr>
-                </>
-              ) : (
-                <tr>
-                  <td colSpan={3} className="py-1.5 text-ink-muted">
-                    The Christoffersen tests need at least one exception and one day without.
-                  </td>
-                </tr>
-              )}
-            </tbody>
-          </table>
+            )}
+          </FigureTable>
         </section>
         <section aria-labelledby="bt-exceptions" className="rounded-lg border border-ink-line bg-paper-raised p-4">
           <h2 id="bt-exceptions" className="mb-3 font-semibold">
             Exceptions
           </h2>
           {bt.exceptionList.length ? (
-            <table className="w-full text-sm" data-testid="exception-table">
-              <caption className="sr-only">Days the loss exceeded the VaR</caption>
-              <thead>
-                <tr className="border-b border-ink-line text-right text-ink-muted">
-                  <th scope="col" className="py-1.5 pr-2 text-left font-medium">Date</th>
-                  <th scope="col" className="py-1.5 pr-2 font-medium">P&amp;L</th>
-                  <th scope="col" className="py-1.5 pr-2 font-medium">VaR</th>
-                  <th scope="col" className="py-1.5 font-medium">Beyond the VaR</th>
-                </tr>
-              </thead>
-              <tbody className="figure">
-                {bt.exceptionList.map((e) => (
-                  <tr key={e.date} className="border-b border-ink-line/60 text-right">
-                    <th scope="row" className="py-1.5 pr-2 text-left font-normal">{formatDate(e.date)}</th>
-                    <td className="py-1.5 pr-2">{money(e.pnl, currency)}</td>
-                    <td className="py-1.5 pr-2">{money(e.var, currency)}</td>
-                    <td className="py-1.5">{money(e.excess, currency)}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <FigureTable testId="exception-table" caption="Days the loss exceeded the VaR" hiddenCaption columns={["Date", "P&L", "VaR", "Beyond the VaR"]}>
+              {bt.exceptionList.map((e) => (
+                <FigureRow key={e.date} head={formatDate(e.date)} cells={[money(e.pnl, currency), money(e.var, currency), money(e.excess, currency)]} />
+              ))}
+            </FigureTable>
           ) : (
             <p className="text-sm text-ink-muted">No day&apos;s loss exceeded its VaR.</p>
           )}

@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { DraftCaution } from "@/app/_components/draft-caution";
+import { FigureTable } from "@/app/_components/figure-table";
 import type { RunResults } from "@/lib/runs/types";
 import type { InterestRateCurrencyResult, StandardisedBlocks, StandardisedResult } from "@/lib/risk/standardised";
 import { filedCapitalOf, RWA_MULTIPLIER } from "@/lib/runs/filed-capital";
@@ -21,7 +22,8 @@ export const BLOCK_WORDS: { key: keyof StandardisedBlocks; label: string }[] = [
   { key: "options", label: "Options (carve-out)" },
 ];
 
-const th = "py-1.5 pr-3 font-medium";
+/** The capital tables' headings: every column keeps its gap; the body rows set their own, tighter padding (`td`). */
+const CAPITAL_TABLE = { pad: "py-1.5", gap: "pr-3", padLast: true, bodyClassName: "" } as const;
 const td = "py-1 pr-3 figure text-right";
 
 function Money({ value, currency }: { value: number; currency: string }) {
@@ -96,49 +98,33 @@ function BlocksChart({ result, currency }: { result: StandardisedResult; currenc
           </BarChart>
         </ResponsiveContainer>
       </div>
-      <table className="mt-3 w-full text-sm" data-testid="blocks-table">
-        <caption className="mb-1 text-left text-xs text-ink-muted">The chart&apos;s figures: each block&apos;s charge and its share of the total</caption>
-        <thead>
-          <tr className="border-b border-ink-line text-right text-ink-muted">
-            <th scope="col" className={`${th} text-left`}>
-              Block
+      <FigureTable className="mt-3 w-full text-sm" testId="blocks-table" caption="The chart's figures: each block's charge and its share of the total" {...CAPITAL_TABLE} columns={["Block", "Charge", "Share"]}>
+        {data.map((d) => (
+          <tr key={d.label} className="border-b border-ink-line/60">
+            <th scope="row" className="py-1 pr-3 text-left font-normal">
+              {d.label}
             </th>
-            <th scope="col" className={th}>
-              Charge
-            </th>
-            <th scope="col" className={th}>
-              Share
-            </th>
+            <td className={td}>{money(d.value, currency)}</td>
+            <td className={td}>{result.total > 0 ? pct(d.value / result.total, 1) : "—"}</td>
           </tr>
-        </thead>
-        <tbody>
-          {data.map((d) => (
-            <tr key={d.label} className="border-b border-ink-line/60">
-              <th scope="row" className="py-1 pr-3 text-left font-normal">
-                {d.label}
-              </th>
-              <td className={td}>{money(d.value, currency)}</td>
-              <td className={td}>{result.total > 0 ? pct(d.value / result.total, 1) : "—"}</td>
-            </tr>
-          ))}
-          <tr className="font-semibold">
-            <th scope="row" className="py-1 pr-3 text-left">
-              Total market-risk capital
+        ))}
+        <tr className="font-semibold">
+          <th scope="row" className="py-1 pr-3 text-left">
+            Total market-risk capital
+          </th>
+          <td className={td}>{money(result.total, currency)}</td>
+          <td className={td}>100 %</td>
+        </tr>
+        {result.rwa ? (
+          <tr>
+            <th scope="row" className="py-1 pr-3 text-left font-normal">
+              Risk-weighted-asset equivalent (× {result.rwaMultiplier})
             </th>
-            <td className={td}>{money(result.total, currency)}</td>
-            <td className={td}>100 %</td>
+            <td className={td}>{money(result.rwa, currency)}</td>
+            <td />
           </tr>
-          {result.rwa ? (
-            <tr>
-              <th scope="row" className="py-1 pr-3 text-left font-normal">
-                Risk-weighted-asset equivalent (× {result.rwaMultiplier})
-              </th>
-              <td className={td}>{money(result.rwa, currency)}</td>
-              <td />
-            </tr>
-          ) : null}
-        </tbody>
-      </table>
+        ) : null}
+      </FigureTable>
     </figure>
   );
 }
@@ -151,101 +137,59 @@ function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; curr
         {ladder.currency} ladder ({ladder.method === "duration" ? "duration method" : "maturity method"}): charge {money(ladder.charge, currency)}
       </h4>
       <div className="relative overflow-x-auto">
-        <table className="min-w-full text-sm">
-          <caption className="mb-1 text-left text-xs text-ink-muted">Each band: positions, weighted positions, the matched amount and its vertical disallowance at {pct(ladder.verticalRate, 0)}</caption>
-          <thead>
-            <tr className="border-b border-ink-line text-right text-ink-muted">
-              <th scope="col" className={`${th} text-left`}>Band</th>
-              <th scope="col" className={th}>Zone</th>
-              <th scope="col" className={th}>{weightWord}</th>
-              <th scope="col" className={th}>Long</th>
-              <th scope="col" className={th}>Short</th>
-              <th scope="col" className={th}>Weighted long</th>
-              <th scope="col" className={th}>Weighted short</th>
-              <th scope="col" className={th}>Matched</th>
-              <th scope="col" className={th}>Net</th>
-              <th scope="col" className={th}>Vertical charge</th>
+        <FigureTable className="min-w-full text-sm" caption={<>Each band: positions, weighted positions, the matched amount and its vertical disallowance at {pct(ladder.verticalRate, 0)}</>} {...CAPITAL_TABLE} columns={["Band", "Zone", weightWord, "Long", "Short", "Weighted long", "Weighted short", "Matched", "Net", "Vertical charge"]}>
+          {ladder.bands.map((b) => (
+            <tr key={b.index} className="border-b border-ink-line/60">
+              <th scope="row" className="py-1 pr-3 text-left font-normal whitespace-nowrap">{b.band}</th>
+              <td className={td}>{b.zone}</td>
+              <td className={td}>{ladder.method === "duration" ? num(b.weight, 2) : pct(b.weight, 2)}</td>
+              <td className={td}><Money value={b.long} currency={currency} /></td>
+              <td className={td}><Money value={b.short} currency={currency} /></td>
+              <td className={td}><Money value={b.weightedLong} currency={currency} /></td>
+              <td className={td}><Money value={b.weightedShort} currency={currency} /></td>
+              <td className={td}><Money value={b.matched} currency={currency} /></td>
+              <td className={td}><Money value={b.net} currency={currency} /></td>
+              <td className={td}><Money value={b.verticalCharge} currency={currency} /></td>
             </tr>
-          </thead>
-          <tbody>
-            {ladder.bands.map((b) => (
-              <tr key={b.index} className="border-b border-ink-line/60">
-                <th scope="row" className="py-1 pr-3 text-left font-normal whitespace-nowrap">{b.band}</th>
-                <td className={td}>{b.zone}</td>
-                <td className={td}>{ladder.method === "duration" ? num(b.weight, 2) : pct(b.weight, 2)}</td>
-                <td className={td}><Money value={b.long} currency={currency} /></td>
-                <td className={td}><Money value={b.short} currency={currency} /></td>
-                <td className={td}><Money value={b.weightedLong} currency={currency} /></td>
-                <td className={td}><Money value={b.weightedShort} currency={currency} /></td>
-                <td className={td}><Money value={b.matched} currency={currency} /></td>
-                <td className={td}><Money value={b.net} currency={currency} /></td>
-                <td className={td}><Money value={b.verticalCharge} currency={currency} /></td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+          ))}
+        </FigureTable>
       </div>
       <div className="grid gap-4 lg:grid-cols-2">
-        <table className="text-sm">
-          <caption className="mb-1 text-left text-xs text-ink-muted">Within each zone: the bands&apos; nets and the horizontal disallowance</caption>
-          <thead>
-            <tr className="border-b border-ink-line text-right text-ink-muted">
-              <th scope="col" className={`${th} text-left`}>Zone</th>
-              <th scope="col" className={th}>Net long</th>
-              <th scope="col" className={th}>Net short</th>
-              <th scope="col" className={th}>Matched</th>
-              <th scope="col" className={th}>Rate</th>
-              <th scope="col" className={th}>Charge</th>
-              <th scope="col" className={th}>Zone net</th>
+        <FigureTable className="text-sm" caption="Within each zone: the bands' nets and the horizontal disallowance" {...CAPITAL_TABLE} columns={["Zone", "Net long", "Net short", "Matched", "Rate", "Charge", "Zone net"]}>
+          {ladder.zones.map((z) => (
+            <tr key={z.zone} className="border-b border-ink-line/60">
+              <th scope="row" className="py-1 pr-3 text-left font-normal">Zone {z.zone}</th>
+              <td className={td}><Money value={z.netLong} currency={currency} /></td>
+              <td className={td}><Money value={z.netShort} currency={currency} /></td>
+              <td className={td}><Money value={z.matched} currency={currency} /></td>
+              <td className={td}>{pct(z.rate, 0)}</td>
+              <td className={td}><Money value={z.charge} currency={currency} /></td>
+              <td className={td}><Money value={z.net} currency={currency} /></td>
             </tr>
-          </thead>
-          <tbody>
-            {ladder.zones.map((z) => (
-              <tr key={z.zone} className="border-b border-ink-line/60">
-                <th scope="row" className="py-1 pr-3 text-left font-normal">Zone {z.zone}</th>
-                <td className={td}><Money value={z.netLong} currency={currency} /></td>
-                <td className={td}><Money value={z.netShort} currency={currency} /></td>
-                <td className={td}><Money value={z.matched} currency={currency} /></td>
-                <td className={td}>{pct(z.rate, 0)}</td>
-                <td className={td}><Money value={z.charge} currency={currency} /></td>
-                <td className={td}><Money value={z.net} currency={currency} /></td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-        <table className="text-sm">
-          <caption className="mb-1 text-left text-xs text-ink-muted">Between zones, in the order applied, then the residual net position</caption>
-          <thead>
-            <tr className="border-b border-ink-line text-right text-ink-muted">
-              <th scope="col" className={`${th} text-left`}>Step</th>
-              <th scope="col" className={th}>Matched</th>
-              <th scope="col" className={th}>Rate</th>
-              <th scope="col" className={th}>Charge</th>
+          ))}
+        </FigureTable>
+        <FigureTable className="text-sm" caption="Between zones, in the order applied, then the residual net position" {...CAPITAL_TABLE} columns={["Step", "Matched", "Rate", "Charge"]}>
+          {(
+            [
+              ["Zone 1 against zone 2", ladder.betweenDetail.zone12],
+              ["Zone 2 against zone 3", ladder.betweenDetail.zone23],
+              ["Zone 1 against zone 3", ladder.betweenDetail.zone13],
+            ] as const
+          ).map(([label, d]) => (
+            <tr key={label} className="border-b border-ink-line/60">
+              <th scope="row" className="py-1 pr-3 text-left font-normal">{label}</th>
+              <td className={td}><Money value={d.matched} currency={currency} /></td>
+              <td className={td}>{pct(d.rate, 0)}</td>
+              <td className={td}><Money value={d.charge} currency={currency} /></td>
             </tr>
-          </thead>
-          <tbody>
-            {(
-              [
-                ["Zone 1 against zone 2", ladder.betweenDetail.zone12],
-                ["Zone 2 against zone 3", ladder.betweenDetail.zone23],
-                ["Zone 1 against zone 3", ladder.betweenDetail.zone13],
-              ] as const
-            ).map(([label, d]) => (
-              <tr key={label} className="border-b border-ink-line/60">
-                <th scope="row" className="py-1 pr-3 text-left font-normal">{label}</th>
-                <td className={td}><Money value={d.matched} currency={currency} /></td>
-                <td className={td}>{pct(d.rate, 0)}</td>
-                <td className={td}><Money value={d.charge} currency={currency} /></td>
-              </tr>
-            ))}
-            <tr className="border-b border-ink-line/60">
-              <th scope="row" className="py-1 pr-3 text-left font-normal">Residual net position</th>
-              <td className={td}><Money value={ladder.residual} currency={currency} /></td>
-              <td className={td}>{ladder.residual > 0 ? pct(ladder.residualCharge / ladder.residual, 0) : "—"}</td>
-              <td className={td}><Money value={ladder.residualCharge} currency={currency} /></td>
-            </tr>
-          </tbody>
-        </table>
+          ))}
+          <tr className="border-b border-ink-line/60">
+            <th scope="row" className="py-1 pr-3 text-left font-normal">Residual net position</th>
+            <td className={td}><Money value={ladder.residual} currency={currency} /></td>
+            <td className={td}>{ladder.residual > 0 ? pct(ladder.residualCharge / ladder.residual, 0) : "—"}</td>
+            <td className={td}><Money value={ladder.residualCharge} currency={currency} /></td>
+          </tr>
+        </FigureTable>
       </div>
       <p className="text-sm figure">
         {ladder.currency}: vertical {money(ladder.vertical, currency)} + within zones {money(ladder.withinZones, currency)} + between zones{" "}
@@ -265,33 +209,19 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
           <p className="text-sm text-ink-soft">No debt positions.</p>
         ) : (
           <div className="relative overflow-x-auto">
-            <table className="min-w-full text-sm">
-              <caption className="mb-1 text-left text-xs text-ink-muted">Each issue&apos;s net position, long or short alike, times its category&apos;s weight</caption>
-              <thead>
-                <tr className="border-b border-ink-line text-right text-ink-muted">
-                  <th scope="col" className={`${th} text-left`}>Issue</th>
-                  <th scope="col" className={`${th} text-left`}>Currency</th>
-                  <th scope="col" className={`${th} text-left`}>Issuer</th>
-                  <th scope="col" className={th}>Residual maturity</th>
-                  <th scope="col" className={th}>Net position</th>
-                  <th scope="col" className={th}>Weight</th>
-                  <th scope="col" className={th}>Charge</th>
+            <FigureTable className="min-w-full text-sm" caption="Each issue's net position, long or short alike, times its category's weight" leftColumns={3} {...CAPITAL_TABLE} columns={["Issue", "Currency", "Issuer", "Residual maturity", "Net position", "Weight", "Charge"]}>
+              {ir.specific.map((l) => (
+                <tr key={`${l.instrument}-${l.currency}`} className="border-b border-ink-line/60">
+                  <th scope="row" className="py-1 pr-3 text-left font-normal">{l.instrument}</th>
+                  <td className="py-1 pr-3">{l.currency}</td>
+                  <td className="py-1 pr-3">{l.issuerCategory}</td>
+                  <td className={td}>{years(l.residualMaturityYears)}</td>
+                  <td className={td}><Money value={l.net} currency={currency} /></td>
+                  <td className={td}>{pct(l.rate, 2)}</td>
+                  <td className={td}><Money value={l.charge} currency={currency} /></td>
                 </tr>
-              </thead>
-              <tbody>
-                {ir.specific.map((l) => (
-                  <tr key={`${l.instrument}-${l.currency}`} className="border-b border-ink-line/60">
-                    <th scope="row" className="py-1 pr-3 text-left font-normal">{l.instrument}</th>
-                    <td className="py-1 pr-3">{l.currency}</td>
-                    <td className="py-1 pr-3">{l.issuerCategory}</td>
-                    <td className={td}>{years(l.residualMaturityYears)}</td>
-                    <td className={td}><Money value={l.net} currency={currency} /></td>
-                    <td className={td}>{pct(l.rate, 2)}</td>
-                    <td className={td}><Money value={l.charge} currency={currency} /></td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+              ))}
+            </FigureTable>
           </div>
         )}
       </section>
@@ -302,32 +232,19 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
           <details className="rounded-lg border border-ink-line bg-paper-raised p-4">
             <summary className="cursor-pointer text-sm font-medium">What went on the ladders: {ir.legs.length} positions and notional legs</summary>
             <div className="mt-2 overflow-x-auto">
-              <table className="min-w-full text-sm">
-                <thead>
-                  <tr className="border-b border-ink-line text-right text-ink-muted">
-                    <th scope="col" className={`${th} text-left`}>Instrument</th>
-                    <th scope="col" className={`${th} text-left`}>Leg</th>
-                    <th scope="col" className={`${th} text-left`}>Currency</th>
-                    <th scope="col" className={th}>Amount</th>
-                    <th scope="col" className={th}>Years</th>
-                    <th scope="col" className={th}>Coupon</th>
-                    <th scope="col" className={`${th} text-left`}>Band</th>
+              <FigureTable className="min-w-full text-sm" leftColumns={3} {...CAPITAL_TABLE} columns={["Instrument", "Leg", "Currency", "Amount", "Years", "Coupon", { label: "Band", align: "left" }]}>
+                {ir.legs.map((l, i) => (
+                  <tr key={i} className="border-b border-ink-line/60">
+                    <th scope="row" className="py-1 pr-3 text-left font-normal">{l.instrument}</th>
+                    <td className="py-1 pr-3">{l.leg}</td>
+                    <td className="py-1 pr-3">{l.currency}</td>
+                    <td className={td}><Money value={l.amount} currency={currency} /></td>
+                    <td className={td}>{num(l.years, 3)}</td>
+                    <td className={td}>{num(l.coupon, 2)} %</td>
+                    <td className="py-1 pr-3 whitespace-nowrap">{l.band}</td>
                   </tr>
-                </thead>
-                <tbody>
-                  {ir.legs.map((l, i) => (
-                    <tr key={i} className="border-b border-ink-line/60">
-                      <th scope="row" className="py-1 pr-3 text-left font-normal">{l.instrument}</th>
-                      <td className="py-1 pr-3">{l.leg}</td>
-                      <td className="py-1 pr-3">{l.currency}</td>
-                      <td className={td}><Money value={l.amount} currency={currency} /></td>
-                      <td className={td}>{num(l.years, 3)}</td>
-                      <td className={td}>{num(l.coupon, 2)} %</td>
-                      <td className="py-1 pr-3 whitespace-nowrap">{l.band}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+                ))}
+              </FigureTable>
             </div>
           </details>
         ) : null}
@@ -341,61 +258,36 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
         {result.equity.byMarket.length === 0 ? (
           <p className="text-sm text-ink-soft">No equity positions.</p>
         ) : (
-          <table className="min-w-full text-sm" data-testid="equity-table">
-            <thead>
-              <tr className="border-b border-ink-line text-right text-ink-muted">
-                <th scope="col" className={`${th} text-left`}>Market</th>
-                <th scope="col" className={th}>Issues</th>
-                <th scope="col" className={th}>Gross</th>
-                <th scope="col" className={th}>Net</th>
-                <th scope="col" className={th}>Specific rate</th>
-                <th scope="col" className={th}>Specific</th>
-                <th scope="col" className={th}>General rate</th>
-                <th scope="col" className={th}>General</th>
+          <FigureTable className="min-w-full text-sm" testId="equity-table" {...CAPITAL_TABLE} columns={["Market", "Issues", "Gross", "Net", "Specific rate", "Specific", "General rate", "General"]}>
+            {result.equity.byMarket.map((m) => (
+              <tr key={m.market} className="border-b border-ink-line/60">
+                <th scope="row" className="py-1 pr-3 text-left font-normal">{m.market}</th>
+                <td className={td}>{m.issues.length}</td>
+                <td className={td}><Money value={m.gross} currency={currency} /></td>
+                <td className={td}><Money value={m.net} currency={currency} /></td>
+                <td className={td}>{pct(m.specificRate, 0)}</td>
+                <td className={td}><Money value={m.specific} currency={currency} /></td>
+                <td className={td}>{pct(m.generalRate, 0)}</td>
+                <td className={td}><Money value={m.general} currency={currency} /></td>
               </tr>
-            </thead>
-            <tbody>
-              {result.equity.byMarket.map((m) => (
-                <tr key={m.market} className="border-b border-ink-line/60">
-                  <th scope="row" className="py-1 pr-3 text-left font-normal">{m.market}</th>
-                  <td className={td}>{m.issues.length}</td>
-                  <td className={td}><Money value={m.gross} currency={currency} /></td>
-                  <td className={td}><Money value={m.net} currency={currency} /></td>
-                  <td className={td}>{pct(m.specificRate, 0)}</td>
-                  <td className={td}><Money value={m.specific} currency={currency} /></td>
-                  <td className={td}>{pct(m.generalRate, 0)}</td>
-                  <td className={td}><Money value={m.general} currency={currency} /></td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+            ))}
+          </FigureTable>
         )}
       </section>
 
       <section aria-labelledby="fx-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
         <h3 id="fx-block" className="mb-2 font-semibold">Foreign exchange and gold (shorthand method): {money(result.blocks.fx, currency)}</h3>
         <div className="grid gap-4 lg:grid-cols-2">
-          <table className="text-sm" data-testid="fx-table">
-            <caption className="mb-1 text-left text-xs text-ink-muted">Net open position per currency against {result.fx.reportingCurrency}</caption>
-            <thead>
-              <tr className="border-b border-ink-line text-right text-ink-muted">
-                <th scope="col" className={`${th} text-left`}>Currency</th>
-                <th scope="col" className={th}>From positions</th>
-                <th scope="col" className={th}>Currency positions</th>
-                <th scope="col" className={th}>Net</th>
+          <FigureTable className="text-sm" testId="fx-table" caption={<>Net open position per currency against {result.fx.reportingCurrency}</>} {...CAPITAL_TABLE} columns={["Currency", "From positions", "Currency positions", "Net"]}>
+            {result.fx.byCurrency.map((c) => (
+              <tr key={c.currency} className="border-b border-ink-line/60">
+                <th scope="row" className="py-1 pr-3 text-left font-normal">{c.currency}</th>
+                <td className={td}><Money value={c.fromPositions} currency={currency} /></td>
+                <td className={td}><Money value={c.fromCurrencyPositions} currency={currency} /></td>
+                <td className={td}><Money value={c.net} currency={currency} /></td>
               </tr>
-            </thead>
-            <tbody>
-              {result.fx.byCurrency.map((c) => (
-                <tr key={c.currency} className="border-b border-ink-line/60">
-                  <th scope="row" className="py-1 pr-3 text-left font-normal">{c.currency}</th>
-                  <td className={td}><Money value={c.fromPositions} currency={currency} /></td>
-                  <td className={td}><Money value={c.fromCurrencyPositions} currency={currency} /></td>
-                  <td className={td}><Money value={c.net} currency={currency} /></td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+            ))}
+          </FigureTable>
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
             <dt>Sum of net long positions</dt>
             <dd className="figure text-right">{money(result.fx.netLong, currency)}</dd>
@@ -422,34 +314,20 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
         {result.commodities.byCommodity.length === 0 ? (
           <p className="text-sm text-ink-soft">No commodity positions.</p>
         ) : (
-          <table className="min-w-full text-sm" data-testid="commodity-table">
-            <thead>
-              <tr className="border-b border-ink-line text-right text-ink-muted">
-                <th scope="col" className={`${th} text-left`}>Commodity</th>
-                <th scope="col" className={th}>Long</th>
-                <th scope="col" className={th}>Short</th>
-                <th scope="col" className={th}>Net</th>
-                <th scope="col" className={th}>Gross</th>
-                <th scope="col" className={th}>On the net</th>
-                <th scope="col" className={th}>On the gross</th>
-                <th scope="col" className={th}>Charge</th>
+          <FigureTable className="min-w-full text-sm" testId="commodity-table" {...CAPITAL_TABLE} columns={["Commodity", "Long", "Short", "Net", "Gross", "On the net", "On the gross", "Charge"]}>
+            {result.commodities.byCommodity.map((c) => (
+              <tr key={c.commodity} className="border-b border-ink-line/60">
+                <th scope="row" className="py-1 pr-3 text-left font-normal">{c.commodity}</th>
+                <td className={td}><Money value={c.long} currency={currency} /></td>
+                <td className={td}><Money value={c.short} currency={currency} /></td>
+                <td className={td}><Money value={c.net} currency={currency} /></td>
+                <td className={td}><Money value={c.gross} currency={currency} /></td>
+                <td className={td}><Money value={c.netCharge} currency={currency} /></td>
+                <td className={td}><Money value={c.grossCharge} currency={currency} /></td>
+                <td className={td}><Money value={c.charge} currency={currency} /></td>
               </tr>
-            </thead>
-            <tbody>
-              {result.commodities.byCommodity.map((c) => (
-                <tr key={c.commodity} className="border-b border-ink-line/60">
-                  <th scope="row" className="py-1 pr-3 text-left font-normal">{c.commodity}</th>
-                  <td className={td}><Money value={c.long} currency={currency} /></td>
-                  <td className={td}><Money value={c.short} currency={currency} /></td>
-                  <td className={td}><Money value={c.net} currency={currency} /></td>
-                  <td className={td}><Money value={c.gross} currency={currency} /></td>
-                  <td className={td}><Money value={c.netCharge} currency={currency} /></td>
-                  <td className={td}><Money value={c.grossCharge} currency={currency} /></td>
-                  <td className={td}><Money value={c.charge} currency={currency} /></td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+            ))}
+          </FigureTable>
         )}
       </section>
 
@@ -458,32 +336,19 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
         {result.options.length === 0 ? (
           <p className="text-sm text-ink-soft">No option positions.</p>
         ) : (
-          <table className="min-w-full text-sm">
-            <thead>
-              <tr className="border-b border-ink-line text-right text-ink-muted">
-                <th scope="col" className={`${th} text-left`}>Option</th>
-                <th scope="col" className={`${th} text-left`}>Underlying</th>
-                <th scope="col" className={`${th} text-left`}>Treatment</th>
-                <th scope="col" className={th}>Underlying value</th>
-                <th scope="col" className={th}>Rates</th>
-                <th scope="col" className={th}>In the money</th>
-                <th scope="col" className={th}>Charge</th>
+          <FigureTable className="min-w-full text-sm" leftColumns={3} {...CAPITAL_TABLE} columns={["Option", "Underlying", "Treatment", "Underlying value", "Rates", "In the money", "Charge"]}>
+            {result.options.map((o) => (
+              <tr key={o.instrument} className="border-b border-ink-line/60">
+                <th scope="row" className="py-1 pr-3 text-left font-normal">{o.instrument} ({o.optionKind})</th>
+                <td className="py-1 pr-3">{o.underlying}</td>
+                <td className="py-1 pr-3">{o.treatment === "hedged" ? "with its hedge" : "bought, no hedge"}</td>
+                <td className={td}><Money value={o.underlyingValue} currency={currency} /></td>
+                <td className={td}>{pct(o.specificRate + o.generalRate, 0)}</td>
+                <td className={td}><Money value={o.inTheMoney} currency={currency} /></td>
+                <td className={td}><Money value={o.charge} currency={currency} /></td>
               </tr>
-            </thead>
-            <tbody>
-              {result.options.map((o) => (
-                <tr key={o.instrument} className="border-b border-ink-line/60">
-                  <th scope="row" className="py-1 pr-3 text-left font-normal">{o.instrument} ({o.optionKind})</th>
-                  <td className="py-1 pr-3">{o.underlying}</td>
-                  <td className="py-1 pr-3">{o.treatment === "hedged" ? "with its hedge" : "bought, no hedge"}</td>
-                  <td className={td}><Money value={o.underlyingValue} currency={currency} /></td>
-                  <td className={td}>{pct(o.specificRate + o.generalRate, 0)}</td>
-                  <td className={td}><Money value={o.inTheMoney} currency={currency} /></td>
-                  <td className={td}><Money value={o.charge} currency={currency} /></td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+            ))}
+          </FigureTable>
         )}
       </section>
 

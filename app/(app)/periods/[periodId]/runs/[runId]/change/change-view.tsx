@@ -5,6 +5,7 @@ import { useQuery } from "@tanstack/react-query";
 import { Bar, BarChart, CartesianGrid, Cell, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { apiFetch } from "@/app/_components/api";
 import { DraftCaution } from "@/app/_components/draft-caution";
+import { FigureRow, FigureTable } from "@/app/_components/figure-table";
 import { formatDate } from "@/app/_components/format";
 import type { RunChange } from "@/lib/runs/types";
 import { compactMoney, confidence, money } from "../../_components/run-format";
@@ -61,36 +62,21 @@ function View({ runId, currency }: { runId: string; currency: string }) {
             </ResponsiveContainer>
           </div>
         </figure>
-        <table className="w-full text-sm" data-testid="change-table">
-          <caption className="mb-1 text-left text-xs text-ink-muted">Each step changes one thing and keeps the rest; the steps add up to the whole change.</caption>
-          <thead>
-            <tr className="border-b border-ink-line text-right text-ink-muted">
-              <th scope="col" className="py-1.5 pr-2 text-left font-medium">Step</th>
-              <th scope="col" className="py-1.5 pr-2 font-medium">From</th>
-              <th scope="col" className="py-1.5 pr-2 font-medium">To</th>
-              <th scope="col" className="py-1.5 font-medium">Change</th>
-            </tr>
-          </thead>
-          <tbody className="figure">
-            {x.steps.map((s) => (
-              <tr key={s.step} className="border-b border-ink-line/60 text-right">
-                <th scope="row" className="py-1.5 pr-2 text-left font-normal">
+        <FigureTable testId="change-table" caption="Each step changes one thing and keeps the rest; the steps add up to the whole change." columns={["Step", "From", "To", "Change"]}>
+          {x.steps.map((s) => (
+            <FigureRow
+              key={s.step}
+              head={
+                <>
                   {STEP_WORDS[s.step]}
                   <span className="block text-xs text-ink-muted">{s.description}</span>
-                </th>
-                <td className="py-1.5 pr-2">{money(s.from, currency)}</td>
-                <td className="py-1.5 pr-2">{money(s.to, currency)}</td>
-                <td className="py-1.5">{money(s.change, currency)}</td>
-              </tr>
-            ))}
-            <tr className="text-right font-semibold">
-              <th scope="row" className="py-1.5 pr-2 text-left">Whole change</th>
-              <td className="py-1.5 pr-2">{money(x.previousVar, currency)}</td>
-              <td className="py-1.5 pr-2">{money(x.currentVar, currency)}</td>
-              <td className="py-1.5">{money(x.change, currency)}</td>
-            </tr>
-          </tbody>
-        </table>
+                </>
+              }
+              cells={[money(s.from, currency), money(s.to, currency), money(s.change, currency)]}
+            />
+          ))}
+          <FigureRow className="text-right font-semibold" headClassName="text-left" head="Whole change" cells={[money(x.previousVar, currency), money(x.currentVar, currency), money(x.change, currency)]} />
+        </FigureTable>
       </section>
       {x.newFactors.length || x.droppedFactors.length ? (
         <p className="text-sm text-ink-soft">

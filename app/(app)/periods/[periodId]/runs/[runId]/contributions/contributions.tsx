@@ -6,6 +6,7 @@ import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, 
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { DataTable } from "@/app/_components/data-table";
 import { inputClass } from "@/app/_components/field";
+import { FigureRow, FigureTable } from "@/app/_components/figure-table";
 import { formatDate } from "@/app/_components/format";
 import type { PositionContribution } from "@/lib/risk";
 import type { RunResults } from "@/lib/runs/types";
@@ -41,29 +42,19 @@ function GroupChart({ title, id, data, currency }: { title: string; id: string; 
 
 function GroupTable({ caption, rows, currency, total, standAlone }: { caption: string; rows: { label: string; componentVar: number; componentVar10d: number; standAloneVar?: number }[]; currency: string; total: number; standAlone: boolean }) {
   return (
-    <table className="w-full text-sm">
-      <caption className="mb-1 text-left text-xs text-ink-muted">{caption}</caption>
-      <thead>
-        <tr className="border-b border-ink-line text-right text-ink-muted">
-          <th scope="col" className="py-1.5 pr-2 text-left font-medium">Group</th>
-          <th scope="col" className="py-1.5 pr-2 font-medium">Component VaR 1 day</th>
-          <th scope="col" className="py-1.5 pr-2 font-medium">Share</th>
-          <th scope="col" className="py-1.5 pr-2 font-medium">Component VaR 10 days</th>
-          {standAlone ? <th scope="col" className="py-1.5 font-medium">Stand-alone VaR 1 day</th> : null}
-        </tr>
-      </thead>
-      <tbody className="figure">
-        {rows.map((r) => (
-          <tr key={r.label} className="whitespace-nowrap border-b border-ink-line/60 text-right">
-            <th scope="row" className="whitespace-normal py-1.5 pr-2 text-left font-normal">{r.label}</th>
-            <td className="py-1.5 pr-2">{money(r.componentVar, currency)}</td>
-            <td className="py-1.5 pr-2">{pct(r.componentVar / total, 1)}</td>
-            <td className="py-1.5 pr-2">{money(r.componentVar10d, currency)}</td>
-            {standAlone ? <td className="py-1.5">{money(r.standAloneVar, currency)}</td> : null}
-          </tr>
-        ))}
-      </tbody>
-    </table>
+    // without the stand-alone column the 10-day column ends the row and keeps its gap, as it always has
+    <FigureTable caption={caption} padLast={!standAlone} columns={["Group", "Component VaR 1 day", "Share", "Component VaR 10 days", ...(standAlone ? ["Stand-alone VaR 1 day"] : [])]}>
+      {rows.map((r) => (
+        <FigureRow
+          key={r.label}
+          className="whitespace-nowrap border-b border-ink-line/60 text-right"
+          headClassName="whitespace-normal text-left font-normal"
+          padLast={!standAlone}
+          head={r.label}
+          cells={[money(r.componentVar, currency), pct(r.componentVar / total, 1), money(r.componentVar10d, currency), ...(standAlone ? [money(r.standAloneVar, currency)] : [])]}
+        />
+      ))}
+    </FigureTable>
   );
 }
 

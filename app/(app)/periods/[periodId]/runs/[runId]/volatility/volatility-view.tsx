@@ -7,6 +7,7 @@ import { Bar, CartesianGrid, ComposedChart, Legend, Line, LineChart, ReferenceLi
 import { apiFetch } from "@/app/_components/api";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { inputClass } from "@/app/_components/field";
+import { FigureRow, FigureTable } from "@/app/_components/figure-table";
 import { formatDate } from "@/app/_components/format";
 import type { VolatilityDetail } from "@/lib/runs/volatility-detail";
 import type { RunResults } from "@/lib/runs/types";
@@ -57,61 +58,40 @@ function Charts({ d }: { d: VolatilityDetail }) {
             </ResponsiveContainer>
           </div>
         </figure>
-        <table className="w-full text-sm" data-testid="estimator-table">
-          <caption className="mb-1 text-left text-xs text-ink-muted">Forecast volatility for the day after the last price, by estimator</caption>
-          <thead>
-            <tr className="border-b border-ink-line text-right text-ink-muted">
-              <th scope="col" className="py-1.5 pr-2 text-left font-medium">Estimator</th>
-              <th scope="col" className="py-1.5 pr-2 font-medium">Daily</th>
-              <th scope="col" className="py-1.5 font-medium">Annualised</th>
-            </tr>
-          </thead>
-          <tbody className="figure">
-            {d.series.map((s) => (
-              <tr key={s.estimator} className={`border-b border-ink-line/60 text-right ${s.chosen ? "font-semibold" : ""}`}>
-                <th scope="row" className="py-1.5 pr-2 text-left font-normal">
-                  {s.label}
-                  {s.chosen ? " (chosen)" : ""}
-                </th>
-                <td className="py-1.5 pr-2">{s.error ? `not fitted: ${s.error}` : pct(s.currentVolatility, 3)}</td>
-                <td className="py-1.5">{s.error ? "—" : pct(s.currentVolatility === null ? null : s.currentVolatility * ANNUAL)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <FigureTable testId="estimator-table" caption="Forecast volatility for the day after the last price, by estimator" columns={["Estimator", "Daily", "Annualised"]}>
+          {d.series.map((s) => (
+            <FigureRow
+              key={s.estimator}
+              className={`border-b border-ink-line/60 text-right ${s.chosen ? "font-semibold" : ""}`}
+              head={`${s.label}${s.chosen ? " (chosen)" : ""}`}
+              cells={[s.error ? `not fitted: ${s.error}` : pct(s.currentVolatility, 3), s.error ? "—" : pct(s.currentVolatility === null ? null : s.currentVolatility * ANNUAL)]}
+            />
+          ))}
+        </FigureTable>
         <details className="text-sm">
           <summary className="cursor-pointer text-ink-soft">The last 20 days in a table</summary>
           <div className="relative overflow-x-auto">
-            <table className="mt-2 w-full text-xs">
-              <caption className="sr-only">Returns and conditional volatility of the last 20 days</caption>
-              <thead>
-                <tr className="border-b border-ink-line text-right text-ink-muted">
-                  <th scope="col" className="py-1 pr-2 text-left font-medium">Date</th>
-                  <th scope="col" className="py-1 pr-2 font-medium">Return</th>
-                  {d.series.map((s) => (
-                    <th key={s.estimator} scope="col" className="py-1 pr-2 font-medium">
-                      {s.label} (annual)
-                    </th>
-                  ))}
-                </tr>
-              </thead>
-              <tbody className="figure">
-                {d.dates.slice(-20).map((date, i) => {
-                  const t = d.dates.length - 20 + i;
-                  return (
-                    <tr key={date} className="border-b border-ink-line/60 text-right">
-                      <th scope="row" className="py-1 pr-2 text-left font-normal">{date}</th>
-                      <td className="py-1 pr-2">{pct(d.returns[t])}</td>
-                      {d.series.map((s) => (
-                        <td key={s.estimator} className="py-1 pr-2">
-                          {pct(s.volatility[t] === null ? null : (s.volatility[t] as number) * ANNUAL)}
-                        </td>
-                      ))}
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
+            <FigureTable
+              className="mt-2 w-full text-xs"
+              caption="Returns and conditional volatility of the last 20 days"
+              hiddenCaption
+              pad="py-1"
+              padLast
+              columns={["Date", "Return", ...d.series.map((s) => `${s.label} (annual)`)]}
+            >
+              {d.dates.slice(-20).map((date, i) => {
+                const t = d.dates.length - 20 + i;
+                return (
+                  <FigureRow
+                    key={date}
+                    pad="py-1"
+                    padLast
+                    head={date}
+                    cells={[pct(d.returns[t]), ...d.series.map((s) => pct(s.volatility[t] === null ? null : (s.volatility[t] as number) * ANNUAL))]}
+                  />
+                );
+              })}
+            </FigureTable>
           </div>
         </details>
       </section>
@@ -139,30 +119,12 @@ function Charts({ d }: { d: VolatilityDetail }) {
               </div>
             </figure>
             <p className="text-xs text-ink-muted">{d.termStructure.statement}</p>
-            <table className="w-full text-sm" data-testid="term-table">
-              <caption className="mb-1 text-left text-xs text-ink-muted">Forecast volatility by days ahead</caption>
-              <thead>
-                <tr className="border-b border-ink-line text-right text-ink-muted">
-                  <th scope="col" className="py-1.5 pr-2 text-left font-medium">Days ahead</th>
-                  <th scope="col" className="py-1.5 pr-2 font-medium">Daily</th>
-                  <th scope="col" className="py-1.5 font-medium">Annualised</th>
-                </tr>
-              </thead>
-              <tbody className="figure">
-                {TERM_DAYS_SHOWN.filter((n) => n <= term.length).map((n) => (
-                  <tr key={n} className="border-b border-ink-line/60 text-right">
-                    <th scope="row" className="py-1.5 pr-2 text-left font-normal">{n}</th>
-                    <td className="py-1.5 pr-2">{pct(d.termStructure!.volatility[n - 1], 3)}</td>
-                    <td className="py-1.5">{pct(d.termStructure!.volatility[n - 1] * ANNUAL)}</td>
-                  </tr>
-                ))}
-                <tr className="text-right">
-                  <th scope="row" className="py-1.5 pr-2 text-left font-normal">Long run</th>
-                  <td className="py-1.5 pr-2">{pct(longRun, 3)}</td>
-                  <td className="py-1.5">{pct(longRun === null ? null : longRun * ANNUAL)}</td>
-                </tr>
-              </tbody>
-            </table>
+            <FigureTable testId="term-table" caption="Forecast volatility by days ahead" columns={["Days ahead", "Daily", "Annualised"]}>
+              {TERM_DAYS_SHOWN.filter((n) => n <= term.length).map((n) => (
+                <FigureRow key={n} head={n} cells={[pct(d.termStructure!.volatility[n - 1], 3), pct(d.termStructure!.volatility[n - 1] * ANNUAL)]} />
+              ))}
+              <FigureRow className="text-right" head="Long run" cells={[pct(longRun, 3), pct(longRun === null ? null : longRun * ANNUAL)]} />
+            </FigureTable>
           </>
         ) : (
           <p className="text-sm text-ink-muted">GARCH(1,1) could not be fitted on this factor&apos;s returns, so there is no term structure.</p>
