@@ -26,6 +26,7 @@ import {
 } from "docx";
 import { contentHash, FILING_STATUS_LABELS, VAR_METHOD_LABELS, type FilingViewModel } from "../view-model";
 import { filingSections, statusMarking, type Block, type Section } from "../sections";
+import { CAPITAL_TABLE_COLUMNS, capitalTableRows } from "../capital-table";
 import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatPercent, formatTimestamp } from "../format";
 import { neutralise } from "../neutralise";
 import { renderPng, varPnlChart, volatilityChart, type Chart } from "../charts";
@@ -157,23 +158,8 @@ function tables(vm: FilingViewModel): Record<string, () => FileChild[]> {
         ],
       ),
     capital: () => {
-      const c = f.capital;
-      const rows: string[][] = [
-        ["Latest VaR, VaR(t−1)", a(c.varLast), ccy],
-        [`Average VaR over ${c.averagingDays} days`, a(c.varAverage), ccy],
-        ["Multiplier m_c = base + plus factor", `${formatNumber(c.multiplierBase, 2)} + ${formatNumber(c.plusFactor, 2)} = ${formatNumber(c.multiplier, 2)}`, "—"],
-        ["VaR term = max(VaR(t−1), m_c × average)", a(c.varTerm), ccy],
-      ];
-      if (c.includesStressed && c.stressedVarLast !== null && c.stressedVarAverage !== null && c.stressedMultiplier !== null) {
-        rows.push(
-          ["Latest stressed VaR, sVaR(t−1)", a(c.stressedVarLast), ccy],
-          [`Average stressed VaR over ${c.averagingDays} days`, a(c.stressedVarAverage), ccy],
-          ["Multiplier m_s", formatNumber(c.stressedMultiplier, 2), "—"],
-          ["Stressed term = max(sVaR(t−1), m_s × average)", a(c.stressedVarTerm), ccy],
-        );
-      }
-      rows.push(["Capital", a(c.capital), ccy]);
-      return table([{ header: "Term", weight: 3 }, { header: "Value", numeric: true, weight: 1.6 }, { header: "Unit", weight: 0.6 }], rows, { totalRows: [rows.length - 1] });
+      const { rows, totalRows } = capitalTableRows(f.capital, ccy);
+      return table([...CAPITAL_TABLE_COLUMNS], rows, { totalRows });
     },
     totals: () =>
       table(

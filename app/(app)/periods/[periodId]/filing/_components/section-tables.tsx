@@ -4,6 +4,7 @@
  */
 import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatTimestamp } from "@/reports/format";
 import { VAR_METHOD_LABELS } from "@/lib/domain/labels";
+import { CAPITAL_TABLE_CAPTION, CAPITAL_TABLE_COLUMNS, capitalTableRows } from "@/reports/capital-table";
 import type { FilingViewModel } from "@/reports/view-model";
 import { FILING_STATE_LABELS, type FilingState } from "./filing-status";
 
@@ -81,23 +82,8 @@ export function SectionTable({ name, vm, status }: { name: string; vm: FilingVie
         />
       );
     case "capital": {
-      const c = f.capital;
-      const rows: string[][] = [
-        ["Latest VaR, VaR(t−1)", a(c.varLast), ccy],
-        [`Average VaR over ${c.averagingDays} days`, a(c.varAverage), ccy],
-        ["Multiplier = base + plus factor", `${formatNumber(c.multiplierBase, 2)} + ${formatNumber(c.plusFactor, 2)} = ${formatNumber(c.multiplier, 2)}`, "—"],
-        ["VaR term = max(VaR(t−1), multiplier × average)", a(c.varTerm), ccy],
-      ];
-      if (c.includesStressed && c.stressedVarLast !== null && c.stressedVarAverage !== null && c.stressedMultiplier !== null) {
-        rows.push(
-          ["Latest stressed VaR, sVaR(t−1)", a(c.stressedVarLast), ccy],
-          [`Average stressed VaR over ${c.averagingDays} days`, a(c.stressedVarAverage), ccy],
-          ["Stressed multiplier", formatNumber(c.stressedMultiplier, 2), "—"],
-          ["Stressed term = max(sVaR(t−1), multiplier × average)", a(c.stressedVarTerm), ccy],
-        );
-      }
-      rows.push(["Capital", a(c.capital), ccy]);
-      return <Table caption="Every term of the capital formula" testId="capital-table" columns={[{ header: "Term" }, { header: "Value", numeric: true }, { header: "Unit" }]} rows={rows} totals={[rows.length - 1]} />;
+      const { rows, totalRows } = capitalTableRows(f.capital, ccy);
+      return <Table caption={CAPITAL_TABLE_CAPTION} testId="capital-table" columns={[...CAPITAL_TABLE_COLUMNS]} rows={rows} totals={totalRows} />;
     }
     case "totals":
       return (
