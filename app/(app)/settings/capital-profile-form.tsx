@@ -15,9 +15,10 @@ import {
   type CapitalProfileValues,
 } from "@/lib/validation/capital-profile";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { inputClass, secondaryButtonClass } from "@/app/_components/field";
 import { CheckboxField, NumberField, SelectField, setFieldErrors, TextAreaField, TextField, useFieldBinding } from "@/app/_components/form/fields";
 import type { CapitalProfileVersion } from "@/lib/data/capital-profile";
+import { saveFailed, SaveButton, SaveStatusLine, type SaveStatus } from "./save-status";
 
 type Path = FieldPath<CapitalProfileInput>;
 type Form = UseFormReturn<CapitalProfileInput>;
@@ -52,7 +53,7 @@ function years(y: number | null | undefined): string {
 
 export function CapitalProfileForm({ current, versions, editable }: { current: CapitalProfileVersion | null; versions: CapitalProfileVersion[]; editable: boolean }) {
   const router = useRouter();
-  const [status, setStatus] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
+  const [status, setStatus] = useState<SaveStatus>(null);
   const initial = current?.form ?? defaultCapitalProfileForm();
   const form = useForm<CapitalProfileInput, unknown, CapitalProfileValues>({
     resolver: zodResolver(capitalProfileSchema),
@@ -79,7 +80,7 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
       router.refresh();
     } catch (error) {
       if (error instanceof ApiError) setFieldErrors(form, error.fields);
-      setStatus({ tone: "alert", text: error instanceof Error ? error.message : "Could not save." });
+      setStatus(saveFailed(error));
     }
   });
 
@@ -303,9 +304,9 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
 
       {editable ? (
         <div className="flex flex-wrap items-center gap-3">
-          <button type="submit" className={primaryButtonClass} disabled={isSubmitting || !isDirty}>
-            {isSubmitting ? "Saving…" : `Save as version ${nextVersion}`}
-          </button>
+          <SaveButton busy={isSubmitting} disabled={isSubmitting || !isDirty}>
+            Save as version {nextVersion}
+          </SaveButton>
           <button
             type="button"
             className={secondaryButtonClass}
@@ -322,11 +323,7 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
               Undo changes
             </button>
           ) : null}
-          {status ? (
-            <p role="status" className={`text-sm ${status.tone === "ok" ? "text-ok" : "text-alert"}`}>
-              {status.text}
-            </p>
-          ) : null}
+          <SaveStatusLine status={status} />
         </div>
       ) : (
         <p className="text-sm text-ink-muted">Compliance officers and heads change the profile.</p>

@@ -6,13 +6,13 @@ import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { firmSettingsSchema, REPORTING_CURRENCIES, type FirmSettingsInput } from "@/lib/validation/firm";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { primaryButtonClass } from "@/app/_components/field";
 import { TextField, NumberField, SelectField, TextAreaField, CheckboxField, setFieldErrors } from "@/app/_components/form/fields";
 import type { FirmSettings } from "@/lib/data/firm";
+import { saveFailed, SaveButton, SaveStatusLine, type SaveStatus } from "./save-status";
 
 export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings; editable: boolean }) {
   const router = useRouter();
-  const [status, setStatus] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
+  const [status, setStatus] = useState<SaveStatus>(null);
   const form = useForm<FirmSettingsInput>({
     resolver: zodResolver(firmSettingsSchema) as never,
     defaultValues: {
@@ -44,7 +44,7 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
       router.refresh();
     } catch (error) {
       if (error instanceof ApiError) setFieldErrors(form, error.fields);
-      setStatus({ tone: "alert", text: error instanceof Error ? error.message : "Could not save." });
+      setStatus(saveFailed(error));
     }
   });
 
@@ -89,14 +89,10 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
       </fieldset>
       {editable ? (
         <div className="flex items-center gap-3">
-          <button type="submit" className={primaryButtonClass} disabled={isSubmitting || !isDirty}>
-            {isSubmitting ? "Saving…" : "Save settings"}
-          </button>
-          {status ? (
-            <p role="status" className={`text-sm ${status.tone === "ok" ? "text-ok" : "text-alert"}`}>
-              {status.text}
-            </p>
-          ) : null}
+          <SaveButton busy={isSubmitting} disabled={isSubmitting || !isDirty}>
+            Save settings
+          </SaveButton>
+          <SaveStatusLine status={status} />
         </div>
       ) : null}
     </form>

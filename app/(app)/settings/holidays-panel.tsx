@@ -8,6 +8,7 @@ import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_com
 import { dateProblem } from "@/lib/calendar/validation";
 import type { Holiday } from "@/lib/calendar/settings";
 import { useHydrated } from "@/app/_components/use-hydrated";
+import { saveFailed, SaveStatusLine, type SaveStatus } from "./save-status";
 
 /** The firm's holidays: add and remove by hand, or take a CSV file (any bad row refuses the whole file). */
 export function HolidaysPanel({ initial }: { initial: Holiday[] }) {
@@ -18,7 +19,7 @@ export function HolidaysPanel({ initial }: { initial: Holiday[] }) {
   const [date, setDate] = useState("");
   const [name, setName] = useState("");
   const [addError, setAddError] = useState<string | null>(null);
-  const [status, setStatus] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
+  const [status, setStatus] = useState<SaveStatus>(null);
   const [rowErrors, setRowErrors] = useState<string[]>([]);
   const [mode, setMode] = useState<"add" | "replace">("add");
   const [busy, setBusy] = useState(false);
@@ -32,7 +33,7 @@ export function HolidaysPanel({ initial }: { initial: Holiday[] }) {
       setStatus({ tone: "ok", text: message });
       router.refresh();
     } catch (e) {
-      setStatus({ tone: "alert", text: e instanceof Error ? e.message : "Could not save." });
+      setStatus(saveFailed(e));
     } finally {
       setBusy(false);
     }
@@ -138,11 +139,7 @@ export function HolidaysPanel({ initial }: { initial: Holiday[] }) {
         </div>
       </fieldset>
 
-      {status ? (
-        <p role="status" className={`text-sm ${status.tone === "ok" ? "text-ok" : "text-alert"}`}>
-          {status.text}
-        </p>
-      ) : null}
+      <SaveStatusLine status={status} />
       {rowErrors.length ? (
         <ul role="alert" aria-label="Problems in the file" className="list-inside list-disc rounded-md border border-alert/30 bg-alert-bg px-3 py-2 text-sm text-alert" data-testid="csv-errors">
           {rowErrors.map((e) => (

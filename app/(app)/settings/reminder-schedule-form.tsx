@@ -4,11 +4,11 @@ import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { primaryButtonClass } from "@/app/_components/field";
 import { CheckboxField, TextField } from "@/app/_components/form/fields";
 import { parseOffsetList, reminderSettingsSchema } from "@/lib/calendar/validation";
 import { fieldMessages } from "./field-messages";
 import type { ReminderSettings } from "@/lib/calendar/settings";
+import { saveFailed, SaveButton, SaveStatusLine, type SaveStatus } from "./save-status";
 
 /** What the form holds: the days before the deadline as typed ("10, 5, 2, 1"), and the two switches. */
 type ScheduleForm = { reminderOffsets: string; remindOverdue: boolean; autoOpenPeriods: boolean };
@@ -18,7 +18,7 @@ const formValues = (s: ReminderSettings): ScheduleForm => ({ reminderOffsets: s.
 /** The reminder schedule: business days before the deadline, the overdue notice, and automatic opening. */
 export function ReminderScheduleForm({ initial }: { initial: ReminderSettings }) {
   const router = useRouter();
-  const [status, setStatus] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
+  const [status, setStatus] = useState<SaveStatus>(null);
   // the list's message stays until the next save (no checking while typing), as before
   const form = useForm<ScheduleForm>({ reValidateMode: "onSubmit", defaultValues: formValues(initial) });
   const { isSubmitting } = form.formState;
@@ -38,7 +38,7 @@ export function ReminderScheduleForm({ initial }: { initial: ReminderSettings })
       router.refresh();
     } catch (e) {
       if (e instanceof ApiError && e.fields) form.setError("reminderOffsets", { message: Object.values(e.fields)[0] ?? e.message });
-      setStatus({ tone: "alert", text: e instanceof Error ? e.message : "Could not save." });
+      setStatus(saveFailed(e));
     }
   });
 
@@ -57,14 +57,8 @@ export function ReminderScheduleForm({ initial }: { initial: ReminderSettings })
         Open each month&apos;s reporting period automatically at month end.
       </CheckboxField>
       <div className="flex items-center gap-3">
-        <button type="submit" className={primaryButtonClass} disabled={isSubmitting}>
-          {isSubmitting ? "Saving…" : "Save reminder schedule"}
-        </button>
-        {status ? (
-          <p role="status" className={`text-sm ${status.tone === "ok" ? "text-ok" : "text-alert"}`}>
-            {status.text}
-          </p>
-        ) : null}
+        <SaveButton busy={isSubmitting}>Save reminder schedule</SaveButton>
+        <SaveStatusLine status={status} />
       </div>
     </form>
   );
