@@ -1,11 +1,10 @@
 "use client";
 
 import localFont from "next/font/local";
-import { useEffect } from "react";
 import "./globals.css";
 import { Logo } from "@/app/_components/logo";
-import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
-import { errorDigest, ProblemNotice } from "@/app/_components/problem-notice";
+import { secondaryButtonClass } from "@/app/_components/field";
+import { ErrorNotice } from "@/app/_components/error-notice";
 
 const ballastSans = localFont({
   src: [
@@ -21,9 +20,6 @@ const ballastSans = localFont({
  * <html>, <body>, styles and font, and a title (metadata exports are not read here).
  */
 export default function GlobalError({ error, retry }: { error: unknown; retry: () => void }) {
-  useEffect(() => {
-    console.error(error);
-  }, [error]);
   return (
     <html lang="en" className={ballastSans.variable}>
       <body className="min-h-screen bg-paper px-4 py-10 font-sans text-ink">
@@ -31,25 +27,19 @@ export default function GlobalError({ error, retry }: { error: unknown; retry: (
         <div className="mx-auto max-w-xl">
           <Logo />
         </div>
-        <ProblemNotice
-          code="Error"
+        <ErrorNotice
+          error={error}
+          retry={retry}
           title="Ballast could not show this page"
-          reference={errorDigest(error)}
-          actions={
-            <>
-              <button type="button" onClick={() => retry()} className={primaryButtonClass}>
-                Try again
-              </button>
-              {/* a plain link: the app's router may be what failed */}
-              <a href="/home" className={secondaryButtonClass}>
-                Go to this month
-              </a>
-            </>
+          wayOn={
+            // a plain link: the app's router may be what failed
+            <a href="/home" className={secondaryButtonClass}>
+              Go to this month
+            </a>
           }
         >
           <p>Something failed before the page could be laid out. Showing a page reads stored data and changes none of it.</p>
-          <p>If trying again does not help, tell your firm&apos;s administrator the reference below.</p>
-        </ProblemNotice>
+        </ErrorNotice>
       </body>
     </html>
   );

@@ -1,9 +1,8 @@
 "use client";
 
 import Link from "next/link";
-import { useEffect } from "react";
-import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
-import { errorDigest, ProblemNotice } from "@/app/_components/problem-notice";
+import { secondaryButtonClass } from "@/app/_components/field";
+import { ErrorNotice } from "@/app/_components/error-notice";
 
 /**
  * A signed-in page that failed while it was being prepared. The shell stays; the person can try the page again
@@ -11,27 +10,18 @@ import { errorDigest, ProblemNotice } from "@/app/_components/problem-notice";
  * production); its reference is, to match the server's log.
  */
 export default function AppError({ error, retry }: { error: unknown; retry: () => void }) {
-  useEffect(() => {
-    console.error(error);
-  }, [error]);
   return (
-    <ProblemNotice
-      code="Error"
+    <ErrorNotice
+      error={error}
+      retry={retry}
       title="This page could not be shown"
-      reference={errorDigest(error)}
-      actions={
-        <>
-          <button type="button" onClick={() => retry()} className={primaryButtonClass}>
-            Try again
-          </button>
-          <Link href="/home" className={secondaryButtonClass}>
-            Go to this month
-          </Link>
-        </>
+      wayOn={
+        <Link href="/home" className={secondaryButtonClass}>
+          Go to this month
+        </Link>
       }
     >
       <p>Ballast hit an error while preparing this page. Showing a page reads stored data and changes none of it.</p>
-      <p>If trying again does not help, tell your firm&apos;s administrator the reference below.</p>
-    </ProblemNotice>
+    </ErrorNotice>
   );
 }
