@@ -82,24 +82,27 @@ export function historicalEs(pnl: ArrayLike<number>, confidence: number): number
   return historicalTail(pnl, confidence).es;
 }
 
+/** The losses of pnl[start, end) in ascending order, written into scratch when it is long enough (else a new array). */
+export function sortedWindowLosses(pnl: ArrayLike<number>, start: number, end: number, scratch?: Float64Array): Float64Array {
+  const n = end - start;
+  const losses = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
+  for (let i = 0; i < n; i++) losses[i] = -pnl[start + i];
+  losses.sort();
+  return losses;
+}
+
 /** Type-7 quantile of losses for a window of a series, without the weights (faster, for rolling use). */
 export function lossQuantile(pnl: ArrayLike<number>, start: number, end: number, confidence: number, scratch?: Float64Array): number {
   const n = end - start;
   check("lossQuantile", n, confidence);
-  const losses = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
-  for (let i = 0; i < n; i++) losses[i] = -pnl[start + i];
-  losses.sort();
-  return type7OfSorted(losses, confidence);
+  return type7OfSorted(sortedWindowLosses(pnl, start, end, scratch), confidence);
 }
 
 /** Historical VaR and ES together for a window [start, end) of a P&L series (sorting once). */
 export function lossQuantileAndEs(pnl: ArrayLike<number>, start: number, end: number, confidence: number, scratch?: Float64Array): { var: number; es: number } {
   const n = end - start;
   check("lossQuantileAndEs", n, confidence);
-  const losses = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
-  for (let i = 0; i < n; i++) losses[i] = -pnl[start + i];
-  losses.sort();
-  return tailOfSortedLosses(losses, confidence);
+  return tailOfSortedLosses(sortedWindowLosses(pnl, start, end, scratch), confidence);
 }
 
 /** The type-7 quantile of ascending losses at `confidence` (the one quantile kernel of the historical figures). */

@@ -1,10 +1,11 @@
 /** The month-end run's VaR history: one out-of-sample forecast per past day for the static book, by the primary method. */
+import { sortedWindowLosses } from "../../var/historical";
 import { esMultiplier, varMultiplier } from "../../var/parametric";
 import { garchHorizonVariance, overlappingSums } from "../../var/scaling";
 import { matVec, type SymmetricMatrix } from "../matrix";
 import { correlationForm, factorHorizonVariance, forEachBlock, forEachDailyCovariance, matrixForm, neededReturns, refitBlocks } from "../per-factor";
 import type { VarCore } from "./figures";
-import { dot, evaluateParametric, sortedLosses, tailOfSorted } from "./kernels";
+import { dot, evaluateParametric, tailOfSorted } from "./kernels";
 import { cccAt } from "./matrix-checks";
 import type { ProgressCallback, VarHistoryPoint, VolatilityModel } from "./types";
 
@@ -150,9 +151,9 @@ function simulationTails(core: VarCore, from: number, count: number, blocks: Blo
   const vm = volatility;
   const p = new Float64Array(W);
   const tails = (n: number): void => {
-    const sorted = sortedLosses(p, 0, W, scratch);
+    const sorted = sortedWindowLosses(p, 0, W, scratch);
     let sorted10: Float64Array | null = null;
-    if (scalingPrimary === "overlap") sorted10 = sortedLosses(overlappingSums(p, H), 0, W - H + 1, scratch10);
+    if (scalingPrimary === "overlap") sorted10 = sortedWindowLosses(overlappingSums(p, H), 0, W - H + 1, scratch10);
     for (let c = 0; c < cCount; c++) {
       const t1 = tailOfSorted(sorted, confidences[c]);
       var1[c][n] = t1.var; es1[c][n] = t1.es;

@@ -27,15 +27,6 @@ export function trailingRun(values: ArrayLike<number>): number {
   return n;
 }
 
-/** The losses of pnl[start, end), ascending, written into out (no allocation). */
-export function sortedLosses(pnl: ArrayLike<number>, start: number, end: number, out: Float64Array): Float64Array {
-  const n = end - start;
-  const a = out.subarray(0, n);
-  for (let i = 0; i < n; i++) a[i] = -pnl[start + i];
-  a.sort();
-  return a;
-}
-
 /** VaR (type-7) and ES (fractional tail mean) from ascending losses; the convention of historicalTail. */
 export function tailOfSorted(losses: Float64Array, confidence: number): VarFigure {
   return tailOfSortedLosses(losses, confidence);
