@@ -1,41 +1,31 @@
 "use client";
 
 import { useState } from "react";
-import Link from "next/link";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { tokenPasswordSchema, type TokenPasswordInput } from "@/lib/validation/accounts";
 import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
-import { apiFetch, ApiError } from "@/app/_components/api";
+import { apiFetch } from "@/app/_components/api";
 import { primaryButtonClass, FormError } from "@/app/_components/field";
-import { TextField, setFieldErrors } from "@/app/_components/form/fields";
+import { TextField } from "@/app/_components/form/fields";
+import { useFormSubmit } from "@/app/_components/form/use-form-submit";
+import { SignInNow } from "./sign-in-now";
 
 /** Choose a password through an invitation or reset link; then sign in with it. */
 export function SetPasswordForm({ token, purpose, email }: { token: string; purpose: "invite" | "reset"; email: string }) {
   const [done, setDone] = useState(false);
-  const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<TokenPasswordInput>({ resolver: zodResolver(tokenPasswordSchema), defaultValues: { token, password: "", confirm: "" } });
-
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
+  const { onSubmit, formError } = useFormSubmit(
+    form,
+    async (values) => {
       await apiFetch("/api/account/set-password", { method: "POST", body: { ...values, purpose } });
       setDone(true);
-    } catch (e) {
-      if (e instanceof ApiError) setFieldErrors(form, e.fields);
-      setFormError(e instanceof Error ? e.message : "Could not set the password.");
-    }
-  });
+    },
+    { fallback: "Could not set the password." },
+  );
 
   if (done) {
-    return (
-      <div className="mt-6 flex flex-col gap-4" role="status">
-        <p>Your password is set. Sign in with {email} and the password you chose.</p>
-        <Link href="/sign-in" className={primaryButtonClass}>
-          Sign in
-        </Link>
-      </div>
-    );
+    return <SignInNow>Your password is set. Sign in with {email} and the password you chose.</SignInNow>;
   }
   return (
     <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">

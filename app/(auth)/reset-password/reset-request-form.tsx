@@ -8,22 +8,21 @@ import { resetRequestSchema, type ResetRequestInput } from "@/lib/validation/acc
 import { apiFetch } from "@/app/_components/api";
 import { primaryButtonClass, FormError } from "@/app/_components/field";
 import { TextField } from "@/app/_components/form/fields";
+import { useFormSubmit } from "@/app/_components/form/use-form-submit";
 
 /** The reset request: one answer whatever the address, so the form cannot tell who has an account. */
 export function ResetRequestForm() {
   const [answer, setAnswer] = useState<string | null>(null);
-  const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<ResetRequestInput>({ resolver: zodResolver(resetRequestSchema), defaultValues: { email: "" } });
-
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
+  // one answer whatever the address, so the server's field messages are not put on the field either
+  const { onSubmit, formError } = useFormSubmit(
+    form,
+    async (values) => {
       const { message } = await apiFetch<{ message: string }>("/api/account/reset", { method: "POST", body: values });
       setAnswer(message);
-    } catch (e) {
-      setFormError(e instanceof Error ? e.message : "Could not send the request.");
-    }
-  });
+    },
+    { fallback: "Could not send the request.", fieldErrors: false },
+  );
 
   if (answer) {
     return (

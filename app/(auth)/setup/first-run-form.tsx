@@ -1,45 +1,36 @@
 "use client";
 
 import { useState } from "react";
-import Link from "next/link";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { firstRunSchema, type FirstRunInput } from "@/lib/validation/accounts";
 import { REPORTING_CURRENCIES } from "@/lib/validation/firm";
 import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
-import { apiFetch, ApiError } from "@/app/_components/api";
+import { apiFetch } from "@/app/_components/api";
 import { primaryButtonClass, FormError } from "@/app/_components/field";
-import { TextField, SelectField, setFieldErrors } from "@/app/_components/form/fields";
+import { TextField, SelectField } from "@/app/_components/form/fields";
+import { useFormSubmit } from "@/app/_components/form/use-form-submit";
+import { SignInNow } from "../_components/sign-in-now";
 
 /** The first-run form: firm name, reporting currency, the administrator's name, e-mail and password. */
 export function FirstRunForm() {
   const [done, setDone] = useState<string | null>(null);
-  const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<FirstRunInput>({
     resolver: zodResolver(firstRunSchema),
     defaultValues: { firmName: "", reportingCurrency: "EUR", adminName: "", adminEmail: "", password: "", confirm: "" },
   });
 
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
+  const { onSubmit, formError } = useFormSubmit(
+    form,
+    async (values) => {
       const { email } = await apiFetch<{ email: string }>("/api/setup", { method: "POST", body: values });
       setDone(email);
-    } catch (e) {
-      if (e instanceof ApiError) setFieldErrors(form, e.fields);
-      setFormError(e instanceof Error ? e.message : "Could not set up the firm.");
-    }
-  });
+    },
+    { fallback: "Could not set up the firm." },
+  );
 
   if (done) {
-    return (
-      <div className="mt-6 flex flex-col gap-4" role="status">
-        <p>The firm is created. Sign in as {done}, then invite your colleagues under Settings → People and roles.</p>
-        <Link href="/sign-in" className={primaryButtonClass}>
-          Sign in
-        </Link>
-      </div>
-    );
+    return <SignInNow>The firm is created. Sign in as {done}, then invite your colleagues under Settings → People and roles.</SignInNow>;
   }
   return (
     <form onSubmit={onSubmit} noValidate className="mt-6 flex flex-col gap-4">

@@ -1,32 +1,28 @@
 "use client";
 
-import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { changePasswordSchema, type ChangePasswordInput } from "@/lib/validation/accounts";
 import { MIN_PASSWORD_LENGTH } from "@/lib/validation/auth";
-import { apiFetch, ApiError } from "@/app/_components/api";
+import { apiFetch } from "@/app/_components/api";
 import { primaryButtonClass, FormError } from "@/app/_components/field";
-import { TextField, setFieldErrors } from "@/app/_components/form/fields";
+import { TextField } from "@/app/_components/form/fields";
+import { useFormSubmit } from "@/app/_components/form/use-form-submit";
 
 /** Change one's own password with the current one; then go to sign-in (the session has ended). */
 export function ChangePasswordForm({ email }: { email: string }) {
   const router = useRouter();
-  const [formError, setFormError] = useState<string | null>(null);
   const form = useForm<ChangePasswordInput>({ resolver: zodResolver(changePasswordSchema), defaultValues: { currentPassword: "", newPassword: "", confirm: "" } });
-
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
-    try {
+  const { onSubmit, formError } = useFormSubmit(
+    form,
+    async (values) => {
       await apiFetch("/api/account/password", { method: "POST", body: values });
       router.replace("/sign-in?changed=1");
       router.refresh();
-    } catch (e) {
-      if (e instanceof ApiError) setFieldErrors(form, e.fields);
-      setFormError(e instanceof Error ? e.message : "Could not change the password.");
-    }
-  });
+    },
+    { fallback: "Could not change the password." },
+  );
 
   return (
     <form onSubmit={onSubmit} noValidate className="mt-4 flex flex-col gap-4">
