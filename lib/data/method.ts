@@ -6,7 +6,7 @@
  */
 import "server-only";
 import { and, desc, eq, inArray, max } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Tx } from "@/db/client";
 import { firms, instruments, methodStatements, positions, reportingPeriods, uploads, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
@@ -19,6 +19,16 @@ import { priceSeries } from "./prices";
 import { latestBookInputs, methodCheckOnLatestBook } from "./runs";
 import { bookEvidenceOf } from "@/lib/method/book-evidence";
 import { infeasibilityMessage } from "@/lib/runs/feasibility";
+
+/** Set fields of this firm's draft version `id` in the transaction; a version that is no longer a draft is a conflict. */
+async function updateDraft(tx: Tx, actor: Actor, id: string, values: Partial<typeof methodStatements.$inferInsert>): Promise<void> {
+  const updated = await tx
+    .update(methodStatements)
+    .set(values)
+    .where(and(eq(methodStatements.id, id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
+    .returning({ id: methodStatements.id });
+  if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+}
 
 export type MethodStatus = "draft" | "approved" | "superseded" | "discarded";
 
@@ -249,12 +259,7 @@ export async function updateMethodDraft(actor: Actor, methodId: string, input: u
   const draft = checkDraft(input, row.previousId);
   const limitations = combineLimitations(draft.content, draft.analystLimitations);
   await getDb().transaction(async (tx) => {
-    const updated = await tx
-      .update(methodStatements)
-      .set({ content: draft.content, rationale: draft.rationale, limitations, reason: draft.reason, approvedBy: null })
-      .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
-      .returning({ id: methodStatements.id });
-    if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+    await updateDraft(tx, actor, row.id, { content: draft.content, rationale: draft.rationale, limitations, reason: draft.reason, approvedBy: null });
     await recordAudit(tx, actor, {
       action: "method.update",
       entityType: "method_statement",
@@ -348,12 +353,7 @@ export async function attachEvidence(actor: Actor, methodId: string, options: { 
     book: { content, version: row.version, approved: approved ? { version: approved.version, content: readMethodContent(approved.content) } : null },
   });
   await getDb().transaction(async (tx) => {
-    const updated = await tx
-      .update(methodStatements)
-      .set({ evidence, approvedBy: null })
-      .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
-      .returning({ id: methodStatements.id });
-    if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+    await updateDraft(tx, actor, row.id, { evidence, approvedBy: null });
     await recordAudit(tx, actor, {
       action: "method.evidence",
       entityType: "method_statement",
@@ -421,12 +421,7 @@ export async function approveMethod(actor: Actor, methodId: string, input: { not
   const at = now().toISOString();
   await getDb().transaction(async (tx) => {
     if (step === "approve") {
-      const updated = await tx
-        .update(methodStatements)
-        .set({ approvedBy: actor.userId })
-        .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
-        .returning({ id: methodStatements.id });
-      if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+      await updateDraft(tx, actor, row.id, { approvedBy: actor.userId });
       await recordAudit(tx, actor, {
         action: "method.approve",
         entityType: "method_statement",
@@ -441,16 +436,12 @@ export async function approveMethod(actor: Actor, methodId: string, input: { not
       .set({ status: "superseded" })
       .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "approved")))
       .returning({ id: methodStatements.id, version: methodStatements.version });
-    const updated = await tx
-      .update(methodStatements)
-      .set(
-        step === "co-approve"
-          ? { status: "approved", coApprovedBy: actor.userId, approvedAt: at }
-          : { status: "approved", approvedBy: actor.userId, approvedAt: at },
-      )
-      .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
-      .returning({ id: methodStatements.id });
-    if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+    await updateDraft(
+      tx,
+      actor,
+      row.id,
+      step === "co-approve" ? { status: "approved", coApprovedBy: actor.userId, approvedAt: at } : { status: "approved", approvedBy: actor.userId, approvedAt: at },
+    );
     const superseded = previous.map((p) => p.version);
     await recordAudit(tx, actor, {
       action: step === "co-approve" ? "method.co_approve" : "method.approve",
@@ -472,12 +463,7 @@ export async function discardMethodDraft(actor: Actor, methodId: string, input: 
   refuseUnlessDraft(row, "discarded");
   const reason = (input.reason ?? "").trim();
   await getDb().transaction(async (tx) => {
-    const updated = await tx
-      .update(methodStatements)
-      .set({ status: "discarded" })
-      .where(and(eq(methodStatements.id, row.id), eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")))
-      .returning({ id: methodStatements.id });
-    if (updated.length === 0) throw new AppError("conflict:method_status", "This version is no longer a draft; reload the page.");
+    await updateDraft(tx, actor, row.id, { status: "discarded" });
     await recordAudit(tx, actor, {
       action: "method.discard",
       entityType: "method_statement",
