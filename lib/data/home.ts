@@ -22,7 +22,7 @@ export async function homeItems(actor: Actor, openPeriods: readonly PeriodSummar
   const roles = new Set(actor.roles);
   const items: HomeItem[] = [];
   const pending = await db.select({ kind: uploads.kind, periodId: uploads.periodId }).from(uploads).where(and(eq(uploads.firmId, actor.firmId), eq(uploads.status, "pending")));
-  const [anyPrice] = await db.select({ id: pricePoints.id }).from(pricePoints).where(eq(pricePoints.firmId, actor.firmId)).limit(1);
+  const [anyPrice] = await db.select({ id: pricePoints.id }).from(pricePoints).where(and(eq(pricePoints.firmId, actor.firmId), eq(pricePoints.staged, false))).limit(1);
   const methods = await db
     .select({ id: methodStatements.id, status: methodStatements.status, version: methodStatements.version, approvedAt: methodStatements.approvedAt })
     .from(methodStatements)

@@ -27,7 +27,7 @@ export async function priceCoverage(actor: Actor): Promise<InstrumentCoverage[]>
       points: sql<number>`sum(case when ${pricePoints.current} = 1 then 1 else 0 end)`,
       first: sql<string | null>`min(case when ${pricePoints.current} = 1 then ${pricePoints.date} end)`,
       last: sql<string | null>`max(case when ${pricePoints.current} = 1 then ${pricePoints.date} end)`,
-      corrections: sql<number>`sum(case when ${pricePoints.current} = 0 then 1 else 0 end)`,
+      corrections: sql<number>`sum(case when ${pricePoints.current} = 0 and ${pricePoints.staged} = 0 then 1 else 0 end)`,
     })
     .from(instruments)
     .leftJoin(pricePoints, and(eq(pricePoints.instrumentId, instruments.id), eq(pricePoints.firmId, actor.firmId)))

@@ -1,29 +1,41 @@
 /**
- * Uploaded files: received from the upload service, previewed, then confirmed (or cancelled) by a person.
- * Nothing enters a period or the price history until it is confirmed, and a confirmation is one transaction.
+ * Uploaded files: received from the upload service, read and checked by a worker, previewed, then confirmed (or
+ * cancelled) by a person. Nothing enters a period or the price history until it is confirmed, and what makes a
+ * confirmation count is one short transaction (lib/data/uploads/confirm.ts).
+ *
+ * Two ways through, one set of steps:
+ * - the web tier (upload service callback, routes): `receiveUpload`, `updateUploadOptions` and `requestConfirm`
+ *   record the request and queue the "upload-read" / "upload-confirm" job; the worker runs `readUpload` and
+ *   `applyConfirm`; the preview shows the job's progress;
+ * - the demo seed, the tests and the benchmarks: `receiveUploadBytes` and `confirmUpload` run the same steps inline.
  */
 import "server-only";
-import { and, desc, eq, inArray } from "drizzle-orm";
-import { getDb, type Tx } from "@/db/client";
-import { capitalRuleProfiles, firms, instruments, pricePoints, reportingPeriods, uploads } from "@/db/schema";
+import { and, desc, eq, inArray, ne } from "drizzle-orm";
+import { getDb } from "@/db/client";
+import { uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/permissions";
-import { now, today } from "@/lib/clock";
-import { readTables } from "@/lib/uploads/read-table";
-import { chooseTable, parsePositions, POSITION_FIELDS, type PositionsParse } from "@/lib/uploads/parse-positions";
-import { parsePrices, PRICE_FIELDS, type PricePoint, type PricesParse } from "@/lib/uploads/parse-prices";
-import { bulkInsert, orderedId } from "@/db/bulk-insert";
-import { FileRejected, type DateFormat, type NumberFormat, type ParseProgress, type Problem, type ReadOptions } from "@/lib/uploads/types";
-import { fetchStoredFile, deleteStoredFiles, sha256 } from "@/lib/uploads/file-store";
-import { ATTRIBUTE_SQL_COLUMNS, attributeSqlValues } from "@/lib/uploads/position-attributes";
-import type { StandardisedProfile } from "@/lib/risk/standardised";
-import { standardisedProfileOfRow } from "./capital-profile";
+import { now } from "@/lib/clock";
+import { enqueue, isDuplicateJob, jobByKey } from "@/lib/jobs/queue";
+import { POSITION_FIELDS } from "@/lib/uploads/parse-positions";
+import { PRICE_FIELDS } from "@/lib/uploads/parse-prices";
+import type { UploadKind } from "@/lib/uploads/parse-file";
+import type { DateFormat, NumberFormat, Problem, ReadOptions } from "@/lib/uploads/types";
+import { deleteStoredFiles, sha256 } from "@/lib/uploads/file-store";
 import { assertPeriodTakesData } from "./periods";
-import { enqueueQualityRefresh, periodsTakingPrices } from "./quality-jobs";
+import { markReadFailed, readUpload } from "./uploads/read";
+import { applyConfirm, clearStaged } from "./uploads/confirm";
+import { clearParts, readAll, readItems } from "./uploads/parts";
 
-export type UploadKind = "positions" | "prices";
+export type { UploadKind } from "@/lib/uploads/parse-file";
+export type { ParsedUpload } from "@/lib/uploads/parse-file";
+export { readUpload, markReadFailed } from "./uploads/read";
+export { applyConfirm } from "./uploads/confirm";
+
+/** Every state an upload can be in (db/schema/data.ts tells the order). */
+export type UploadStatus = "reading" | "pending" | "duplicate" | "failed" | "confirming" | "confirmed" | "cancelled" | "superseded";
 
 /** What the upload service's middleware established about the uploader (through the gate). */
 export type UploadContext = {
@@ -37,143 +49,36 @@ export type UploadContext = {
   dateFormat?: DateFormat;
 };
 
-export type ParsedUpload = ({ kind: "positions" } & PositionsParse) | ({ kind: "prices" } & PricesParse) | { kind: "rejected"; message: string; problems: Problem[] };
-
 const PERMISSION = { positions: "positions.upload", prices: "prices.upload" } as const;
-/** How many problems are stored with an upload row (the preview re-reads the file for the full list). */
-const STORED_PROBLEMS = 500;
+/** The dedupe keys of an upload's jobs: one read and one confirmation at a time. */
+export const readJobKey = (uploadId: string) => `upload-read:${uploadId}`;
+export const confirmJobKey = (uploadId: string) => `upload-confirm:${uploadId}`;
+/** A read or confirmation is safe to run again (see lib/data/uploads/read.ts and confirm.ts). */
+const UPLOAD_JOB_ATTEMPTS = 3;
 
-// Parsed files, kept briefly so paging a preview does not re-read the file each time. Losing it costs a re-read.
-const parsedCache = new Map<string, ParsedUpload>();
-function remember(key: string, value: ParsedUpload): ParsedUpload {
-  parsedCache.delete(key);
-  parsedCache.set(key, value);
-  while (parsedCache.size > 4) parsedCache.delete(parsedCache.keys().next().value!);
-  return value;
+function readOptionsOf(context: UploadContext): ReadOptions {
+  return { numberFormat: context.numberFormat, ...(context.dateFormat && context.dateFormat !== "iso" ? { dateFormat: context.dateFormat } : {}) };
 }
 
-/** Rates to the reporting currency on or before `asOf`, from the firm's `CCY` + reporting-currency series. */
-async function fxRates(firmId: string, reportingCurrency: string, asOf: string): Promise<{ rates: Record<string, number>; dates: Record<string, string> }> {
-  const db = getDb();
-  const pairs = await db.select().from(instruments).where(eq(instruments.firmId, firmId));
-  const rates: Record<string, number> = {};
-  const dates: Record<string, string> = {};
-  for (const pair of pairs.filter((p) => /^[A-Z]{3}[A-Z]{3}$/.test(p.code) && p.code.endsWith(reportingCurrency))) {
-    const points = await db
-      .select({ date: pricePoints.date, close: pricePoints.close })
-      .from(pricePoints)
-      .where(and(eq(pricePoints.firmId, firmId), eq(pricePoints.instrumentId, pair.id), eq(pricePoints.current, true)));
-    const latest = points.filter((p) => p.date <= asOf).sort((a, b) => (a.date < b.date ? 1 : -1))[0];
-    if (latest) {
-      rates[pair.code.slice(0, 3)] = latest.close;
-      dates[pair.code.slice(0, 3)] = latest.date;
-    }
-  }
-  return { rates, dates };
-}
-
-/** The standardised rates when the firm's capital rule profile in force files that figure (its positions then need their attributes); null otherwise. */
-async function filedStandardisedProfile(firmId: string): Promise<StandardisedProfile | null> {
-  const [profile] = await getDb()
-    .select({ filedRegime: capitalRuleProfiles.filedRegime, standardised: capitalRuleProfiles.standardised, showRwa: capitalRuleProfiles.showRwa })
-    .from(capitalRuleProfiles)
-    .where(and(eq(capitalRuleProfiles.firmId, firmId), eq(capitalRuleProfiles.active, true)))
-    .limit(1);
-  return profile?.filedRegime === "standardised" ? standardisedProfileOfRow(profile) : null;
-}
-
-/** Parse bytes as the given kind of upload, in the firm's context. */
-export async function parseUploadBytes(
-  bytes: Uint8Array,
-  kind: UploadKind,
-  options: ReadOptions,
-  context: { firmId: string; reportingCurrency: string; periodEnd?: string; onProgress?: ParseProgress },
-): Promise<ParsedUpload> {
+async function assertPeriodOrDropFile(context: UploadContext, fileKey: string) {
+  if (!context.periodId) return;
   try {
-    const tables = await readTables(bytes);
-    const fields = kind === "positions" ? POSITION_FIELDS : PRICE_FIELDS;
-    const table = chooseTable(tables, fields, options.mapping) ?? (tables.length === 1 && tables[0].source === "csv" ? tables[0] : null);
-    if (!table) {
-      const names = tables.map((t) => t.source).join(", ") || "none";
-      const message = `No sheet of the workbook has the ${kind === "positions" ? "positions" : "price"} columns (sheets: ${names}).`;
-      return { kind: "rejected", message, problems: [{ row: null, field: null, severity: "error", message }] };
-    }
-    if (kind === "positions") {
-      const fx = await fxRates(context.firmId, context.reportingCurrency, context.periodEnd ?? today());
-      const filedStandardised = await filedStandardisedProfile(context.firmId);
-      return { kind, ...parsePositions(table, options, { today: today(), reportingCurrency: context.reportingCurrency, periodEnd: context.periodEnd, fxToReporting: fx.rates, fxDates: fx.dates, filedStandardisedProfile: filedStandardised, onProgress: context.onProgress }) };
-    }
-    return { kind, ...parsePrices(table, options, { today: today(), onProgress: context.onProgress }) };
+    await assertPeriodTakesData(getDb(), context.firmId, context.periodId);
   } catch (error) {
-    if (error instanceof FileRejected) return { kind: "rejected", message: error.message, problems: [{ row: null, field: null, severity: "error", message: error.message }] };
+    await deleteStoredFiles([fileKey]);
     throw error;
   }
 }
 
-function counts(parsed: ParsedUpload) {
-  const errors = parsed.problems.filter((p) => p.severity === "error").length;
-  return {
-    errorCount: errors,
-    warningCount: parsed.problems.length - errors,
-    rowCount: parsed.kind === "positions" ? parsed.rows.length : parsed.kind === "prices" ? parsed.points.length : 0,
-  };
-}
-
-function summaryOf(parsed: ParsedUpload): Record<string, unknown> {
-  if (parsed.kind === "positions") return { totals: parsed.totals, source: parsed.source, missingColumns: parsed.missingColumns, rates: parsed.rates ?? [] };
-  if (parsed.kind === "prices") return { ...parsed.summary, layout: parsed.layout, source: parsed.source, missingColumns: parsed.missingColumns };
-  return { rejected: parsed.message };
-}
-
 /**
- * Record a file the upload service received: read it back, check its hash, parse it, and store a pending upload
- * with its problems. The same file (by SHA-256) for the same purpose is not stored twice.
+ * Record a file the upload service received and queue its reading: answers at once, before the file is fetched;
+ * the worker reads, hashes and checks it (a file uploaded before is recognised then) while the preview shows how far
+ * it has got.
  */
 export async function receiveUpload(context: UploadContext, file: { key: string; name: string; size: number; ufsUrl: string }): Promise<{ uploadId: string; duplicate: boolean }> {
-  return receiveUploadBytes(context, file, await fetchStoredFile(file.ufsUrl));
-}
-
-/** The same, for bytes already in hand (the demo seed and the benchmark store files without a browser). */
-export async function receiveUploadBytes(
-  context: UploadContext,
-  file: { key: string; name: string; ufsUrl: string },
-  bytes: Uint8Array,
-): Promise<{ uploadId: string; duplicate: boolean }> {
-  const db = getDb();
-  const hash = sha256(bytes);
-  const sameFile = await db
-    .select({ id: uploads.id, status: uploads.status })
-    .from(uploads)
-    .where(
-      and(
-        eq(uploads.firmId, context.firmId),
-        eq(uploads.kind, context.kind),
-        eq(uploads.sha256, hash),
-        context.periodId ? eq(uploads.periodId, context.periodId) : eq(uploads.kind, "prices"),
-        inArray(uploads.status, ["pending", "confirmed"]),
-      ),
-    );
-  if (sameFile.length > 0) {
-    await deleteStoredFiles([file.key]);
-    return { uploadId: sameFile[0].id, duplicate: true };
-  }
-  if (context.periodId) {
-    try {
-      await assertPeriodTakesData(db, context.firmId, context.periodId);
-    } catch (error) {
-      await deleteStoredFiles([file.key]);
-      throw error;
-    }
-  }
-  const [firm] = await db.select().from(firms).where(eq(firms.id, context.firmId));
-  const [period] = context.periodId
-    ? await db.select().from(reportingPeriods).where(and(eq(reportingPeriods.id, context.periodId), eq(reportingPeriods.firmId, context.firmId)))
-    : [];
-  const options: ReadOptions = { numberFormat: context.numberFormat, ...(context.dateFormat && context.dateFormat !== "iso" ? { dateFormat: context.dateFormat } : {}) };
-  const parsed = await parseUploadBytes(bytes, context.kind, options, { firmId: context.firmId, reportingCurrency: firm.reportingCurrency, periodEnd: period?.periodEnd });
+  await assertPeriodOrDropFile(context, file.key);
   const id = crypto.randomUUID();
-  remember(`${id}:${JSON.stringify(options)}`, parsed);
-  await db.transaction(async (tx) => {
+  await getDb().transaction(async (tx) => {
     await tx.insert(uploads).values({
       id,
       firmId: context.firmId,
@@ -182,23 +87,66 @@ export async function receiveUploadBytes(
       fileName: file.name.slice(0, 255),
       fileKey: file.key,
       fileUrl: file.ufsUrl,
-      sha256: hash,
-      sizeBytes: bytes.length,
-      options: { ...options },
-      summary: summaryOf(parsed),
-      problems: parsed.problems.slice(0, STORED_PROBLEMS),
+      sha256: "",
+      sizeBytes: file.size,
+      options: readOptionsOf(context),
+      status: "reading",
       uploadedBy: context.userId,
-      ...counts(parsed),
     });
-    await recordAudit(tx, { userId: context.userId, name: context.userName, firmId: context.firmId }, {
-      action: "upload.receive",
-      entityType: "upload",
-      entityId: id,
-      summary: `Received ${context.kind} file "${file.name}" (${bytes.length.toLocaleString("en")} bytes, SHA-256 ${hash.slice(0, 12)}…)`,
-      detail: { sha256: hash, periodId: context.periodId, ...counts(parsed) },
-    });
+    await enqueue(tx, { kind: "upload-read", firmId: context.firmId, payload: { uploadId: id }, dedupeKey: readJobKey(id), maxAttempts: UPLOAD_JOB_ATTEMPTS });
   });
   return { uploadId: id, duplicate: false };
+}
+
+/** The same, read at once in this process, for bytes already in hand (the demo seed, the tests and the benchmarks). */
+export async function receiveUploadBytes(context: UploadContext, file: { key: string; name: string; ufsUrl: string }, bytes: Uint8Array): Promise<{ uploadId: string; duplicate: boolean }> {
+  const db = getDb();
+  const hash = sha256(bytes);
+  const [same] = await db
+    .select({ id: uploads.id })
+    .from(uploads)
+    .where(
+      and(
+        eq(uploads.firmId, context.firmId),
+        eq(uploads.kind, context.kind),
+        eq(uploads.sha256, hash),
+        context.periodId ? eq(uploads.periodId, context.periodId) : eq(uploads.kind, "prices"),
+        inStatuses(["pending", "confirming", "confirmed"]),
+      ),
+    )
+    .limit(1);
+  if (same) {
+    await deleteStoredFiles([file.key]);
+    return { uploadId: same.id, duplicate: true };
+  }
+  await assertPeriodOrDropFile(context, file.key);
+  const id = crypto.randomUUID();
+  await db.insert(uploads).values({
+    id,
+    firmId: context.firmId,
+    periodId: context.periodId,
+    kind: context.kind,
+    fileName: file.name.slice(0, 255),
+    fileKey: file.key,
+    fileUrl: file.ufsUrl,
+    sha256: hash,
+    sizeBytes: bytes.length,
+    options: readOptionsOf(context),
+    status: "reading",
+    uploadedBy: context.userId,
+  });
+  try {
+    await readUpload(context.firmId, id, { bytes });
+  } catch (error) {
+    await markReadFailed(db, context.firmId, id, error instanceof Error ? error.message : String(error));
+    throw error;
+  }
+  return { uploadId: id, duplicate: false };
+}
+
+/** The upload's status is one of these. */
+function inStatuses(statuses: UploadStatus[]) {
+  return inArray(uploads.status, statuses);
 }
 
 async function getUploadRow(actor: Actor, uploadId: string) {
@@ -211,17 +159,6 @@ async function getUploadRow(actor: Actor, uploadId: string) {
 export async function uploadExists(actor: Actor, uploadId: string): Promise<boolean> {
   const [row] = await getDb().select({ id: uploads.id }).from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId)));
   return Boolean(row);
-}
-
-/** Re-read an upload's file under its current options (cached). */
-async function parsedFor(actor: Actor, row: typeof uploads.$inferSelect): Promise<ParsedUpload> {
-  const options = row.options ?? { numberFormat: "plain" };
-  const key = `${row.id}:${JSON.stringify(options)}`;
-  const cached = parsedCache.get(key);
-  if (cached) return cached;
-  const bytes = await fetchStoredFile(row.fileUrl, row.sha256);
-  const [period] = row.periodId ? await getDb().select().from(reportingPeriods).where(eq(reportingPeriods.id, row.periodId)) : [];
-  return remember(key, await parseUploadBytes(bytes, row.kind as UploadKind, options, { firmId: actor.firmId, reportingCurrency: actor.reportingCurrency, periodEnd: period?.periodEnd }));
 }
 
 export interface UploadListItem {
@@ -239,13 +176,8 @@ export interface UploadListItem {
   sha256: string;
 }
 
-/** The firm's uploads, newest first, optionally for one period or kind. */
-export async function listUploads(actor: Actor, filter: { periodId?: string; kind?: UploadKind } = {}): Promise<UploadListItem[]> {
-  const conditions = [eq(uploads.firmId, actor.firmId)];
-  if (filter.periodId) conditions.push(eq(uploads.periodId, filter.periodId));
-  if (filter.kind) conditions.push(eq(uploads.kind, filter.kind));
-  const rows = await getDb().select().from(uploads).where(and(...conditions)).orderBy(desc(uploads.createdAt));
-  return rows.map((r) => ({
+function listItem(r: typeof uploads.$inferSelect): UploadListItem {
+  return {
     id: r.id,
     kind: r.kind as UploadKind,
     periodId: r.periodId,
@@ -258,24 +190,43 @@ export async function listUploads(actor: Actor, filter: { periodId?: string; kin
     confirmedAt: r.confirmedAt,
     supersededBy: r.supersededBy,
     sha256: r.sha256,
-  }));
+  };
 }
 
-/** An upload with its full problem list and totals, for the preview screen. */
+/** The firm's uploads, newest first, optionally for one period or kind (a second copy of a file is not listed). */
+export async function listUploads(actor: Actor, filter: { periodId?: string; kind?: UploadKind } = {}): Promise<UploadListItem[]> {
+  const conditions = [eq(uploads.firmId, actor.firmId), ne(uploads.status, "duplicate")];
+  if (filter.periodId) conditions.push(eq(uploads.periodId, filter.periodId));
+  if (filter.kind) conditions.push(eq(uploads.kind, filter.kind));
+  const rows = await getDb().select().from(uploads).where(and(...conditions)).orderBy(desc(uploads.createdAt));
+  return rows.map(listItem);
+}
+
+/** Where an upload's reading or confirmation job stands (for the preview's progress), or null. */
+async function uploadJob(uploadId: string, status: string) {
+  const key = status === "reading" ? readJobKey(uploadId) : status === "confirming" ? confirmJobKey(uploadId) : null;
+  if (!key) return null;
+  const job = await jobByKey(getDb(), key);
+  return job ? { state: job.state, stage: job.stage, progress: job.progress, error: job.error } : null;
+}
+
+/** An upload with its full problem list and totals, for the preview screen (and its job's progress while one runs). */
 export async function getUploadPreview(actor: Actor, uploadId: string) {
   const row = await getUploadRow(actor, uploadId);
-  const parsed = row.status === "pending" ? await parsedFor(actor, row) : null;
+  const summary = (row.summary ?? null) as (Record<string, unknown> & { header?: string[]; missingColumns?: string[] }) | null;
+  const problems = row.status === "pending" ? ((await readAll(getDb(), actor.firmId, uploadId, "problems")) as Problem[]) : ((row.problems ?? []) as Problem[]);
   return {
-    upload: { ...(await listUploads(actor)).find((u) => u.id === row.id)!, options: row.options, summary: row.summary, sizeBytes: row.sizeBytes },
+    upload: { ...listItem(row), options: row.options, summary: row.summary, sizeBytes: row.sizeBytes },
     canConfirm: can(actor, PERMISSION[row.kind as UploadKind]),
     reportingCurrency: actor.reportingCurrency,
-    problems: parsed ? parsed.problems : ((row.problems ?? []) as Problem[]),
-    header: parsed && parsed.kind !== "rejected" ? parsed.header : [],
-    missingColumns: parsed && parsed.kind !== "rejected" ? parsed.missingColumns : [],
+    problems,
+    header: row.status === "pending" ? (summary?.header ?? []) : [],
+    missingColumns: row.status === "pending" ? (summary?.missingColumns ?? []) : [],
     fields: row.kind === "positions"
       ? Object.entries(POSITION_FIELDS).map(([key, f]) => ({ key, label: f.label, required: f.required }))
       : Object.entries(PRICE_FIELDS).map(([key, f]) => ({ key, label: f.label, required: f.required })),
-    summary: parsed ? summaryOf(parsed) : row.summary,
+    summary: row.summary,
+    job: await uploadJob(uploadId, row.status),
   };
 }
 
@@ -283,207 +234,121 @@ export async function getUploadPreview(actor: Actor, uploadId: string) {
 export async function getUploadRows(actor: Actor, uploadId: string, page: number, pageSize: number) {
   const row = await getUploadRow(actor, uploadId);
   if (row.status !== "pending") throw new AppError("conflict:upload", "Only an upload waiting for confirmation has a preview.");
-  const parsed = await parsedFor(actor, row);
-  const all: unknown[] = parsed.kind === "positions" ? parsed.rows : parsed.kind === "prices" ? parsed.points : [];
-  return { total: all.length, page, pageSize, rows: all.slice((page - 1) * pageSize, page * pageSize) };
+  const rows = await readItems(getDb(), actor.firmId, uploadId, "rows", (page - 1) * pageSize, Math.min(row.rowCount, page * pageSize));
+  return { total: row.rowCount, page, pageSize, rows };
 }
 
-/** Change how a pending upload is read (number format, header mapping) and re-check it. */
+/** Change how an upload is read (number format, header mapping) and queue its reading again. */
 export async function updateUploadOptions(actor: Actor, uploadId: string, options: ReadOptions) {
   const row = await getUploadRow(actor, uploadId);
   if (!can(actor, PERMISSION[row.kind as UploadKind])) throw new AppError("forbidden:upload");
-  if (row.status !== "pending") throw new AppError("conflict:upload", `This upload is ${row.status}; only a pending upload can be re-read.`);
+  if (row.status !== "pending" && row.status !== "failed") throw new AppError("conflict:upload", `This upload is ${row.status}; only a pending upload can be re-read.`);
   const fields = row.kind === "positions" ? POSITION_FIELDS : PRICE_FIELDS;
   for (const [field, header] of Object.entries(options.mapping ?? {})) {
     if (!(field in fields)) throw new AppError("unprocessable:upload", `Unknown field "${field}" in the column mapping.`, { [`mapping.${field}`]: "Unknown field." });
     if (header.length > 200) throw new AppError("unprocessable:upload", "A column name is too long.", { [`mapping.${field}`]: "Too long." });
   }
-  const updated = { ...row, options: { ...options } };
-  const parsed = await parsedFor(actor, updated);
-  await getDb().transaction(async (tx) => {
-    await tx
-      .update(uploads)
-      .set({ options: { ...options }, summary: summaryOf(parsed), problems: parsed.problems.slice(0, STORED_PROBLEMS), ...counts(parsed) })
-      .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId)));
-    await recordAudit(tx, actor, { action: "upload.options", entityType: "upload", entityId: uploadId, summary: `Changed how "${row.fileName}" is read`, detail: { options } });
-  });
+  try {
+    await getDb().transaction(async (tx) => {
+      const claimed = await tx
+        .update(uploads)
+        .set({ options: { ...options }, status: "reading", summary: row.summary ?? {} })
+        .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId), eq(uploads.status, row.status)))
+        .returning({ id: uploads.id });
+      if (claimed.length === 0) throw new AppError("conflict:upload", "This upload was changed meanwhile; reload the page.");
+      await enqueue(tx, { kind: "upload-read", firmId: actor.firmId, payload: { uploadId }, dedupeKey: readJobKey(uploadId), maxAttempts: UPLOAD_JOB_ATTEMPTS });
+      await recordAudit(tx, actor, { action: "upload.options", entityType: "upload", entityId: uploadId, summary: `Changed how "${row.fileName}" is read`, detail: { options } });
+    });
+  } catch (error) {
+    if (isDuplicateJob(error)) throw new AppError("conflict:upload", "This file is being read already.");
+    throw error;
+  }
   return getUploadPreview(actor, uploadId);
 }
 
-/** Cancel a pending upload: nothing of it enters the period or the price history. */
+/** Cancel an upload not yet decided: nothing of it enters the period or the price history. */
 export async function cancelUpload(actor: Actor, uploadId: string) {
   const row = await getUploadRow(actor, uploadId);
   if (!can(actor, PERMISSION[row.kind as UploadKind])) throw new AppError("forbidden:upload");
-  if (row.status !== "pending") throw new AppError("conflict:upload", `This upload is already ${row.status}.`);
+  if (!["pending", "reading", "failed"].includes(row.status)) throw new AppError("conflict:upload", `This upload is already ${row.status}.`);
   await getDb().transaction(async (tx) => {
-    await tx.update(uploads).set({ status: "cancelled", cancelledAt: now().toISOString() }).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId), eq(uploads.status, "pending")));
+    const done = await tx
+      .update(uploads)
+      .set({ status: "cancelled", cancelledAt: now().toISOString() })
+      .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId), eq(uploads.status, row.status)))
+      .returning({ id: uploads.id });
+    if (done.length === 0) throw new AppError("conflict:upload", "This upload was changed meanwhile; reload the page.");
+    await clearParts(tx, actor.firmId, uploadId);
+    await clearStaged(tx, actor.firmId, uploadId, row.kind);
     await recordAudit(tx, actor, { action: "upload.cancel", entityType: "upload", entityId: uploadId, summary: `Cancelled ${row.kind} file "${row.fileName}"` });
   });
   return { status: "cancelled" };
 }
 
-async function upsertInstruments(tx: Tx, firmId: string, wanted: Map<string, { name: string; assetClass: string; currency: string }>): Promise<Map<string, string>> {
-  const codes = [...wanted.keys()];
-  const ids = new Map<string, string>();
-  for (let i = 0; i < codes.length; i += 500) {
-    const existing = await tx.select().from(instruments).where(and(eq(instruments.firmId, firmId), inArray(instruments.code, codes.slice(i, i + 500))));
-    for (const e of existing) {
-      ids.set(e.code, e.id);
-      const w = wanted.get(e.code)!;
-      if ((e.name === "" && w.name) || (e.assetClass === "unknown" && w.assetClass !== "unknown") || (e.currency === "" && w.currency)) {
-        await tx
-          .update(instruments)
-          .set({ name: e.name || w.name, assetClass: e.assetClass === "unknown" ? w.assetClass : e.assetClass, currency: e.currency || w.currency })
-          .where(eq(instruments.id, e.id));
-      }
-    }
-  }
-  const fresh = codes.filter((c) => !ids.has(c)).map((code) => ({ id: crypto.randomUUID(), code, ...wanted.get(code)! }));
-  const createdAt = now().toISOString();
-  await bulkInsert(
-    tx,
-    "instruments",
-    ["id", "firm_id", "code", "name", "asset_class", "currency", "created_at"],
-    fresh.map((f) => [f.id, firmId, f.code, f.name, f.assetClass, f.currency, createdAt]),
-  );
-  for (const f of fresh) ids.set(f.code, f.id);
-  return ids;
-}
-
-/**
- * Confirm a pending upload. Positions: the period's earlier confirmed positions upload is marked superseded and
- * this one's rows are stored. Prices: new points extend the history; a changed price is a correction that keeps
- * the old point (no longer current). All of it, and its audit record, in one transaction.
- */
-export async function confirmUpload(actor: Actor, uploadId: string, input: { acknowledgeWarnings: boolean }) {
+/** The checks before a confirmation: the person may, the upload waits, it has no errors, its warnings are acknowledged. */
+async function checkConfirmable(actor: Actor, uploadId: string, input: { acknowledgeWarnings: boolean }) {
   const row = await getUploadRow(actor, uploadId);
   const kind = row.kind as UploadKind;
   if (!can(actor, PERMISSION[kind])) throw new AppError("forbidden:upload");
   if (row.status !== "pending") throw new AppError("conflict:upload", `This upload is already ${row.status}.`);
-  const parsed = await parsedFor(actor, row);
-  const errors = parsed.problems.filter((p) => p.severity === "error");
-  if (parsed.kind === "rejected" || errors.length > 0) {
-    throw new AppError("unprocessable:upload", `The file has ${errors.length || 1} error${errors.length === 1 ? "" : "s"}; fix the file and upload it again. Nothing was stored.`);
+  const rejectedFile = Boolean(row.summary && "rejected" in row.summary);
+  if (rejectedFile || row.errorCount > 0) {
+    const errors = row.errorCount || 1;
+    throw new AppError("unprocessable:upload", `The file has ${errors} error${errors === 1 ? "" : "s"}; fix the file and upload it again. Nothing was stored.`);
   }
-  const warnings = parsed.problems.length;
+  const warnings = row.warningCount;
   if (warnings > 0 && !input.acknowledgeWarnings) {
     throw new AppError("unprocessable:upload", `Acknowledge the ${warnings} warning${warnings === 1 ? "" : "s"} before confirming.`, { acknowledgeWarnings: "Required when there are warnings." });
   }
-  const confirmedAt = now().toISOString();
-  const outcome = await getDb().transaction(async (tx) => {
-    // The status guard makes a second, concurrent confirmation a no-op that is refused below.
-    const claimed = await tx
-      .update(uploads)
-      .set({ status: "confirmed", confirmedBy: actor.userId, confirmedAt })
-      .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId), eq(uploads.status, "pending")))
-      .returning({ id: uploads.id });
-    if (claimed.length === 0) throw new AppError("conflict:upload", "This upload was confirmed or cancelled meanwhile.");
+  if (kind === "positions") {
+    if (!row.periodId) throw new AppError("unprocessable:upload", "A positions upload must belong to a period.");
+    await assertPeriodTakesData(getDb(), actor.firmId, row.periodId);
+  }
+  return { row, warnings };
+}
 
-    if (parsed.kind === "positions") {
-      if (!row.periodId) throw new AppError("unprocessable:upload", "A positions upload must belong to a period.");
-      // Inside the transaction: a filing submitted or signed a moment ago is seen here, and refuses the upload.
-      await assertPeriodTakesData(tx, actor.firmId, row.periodId);
-      const superseded = await tx
+/** Confirm from the web tier: the checks, then the upload is "confirming" and the worker stores it (answers at once). */
+export async function requestConfirm(actor: Actor, uploadId: string, input: { acknowledgeWarnings: boolean }) {
+  const { warnings } = await checkConfirmable(actor, uploadId, input);
+  try {
+    await getDb().transaction(async (tx) => {
+      const claimed = await tx
         .update(uploads)
-        .set({ status: "superseded", supersededBy: uploadId })
-        .where(and(eq(uploads.firmId, actor.firmId), eq(uploads.periodId, row.periodId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed"), inArray(uploads.id, await otherConfirmed(tx, actor.firmId, row.periodId, uploadId))))
+        .set({ status: "confirming", confirmedBy: actor.userId })
+        .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId), eq(uploads.status, "pending")))
         .returning({ id: uploads.id });
-      const wanted = new Map(parsed.rows.map((r) => [r.instrumentId, { name: r.instrumentName, assetClass: r.assetClass, currency: r.currency }]));
-      await upsertInstruments(tx, actor.firmId, wanted);
-      const periodId = row.periodId;
-      const stored = await bulkInsert(
-        tx,
-        "positions",
-        ["id", "firm_id", "period_id", "upload_id", "row_number", "as_of", "book", "instrument_code", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure", ...ATTRIBUTE_SQL_COLUMNS],
-        parsed.rows.map((r) => [orderedId(), actor.firmId, periodId, uploadId, r.row, r.asOf, r.book, r.instrumentId, r.instrumentName, r.assetClass, r.currency, r.quantity, r.price, r.marketValue, r.deltaExposure, ...attributeSqlValues(r.attributes)]),
-      );
-      const result = { stored, superseded: superseded.map((s) => s.id) };
-      await recordAudit(tx, actor, {
-        action: "upload.confirm",
-        entityType: "upload",
-        entityId: uploadId,
-        summary: `Confirmed ${stored} positions from "${row.fileName}"${superseded.length ? ` (supersedes ${superseded.length} earlier upload)` : ""}`,
-        detail: { ...result, warningsAcknowledged: warnings, sha256: row.sha256 },
+      if (claimed.length === 0) throw new AppError("conflict:upload", "This upload was confirmed or cancelled meanwhile.");
+      await enqueue(tx, {
+        kind: "upload-confirm",
+        firmId: actor.firmId,
+        payload: { uploadId, userId: actor.userId, userName: actor.name, warningsAcknowledged: warnings },
+        dedupeKey: confirmJobKey(uploadId),
+        maxAttempts: UPLOAD_JOB_ATTEMPTS,
       });
-      // the period's data-quality report reads these positions: the worker computes it again
-      await enqueueQualityRefresh(tx, actor.firmId, [periodId]);
-      return result;
-    }
-    if (parsed.kind === "prices") {
-      const wanted = new Map<string, { name: string; assetClass: string; currency: string }>();
-      for (const p of parsed.points) {
-        if (wanted.has(p.instrument)) continue;
-        const fxPair = /^[A-Z]{6}$/.test(p.instrument) && isCurrencyPair(p.instrument);
-        wanted.set(p.instrument, { name: fxPair ? `${p.instrument.slice(0, 3)}/${p.instrument.slice(3)} exchange rate` : "", assetClass: fxPair ? "fx" : "unknown", currency: fxPair ? p.instrument.slice(3) : "" });
-      }
-      const ids = await upsertInstruments(tx, actor.firmId, wanted);
-      const current = new Map<string, { id: string; close: number }>();
-      const instrumentIds = [...new Set(ids.values())];
-      for (let i = 0; i < instrumentIds.length; i += 200) {
-        const existing = await tx
-          .select({ id: pricePoints.id, instrumentId: pricePoints.instrumentId, date: pricePoints.date, close: pricePoints.close })
-          .from(pricePoints)
-          .where(and(eq(pricePoints.firmId, actor.firmId), eq(pricePoints.current, true), inArray(pricePoints.instrumentId, instrumentIds.slice(i, i + 200))));
-        for (const e of existing) current.set(`${e.instrumentId}\u0000${e.date}`, { id: e.id, close: e.close });
-      }
-      const corrected: string[] = [];
-      const corrections: { instrument: string; date: string; from: number; to: number }[] = [];
-      let unchanged = 0;
-      // Mark corrected points first, then add the new ones, all inside this transaction.
-      const fresh: PricePoint[] = [];
-      for (const p of parsed.points) {
-        const instrumentId = ids.get(p.instrument)!;
-        const before = current.get(`${instrumentId}\u0000${p.date}`);
-        if (before && before.close === p.close) {
-          unchanged++;
-          continue;
-        }
-        if (before) {
-          corrected.push(before.id);
-          if (corrections.length < 200) corrections.push({ instrument: p.instrument, date: p.date, from: before.close, to: p.close });
-        }
-        fresh.push(p);
-      }
-      for (let i = 0; i < corrected.length; i += 500) {
-        await tx.update(pricePoints).set({ current: false, replacedByUpload: uploadId }).where(and(eq(pricePoints.firmId, actor.firmId), inArray(pricePoints.id, corrected.slice(i, i + 500))));
-      }
-      const inserted = await bulkInsert(
-        tx,
-        "price_points",
-        ["id", "firm_id", "instrument_id", "date", "close", "upload_id", "current", "created_at"],
-        (function* () {
-          for (const p of fresh) yield [orderedId(), actor.firmId, ids.get(p.instrument)!, p.date, p.close, uploadId, true, confirmedAt];
-        })(),
-      );
-      const result = { added: inserted - corrected.length, corrected: corrected.length, unchanged, corrections };
-      await tx.update(uploads).set({ summary: { ...(row.summary ?? {}), ...result } }).where(eq(uploads.id, uploadId));
-      await recordAudit(tx, actor, {
-        action: "upload.confirm",
-        entityType: "upload",
-        entityId: uploadId,
-        summary: `Confirmed price history from "${row.fileName}": ${result.added} new, ${result.corrected} corrected, ${unchanged} unchanged`,
-        detail: { ...result, warningsAcknowledged: warnings, sha256: row.sha256 },
-      });
-      // every open period's data-quality report reads the price history: the worker computes them again
-      await enqueueQualityRefresh(tx, actor.firmId, await periodsTakingPrices(tx, actor.firmId));
-      return result;
-    }
-    throw new AppError("unprocessable:upload", "This file could not be read.");
-  });
-  return { status: "confirmed", ...outcome };
+    });
+  } catch (error) {
+    if (isDuplicateJob(error)) throw new AppError("conflict:upload", "This upload is being confirmed already.");
+    throw error;
+  }
+  return { status: "confirming" as const };
 }
 
-async function otherConfirmed(tx: Tx, firmId: string, periodId: string, uploadId: string): Promise<string[]> {
-  const rows = await tx
-    .select({ id: uploads.id })
-    .from(uploads)
-    .where(and(eq(uploads.firmId, firmId), eq(uploads.periodId, periodId), eq(uploads.kind, "positions"), eq(uploads.status, "confirmed")));
-  return rows.map((r) => r.id).filter((id) => id !== uploadId);
+/**
+ * Confirm a pending upload here and now (the demo seed, the tests, the benchmarks). Positions: the period's earlier
+ * confirmed positions upload is marked superseded and this one's rows are stored. Prices: new points extend the
+ * history; a changed price is a correction that keeps the old point (no longer current).
+ */
+export async function confirmUpload(actor: Actor, uploadId: string, input: { acknowledgeWarnings: boolean }) {
+  const { warnings } = await checkConfirmable(actor, uploadId, input);
+  return applyConfirm(actor.firmId, uploadId, { from: "pending", by: { userId: actor.userId, name: actor.name }, warningsAcknowledged: warnings });
 }
 
-let currencies: Set<string> | undefined;
-function isCurrencyPair(code: string): boolean {
-  currencies ??= new Set(Intl.supportedValuesOf("currency"));
-  return currencies.has(code.slice(0, 3)) && currencies.has(code.slice(3));
+/** A confirmation job that gave up: the upload waits again, saying why (what it staged is cleared on the next try). */
+export async function confirmGivenUp(firmId: string, uploadId: string, reason: string): Promise<void> {
+  const db = getDb();
+  const [row] = await db.select({ summary: uploads.summary }).from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, firmId)));
+  await db
+    .update(uploads)
+    .set({ status: "pending", summary: { ...(row?.summary ?? {}), confirmError: reason } })
+    .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, firmId), eq(uploads.status, "confirming")));
 }
-

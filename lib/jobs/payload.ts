@@ -15,3 +15,7 @@ export const runPayloadSchema = z.object({ runId: z.string().min(1), excludeShor
 export const periodPayloadSchema = z.object({ periodId: z.string().min(1) });
 /** `{ filingId }`: the pack-render job's payload. */
 export const filingPayloadSchema = z.object({ filingId: z.string().min(1) });
+/** `{ uploadId }`: the upload-read job's payload. */
+export const uploadPayloadSchema = z.object({ uploadId: z.string().min(1) });
+/** `{ uploadId, userId, userName, warningsAcknowledged }`: the upload-confirm job's payload (who confirmed, for the audit record). */
+export const uploadConfirmPayloadSchema = z.object({ uploadId: z.string().min(1), userId: z.string().min(1), userName: z.string(), warningsAcknowledged: z.number().int().min(0) });

@@ -15,12 +15,16 @@ import { runJob } from "./kinds/run";
 import { remindersJob } from "./kinds/reminders";
 import { dataQualityJob } from "./kinds/data-quality";
 import { packRenderJob } from "./kinds/pack-render";
+import { uploadReadJob } from "./kinds/upload-read";
+import { uploadConfirmJob } from "./kinds/upload-confirm";
 
 export const JOB_KINDS: Record<string, JobKind> = {
   run: runJob,
   reminders: remindersJob,
   "data-quality": dataQualityJob,
   "pack-render": packRenderJob,
+  "upload-read": uploadReadJob,
+  "upload-confirm": uploadConfirmJob,
 };
 
 export type { JobKind, JobContext } from "./types";

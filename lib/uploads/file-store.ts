@@ -14,12 +14,19 @@ export function sha256(bytes: Uint8Array): string {
 
 /** Fetch a stored file; a store that is down or answers an error becomes a clear 503. */
 export async function fetchStoredFile(url: string, expectedSha256?: string): Promise<Uint8Array> {
-  let response: Response;
-  try {
-    response = await fetch(url, { cache: "no-store" });
-  } catch {
-    throw new AppError("unavailable:file_store", "The file store is not answering. Nothing was changed; try again in a moment.");
+  let response: Response | null = null;
+  // Twice: a kept-alive connection the store closed meanwhile fails the first request without the store being down.
+  for (let attempt = 1; attempt <= 2 && !response; attempt++) {
+    try {
+      response = await fetch(url, { cache: "no-store" });
+    } catch (error) {
+      if (attempt === 2) {
+        console.warn("[ballast] the file store did not answer", error instanceof Error ? `${error.message} ${String((error as { cause?: unknown }).cause ?? "")}` : error);
+        throw new AppError("unavailable:file_store", "The file store is not answering. Nothing was changed; try again in a moment.");
+      }
+    }
   }
+  if (!response) throw new AppError("unavailable:file_store", "The file store is not answering. Nothing was changed; try again in a moment.");
   if (!response.ok) throw new AppError("unavailable:file_store", `The file store answered ${response.status} for this file. Nothing was changed; try again, or upload the file again.`);
   const bytes = new Uint8Array(await response.arrayBuffer());
   if (expectedSha256 && sha256(bytes) !== expectedSha256) {

@@ -4,7 +4,7 @@
  */
 import "server-only";
 import { route } from "@/lib/auth/route";
-import { cancelUpload, confirmUpload, updateUploadOptions, type UploadKind } from "@/lib/data/uploads";
+import { cancelUpload, requestConfirm, updateUploadOptions, type UploadKind } from "@/lib/data/uploads";
 import { idParam } from "@/lib/validation/firm";
 import { cancelUploadSchema, confirmUploadSchema, uploadOptionsSchema } from "@/lib/validation/uploads";
 import { getDb } from "@/db/client";
@@ -26,7 +26,7 @@ export function uploadActionRoutes(kind: UploadKind) {
   return {
     confirm: route({ permission: PERMISSION[kind], params, body: confirmUploadSchema }, async ({ actor, params, body }) => {
       await assertKind(actor, params.uploadId as string, kind);
-      return confirmUpload(actor, params.uploadId as string, body);
+      return requestConfirm(actor, params.uploadId as string, body);
     }),
     cancel: route({ permission: PERMISSION[kind], params, body: cancelUploadSchema }, async ({ actor, params }) => {
       await assertKind(actor, params.uploadId as string, kind);

@@ -9,13 +9,14 @@ export class DataPage {
     await expect(this.page.getByRole("heading", { name: "Data", exact: true })).toBeVisible();
   }
 
-  /** Upload a file through the upload service's real button and wait for the preview page. */
+  /** Upload a file through the upload service's real button and wait for the preview page (the worker has read it then). */
   async upload(kind: "positions" | "prices", file: { name: string; mimeType: string; buffer: Buffer }) {
     const area = this.page.getByTestId(`${kind}-upload-button`);
     await expect(area.locator("[data-state='ready']").first()).toBeVisible({ timeout: 20_000 });
     await area.locator("input[type=file]").setInputFiles(file);
     await this.page.waitForURL(/\/data\/uploads\/[0-9a-f-]{36}/, { timeout: 60_000 });
-    await expect(this.page.getByRole("heading", { name: "Problems" })).toBeVisible();
+    // the job worker reads and checks the file first; the problems appear when it has
+    await expect(this.page.getByRole("heading", { name: "Problems" })).toBeVisible({ timeout: 60_000 });
   }
 
   problems() {
@@ -26,6 +27,17 @@ export class DataPage {
     const acknowledge = this.page.getByLabel(/I have read the \d+ warnings?/);
     if (await acknowledge.count()) await acknowledge.check();
     await this.page.getByRole("button", { name: "Confirm", exact: true }).click();
-    await expect(this.page.getByTestId("preview-message")).toContainText("Confirmed");
+    // the job worker stores the rows; the message comes when it has
+    await expect(this.page.getByTestId("preview-message")).toContainText("Confirmed", { timeout: 60_000 });
+  }
+
+  confirmButton() {
+    return this.page.getByRole("button", { name: "Confirm", exact: true });
+  }
+
+  /** Cancel the upload from its preview: nothing from the file is stored. */
+  async cancel() {
+    await this.page.getByRole("button", { name: "Cancel upload" }).click();
+    await expect(this.page.getByTestId("preview-message")).toHaveText("Cancelled. Nothing from this file was stored.");
   }
 }

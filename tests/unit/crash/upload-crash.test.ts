@@ -55,18 +55,24 @@ describe("crash consistency", () => {
     await exited;
     expect(uploadId).not.toBe("");
 
-    // All or none: the upload is confirmed with every row, or still pending with none.
+    // All or none: the upload is confirmed with every row, or still pending and none of its rows count (rows an
+    // interrupted confirmation staged sit under an upload that is not confirmed, which no reader of the period reads).
     const officer = await actorFor("tomas.reyne@northmoor.example");
-    const upload = (await listUploads(officer)).find((u) => u.id === uploadId)!;
-    const { rows } = await db.$client.execute({ sql: "SELECT count(*) AS n FROM positions WHERE upload_id = ?", args: [uploadId] });
-    const stored = Number(rows[0].n);
-    if (upload.status === "confirmed") expect(stored).toBe(ROWS);
-    else {
+    const all = await listUploads(officer);
+    const upload = all.find((u) => u.id === uploadId)!;
+    const count = async () => Number((await db.$client.execute({ sql: "SELECT count(*) AS n FROM positions WHERE upload_id = ?", args: [uploadId] })).rows[0].n);
+    const periodUploads = all.filter((u) => u.kind === "positions" && u.periodId === upload.periodId && u.id !== uploadId);
+    if (upload.status === "confirmed") {
+      expect(await count()).toBe(ROWS);
+      expect(periodUploads.every((u) => u.status !== "confirmed")).toBe(true);
+    } else {
       expect(upload.status).toBe("pending");
-      expect(stored).toBe(0);
+      // the period still counts what it had: no upload of it was superseded by this one
+      expect(periodUploads.filter((u) => u.supersededBy === uploadId)).toHaveLength(0);
       // A person can carry on: confirming again works and stores everything once.
       const result = await confirmUpload(officer, uploadId, { acknowledgeWarnings: true });
       expect(result).toMatchObject({ status: "confirmed", stored: ROWS });
+      expect(await count()).toBe(ROWS);
     }
     await store.close();
     const integrity = await db.$client.execute("PRAGMA integrity_check");

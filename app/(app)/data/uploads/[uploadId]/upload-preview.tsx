@@ -1,6 +1,6 @@
 "use client";
 
-import { useMemo, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { describeAttributes } from "@/lib/uploads/attribute-words";
 import type { PositionAttributes } from "@/lib/uploads/position-attributes";
 import { useRouter } from "next/navigation";
@@ -39,6 +39,42 @@ interface Preview {
   missingColumns: string[];
   fields: { key: string; label: string; required: boolean }[];
   summary: Record<string, unknown> | null;
+  /** the worker's reading or confirming job, while the upload is "reading" or "confirming" */
+  job: { state: string; stage: string | null; progress: number | null; error: string | null } | null;
+}
+
+/** The states in which a worker is busy with the upload: the preview asks again every second. */
+const WORKING = new Set(["reading", "confirming"]);
+
+/** What a finished confirmation stored, in words. */
+function confirmedText(kind: "positions" | "prices", summary: Record<string, unknown> | null): string {
+  const done = (summary?.confirmed ?? summary ?? {}) as { stored?: number; added?: number; corrected?: number };
+  return kind === "positions" ? `Confirmed: ${done.stored ?? 0} positions stored in the period.` : `Confirmed: ${done.added ?? 0} new closes, ${done.corrected ?? 0} corrections.`;
+}
+
+/** The worker's progress on the upload: what it is doing, how far, and a failed attempt it is retrying. */
+function WorkProgress({ status, job, sizeBytes }: { status: string; job: Preview["job"]; sizeBytes: number }) {
+  const reading = status === "reading";
+  const title = reading ? "Reading and checking the file" : "Storing the rows";
+  const fraction = job?.progress ?? 0;
+  const stage = job?.state === "queued" ? (job.error ? "Waiting to try again" : "Waiting for a worker") : (job?.stage ?? "Starting");
+  return (
+    <section aria-labelledby="work-heading" className="rounded-lg border border-ink-line bg-paper-raised p-4" data-testid="upload-progress">
+      <h2 id="work-heading" className="font-semibold">
+        {title}
+      </h2>
+      <p className="mt-1 text-sm text-ink-soft">
+        {reading
+          ? `The file (${(sizeBytes / 1024).toFixed(1)} KB) is read and every row checked before anything is shown; nothing is stored in the period or the price history yet.`
+          : "The rows are stored first where nothing reads them; the last step makes them count, all at once. You can leave this page and come back."}
+      </p>
+      <progress className="mt-3 h-2 w-full accent-brass" max={1} value={fraction} aria-label={`${title}: ${Math.round(fraction * 100)} %`} />
+      <p role="status" className="mt-1 text-sm">
+        {stage} · {Math.round(fraction * 100)} %
+      </p>
+      {job?.error ? <p className="mt-1 text-sm text-alert">An attempt failed ({job.error}); it is tried again.</p> : null}
+    </section>
+  );
 }
 
 const COLUMN_LABELS: Record<string, string> = {
@@ -167,8 +203,39 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
   const [mapping, setMapping] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ tone: "ok" | "alert"; text: string } | null>(null);
 
-  const preview = useQuery({ queryKey: ["upload", uploadId], queryFn: () => apiFetch<Preview>(`/api/uploads/${uploadId}`) });
-  const pending = preview.data?.upload.status === "pending";
+  const preview = useQuery({
+    queryKey: ["upload", uploadId],
+    queryFn: () => apiFetch<Preview>(`/api/uploads/${uploadId}`),
+    refetchInterval: (query) => (WORKING.has(query.state.data?.upload.status ?? "") ? 1000 : false),
+  });
+  const status = preview.data?.upload.status;
+  const pending = status === "pending";
+  // Say what the worker finished while this page watched it (a reload shows the state itself).
+  const previous = useRef<string | undefined>(undefined);
+  useEffect(() => {
+    const data = preview.data;
+    if (!data) return;
+    const before = previous.current;
+    previous.current = data.upload.status;
+    if (data.upload.status === "duplicate") {
+      const earlier = (data.upload.summary as { duplicateOf?: string } | null)?.duplicateOf;
+      if (earlier) router.replace(`/data/uploads/${earlier}?duplicate=1`);
+      return;
+    }
+    if (before === "confirming" && data.upload.status === "confirmed") {
+      setMessage({ tone: "ok", text: confirmedText(data.upload.kind, data.upload.summary) });
+      router.refresh();
+    }
+    if (before === "confirming" && data.upload.status === "pending") {
+      const why = (data.upload.summary as { confirmError?: string } | null)?.confirmError;
+      setMessage({ tone: "alert", text: why ?? "Confirming did not finish; nothing of the file counts yet. Confirm again." });
+    }
+    if (before === "reading" && data.upload.status === "pending") {
+      setMessage((m) => (m?.text.startsWith("Reading the file again") ? { tone: "ok", text: "Re-read with the new settings." } : m));
+      setPage(1);
+      void queryClient.invalidateQueries({ queryKey: ["upload-rows", uploadId] });
+    }
+  }, [preview.data, router, queryClient, uploadId]);
   const rows = useQuery({
     queryKey: ["upload-rows", uploadId, page],
     queryFn: () => apiFetch<{ total: number; rows: Record<string, unknown>[] }>(`/api/uploads/${uploadId}/rows?page=${page}&pageSize=25`),
@@ -180,9 +247,9 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
   const act = useMutation({
     mutationFn: (input: { path: string; method: string; body: unknown }) => apiFetch<Record<string, unknown>>(`/api/uploads/${kind}/${uploadId}/${input.path}`, { method: input.method, body: input.body }),
     onSuccess: (data, input) => {
-      if (input.path === "confirm") setMessage({ tone: "ok", text: kind === "positions" ? `Confirmed: ${data.stored} positions stored in the period.` : `Confirmed: ${data.added} new closes, ${data.corrected} corrections.` });
+      if (input.path === "confirm") setMessage(data.status === "confirmed" ? { tone: "ok", text: confirmedText(kind, data) } : null);
       if (input.path === "cancel") setMessage({ tone: "ok", text: "Cancelled. Nothing from this file was stored." });
-      if (input.path === "options") setMessage({ tone: "ok", text: "Re-read with the new settings." });
+      if (input.path === "options") setMessage({ tone: "ok", text: "Reading the file again with the new settings." });
       setPage(1);
       void queryClient.invalidateQueries({ queryKey: ["upload", uploadId] });
       void queryClient.invalidateQueries({ queryKey: ["upload-rows", uploadId] });
@@ -227,6 +294,27 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
       ) : null}
 
       <div className="flex flex-col gap-6">
+        {WORKING.has(upload.status) ? <WorkProgress status={upload.status} job={preview.data.job} sizeBytes={upload.sizeBytes} /> : null}
+        {upload.status === "failed" ? (
+          <section aria-labelledby="failed-heading" className="rounded-lg border border-alert/30 bg-alert-bg p-4 text-alert">
+            <h2 id="failed-heading" className="font-semibold">
+              This file could not be read
+            </h2>
+            <p className="mt-1 text-sm">{String((summary as { rejected?: string } | null)?.rejected ?? "The reading stopped.")} Nothing was stored.</p>
+            {canConfirm ? (
+              <div className="mt-3 flex gap-2">
+                <button type="button" className={secondaryButtonClass} disabled={act.isPending} onClick={() => act.mutate({ path: "options", method: "PUT", body: upload.options ?? { numberFormat: "plain" } })}>
+                  Read it again
+                </button>
+                <button type="button" className={secondaryButtonClass} disabled={act.isPending} onClick={() => act.mutate({ path: "cancel", method: "POST", body: {} })}>
+                  Cancel upload
+                </button>
+              </div>
+            ) : null}
+          </section>
+        ) : null}
+        {upload.status === "reading" || upload.status === "failed" || upload.status === "duplicate" ? null : (
+          <>
         <Totals summary={summary} kind={upload.kind} reportingCurrency={preview.data.reportingCurrency} />
 
         <section aria-labelledby="problems-heading">
@@ -424,6 +512,8 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
             </div>
           </section>
         ) : null}
+          </>
+        )}
       </div>
     </>
   );
