@@ -4,6 +4,7 @@ import { readFileSync } from "node:fs";
 import JSZip from "jszip";
 import XlsxPopulate from "xlsx-populate";
 import { DataPage } from "./pages/data";
+import { FilingPage } from "./pages/filing";
 import { bookDatedTo, DEMO_PASSWORD, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
 
 /**
@@ -50,7 +51,7 @@ async function asPerson(browser: Browser, email: string): Promise<Page> {
   return page;
 }
 
-const status = (page: Page) => page.getByTestId("filing-status").first();
+const status = (page: Page) => new FilingPage(page).status();
 
 test.describe.configure({ mode: "serial", timeout: 120_000 });
 
@@ -120,8 +121,7 @@ test("the compliance officer assembles the draft, explains an exception and subm
   await expect(page.getByTestId("stressed-table")).toContainText("Stressed VaR, 1 day (GBP)");
   await expect(page.getByTestId("sign-off-table")).toContainText("Filled in when the filing is signed");
 
-  await page.getByLabel("Cover note").fill("October 2026: the first month on Ballast. The principal book is unchanged in kind from September.");
-  await page.getByRole("button", { name: "Save cover note" }).click();
+  await new FilingPage(page).saveCoverNote("October 2026: the first month on Ballast. The principal book is unchanged in kind from September.");
   await expect(page.getByTestId("section-cover")).toContainText("the first month on Ballast");
 
   const firstException = page.locator("[id^=explanation-]").first();
@@ -159,31 +159,17 @@ test("the compliance head comments on a section and requests a change", async ({
   await capital.getByRole("button", { name: "Add comment" }).click();
   await expect(capital).toContainText("Say in a sentence why the plus factor is what it is.");
 
-  await page.getByText("Request changes…").click();
-  await page.getByLabel("About", { exact: true }).selectOption("backtest");
-  await page.getByLabel("What needs to change").fill("Explain every exception, not only the first.");
-  await page.getByRole("button", { name: "Request changes", exact: true }).click();
-  await expect(status(page)).toHaveText(/Changes requested/);
-  await expect(page.getByTestId("comments-backtest")).toContainText("Explain every exception, not only the first.");
+  await new FilingPage(page).requestChanges("backtest", "Explain every exception, not only the first.");
 });
 
 test("the officer answers, completes the explanations and resubmits", async ({ page }) => {
   await signInThroughPage(page, OFFICER.email);
   await page.goto(filingUrl);
-  await expect(status(page)).toHaveText(/Changes requested/);
-  const explanations = page.locator("[id^=explanation-]");
-  for (let i = 0; i < (await explanations.count()); i++) {
-    if (!(await explanations.nth(i).inputValue())) await explanations.nth(i).fill(`Exception ${i + 1}: a market move outside the book's usual range; reviewed, no change to the method.`);
-  }
-  if (await explanations.count()) {
-    await page.getByRole("button", { name: "Save explanations" }).click();
-    await expect(page.getByText("Saved.")).toBeVisible();
-  }
-  const backtest = page.getByTestId("comments-backtest");
-  await backtest.getByRole("button", { name: /Answer on backtest/i }).click();
-  await backtest.getByLabel(/Answer on Backtest/).fill("Every exception now has an explanation.");
-  await backtest.getByRole("button", { name: "Add answer" }).click();
-  await expect(backtest).toContainText("Every exception now has an explanation.");
+  const filing = new FilingPage(page);
+  await expect(filing.status()).toHaveText(/Changes requested/);
+  const { count } = await filing.fillEmptyExplanations((i) => `Exception ${i + 1}: a market move outside the book's usual range; reviewed, no change to the method.`);
+  if (count) await filing.saveExplanations();
+  await filing.answerOn("backtest", "Backtest", "Every exception now has an explanation.");
 
   await page.getByLabel("Your answer to the review (optional)").fill("Done as asked.");
   await page.getByRole("button", { name: "Resubmit for review" }).click();
@@ -211,19 +197,15 @@ test("four eyes: the officer, given the compliance head role, is told why she ca
 test("the head's wrong password is refused; he then signs with the attestation and the hash verifies", async ({ page }) => {
   await signInThroughPage(page, HEAD.email);
   await page.goto(filingUrl);
-  await page.getByRole("button", { name: "Sign version 1" }).click();
-  const dialog = page.getByRole("dialog", { name: "Sign version 1 of the filing" });
+  const filing = new FilingPage(page);
+  const dialog = await filing.openSignDialog(1);
   await expect(dialog).toContainText("By signing, the compliance head confirms");
-  await dialog.getByRole("checkbox").check();
-  await dialog.getByLabel("Your full name").fill(HEAD.name);
-  await dialog.getByLabel("Registration no.").fill("CA-CH-0391");
-  await dialog.getByLabel("Your password, entered again").fill("not-my-password");
-  await dialog.getByRole("button", { name: "Sign", exact: true }).click();
+  await filing.attest(1, { name: HEAD.name, reference: "CA-CH-0391" });
+  await filing.signWith(1, "not-my-password");
   await expect(dialog).toContainText("The password is not correct.");
   await expect(status(page)).toHaveText(/In review/);
 
-  await dialog.getByLabel("Your password, entered again").fill(DEMO_PASSWORD);
-  await dialog.getByRole("button", { name: "Sign", exact: true }).click();
+  await filing.signWith(1, DEMO_PASSWORD);
   await expect(dialog).toBeHidden();
   await expect(status(page)).toHaveText(/Signed/);
   // nothing on the signed filing is headed "Draft" beside its "Signed" state
@@ -231,10 +213,7 @@ test("the head's wrong password is refused; he then signs with the attestation a
   await expect(page.getByText(/^Draft( ·)?$/)).toHaveCount(0);
   await expect(page.getByRole("heading", { name: /^Draft\b/ })).toHaveCount(0);
   await expect(page.getByRole("article")).toHaveAttribute("aria-label", "Filing, version 1 (signed)");
-  const hash = (await page.getByTestId("signed-hash").textContent())!;
-  expect(hash).toMatch(/^[0-9a-f]{64}$/);
-  await page.getByRole("button", { name: "Verify signature" }).click();
-  await expect(page.getByTestId("verify-result")).toContainText("Matches");
+  const hash = await filing.verifySignature();
   await expect(page.getByTestId("verify-result")).toContainText(hash);
   await page.screenshot({ path: `${SCREENS}/filing-signed.png`, fullPage: true });
 });
@@ -291,30 +270,24 @@ test("a change after signing makes version 2; version 1's signature stays, super
   await expect(v1.getByTestId("superseded-signature")).toContainText("Signed by Rafe Pellam");
   await expect(v1.getByTestId("superseded-signature")).toContainText("The cover note must say that September was filed outside Ballast.");
   await expect(officer.getByTestId("section-changes")).toContainText("Version 2 replaces version 1.");
-  await officer.getByLabel("Cover note").fill("October 2026: the first month on Ballast; September was filed outside it.");
-  await officer.getByRole("button", { name: "Save cover note" }).click();
+  await new FilingPage(officer).saveCoverNote("October 2026: the first month on Ballast; September was filed outside it.");
   await expect(officer.getByTestId("section-cover")).toContainText("September was filed outside it");
   await officer.getByRole("button", { name: "Submit for review" }).click();
   await expect(status(officer)).toHaveText(/In review/);
 
   const head = await asPerson(browser, HEAD.email);
-  await head.getByRole("button", { name: "Sign version 2" }).click();
-  const dialog = head.getByRole("dialog", { name: "Sign version 2 of the filing" });
-  await dialog.getByRole("checkbox").check();
-  await dialog.getByLabel("Your full name").fill(HEAD.name);
+  const headFiling = new FilingPage(head);
+  const dialog = await headFiling.openSignDialog(2);
+  await headFiling.attest(2, { name: HEAD.name });
   await expect(dialog.getByLabel("Registration no.")).toHaveValue("CA-CH-0391");
-  await dialog.getByLabel("Your password, entered again").fill(DEMO_PASSWORD);
-  await dialog.getByRole("button", { name: "Sign", exact: true }).click();
+  await headFiling.signWith(2, DEMO_PASSWORD);
   await expect(status(head)).toHaveText(/Signed/);
   await expect(head.getByTestId("version-1").getByTestId("superseded-signature")).toBeVisible();
   await expect(head.getByTestId("version-2").getByTestId("signature")).toContainText("Signed by Rafe Pellam");
   await head.close();
 
   await officer.reload();
-  await officer.getByLabel("Regulator's reference").fill("CA/2026/10/0117");
-  await officer.getByRole("button", { name: "Record as filed" }).click();
-  await expect(status(officer)).toHaveText(/Filed/);
-  await expect(officer.getByTestId("filed-line")).toContainText("CA/2026/10/0117");
+  await new FilingPage(officer).recordFiled("CA/2026/10/0117");
   await officer.screenshot({ path: `${SCREENS}/filing-filed.png`, fullPage: true });
   await officer.close();
 

@@ -51,10 +51,9 @@ test.describe.serial("inputs and stale runs", () => {
     await expect(problems).toContainText("it looks like a value in USD: add a market_value_currency column");
     await expect(problems).not.toContainText("is not a date");
     await expect(problems).not.toContainText("is not an asset class");
-    await expect(page.getByRole("button", { name: "Confirm", exact: true })).toBeDisabled();
+    await expect(data.confirmButton()).toBeDisabled();
     await page.screenshot({ path: `${SCREENS}/upload-sek-refused.png`, fullPage: true });
-    await page.getByRole("button", { name: "Cancel upload" }).click();
-    await expect(page.getByTestId("preview-message")).toHaveText("Cancelled. Nothing from this file was stored.");
+    await data.cancel();
   });
 
   test("restated positions make the period's runs stale: badge, notice, step, the draft's notice, and the filing choice refused", async ({ page }) => {

@@ -1,5 +1,6 @@
 import { test, expect } from "@playwright/test";
 import { DEMO_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { MethodPage } from "./pages/method";
 
 const ANALYST = DEMO_USERS.find((u) => u.email === "priya.castell@northmoor.example")!.email;
 const OFFICER = DEMO_USERS.find((u) => u.email === "tomas.reyne@northmoor.example")!.email;
@@ -14,9 +15,9 @@ test.describe("method statement", () => {
   test("the risk analyst reads the approved version, starts a new one, is refused λ = 1.2, fixes it, attaches evidence and approves; the compliance head co-approves", async ({ page, browser }) => {
     test.setTimeout(150_000); // two people's sessions in one test on a shared machine
     await signInThroughPage(page, ANALYST);
-    await page.getByRole("navigation", { name: "Month end" }).getByRole("link", { name: "Method" }).click();
-    await expect(page.getByRole("heading", { name: "Method statement", level: 1 })).toBeVisible();
-    await expect(page.getByRole("heading", { name: "Approved version 1" })).toBeVisible();
+    const method = new MethodPage(page);
+    await method.open();
+    await expect(method.approvedHeading(1)).toBeVisible();
     await expect(page.getByRole("cell", { name: /GARCH\(1,1\), Student-t errors, zero mean, falls back to EWMA/ })).toBeVisible();
     await expect(page.getByText("99 %, 97.5 %")).toBeVisible();
     await expect(page.getByTestId("evidence-summary")).toContainText("prices up to 15 Sep 2026"); // the demo approved version 1 in mid-September (db/seed.ts)
@@ -24,16 +25,12 @@ test.describe("method statement", () => {
     await expect(page.getByTestId("version-1").getByText("Approved")).toBeVisible();
     await page.screenshot({ path: "test-results/screens/method-page.png", fullPage: true });
 
-    await page.getByRole("button", { name: "Start a new version" }).click();
-    await page.getByLabel("Why does version 1 need to change?").fill("Slower EWMA decay after the quarterly review.");
-    await page.getByRole("button", { name: "Start the draft" }).click();
-    await expect(page).toHaveURL(/\/method\/[0-9a-f-]{36}$/);
+    await method.startNewVersion(1, "Slower EWMA decay after the quarterly review.");
     draftId = page.url().split("/").pop()!;
-    await expect(page.getByRole("heading", { name: "Method statement · draft version 2" })).toBeVisible();
 
-    const defaults = page.getByRole("group", { name: "Firm-wide default" });
+    const defaults = method.defaults();
     await defaults.getByLabel("λ value").fill("1.2");
-    await page.getByRole("button", { name: "Save draft" }).click();
+    await method.saveDraft();
     await expect(defaults.getByText("λ must be below 1.")).toBeVisible();
     await expect(defaults.getByLabel("λ value")).toHaveAttribute("aria-invalid", "true");
     await page.screenshot({ path: "test-results/screens/method-draft-error.png", fullPage: true });
@@ -50,45 +47,42 @@ test.describe("method statement", () => {
     await api.dispose();
 
     await defaults.getByLabel("λ value").fill("0.97");
-    await page.getByRole("button", { name: "Save draft" }).click();
-    await expect(page.getByRole("status").filter({ hasText: "Draft saved." })).toBeVisible();
+    await method.saveDraft();
+    await expect(method.savedNotice()).toBeVisible();
     await expect(defaults.getByText("λ must be below 1.")).toHaveCount(0);
 
-    await expect(page.getByRole("button", { name: "Approve version 2…" })).toBeDisabled();
-    await page.getByRole("button", { name: "Attach evidence" }).click();
+    await expect(method.approveButton(2)).toBeDisabled();
     // computed at the real time of the act (the business day is pinned to 2026-12-01, the stamp is not)
-    // evidence is a real computation over the firm's history ("Computing…" meanwhile): a limit for a busy machine
-    await expect(page.getByTestId("evidence-summary")).toContainText(/Computed \d{4}-\d{2}-\d{2}/, { timeout: 60_000 });
+    await method.attachEvidence();
     await expect(page.getByRole("button", { name: "Recompute evidence" })).toBeEnabled();
     await expect(page.getByText(/Government bonds: QLIKE of each estimator above the best/)).toBeVisible();
     await page.screenshot({ path: "test-results/screens/method-draft-evidence.png", fullPage: true });
 
     // approving asks for confirmation; the firm needs a second person, so the draft then waits for them
-    await page.getByRole("button", { name: "Approve version 2…" }).click();
-    const confirm = page.getByRole("group", { name: /Approve version 2\? A compliance head then co-approves/ });
-    await expect(confirm).toBeVisible();
-    await confirm.getByLabel("Note for the audit trail (optional)").fill("Checked the bond evidence.");
-    await page.screenshot({ path: "test-results/screens/method-approve-confirm.png", fullPage: true });
-    await confirm.getByRole("button", { name: "Yes, approve" }).click();
+    await method.approve(2, {
+      note: "Checked the bond evidence.",
+      beforeConfirm: async () => {
+        await page.screenshot({ path: "test-results/screens/method-approve-confirm.png", fullPage: true });
+      },
+    });
     await expect(page.getByText("Approved by Priya Castell; waiting for a compliance head to co-approve.")).toBeVisible();
     await expect(page.getByRole("button", { name: /^Co-approve/ })).toHaveCount(0);
 
     const headPage = await browser.newPage();
     await signInThroughPage(headPage, HEAD);
     await headPage.goto(page.url());
-    await headPage.getByRole("button", { name: "Co-approve version 2…" }).click();
-    const coConfirm = headPage.getByRole("group", { name: "Co-approve version 2, approved by Priya Castell?" });
-    await expect(coConfirm).toBeVisible();
-    await headPage.screenshot({ path: "test-results/screens/method-co-approve-confirm.png", fullPage: true });
-    await coConfirm.getByRole("button", { name: "Yes, co-approve" }).click();
-    await expect(headPage.getByRole("heading", { name: "Method statement · version 2" })).toBeVisible();
+    await new MethodPage(headPage).coApprove(2, "Priya Castell", {
+      beforeConfirm: async () => {
+        await headPage.screenshot({ path: "test-results/screens/method-co-approve-confirm.png", fullPage: true });
+      },
+    });
     await headPage.close();
 
     await page.reload();
-    await expect(page.getByRole("heading", { name: "Method statement · version 2" })).toBeVisible();
+    await expect(method.versionHeading(2)).toBeVisible();
     await expect(page.getByRole("button", { name: "Save draft" })).toHaveCount(0);
     await page.goto("/method");
-    await expect(page.getByRole("heading", { name: "Approved version 2" })).toBeVisible();
+    await expect(method.approvedHeading(2)).toBeVisible();
     await expect(page.getByTestId("version-1").getByText("Superseded")).toBeVisible();
     await expect(page.getByText("EWMA, λ 0.97 (fixed)")).toBeVisible();
   });
@@ -113,10 +107,11 @@ test.describe("method statement", () => {
     test(`the ${who} reads the method statement but cannot change it`, async ({ page }) => {
       await signInThroughPage(page, email);
       await page.goto("/method");
-      await expect(page.getByRole("heading", { name: "Approved version 2" })).toBeVisible();
+      const method = new MethodPage(page);
+      await expect(method.approvedHeading(2)).toBeVisible();
       await expect(page.getByRole("button", { name: "Start a new version" })).toHaveCount(0);
       await page.getByTestId("version-2").getByRole("link", { name: "Version 2" }).click();
-      await expect(page.getByRole("heading", { name: "Method statement · version 2" })).toBeVisible();
+      await expect(method.versionHeading(2)).toBeVisible();
       await expect(page.getByRole("textbox")).toHaveCount(0);
       await expect(page.getByRole("button", { name: /Save|Approve|Discard|evidence/ })).toHaveCount(0);
       if (who === "auditor") await page.screenshot({ path: "test-results/screens/method-read-only.png", fullPage: true });

@@ -77,10 +77,9 @@ test.describe("standardised capital", () => {
     await expect(problem.getByRole("cell").first()).toHaveText("3");
     await expect(problem).toContainText("column residual_maturity_years: a bond needs a residual maturity (residual_maturity_years or maturity_date)");
     await expect(problem).toContainText("the firm files the standardised capital figure");
-    await expect(page.getByRole("button", { name: "Confirm", exact: true })).toBeDisabled();
+    await expect(data.confirmButton()).toBeDisabled();
     await page.screenshot({ path: `${SCREENS}/capital-positions-refused.png`, fullPage: true });
-    await page.getByRole("button", { name: "Cancel upload" }).click();
-    await expect(page.getByTestId("preview-message")).toHaveText("Cancelled. Nothing from this file was stored.");
+    await data.cancel();
   });
 
   test("the November run's Capital tab shows every building block line by line beside the VaR-based figure", async ({ page }) => {

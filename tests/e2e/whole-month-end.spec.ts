@@ -5,6 +5,9 @@ import XlsxPopulate from "xlsx-populate";
 import { E2E_ENV } from "../../playwright.config";
 import { DataPage } from "./pages/data";
 import { MailPage } from "./pages/calendar";
+import { FilingPage } from "./pages/filing";
+import { MethodPage } from "./pages/method";
+import { RunPage } from "./pages/runs";
 import { DEMO_PASSWORD, DEMO_USERS, signInThroughPage, signedInApi } from "./helpers";
 
 /**
@@ -34,7 +37,7 @@ const FILING_REFERENCE = "FMA/2026/11/0042";
 
 const csv = (name: string, text: string) => ({ name, mimeType: "text/csv", buffer: Buffer.from(text) });
 const demoFile = (name: string) => readFileSync(`templates/demo/${name}`, "utf8");
-const status = (page: Page) => page.getByTestId("filing-status").first();
+const status = (page: Page) => new FilingPage(page).status();
 
 let shot = 0;
 async function screen(page: Page, step: string) {
@@ -86,10 +89,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     const problems = data.problems();
     await expect(problems).toContainText('currency "EUX" is not an ISO 4217 currency code');
     await expect(problems).toContainText('quantity "12O0" is not a number');
-    await expect(page.getByRole("button", { name: "Confirm", exact: true })).toBeDisabled();
+    await expect(data.confirmButton()).toBeDisabled();
     await screen(page, "positions-bad-file");
-    await page.getByRole("button", { name: "Cancel upload" }).click();
-    await expect(page.getByTestId("preview-message")).toHaveText("Cancelled. Nothing from this file was stored.");
+    await data.cancel();
     await page.close();
   });
 
@@ -134,40 +136,30 @@ test("the whole month end of Northmoor's November 2026, person by person", async
 
   await test.step("the risk analyst starts a new method statement version, attaches evidence and approves it; the compliance head co-approves", async () => {
     const page = await asPerson(browser, ANALYST.email);
-    await page.getByRole("navigation", { name: "Month end" }).getByRole("link", { name: "Method" }).click();
-    await expect(page.getByRole("heading", { name: "Method statement", level: 1 })).toBeVisible();
-    const approvedHeading = page.getByRole("heading", { name: /^Approved version \d+$/ });
+    const method = new MethodPage(page);
+    await method.open();
+    const approvedHeading = method.approvedHeading();
     await expect(approvedHeading).toBeVisible();
     const current = Number((await approvedHeading.textContent())!.match(/\d+/)![0]);
     const next = current + 1;
 
-    await page.getByRole("button", { name: "Start a new version" }).click();
-    await page.getByLabel(`Why does version ${current} need to change?`).fill("November month end: a slightly faster EWMA decay after the review of the backtest.");
-    await page.getByRole("button", { name: "Start the draft" }).click();
-    await expect(page).toHaveURL(/\/method\/[0-9a-f-]{36}$/);
-    await expect(page.getByRole("heading", { name: `Method statement · draft version ${next}` })).toBeVisible();
-    const defaults = page.getByRole("group", { name: "Firm-wide default" });
-    await defaults.getByLabel("λ value").fill("0.96");
-    await page.getByRole("button", { name: "Save draft" }).click();
-    await expect(page.getByRole("status").filter({ hasText: "Draft saved." })).toBeVisible();
+    await method.startNewVersion(current, "November month end: a slightly faster EWMA decay after the review of the backtest.");
+    await method.defaults().getByLabel("λ value").fill("0.96");
+    await method.saveDraft();
+    await expect(method.savedNotice()).toBeVisible();
 
-    await expect(page.getByRole("button", { name: `Approve version ${next}…` })).toBeDisabled();
-    await page.getByRole("button", { name: "Attach evidence" }).click();
-    // evidence is a real computation over the firm's history ("Computing…" meanwhile): a limit for a busy machine
-    await expect(page.getByTestId("evidence-summary")).toContainText(/Computed \d{4}-\d{2}-\d{2}/, { timeout: 60_000 });
+    await expect(method.approveButton(next)).toBeDisabled();
+    await method.attachEvidence();
     await screen(page, "method-draft-evidence");
-    await page.getByRole("button", { name: `Approve version ${next}…` }).click();
-    await page.getByRole("button", { name: "Yes, approve" }).click();
+    await method.approve(next);
     await expect(page.getByText("Approved by Priya Castell; waiting for a compliance head to co-approve.")).toBeVisible();
     const draftUrl = page.url();
     const head = await asPerson(browser, HEAD.email);
     await head.goto(draftUrl);
-    await head.getByRole("button", { name: `Co-approve version ${next}…` }).click();
-    await head.getByRole("button", { name: "Yes, co-approve" }).click();
-    await expect(head.getByRole("heading", { name: `Method statement · version ${next}` })).toBeVisible();
+    await new MethodPage(head).coApprove(next, ANALYST.name);
     await head.close();
     await page.goto("/method");
-    await expect(page.getByRole("heading", { name: `Approved version ${next}` })).toBeVisible();
+    await expect(method.approvedHeading(next)).toBeVisible();
     await expect(page.getByText("EWMA, λ 0.96 (fixed)")).toBeVisible();
     await screen(page, "method-approved");
     await page.close();
@@ -175,27 +167,14 @@ test("the whole month end of Northmoor's November 2026, person by person", async
 
   await test.step("the risk analyst starts a run and follows it to completion", async () => {
     const page = await asPerson(browser, ANALYST.email);
-    await page.getByRole("navigation", { name: "Month end" }).getByRole("link", { name: "Runs" }).click();
-    await expect(page.getByRole("heading", { name: "Runs", level: 1 })).toBeVisible();
-    await page.getByRole("link", { name: "November 2026" }).click();
-    await expect(page).toHaveURL(new RegExp(`/periods/${periodId}/runs$`));
-    await expect(page.getByRole("heading", { name: "Runs: November 2026" })).toBeVisible();
-    const rows = page.getByTestId("run-row");
+    const runs = new RunPage(page);
+    await runs.openPeriod(periodId, "November 2026");
+    const rows = runs.rows();
     await expect(rows.first()).toBeVisible();
     const before = await rows.count();
 
-    await page.getByRole("button", { name: "Start run" }).click();
     // Factors short of history are named first; the run then starts without them (as runs.spec does).
-    const refusal = page.getByTestId("run-refusal");
-    // a refusal naming the short factors, or the new run's own page (starting a run opens it)
-    const runPage = /\/runs\/[0-9a-f-]{36}$/;
-    await expect.poll(async () => runPage.test(page.url()) || (await refusal.isVisible())).toBe(true);
-    if (!runPage.test(page.url())) {
-      await expect(refusal).toContainText("no price history up to the period end");
-      await screen(page, "run-refused-short-history");
-      await page.getByRole("button", { name: "Start without these factors" }).click();
-    }
-    await expect(page).toHaveURL(runPage);
+    await runs.start(() => screen(page, "run-refused-short-history"));
     await screen(page, "run-progress");
     await page.goto(`/periods/${periodId}/runs`);
     await expect(rows).toHaveCount(before + 1);
@@ -211,7 +190,8 @@ test("the whole month end of Northmoor's November 2026, person by person", async
 
   await test.step("the risk analyst reads the results and chooses the run for the filing", async () => {
     const page = await asPerson(browser, ANALYST.email);
-    await page.goto(`/periods/${periodId}/runs/${runId}`);
+    const run = new RunPage(page);
+    await run.open(periodId, runId);
     await expect(page.getByTestId("var-table")).toBeVisible();
     await expect(page.getByRole("note").filter({ hasText: "Draft computed under the stated method" })).toBeVisible();
     await expect(page.getByTestId("capital-total")).toContainText("€");
@@ -219,24 +199,22 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await expect(page.getByTestId("method-version")).toContainText(/Version \d+/);
     await screen(page, "run-summary");
 
-    const tabs = page.getByRole("navigation", { name: "Run pages" });
-    await tabs.getByRole("link", { name: "Contributions", exact: true }).click();
+    await run.tab("Contributions");
     await expect(page.getByText("Component VaR by asset class, one day, 99 %")).toBeVisible();
     await screen(page, "run-contributions");
-    await tabs.getByRole("link", { name: "Backtest", exact: true }).click();
+    await run.tab("Backtest");
     await expect(page.getByTestId("backtest-tests")).toContainText("Kupiec test");
     await screen(page, "run-backtest");
 
-    await page.goto(`/periods/${periodId}/runs/${runId}`);
-    await page.getByRole("button", { name: "Use for the filing" }).click();
-    await expect(page.getByText("Used for the filing").first()).toBeVisible();
-    await expect(page.getByRole("button", { name: "Use for the filing" })).toHaveCount(0);
+    await run.open(periodId, runId);
+    await run.useForFiling();
     await page.close();
   });
 
   await test.step("the compliance officer assembles the draft from the chosen run and submits it", async () => {
     const page = await asPerson(browser, OFFICER.email);
-    await page.goto(`/periods/${periodId}/filing`);
+    const filing = new FilingPage(page);
+    await filing.open(periodId);
     // No filing yet: assemble it. A draft left by an earlier spec (from another run): rebuild it from the marked run.
     const assemble = page.getByRole("button", { name: "Assemble the draft filing" });
     const rebuild = page.getByRole("button", { name: "Rebuild from the marked run" });
@@ -246,8 +224,8 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await expect(status(page)).toHaveText(/Draft|Changes requested/);
     await expect(rebuild).toHaveCount(0);
     const api = await signedInApi(OFFICER.email);
-    const filing = (await (await api.get(`/api/periods/${periodId}/filing`)).json()).current as { runId: string };
-    expect(filing.runId).toBe(runId);
+    const current = (await (await api.get(`/api/periods/${periodId}/filing`)).json()).current as { runId: string };
+    expect(current.runId).toBe(runId);
     await api.dispose();
     await expect(page.getByRole("note").first()).toContainText("Draft computed under the stated method");
     for (const section of ["cover", "regulatory-capital", "capital", "var-es", "backtest", "method", "sign-off"]) await expect(page.getByTestId(`section-${section}`)).toBeVisible();
@@ -255,8 +233,7 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await expect(page.getByTestId("section-regulatory-capital")).toContainText("The capital figure filed for this period is the standardised 1996 building blocks figure");
     await expect(page.getByTestId("section-regulatory-capital")).toContainText("for comparison and not filed: the internal models (value-at-risk based) figure");
 
-    await page.getByLabel("Cover note").fill("November 2026: the book as confirmed on 1 December; the method statement was updated this month.");
-    await page.getByRole("button", { name: "Save cover note" }).click();
+    await filing.saveCoverNote("November 2026: the book as confirmed on 1 December; the method statement was updated this month.");
     await expect(page.getByTestId("section-cover")).toContainText("the method statement was updated this month");
     const firstException = page.locator("[id^=explanation-]").first();
     if ((await firstException.count()) && !(await firstException.inputValue())) {
@@ -274,40 +251,23 @@ test("the whole month end of Northmoor's November 2026, person by person", async
 
   await test.step("the compliance head requests a change", async () => {
     const page = await asPerson(browser, HEAD.email);
-    await page.goto(`/periods/${periodId}/filing`);
-    await expect(status(page)).toHaveText(/In review/);
+    const filing = new FilingPage(page);
+    await filing.open(periodId);
+    await expect(filing.status()).toHaveText(/In review/);
     await screen(page, "filing-in-review");
-    await page.getByText("Request changes…").click();
-    await page.getByLabel("About", { exact: true }).selectOption("backtest");
-    await page.getByLabel("What needs to change").fill("Explain every backtest exception, not only the first.");
-    await page.getByRole("button", { name: "Request changes", exact: true }).click();
-    await expect(status(page)).toHaveText(/Changes requested/);
-    await expect(page.getByTestId("comments-backtest")).toContainText("Explain every backtest exception, not only the first.");
+    await filing.requestChanges("backtest", "Explain every backtest exception, not only the first.");
     await screen(page, "filing-changes-requested");
     await page.close();
   });
 
   await test.step("the compliance officer answers and resubmits", async () => {
     const page = await asPerson(browser, OFFICER.email);
-    await page.goto(`/periods/${periodId}/filing`);
-    await expect(status(page)).toHaveText(/Changes requested/);
-    const explanations = page.locator("[id^=explanation-]");
-    let filled = 0;
-    for (let i = 0; i < (await explanations.count()); i++) {
-      if (!(await explanations.nth(i).inputValue())) {
-        await explanations.nth(i).fill(`Exception ${i + 1}: a market move outside the book's usual range; reviewed, no change to the method.`);
-        filled += 1;
-      }
-    }
-    if (filled) {
-      await page.getByRole("button", { name: "Save explanations" }).click();
-      await expect(page.getByText("Saved.")).toBeVisible();
-    }
-    const backtest = page.getByTestId("comments-backtest");
-    await backtest.getByRole("button", { name: /Answer on backtest/i }).click();
-    await backtest.getByLabel(/Answer on Backtest/).fill("Every exception now has an explanation.");
-    await backtest.getByRole("button", { name: "Add answer" }).click();
-    await expect(backtest).toContainText("Every exception now has an explanation.");
+    const filing = new FilingPage(page);
+    await filing.open(periodId);
+    await expect(filing.status()).toHaveText(/Changes requested/);
+    const { filled } = await filing.fillEmptyExplanations((i) => `Exception ${i + 1}: a market move outside the book's usual range; reviewed, no change to the method.`);
+    if (filled) await filing.saveExplanations();
+    await filing.answerOn("backtest", "Backtest", "Every exception now has an explanation.");
     await page.getByLabel("Your answer to the review (optional)").fill("Done as asked.");
     await screen(page, "filing-answered");
     await page.getByRole("button", { name: "Resubmit for review" }).click();
@@ -317,30 +277,23 @@ test("the whole month end of Northmoor's November 2026, person by person", async
 
   await test.step("the compliance head's wrong password is refused; she then signs with the attestation", async () => {
     const page = await asPerson(browser, HEAD.email);
-    await page.goto(`/periods/${periodId}/filing`);
-    await expect(status(page)).toHaveText(/In review/);
+    const filing = new FilingPage(page);
+    await filing.open(periodId);
+    await expect(filing.status()).toHaveText(/In review/);
     await expect(page.getByTestId("four-eyes-note")).toHaveCount(0);
     const version = (await page.getByTestId("filing-version").textContent())!.trim();
-    await page.getByRole("button", { name: `Sign version ${version}` }).click();
-    const dialog = page.getByRole("dialog", { name: `Sign version ${version} of the filing` });
+    const dialog = await filing.openSignDialog(version);
     await expect(dialog).toContainText("By signing, the compliance head confirms");
-    await dialog.getByRole("checkbox").check();
-    await dialog.getByLabel("Your full name").fill(HEAD.name);
-    await dialog.getByLabel("Registration no.").fill("FMA-CH-2207");
-    await dialog.getByLabel("Your password, entered again").fill("not-my-password");
-    await dialog.getByRole("button", { name: "Sign", exact: true }).click();
+    await filing.attest(version, { name: HEAD.name, reference: "FMA-CH-2207" });
+    await filing.signWith(version, "not-my-password");
     await expect(dialog).toContainText("The password is not correct.");
-    await expect(status(page)).toHaveText(/In review/);
+    await expect(filing.status()).toHaveText(/In review/);
     await screen(page, "sign-wrong-password");
 
-    await dialog.getByLabel("Your password, entered again").fill(DEMO_PASSWORD);
-    await dialog.getByRole("button", { name: "Sign", exact: true }).click();
+    await filing.signWith(version, DEMO_PASSWORD);
     await expect(dialog).toBeHidden();
-    await expect(status(page)).toHaveText(/Signed/);
-    const hash = (await page.getByTestId("signed-hash").textContent())!;
-    expect(hash).toMatch(/^[0-9a-f]{64}$/);
-    await page.getByRole("button", { name: "Verify signature" }).click();
-    await expect(page.getByTestId("verify-result")).toContainText("Matches");
+    await expect(filing.status()).toHaveText(/Signed/);
+    await filing.verifySignature();
     await screen(page, "filing-signed");
     await page.close();
   });
@@ -366,11 +319,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
 
   await test.step("the compliance officer records the filing as filed", async () => {
     const page = await asPerson(browser, OFFICER.email);
-    await page.goto(`/periods/${periodId}/filing`);
-    await page.getByLabel("Regulator's reference").fill(FILING_REFERENCE);
-    await page.getByRole("button", { name: "Record as filed" }).click();
-    await expect(status(page)).toHaveText(/Filed/);
-    await expect(page.getByTestId("filed-line")).toContainText(FILING_REFERENCE);
+    const filing = new FilingPage(page);
+    await filing.open(periodId);
+    await filing.recordFiled(FILING_REFERENCE);
     await screen(page, "filing-filed");
     await page.close();
     const api = await signedInApi(OFFICER.email);
