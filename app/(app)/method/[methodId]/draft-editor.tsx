@@ -6,8 +6,8 @@
  */
 import { useState } from "react";
 import { useRouter } from "next/navigation";
-import { TextField, TextAreaField, SelectField } from "@/app/_components/form/fields";
-import { useForm, useWatch, type FieldErrors, type UseFormRegister } from "react-hook-form";
+import { TextField, TextAreaField, SelectField, setFieldErrors } from "@/app/_components/form/fields";
+import { useForm, useWatch, type FieldErrors, type UseFormRegister, type UseFormReturn } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { apiFetch, ApiError } from "@/app/_components/api";
 import { Field, inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
@@ -30,24 +30,15 @@ function errorAt(errors: FieldErrors<MethodDraft>, path: string): string | undef
   return typeof message === "string" ? message : undefined;
 }
 
-function a11y(errors: FieldErrors<MethodDraft>, path: string, hint = false) {
-  const error = errorAt(errors, path);
-  return { id: path, "aria-invalid": Boolean(error), "aria-describedby": error ? `${path}-error` : hint ? `${path}-hint` : undefined };
-}
-
-type Register = UseFormRegister<MethodDraft>;
-type Path = Parameters<Register>[0];
-
-function EstimatorFields({ prefix, estimator, register, errors }: { prefix: string; estimator: EstimatorChoice; register: Register; errors: FieldErrors<MethodDraft> }) {
-  const p = (k: string) => `${prefix}.${k}` as Path;
-  const input = (k: string, label: string, hint?: string) => (
-    <Field id={p(k)} label={label} hint={hint} error={errorAt(errors, p(k))}>
-      <input type="text" inputMode="decimal" className={`${inputClass} w-32`} {...a11y(errors, p(k), !!hint)} {...register(p(k))} />
-    </Field>
-  );
-  const select = (k: string, label: string, options: [string, string][]) => (
-    <Field id={p(k)} label={label} error={errorAt(errors, p(k))}>
-      <select className={inputClass} {...a11y(errors, p(k))} {...register(p(k))}>
+/**
+ * A labelled select whose choice replaces a whole part of the draft (an estimator, the correlation, the backtest's
+ * refits, the stress window), so it is controlled rather than bound to one field: its value, the options as
+ * [value, label] pairs, and what a change does.
+ */
+function ChoiceField({ id, label, value, onChange, options, error }: { id: string; label: string; value: string; onChange: (value: string) => void; options: [string, string][]; error?: string }) {
+  return (
+    <Field id={id} label={label} error={error}>
+      <select id={id} className={inputClass} value={value} onChange={(e) => onChange(e.target.value)}>
         {options.map(([v, l]) => (
           <option key={v} value={v}>
             {l}
@@ -56,6 +47,14 @@ function EstimatorFields({ prefix, estimator, register, errors }: { prefix: stri
       </select>
     </Field>
   );
+}
+
+type Path = Parameters<UseFormRegister<MethodDraft>>[0];
+
+function EstimatorFields({ prefix, estimator, form }: { prefix: string; estimator: EstimatorChoice; form: UseFormReturn<MethodDraft> }) {
+  const p = (k: string) => `${prefix}.${k}` as Path;
+  const input = (k: string, label: string, hint?: string) => <TextField form={form} name={p(k)} label={label} hint={hint} type="text" inputMode="decimal" className={`${inputClass} w-32`} />;
+  const select = (k: string, label: string, options: [string, string][]) => <SelectField form={form} name={p(k)} label={label} options={options} />;
   switch (estimator.kind) {
     case "ma":
       return (
@@ -81,7 +80,7 @@ function EstimatorFields({ prefix, estimator, register, errors }: { prefix: stri
           {select("mean", "Mean", [["zero", "Zero"], ["fit", "Fitted"]])}
           {select("fallback", "When the fit fails", [["ewma", "Fall back to EWMA"], ["none", "No fallback: leave the factor out"]])}
           <label className="flex items-center gap-2 self-end pb-2 text-sm">
-            <input type="checkbox" {...register(p("targeting"))} /> Variance targeting
+            <input type="checkbox" {...form.register(p("targeting"))} /> Variance targeting
           </label>
         </>
       );
@@ -108,11 +107,9 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
     defaultValues: { content: version.content, rationale: version.rationale, analystLimitations: version.analystLimitations, reason: version.reason },
   });
   const {
-    register,
     handleSubmit,
     control,
     setValue,
-    setError,
     reset,
     formState: { errors, isSubmitting, isDirty },
   } = form;
@@ -139,9 +136,7 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
       setSaved({ tone: "ok", text: next.approvedBy === null && version.approvedBy !== null ? "Draft saved. The earlier approval was withdrawn: approve again." : "Draft saved." });
       router.refresh();
     } catch (error) {
-      if (error instanceof ApiError && error.fields) {
-        for (const [field, message] of Object.entries(error.fields)) setError(field as Path, { message });
-      }
+      if (error instanceof ApiError) setFieldErrors(form, error.fields);
       setSaved({ tone: "alert", text: error instanceof Error ? error.message : "Could not save." });
     }
   }, () => setSaved({ tone: "alert", text: "Some values are not valid: see the fields marked in red." }));
@@ -171,16 +166,8 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
                 Firm-wide default
               </p>
               <div className="flex flex-wrap items-start gap-4">
-                <Field id="content.defaultEstimator.kind" label="Estimator">
-                  <select id="content.defaultEstimator.kind" className={inputClass} value={content.defaultEstimator.kind} onChange={(e) => setKind("content.defaultEstimator", e.target.value)}>
-                    {Object.entries(ESTIMATOR_LABELS).map(([k, l]) => (
-                      <option key={k} value={k}>
-                        {l}
-                      </option>
-                    ))}
-                  </select>
-                </Field>
-                <EstimatorFields key={content.defaultEstimator.kind} prefix="content.defaultEstimator" estimator={content.defaultEstimator} register={register} errors={errors} />
+                <ChoiceField id="content.defaultEstimator.kind" label="Estimator" value={content.defaultEstimator.kind} onChange={(v) => setKind("content.defaultEstimator", v)} options={Object.entries(ESTIMATOR_LABELS)} />
+                <EstimatorFields key={content.defaultEstimator.kind} prefix="content.defaultEstimator" estimator={content.defaultEstimator} form={form} />
               </div>
             </div>
             {ASSET_CLASSES.map((c) => {
@@ -192,17 +179,8 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
                     {ASSET_CLASS_LABELS[c]}
                   </p>
                   <div className="flex flex-wrap items-start gap-4">
-                    <Field id={`${path}.kind`} label="Estimator">
-                      <select id={`${path}.kind`} className={inputClass} value={e?.kind ?? ""} onChange={(ev) => setKind(path, ev.target.value)}>
-                        <option value="">Firm-wide default</option>
-                        {Object.entries(ESTIMATOR_LABELS).map(([k, l]) => (
-                          <option key={k} value={k}>
-                            {l}
-                          </option>
-                        ))}
-                      </select>
-                    </Field>
-                    {e ? <EstimatorFields key={e.kind} prefix={path} estimator={e} register={register} errors={errors} /> : null}
+                    <ChoiceField id={`${path}.kind`} label="Estimator" value={e?.kind ?? ""} onChange={(v) => setKind(path, v)} options={[["", "Firm-wide default"], ...Object.entries(ESTIMATOR_LABELS)]} />
+                    {e ? <EstimatorFields key={e.kind} prefix={path} estimator={e} form={form} /> : null}
                   </div>
                 </div>
               );
@@ -215,22 +193,14 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
             <SelectField form={form} name="content.portfolioVolatility" label="Portfolio volatilities" options={Object.entries(PORTFOLIO_VOLATILITY_LABELS)} />
             {content.portfolioVolatility === "asset-class" ? (
               <>
-                <Field id="content.correlation.kind" label="Correlation" error={errorAt(errors, "content.correlation.kind")}>
-                  <select
-                    id="content.correlation.kind"
-                    className={inputClass}
-                    value={content.correlation.kind}
-                    onChange={(e) =>
-                      setValue("content.correlation", e.target.value === "equal" ? { kind: "equal", window: 250 } : e.target.value === "ewma" ? { kind: "ewma", lambda: 0.94 } : { kind: "ccc" }, { shouldDirty: true })
-                    }
-                  >
-                    {Object.entries(CORRELATION_LABELS).map(([k, l]) => (
-                      <option key={k} value={k}>
-                        {l}
-                      </option>
-                    ))}
-                  </select>
-                </Field>
+                <ChoiceField
+                  id="content.correlation.kind"
+                  label="Correlation"
+                  error={errorAt(errors, "content.correlation.kind")}
+                  value={content.correlation.kind}
+                  onChange={(v) => setValue("content.correlation", v === "equal" ? { kind: "equal", window: 250 } : v === "ewma" ? { kind: "ewma", lambda: 0.94 } : { kind: "ccc" }, { shouldDirty: true })}
+                  options={Object.entries(CORRELATION_LABELS)}
+                />
                 {content.correlation.kind === "ewma" ? (
                   <TextField form={form} name={"content.correlation.lambda" as Path} label="Correlation λ" hint="Between 0 and 1, e.g. 0.94." type="text" inputMode="decimal" />
                 ) : content.correlation.kind === "equal" ? (
@@ -244,17 +214,17 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
                 <TextField form={form} name="content.covarianceWindow" label="Covariance window (days)" type="text" inputMode="numeric" />
               </>
             )}
-            <Field id="content.backtestRefit.mode" label="Backtest parameters" error={errorAt(errors, "content.backtestRefit.mode")}>
-              <select
-                id="content.backtestRefit.mode"
-                className={inputClass}
-                value={content.backtestRefit.mode}
-                onChange={(e) => setValue("content.backtestRefit", e.target.value === "once" ? { mode: "once" } : { mode: "every", days: 21 }, { shouldDirty: true })}
-              >
-                <option value="every">Re-estimated on a schedule (out of sample)</option>
-                <option value="once">Fitted once on the whole sample (in sample)</option>
-              </select>
-            </Field>
+            <ChoiceField
+              id="content.backtestRefit.mode"
+              label="Backtest parameters"
+              error={errorAt(errors, "content.backtestRefit.mode")}
+              value={content.backtestRefit.mode}
+              onChange={(v) => setValue("content.backtestRefit", v === "once" ? { mode: "once" } : { mode: "every", days: 21 }, { shouldDirty: true })}
+              options={[
+                ["every", "Re-estimated on a schedule (out of sample)"],
+                ["once", "Fitted once on the whole sample (in sample)"],
+              ]}
+            />
             {content.backtestRefit.mode === "every" ? (
               <TextField form={form} name={"content.backtestRefit.days" as Path} label="Re-estimate every (business days)" hint="21 is about a month." type="text" inputMode="numeric" />
             ) : null}
@@ -305,17 +275,16 @@ export function DraftEditor({ version, coApprovalRequired, canApprove }: { versi
             <SelectField form={form} name="content.scaling" label="Horizon scaling" options={Object.entries(SCALING_LABELS)} />
             <TextField form={form} name="content.historicalWindow" label="Historical window (days)" type="text" inputMode="numeric" />
             <TextField form={form} name="content.minHistory" label="Minimum history (returns)" hint="Factors with fewer returns are left out of a run and listed." type="text" inputMode="numeric" />
-            <Field id="content.stressWindow.mode" label="Stress window">
-              <select
-                id="content.stressWindow.mode"
-                className={inputClass}
-                value={content.stressWindow.mode}
-                onChange={(e) => setValue("content.stressWindow", e.target.value === "search" ? { mode: "search" } : { mode: "chosen", start: "", end: "" }, { shouldDirty: true })}
-              >
-                <option value="search">Searched over the stored history</option>
-                <option value="chosen">Chosen dates</option>
-              </select>
-            </Field>
+            <ChoiceField
+              id="content.stressWindow.mode"
+              label="Stress window"
+              value={content.stressWindow.mode}
+              onChange={(v) => setValue("content.stressWindow", v === "search" ? { mode: "search" } : { mode: "chosen", start: "", end: "" }, { shouldDirty: true })}
+              options={[
+                ["search", "Searched over the stored history"],
+                ["chosen", "Chosen dates"],
+              ]}
+            />
             {content.stressWindow.mode === "chosen" ? (
               <>
                 <TextField form={form} name={"content.stressWindow.start" as Path} label="Stress window starts" type="date" />
