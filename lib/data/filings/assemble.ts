@@ -1,7 +1,7 @@
 /** Assembling a filing's content from the marked run, and rebuilding it when the draft changes. */
 import "server-only";
 import { and, eq } from "drizzle-orm";
-import { getDb } from "@/db/client";
+import { getDb, type Tx } from "@/db/client";
 import { filings, methodStatements, signatures } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
@@ -166,4 +166,14 @@ export function lockedMessage(row: FilingRow): string {
 /** A conditional update that lost a race (the status moved underneath it). */
 export function raced(): AppError {
   return new AppError("conflict:filing", "The filing changed while this was being saved; reload the page and try again.");
+}
+
+/** Set fields of this firm's filing `id` in the transaction only while its status is still `status`; otherwise it changed meanwhile (raced). */
+export async function updateFilingWhile(tx: Tx, actor: Actor, id: string, status: string, values: Partial<typeof filings.$inferInsert>): Promise<void> {
+  const updated = await tx
+    .update(filings)
+    .set(values)
+    .where(and(eq(filings.id, id), eq(filings.firmId, actor.firmId), eq(filings.status, status)))
+    .returning({ id: filings.id });
+  if (!updated.length) throw raced();
 }

@@ -20,7 +20,7 @@ import { enqueuePackRender } from "../packs";
 import { assertRunFresh } from "../run-freshness";
 import { FilingRowStatus, FilingDetail, VerifyResult, FilingRow, LOCKED, attestationText } from "./types";
 import { findRow, findPeriod, signaturesOf, getFiling } from "./read";
-import { assemble, explanationsOf, markedCompletedRun, supersededOf, lockedMessage, raced } from "./assemble";
+import { assemble, explanationsOf, markedCompletedRun, supersededOf, lockedMessage, raced, updateFilingWhile } from "./assemble";
 
 const normaliseName = (s: string) => s.trim().replace(/\s+/g, " ").toLocaleLowerCase("en");
 
@@ -180,12 +180,7 @@ export async function newFilingVersion(actor: Actor, filingId: string, input: Ne
     supersededSignatures: superseded,
   });
   const id = await getDb().transaction(async (tx) => {
-    const moved = await tx
-      .update(filings)
-      .set({ status: "superseded" })
-      .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId), eq(filings.status, "signed")))
-      .returning({ id: filings.id });
-    if (!moved.length) throw raced();
+    await updateFilingWhile(tx, actor, row.id, "signed", { status: "superseded" });
     if (sig) {
       await tx
         .update(signatures)
@@ -241,12 +236,7 @@ export async function markFiled(actor: Actor, filingId: string, input: MarkFiled
   const period = await findPeriod(actor, row.periodId);
   await getDb().transaction(async (tx) => {
     await enqueuePackRender(tx, actor.firmId, [row.id]);
-    const updated = await tx
-      .update(filings)
-      .set({ status: "filed", filedAt: input.filedOn, filingReference: reference })
-      .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId), eq(filings.status, "signed")))
-      .returning({ id: filings.id });
-    if (!updated.length) throw raced();
+    await updateFilingWhile(tx, actor, row.id, "signed", { status: "filed", filedAt: input.filedOn, filingReference: reference });
     await tx
       .update(reportingPeriods)
       .set({ state: "filed", filedAt: input.filedOn, filingReference: reference })

@@ -13,7 +13,7 @@ import { enqueuePackRender } from "../packs";
 import { assertRunFresh } from "../run-freshness";
 import { FilingRowStatus, FilingDetail, LOCKED, EDITABLE } from "./types";
 import { findRow, findPeriod, getFiling, currentRow } from "./read";
-import { assemble, explanationsOf, markedCompletedRun, rebuild, lockedMessage, raced } from "./assemble";
+import { assemble, explanationsOf, markedCompletedRun, rebuild, lockedMessage, raced, updateFilingWhile } from "./assemble";
 
 /**
  * Assemble the period's draft filing from its marked, completed run (version 1), or rebuild the open draft from the
@@ -63,12 +63,7 @@ export async function prepareFiling(actor: Actor, periodId: string, input: Prepa
   const content = await rebuild(actor, existing, { run, coverNote, explanations: kept });
   await getDb().transaction(async (tx) => {
     await enqueuePackRender(tx, actor.firmId, [existing.id]);
-    const updated = await tx
-      .update(filings)
-      .set({ runId: run.id, content, coverNote })
-      .where(and(eq(filings.id, existing.id), eq(filings.firmId, actor.firmId), eq(filings.status, existing.status)))
-      .returning({ id: filings.id });
-    if (!updated.length) throw raced();
+    await updateFilingWhile(tx, actor, existing.id, existing.status, { runId: run.id, content, coverNote });
     await recordAudit(tx, actor, {
       action: "filing.rebuild",
       entityType: "filing",
@@ -101,12 +96,7 @@ export async function updateFiling(actor: Actor, filingId: string, input: Update
   const content = await rebuild(actor, row, { coverNote, explanations });
   await getDb().transaction(async (tx) => {
     await enqueuePackRender(tx, actor.firmId, [row.id]);
-    const updated = await tx
-      .update(filings)
-      .set({ coverNote, content })
-      .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId), eq(filings.status, row.status)))
-      .returning({ id: filings.id });
-    if (!updated.length) throw raced();
+    await updateFilingWhile(tx, actor, row.id, row.status, { coverNote, content });
     const what = [input.coverNote !== undefined ? "the cover note" : null, input.explanations ? `explanations for ${Object.keys(input.explanations).sort().join(", ")}` : null].filter(Boolean).join(" and ");
     await recordAudit(tx, actor, {
       action: "filing.edit",
@@ -142,12 +132,7 @@ export async function submitFiling(actor: Actor, filingId: string, input: Submit
   const note = input.note.trim();
   await getDb().transaction(async (tx) => {
     await enqueuePackRender(tx, actor.firmId, [row.id]);
-    const updated = await tx
-      .update(filings)
-      .set({ status: "in_review", submittedBy: actor.userId, content })
-      .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId), eq(filings.status, row.status)))
-      .returning({ id: filings.id });
-    if (!updated.length) throw raced();
+    await updateFilingWhile(tx, actor, row.id, row.status, { status: "in_review", submittedBy: actor.userId, content });
     if (note) await tx.insert(reviewComments).values({ firmId: actor.firmId, filingId: row.id, section: "general", body: note, kind: "submission_note", authorId: actor.userId });
     await tx.update(reportingPeriods).set({ state: "in_review" }).where(and(eq(reportingPeriods.id, row.periodId), eq(reportingPeriods.firmId, actor.firmId)));
     await recordAudit(tx, actor, {
@@ -199,12 +184,7 @@ export async function requestChanges(actor: Actor, filingId: string, input: Requ
   }
   await getDb().transaction(async (tx) => {
     await enqueuePackRender(tx, actor.firmId, [row.id]);
-    const updated = await tx
-      .update(filings)
-      .set({ status: "changes_requested" })
-      .where(and(eq(filings.id, row.id), eq(filings.firmId, actor.firmId), eq(filings.status, "in_review")))
-      .returning({ id: filings.id });
-    if (!updated.length) throw raced();
+    await updateFilingWhile(tx, actor, row.id, "in_review", { status: "changes_requested" });
     await tx.insert(reviewComments).values({ firmId: actor.firmId, filingId: row.id, section: input.section, body: input.reason.trim(), kind: "changes_requested", authorId: actor.userId });
     await recordAudit(tx, actor, {
       action: "filing.request_changes",
