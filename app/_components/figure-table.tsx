@@ -12,18 +12,20 @@ const isAligned = (c: FigureColumn): c is { label: ReactNode; align: "left" | "r
 type Spacing = { pad?: string; gap?: string; padLast?: boolean };
 
 /** A cell's padding at column `i` of `count`. */
-const cellPad = ({ pad = "py-1.5", gap = "pr-2", padLast = false }: Spacing, i: number, count: number) => (i < count - 1 || padLast ? `${pad} ${gap}` : pad);
+const cellPad = ({ pad = "py-1.5", gap = "pr-2", padLast = false }: Spacing, i: number, count: number) => (gap && (i < count - 1 || padLast) ? `${pad} ${gap}` : pad);
 
 /**
  * A table of figures as the run and method pages show them: a caption (shown small above the table, or only to
  * screen readers), one header row with a rule beneath it (the first column names the row, the others are figures,
  * right-aligned), and the body rows as children (FigureRow, or the page's own rows). The body is in tabular numerals
- * unless `bodyClassName` says otherwise.
+ * unless `bodyClassName` says otherwise. With `words`, a table of words: every heading left-aligned unless marked
+ * `{ label, align: "right" }`.
  */
 export function FigureTable({
   caption,
   hiddenCaption = false,
   columns,
+  words = false,
   leftColumns = 1,
   className = "w-full text-sm",
   testId,
@@ -37,6 +39,7 @@ export function FigureTable({
   caption?: ReactNode;
   hiddenCaption?: boolean;
   columns: FigureColumn[];
+  words?: boolean;
   leftColumns?: number;
   /** The table element's classes (width, text size, margin). */
   className?: string;
@@ -51,11 +54,12 @@ export function FigureTable({
     <table className={className} data-testid={testId}>
       {caption ? <caption className={hiddenCaption ? "sr-only" : "mb-1 text-left text-xs text-ink-muted"}>{caption}</caption> : null}
       <thead className={headClassName}>
-        <tr className="border-b border-ink-line text-right text-ink-muted">
+        <tr className={`border-b border-ink-line ${words ? "text-left" : "text-right"} text-ink-muted`}>
           {columns.map((c, i) => {
-            const left = isAligned(c) ? c.align === "left" : i < leftColumns;
+            // the row's alignment is the rule; a heading says only where it differs
+            const align = words ? (isAligned(c) && c.align === "right" ? "text-right " : "") : (isAligned(c) ? c.align === "left" : i < leftColumns) ? "text-left " : "";
             return (
-              <th key={i} scope="col" className={`${cellPad(spacing, i, columns.length)} ${left ? "text-left " : ""}font-medium`}>
+              <th key={i} scope="col" className={`${cellPad(spacing, i, columns.length)} ${align}font-medium`}>
                 {isAligned(c) ? c.label : c}
               </th>
             );

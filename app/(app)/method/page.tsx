@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { PageHeader } from "@/app/_components/page-header";
+import { FigureTable } from "@/app/_components/figure-table";
 import { formatTimestamp } from "@/app/_components/format";
 import { pageActor } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
@@ -68,49 +69,45 @@ export default async function MethodPage() {
           <p className="text-sm text-ink-soft">No versions yet.</p>
         ) : (
           <div className="relative overflow-x-auto" tabIndex={0} role="region" aria-label="Method statement versions">
-          <table className="w-full rounded-lg border border-ink-line bg-paper-raised text-sm">
-            <caption className="sr-only">Method statement versions, newest first</caption>
-            <thead>
-              <tr className="border-b border-ink-line text-left text-ink-muted">
-                <th scope="col" className="px-4 py-2 font-medium">Version</th>
-                <th scope="col" className="px-4 py-2 font-medium">Status</th>
-                <th scope="col" className="px-4 py-2 font-medium">Drafted</th>
-                <th scope="col" className="px-4 py-2 font-medium">Approved</th>
-                <th scope="col" className="px-4 py-2 font-medium">Reason for the change</th>
-                <th scope="col" className="px-4 py-2 font-medium"><span className="sr-only">Links</span></th>
-              </tr>
-            </thead>
-            <tbody>
-              {versions.map((v) => (
-                <tr key={v.id} className="border-b border-ink-line/60 last:border-0" data-testid={`version-${v.version}`}>
-                  <td className="px-4 py-2 font-medium">
-                    <Link href={`/method/${v.id}`} className="hover:underline">
-                      Version {v.version}
+          <FigureTable
+            className="w-full rounded-lg border border-ink-line bg-paper-raised text-sm"
+            caption="Method statement versions, newest first"
+            hiddenCaption
+            words
+            pad="px-4 py-2"
+            gap=""
+            bodyClassName=""
+            columns={["Version", "Status", "Drafted", "Approved", "Reason for the change", <span key="links" className="sr-only">Links</span>]}
+          >
+            {versions.map((v) => (
+              <tr key={v.id} className="border-b border-ink-line/60 last:border-0" data-testid={`version-${v.version}`}>
+                <td className="px-4 py-2 font-medium">
+                  <Link href={`/method/${v.id}`} className="hover:underline">
+                    Version {v.version}
+                  </Link>
+                </td>
+                <td className="px-4 py-2">
+                  <VersionStatus status={v.status} awaitingCoApproval={v.awaitingCoApproval} />
+                </td>
+                <td className="px-4 py-2 text-ink-soft">
+                  {v.createdBy.name}, {formatTimestamp(v.createdAt)}
+                </td>
+                <td className="px-4 py-2 text-ink-soft">
+                  {v.approvedBy ? v.approvedBy.name : "—"}
+                  {v.coApprovedBy ? ` with ${v.coApprovedBy.name}` : ""}
+                  {v.approvedAt ? `, ${formatTimestamp(v.approvedAt)}` : ""}
+                </td>
+                <td className="max-w-md px-4 py-2 text-ink-soft">{v.reason || "—"}</td>
+                <td className="px-4 py-2 text-right">
+                  {versions.some((o) => o.version < v.version) ? (
+                    <Link href={`/method/compare?to=${v.id}`} className="underline">
+                      Changes
                     </Link>
-                  </td>
-                  <td className="px-4 py-2">
-                    <VersionStatus status={v.status} awaitingCoApproval={v.awaitingCoApproval} />
-                  </td>
-                  <td className="px-4 py-2 text-ink-soft">
-                    {v.createdBy.name}, {formatTimestamp(v.createdAt)}
-                  </td>
-                  <td className="px-4 py-2 text-ink-soft">
-                    {v.approvedBy ? v.approvedBy.name : "—"}
-                    {v.coApprovedBy ? ` with ${v.coApprovedBy.name}` : ""}
-                    {v.approvedAt ? `, ${formatTimestamp(v.approvedAt)}` : ""}
-                  </td>
-                  <td className="max-w-md px-4 py-2 text-ink-soft">{v.reason || "—"}</td>
-                  <td className="px-4 py-2 text-right">
-                    {versions.some((o) => o.version < v.version) ? (
-                      <Link href={`/method/compare?to=${v.id}`} className="underline">
-                        Changes
-                      </Link>
-                    ) : null}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+                  ) : null}
+                </td>
+              </tr>
+            ))}
+          </FigureTable>
           </div>
         )}
       </section>

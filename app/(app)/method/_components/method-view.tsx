@@ -1,5 +1,6 @@
 /** A method statement version in readable form: estimators, parameters, rationale, limitations, evidence. */
 import { ASSET_CLASSES, ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
+import { FigureRow, FigureTable } from "@/app/_components/figure-table";
 import { formatTimestamp } from "@/app/_components/format";
 import { COVARIANCE_LABELS, DISTRIBUTION_LABELS, PORTFOLIO_VOLATILITY_LABELS, SCALING_LABELS, VAR_METHOD_LABELS, describeCorrelation, describeEstimator, describeRefit, formatConfidence } from "@/lib/method/describe";
 import type { MethodVersion } from "@/lib/data/method";
@@ -20,30 +21,19 @@ export function ApprovalLine({ version }: { version: MethodVersion }) {
   );
 }
 
+/** The method pages' tables of words: roomier cells than the figures', the row's name in medium weight. */
+export const WORD_TABLE = { pad: "py-2", gap: "pr-4", bodyClassName: "" } as const;
+export const WORD_ROW = { pad: "py-2", gap: "pr-4", className: "border-b border-ink-line/60", headClassName: "text-left font-medium" } as const;
+
 export function EstimatorTable({ version }: { version: MethodVersion }) {
   const c = version.content;
   return (
-    <table className="w-full text-sm">
-      <caption className="sr-only">Volatility estimator by asset class</caption>
-      <thead>
-        <tr className="border-b border-ink-line text-left text-ink-muted">
-          <th scope="col" className="py-2 pr-4 font-medium">Asset class</th>
-          <th scope="col" className="py-2 font-medium">Volatility estimator</th>
-        </tr>
-      </thead>
-      <tbody>
-        <tr className="border-b border-ink-line/60">
-          <th scope="row" className="py-2 pr-4 text-left font-medium">Firm-wide default</th>
-          <td className="py-2">{describeEstimator(c.defaultEstimator)}</td>
-        </tr>
-        {ASSET_CLASSES.filter((k) => c.byAssetClass[k]).map((k) => (
-          <tr key={k} className="border-b border-ink-line/60">
-            <th scope="row" className="py-2 pr-4 text-left font-medium">{ASSET_CLASS_LABELS[k]}</th>
-            <td className="py-2">{describeEstimator(c.byAssetClass[k]!)}</td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+    <FigureTable caption="Volatility estimator by asset class" hiddenCaption words {...WORD_TABLE} columns={["Asset class", "Volatility estimator"]}>
+      <FigureRow {...WORD_ROW} head="Firm-wide default" cells={[describeEstimator(c.defaultEstimator)]} />
+      {ASSET_CLASSES.filter((k) => c.byAssetClass[k]).map((k) => (
+        <FigureRow key={k} {...WORD_ROW} head={ASSET_CLASS_LABELS[k]} cells={[describeEstimator(c.byAssetClass[k]!)]} />
+      ))}
+    </FigureTable>
   );
 }
 

@@ -6,6 +6,8 @@ import { orNotFound, pageActor } from "@/lib/auth/page";
 import { diffMethodVersions, listMethodVersions } from "@/lib/data/method";
 import { methodDiffQuerySchema } from "@/lib/validation/method";
 import { VersionStatus } from "../_components/version-status";
+import { WORD_ROW, WORD_TABLE } from "../_components/method-view";
+import { FigureRow, FigureTable } from "@/app/_components/figure-table";
 
 export const metadata: Metadata = { title: "Compare method statement versions" };
 
@@ -66,25 +68,19 @@ export default async function CompareMethodPage({ searchParams }: { searchParams
             {diff.content.length === 0 ? (
               <p className="text-sm text-ink-soft">No field of the method differs.</p>
             ) : (
-              <table className="w-full text-sm">
-                <caption className="sr-only">Fields that differ</caption>
-                <thead>
-                  <tr className="border-b border-ink-line text-left text-ink-muted">
-                    <th scope="col" className="py-2 pr-4 font-medium">Field</th>
-                    <th scope="col" className="py-2 pr-4 font-medium">Version {diff.from.version}</th>
-                    <th scope="col" className="py-2 font-medium">Version {diff.to.version}</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {diff.content.map((c) => (
-                    <tr key={c.path} className="border-b border-ink-line/60">
-                      <th scope="row" className="py-2 pr-4 text-left font-medium">{c.label}</th>
-                      <td className="py-2 pr-4">{c.from === null ? <span className="text-ink-muted">not set</span> : <del className="decoration-alert/60">{c.from}</del>}</td>
-                      <td className="py-2">{c.to === null ? <span className="text-ink-muted">not set</span> : <ins className="no-underline font-medium">{c.to}</ins>}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+              <FigureTable caption="Fields that differ" hiddenCaption words {...WORD_TABLE} columns={["Field", `Version ${diff.from.version}`, `Version ${diff.to.version}`]}>
+                {diff.content.map((c) => (
+                  <FigureRow
+                    key={c.path}
+                    {...WORD_ROW}
+                    head={c.label}
+                    cells={[
+                      c.from === null ? <span className="text-ink-muted">not set</span> : <del className="decoration-alert/60">{c.from}</del>,
+                      c.to === null ? <span className="text-ink-muted">not set</span> : <ins className="no-underline font-medium">{c.to}</ins>,
+                    ]}
+                  />
+                ))}
+              </FigureTable>
             )}
           </section>
           <section aria-labelledby="diff-rationale" className="rounded-lg border border-ink-line bg-paper-raised p-5">

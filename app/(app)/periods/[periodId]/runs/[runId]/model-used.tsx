@@ -5,6 +5,7 @@
 import type { RunResults } from "@/lib/runs/types";
 import { ASSET_CLASS_LABELS, type AssetClass } from "@/lib/uploads/asset-classes";
 import { describeComputedMethod } from "@/reports/method-text";
+import { FigureTable } from "@/app/_components/figure-table";
 import { pct } from "../_components/run-format";
 
 const SOURCE_WORDS: Record<string, string> = { factor: "the factor's own choice", "asset-class": "its asset class", default: "the firm-wide default", legacy: "the one covariance model" };
@@ -28,37 +29,32 @@ export function ModelUsed({ results }: { results: RunResults }) {
       </ul>
       {model ? (
         <div className="relative overflow-x-auto">
-          <table className="w-full text-sm" data-testid="model-factors">
-            <caption className="sr-only">The volatility model of each factor, as fitted for this run&apos;s figures</caption>
-            <thead>
-              <tr className="border-b border-ink-line text-left text-ink-muted">
-                <th scope="col" className="py-1.5 pr-3 font-medium">Factor</th>
-                <th scope="col" className="py-1.5 pr-3 font-medium">Chosen by</th>
-                <th scope="col" className="py-1.5 pr-3 font-medium">Model used</th>
-                <th scope="col" className="py-1.5 pr-3 font-medium">Parameters</th>
-                <th scope="col" className="py-1.5 pr-3 font-medium">Start-up</th>
-                <th scope="col" className="py-1.5 text-right font-medium">1-day volatility</th>
+          <FigureTable
+            testId="model-factors"
+            caption="The volatility model of each factor, as fitted for this run's figures"
+            hiddenCaption
+            words
+            gap="pr-3"
+            bodyClassName=""
+            columns={["Factor", "Chosen by", "Model used", "Parameters", "Start-up", { label: "1-day volatility", align: "right" }]}
+          >
+            {model.factors.map((f) => (
+              <tr key={f.factor} className="border-b border-ink-line/60 align-top">
+                <th scope="row" className="py-1.5 pr-3 text-left font-medium">{f.factor}</th>
+                <td className="py-1.5 pr-3">
+                  {SOURCE_WORDS[f.source] ?? f.source}
+                  {f.assetClass ? ` (${ASSET_CLASS_LABELS[f.assetClass as AssetClass] ?? f.assetClass})` : ""}
+                </td>
+                <td className="py-1.5 pr-3">
+                  {f.label}
+                  {f.fallback ? <span className="block text-xs text-caution">Fallback: {f.fallback.label} could not be used ({f.fallback.reason}).</span> : null}
+                </td>
+                <td className="figure py-1.5 pr-3 text-xs">{params(f.params) || "—"}</td>
+                <td className="py-1.5 pr-3 text-xs text-ink-soft">{f.startUp}</td>
+                <td className="figure py-1.5 text-right">{pct(Math.sqrt(f.variance))}</td>
               </tr>
-            </thead>
-            <tbody>
-              {model.factors.map((f) => (
-                <tr key={f.factor} className="border-b border-ink-line/60 align-top">
-                  <th scope="row" className="py-1.5 pr-3 text-left font-medium">{f.factor}</th>
-                  <td className="py-1.5 pr-3">
-                    {SOURCE_WORDS[f.source] ?? f.source}
-                    {f.assetClass ? ` (${ASSET_CLASS_LABELS[f.assetClass as AssetClass] ?? f.assetClass})` : ""}
-                  </td>
-                  <td className="py-1.5 pr-3">
-                    {f.label}
-                    {f.fallback ? <span className="block text-xs text-caution">Fallback: {f.fallback.label} could not be used ({f.fallback.reason}).</span> : null}
-                  </td>
-                  <td className="figure py-1.5 pr-3 text-xs">{params(f.params) || "—"}</td>
-                  <td className="py-1.5 pr-3 text-xs text-ink-soft">{f.startUp}</td>
-                  <td className="figure py-1.5 text-right">{pct(Math.sqrt(f.variance))}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+            ))}
+          </FigureTable>
         </div>
       ) : (
         <p className="text-xs text-ink-muted">This run was stored before runs kept their resolved model; the sentences above read its method statement as it computed.</p>
