@@ -6,7 +6,7 @@
  */
 import "server-only";
 import { and, desc, eq, inArray, max } from "drizzle-orm";
-import { getDb, type Tx } from "@/db/client";
+import { getDb, type Database, type Tx } from "@/db/client";
 import { firms, instruments, methodStatements, positions, reportingPeriods, uploads, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
@@ -138,8 +138,9 @@ async function findRow(actor: Actor, methodId: string): Promise<Row> {
   return row;
 }
 
-async function approvedRow(actor: Actor): Promise<Row | null> {
-  const [row] = await getDb()
+/** The firm's approved version (the newest, should there be more than one), read through `db` (a transaction or the database). */
+async function approvedRow(actor: Actor, db: Database | Tx = getDb()): Promise<Row | null> {
+  const [row] = await db
     .select()
     .from(methodStatements)
     .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "approved")))
@@ -187,12 +188,7 @@ export async function createMethodDraft(actor: Actor, input: { reason?: string }
       .from(methodStatements)
       .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "draft")));
     if (open) throw new AppError("conflict:method_draft", `Version ${open.version} is already a draft: finish or discard it first.`);
-    const [approved] = await tx
-      .select()
-      .from(methodStatements)
-      .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "approved")))
-      .orderBy(desc(methodStatements.version))
-      .limit(1);
+    const approved = await approvedRow(actor, tx);
     if (approved && reason.length < 5) {
       throw new AppError("unprocessable:method_reason", `Say why version ${approved.version} needs to change.`, { reason: "Give the reason for the change (at least 5 characters)." });
     }
