@@ -7,6 +7,7 @@ import { apiFetch } from "@/app/_components/api";
 import { DataTable } from "@/app/_components/data-table";
 import { inputClass, secondaryButtonClass } from "@/app/_components/field";
 import { formatTimestamp } from "@/app/_components/format";
+import { LoadError } from "@/app/_components/load-error";
 
 interface AuditRow {
   id: string;
@@ -96,11 +97,7 @@ export function AuditTable() {
           {isFetching ? "Loading…" : data ? `${data.total} event${data.total === 1 ? "" : "s"}` : ""}
         </p>
       </form>
-      {error ? (
-        <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-3 text-sm text-alert">
-          {error instanceof Error ? error.message : "Could not load the audit trail."}
-        </p>
-      ) : null}
+      {error ? <LoadError error={error} fallback="Could not load the audit trail." /> : null}
       <DataTable table={table} caption="Audit events, newest first" loading={isPending} loadingText="Loading the audit trail…" emptyText="No event matches these filters." rowTestId="audit-row" />
       <div className="flex items-center justify-between text-sm">
         <span>

@@ -10,6 +10,7 @@ import { DataTable } from "@/app/_components/data-table";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
 import { formatTimestamp } from "@/app/_components/format";
+import { LoadError } from "@/app/_components/load-error";
 import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunListItem } from "@/lib/runs/types";
 import { confidence, money } from "./_components/run-format";
@@ -146,11 +147,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
           Runs of this period
         </h2>
         <DraftCaution className="mb-3" />
-        {error ? (
-          <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-3 text-sm text-alert">
-            {error instanceof Error ? error.message : "Could not load the runs."}
-          </p>
-        ) : null}
+        {error ? <LoadError error={error} fallback="Could not load the runs." /> : null}
         <DataTable table={table} caption="Runs of this period, newest first" loading={isPending} loadingText="Loading the runs…" emptyText="No run yet for this period." rowTestId="run-row" />
       </section>
     </div>

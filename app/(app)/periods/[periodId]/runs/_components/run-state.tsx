@@ -1,5 +1,6 @@
 "use client";
 
+import { LoadError } from "@/app/_components/load-error";
 import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunRecord, RunResults } from "@/lib/runs/types";
 import { RunProgress } from "./run-progress";
@@ -19,13 +20,7 @@ export function RunStatusBadge({ status }: { status: string }) {
 export function CompletedRun({ runId, children }: { runId: string; children: (data: { run: RunRecord; results: RunResults; reportingCurrency: string }) => React.ReactNode }) {
   const { data, error, isPending } = useRun(runId);
   if (isPending) return <p className="text-sm text-ink-muted" role="status">Loading the run…</p>;
-  if (error || !data) {
-    return (
-      <p role="alert" className="rounded-md border border-alert/30 bg-alert-bg p-3 text-sm text-alert">
-        {error instanceof Error ? error.message : "Could not load the run."}
-      </p>
-    );
-  }
+  if (error || !data) return <LoadError error={error} fallback="Could not load the run." />;
   const { run } = data;
   if (run.status === "failed") {
     return (
