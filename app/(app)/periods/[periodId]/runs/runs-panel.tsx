@@ -15,17 +15,11 @@ import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunListItem } from "@/lib/runs/types";
 import { confidence, money } from "./_components/run-format";
 import { RunProgress } from "./_components/run-progress";
-import { RunStatusBadge } from "./_components/run-state";
+import { RunStatusBadge, ZoneBadge } from "./_components/run-state";
 import { StaleRunBadge } from "./_components/stale-run";
 import { isActive } from "./_components/use-run";
 
 const column = createColumnHelper<RunListItem>();
-
-function zoneBadge(zone: string) {
-  if (zone === "green") return <StatusBadge tone="ok">Green zone</StatusBadge>;
-  if (zone === "yellow") return <StatusBadge tone="caution">Yellow zone</StatusBadge>;
-  return <StatusBadge tone="alert">Red zone</StatusBadge>;
-}
 
 export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: string; currency: string; canStart: boolean; locked: boolean }) {
   const queryClient = useQueryClient();
@@ -88,7 +82,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
       header: () => <span className="block text-right">Capital</span>,
       cell: (c) => <span className="figure block text-right">{money(c.row.original.headline?.capital, currency)}</span>,
     }),
-    column.display({ id: "zone", header: "Backtest", cell: (c) => (c.row.original.headline ? zoneBadge(c.row.original.headline.zone) : c.row.original.status === "failed" ? <span className="text-xs text-alert">{c.row.original.error}</span> : "—") }),
+    column.display({ id: "zone", header: "Backtest", cell: (c) => (c.row.original.headline ? <ZoneBadge zone={c.row.original.headline.zone} /> : c.row.original.status === "failed" ? <span className="text-xs text-alert">{c.row.original.error}</span> : "—") }),
   ];
   // TanStack Table returns fresh functions each render; this component does not memoise around them.
   // eslint-disable-next-line react-hooks/incompatible-library

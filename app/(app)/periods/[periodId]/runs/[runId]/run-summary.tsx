@@ -11,7 +11,7 @@ import { formatDate, formatTimestamp } from "@/app/_components/format";
 import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunRecord, RunResults } from "@/lib/runs/types";
 import { confidence, METHOD_WORDS, money, num, pct } from "../_components/run-format";
-import { CompletedRun, RunStatusBadge } from "../_components/run-state";
+import { CompletedRun, RunStatusBadge, ZoneBadge } from "../_components/run-state";
 import { useRun } from "../_components/use-run";
 import { ModelUsed } from "./model-used";
 import { countOf, plural } from "@/lib/text/count";
@@ -25,12 +25,6 @@ function Card({ title, id, children, className = "" }: { title: string; id: stri
       {children}
     </section>
   );
-}
-
-function ZoneBadge({ zone }: { zone: string }) {
-  if (zone === "green") return <StatusBadge tone="ok">Green zone</StatusBadge>;
-  if (zone === "yellow") return <StatusBadge tone="caution">Yellow zone</StatusBadge>;
-  return <StatusBadge tone="alert">Red zone</StatusBadge>;
 }
 
 function Row({ label, children, testId }: { label: React.ReactNode; children: React.ReactNode; testId?: string }) {

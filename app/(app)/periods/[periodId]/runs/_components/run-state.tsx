@@ -13,6 +13,13 @@ export function RunStatusBadge({ status }: { status: string }) {
   return <StatusBadge tone="neutral">Waiting</StatusBadge>;
 }
 
+/** A backtest's traffic-light zone, in words with its tone. */
+export function ZoneBadge({ zone }: { zone: string }) {
+  if (zone === "green") return <StatusBadge tone="ok">Green zone</StatusBadge>;
+  if (zone === "yellow") return <StatusBadge tone="caution">Yellow zone</StatusBadge>;
+  return <StatusBadge tone="alert">Red zone</StatusBadge>;
+}
+
 /**
  * Loads a run and shows its loading, error, in-progress and failed states; renders `children` once the run has
  * completed, with its results.

@@ -6,16 +6,9 @@ import { Bar, CartesianGrid, Cell, ComposedChart, Legend, Line, ResponsiveContai
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { FigureRow, FigureTable } from "@/app/_components/figure-table";
 import { formatDate } from "@/app/_components/format";
-import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunResults } from "@/lib/runs/types";
 import { compactMoney, confidence, METHOD_WORDS, money, num, pct } from "../../_components/run-format";
-import { CompletedRun } from "../../_components/run-state";
-
-function Zone({ zone }: { zone: string }) {
-  if (zone === "green") return <StatusBadge tone="ok">Green zone</StatusBadge>;
-  if (zone === "yellow") return <StatusBadge tone="caution">Yellow zone</StatusBadge>;
-  return <StatusBadge tone="alert">Red zone</StatusBadge>;
-}
+import { CompletedRun, ZoneBadge } from "../../_components/run-state";
 
 function View({ results, currency }: { results: RunResults; currency: string }) {
   const bt = results.monthEnd.backtest;
@@ -34,7 +27,7 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
         <div>
           <p className="text-sm text-ink-soft">Zone</p>
           <p className="mt-1" data-testid="backtest-zone">
-            <Zone zone={bt.zone} />
+            <ZoneBadge zone={bt.zone} />
           </p>
           <p className="mt-1 text-xs text-ink-muted">Plus factor {bt.plusFactor} on the capital multiplier.</p>
         </div>
