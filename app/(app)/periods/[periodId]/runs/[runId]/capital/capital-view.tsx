@@ -30,6 +30,19 @@ function Money({ value, currency }: { value: number; currency: string }) {
   return <>{money(value, currency)}</>;
 }
 
+/** Amounts in the reporting currency side by side, one figure cell each. */
+function MoneyCells({ values, currency }: { values: number[]; currency: string }) {
+  return (
+    <>
+      {values.map((v, i) => (
+        <td key={i} className={td}>
+          {money(v, currency)}
+        </td>
+      ))}
+    </>
+  );
+}
+
 function years(y: number): string {
   return `${num(y, 2)} y`;
 }
@@ -143,13 +156,7 @@ function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; curr
               <th scope="row" className="py-1 pr-3 text-left font-normal whitespace-nowrap">{b.band}</th>
               <td className={td}>{b.zone}</td>
               <td className={td}>{ladder.method === "duration" ? num(b.weight, 2) : pct(b.weight, 2)}</td>
-              <td className={td}><Money value={b.long} currency={currency} /></td>
-              <td className={td}><Money value={b.short} currency={currency} /></td>
-              <td className={td}><Money value={b.weightedLong} currency={currency} /></td>
-              <td className={td}><Money value={b.weightedShort} currency={currency} /></td>
-              <td className={td}><Money value={b.matched} currency={currency} /></td>
-              <td className={td}><Money value={b.net} currency={currency} /></td>
-              <td className={td}><Money value={b.verticalCharge} currency={currency} /></td>
+              <MoneyCells currency={currency} values={[b.long, b.short, b.weightedLong, b.weightedShort, b.matched, b.net, b.verticalCharge]} />
             </tr>
           ))}
         </FigureTable>
@@ -159,12 +166,9 @@ function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; curr
           {ladder.zones.map((z) => (
             <tr key={z.zone} className="border-b border-ink-line/60">
               <th scope="row" className="py-1 pr-3 text-left font-normal">Zone {z.zone}</th>
-              <td className={td}><Money value={z.netLong} currency={currency} /></td>
-              <td className={td}><Money value={z.netShort} currency={currency} /></td>
-              <td className={td}><Money value={z.matched} currency={currency} /></td>
+              <MoneyCells currency={currency} values={[z.netLong, z.netShort, z.matched]} />
               <td className={td}>{pct(z.rate, 0)}</td>
-              <td className={td}><Money value={z.charge} currency={currency} /></td>
-              <td className={td}><Money value={z.net} currency={currency} /></td>
+              <MoneyCells currency={currency} values={[z.charge, z.net]} />
             </tr>
           ))}
         </FigureTable>
@@ -263,8 +267,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
               <tr key={m.market} className="border-b border-ink-line/60">
                 <th scope="row" className="py-1 pr-3 text-left font-normal">{m.market}</th>
                 <td className={td}>{m.issues.length}</td>
-                <td className={td}><Money value={m.gross} currency={currency} /></td>
-                <td className={td}><Money value={m.net} currency={currency} /></td>
+                <MoneyCells currency={currency} values={[m.gross, m.net]} />
                 <td className={td}>{pct(m.specificRate, 0)}</td>
                 <td className={td}><Money value={m.specific} currency={currency} /></td>
                 <td className={td}>{pct(m.generalRate, 0)}</td>
@@ -282,9 +285,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             {result.fx.byCurrency.map((c) => (
               <tr key={c.currency} className="border-b border-ink-line/60">
                 <th scope="row" className="py-1 pr-3 text-left font-normal">{c.currency}</th>
-                <td className={td}><Money value={c.fromPositions} currency={currency} /></td>
-                <td className={td}><Money value={c.fromCurrencyPositions} currency={currency} /></td>
-                <td className={td}><Money value={c.net} currency={currency} /></td>
+                <MoneyCells currency={currency} values={[c.fromPositions, c.fromCurrencyPositions, c.net]} />
               </tr>
             ))}
           </FigureTable>
@@ -318,13 +319,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             {result.commodities.byCommodity.map((c) => (
               <tr key={c.commodity} className="border-b border-ink-line/60">
                 <th scope="row" className="py-1 pr-3 text-left font-normal">{c.commodity}</th>
-                <td className={td}><Money value={c.long} currency={currency} /></td>
-                <td className={td}><Money value={c.short} currency={currency} /></td>
-                <td className={td}><Money value={c.net} currency={currency} /></td>
-                <td className={td}><Money value={c.gross} currency={currency} /></td>
-                <td className={td}><Money value={c.netCharge} currency={currency} /></td>
-                <td className={td}><Money value={c.grossCharge} currency={currency} /></td>
-                <td className={td}><Money value={c.charge} currency={currency} /></td>
+                <MoneyCells currency={currency} values={[c.long, c.short, c.net, c.gross, c.netCharge, c.grossCharge, c.charge]} />
               </tr>
             ))}
           </FigureTable>
@@ -344,8 +339,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
                 <td className="py-1 pr-3">{o.treatment === "hedged" ? "with its hedge" : "bought, no hedge"}</td>
                 <td className={td}><Money value={o.underlyingValue} currency={currency} /></td>
                 <td className={td}>{pct(o.specificRate + o.generalRate, 0)}</td>
-                <td className={td}><Money value={o.inTheMoney} currency={currency} /></td>
-                <td className={td}><Money value={o.charge} currency={currency} /></td>
+                <MoneyCells currency={currency} values={[o.inTheMoney, o.charge]} />
               </tr>
             ))}
           </FigureTable>
