@@ -3,7 +3,6 @@
 import localFont from "next/font/local";
 import "./globals.css";
 import { Logo } from "@/app/_components/logo";
-import { secondaryButtonClass } from "@/app/_components/field";
 import { ErrorNotice } from "@/app/_components/error-notice";
 
 const ballastSans = localFont({
@@ -27,17 +26,8 @@ export default function GlobalError({ error, retry }: { error: unknown; retry: (
         <div className="mx-auto max-w-xl">
           <Logo />
         </div>
-        <ErrorNotice
-          error={error}
-          retry={retry}
-          title="Ballast could not show this page"
-          wayOn={
-            // a plain link: the app's router may be what failed
-            <a href="/home" className={secondaryButtonClass}>
-              Go to this month
-            </a>
-          }
-        >
+        {/* a plain link: the app's router may be what failed */}
+        <ErrorNotice error={error} retry={retry} title="Ballast could not show this page" plainLink>
           <p>Something failed before the page could be laid out. Showing a page reads stored data and changes none of it.</p>
         </ErrorNotice>
       </body>

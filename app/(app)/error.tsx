@@ -1,7 +1,5 @@
 "use client";
 
-import Link from "next/link";
-import { secondaryButtonClass } from "@/app/_components/field";
 import { ErrorNotice } from "@/app/_components/error-notice";
 
 /**
@@ -11,16 +9,7 @@ import { ErrorNotice } from "@/app/_components/error-notice";
  */
 export default function AppError({ error, retry }: { error: unknown; retry: () => void }) {
   return (
-    <ErrorNotice
-      error={error}
-      retry={retry}
-      title="This page could not be shown"
-      wayOn={
-        <Link href="/home" className={secondaryButtonClass}>
-          Go to this month
-        </Link>
-      }
-    >
+    <ErrorNotice error={error} retry={retry} title="This page could not be shown">
       <p>Ballast hit an error while preparing this page. Showing a page reads stored data and changes none of it.</p>
     </ErrorNotice>
   );
