@@ -1,5 +1,6 @@
 /**
- * Status, state and kind columns refuse a value the code does not know (db/migrations/0016_enum_checks.sql), naming
+ * Status, state and kind columns refuse a value the code does not know (db/migrations/0016_enum_checks.sql and
+ * 0018_upload_status_checks.sql), naming
  * the column and the allowed values. The lists in the migration are checked against the code's own types: the
  * `Exactly` lines fail the type check when a value is added to a type and not to the migration, or the other way round.
  */
@@ -13,7 +14,8 @@ import type { ReminderStatus } from "@/lib/reminders/log";
 import type { MethodStatus } from "@/lib/data/method";
 import type { CommentView, FilingRowStatus } from "@/lib/data/filings";
 import type { RunStatus } from "@/lib/runs/types";
-import type { UploadKind } from "@/lib/data/uploads";
+import type { UploadKind, UploadStatus } from "@/lib/data/uploads";
+import type { PartName } from "@/lib/data/uploads/parts";
 import type { CapitalRegime, RegimeChoice } from "@/lib/validation/capital-profile";
 
 /** A list holding every member of the union T and nothing else (a missing or stray value is a type error). */
@@ -34,9 +36,11 @@ const EXPECTED: Record<string, readonly string[]> = {
   "pack_files.state": exactly<Exclude<FilingRowStatus, "in_review" | "changes_requested">>()(["draft", "signed", "filed", "superseded"]),
   "pack_files.format": ["docx", "xlsx"],
   "uploads.kind": exactly<UploadKind>()(["positions", "prices"]),
+  "uploads.status": exactly<UploadStatus>()(["reading", "pending", "duplicate", "failed", "confirming", "confirmed", "cancelled", "superseded"]),
+  "upload_parts.part": exactly<PartName>()(["rows", "problems"]),
 };
 
-const migration = readFileSync(path.join(__dirname, "../../../db/migrations/0016_enum_checks.sql"), "utf8");
+const migration = ["0016_enum_checks.sql", "0018_upload_status_checks.sql"].map((f) => readFileSync(path.join(__dirname, "../../../db/migrations", f), "utf8")).join("\n");
 
 /** The allowed lists written in the migration's insert triggers, by table.column. */
 function migrationLists(): Record<string, string[]> {

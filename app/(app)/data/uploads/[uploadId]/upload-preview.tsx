@@ -68,7 +68,9 @@ function WorkProgress({ status, job, sizeBytes }: { status: string; job: Preview
           ? `The file (${(sizeBytes / 1024).toFixed(1)} KB) is read and every row checked before anything is shown; nothing is stored in the period or the price history yet.`
           : "The rows are stored first where nothing reads them; the last step makes them count, all at once. You can leave this page and come back."}
       </p>
-      <progress className="mt-3 h-2 w-full accent-brass" max={1} value={fraction} aria-label={`${title}: ${Math.round(fraction * 100)} %`} />
+      <div role="progressbar" aria-label={title} aria-valuemin={0} aria-valuemax={100} aria-valuenow={Math.round(fraction * 100)} className="mt-3 h-2 w-full overflow-hidden rounded-full bg-paper-sunk">
+        <div className="h-full bg-brass transition-[width]" style={{ width: `${Math.round(fraction * 100)}%` }} />
+      </div>
       <p role="status" className="mt-1 text-sm">
         {stage} · {Math.round(fraction * 100)} %
       </p>
@@ -281,8 +283,13 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
         title={upload.fileName}
         lead={
           <>
-            {upload.kind === "positions" ? "Positions" : "Price history"} · {(upload.sizeBytes / 1024).toFixed(1)} KB · SHA-256{" "}
-            <code className="text-xs">{upload.sha256.slice(0, 16)}…</code>
+            {upload.kind === "positions" ? "Positions" : "Price history"} · {(upload.sizeBytes / 1024).toFixed(1)} KB
+            {upload.sha256 ? (
+              <>
+                {" "}
+                · SHA-256 <code className="text-xs">{upload.sha256.slice(0, 16)}…</code>
+              </>
+            ) : null}
           </>
         }
         actions={<UploadStatus status={upload.status} />}
