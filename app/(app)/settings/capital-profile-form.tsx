@@ -1,7 +1,5 @@
 "use client";
 
-import { useState } from "react";
-import { useRouter } from "next/navigation";
 import { useFieldArray, useForm, useWatch, type FieldPath, type UseFormReturn } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import {
@@ -14,11 +12,11 @@ import {
   type CapitalProfileInput,
   type CapitalProfileValues,
 } from "@/lib/validation/capital-profile";
-import { apiFetch, ApiError } from "@/app/_components/api";
+import { apiFetch } from "@/app/_components/api";
 import { inputClass, secondaryButtonClass } from "@/app/_components/field";
-import { CheckboxField, NumberField, SelectField, setFieldErrors, TextAreaField, TextField, useFieldBinding } from "@/app/_components/form/fields";
+import { CheckboxField, NumberField, SelectField, TextAreaField, TextField, useFieldBinding } from "@/app/_components/form/fields";
 import type { CapitalProfileVersion } from "@/lib/data/capital-profile";
-import { saveFailed, SaveButton, SaveStatusLine, type SaveStatus } from "./save-status";
+import { SaveButton, SaveStatusLine, useSettingsSave } from "./save-status";
 
 type Path = FieldPath<CapitalProfileInput>;
 type Form = UseFormReturn<CapitalProfileInput>;
@@ -52,15 +50,12 @@ function years(y: number | null | undefined): string {
 }
 
 export function CapitalProfileForm({ current, versions, editable }: { current: CapitalProfileVersion | null; versions: CapitalProfileVersion[]; editable: boolean }) {
-  const router = useRouter();
-  const [status, setStatus] = useState<SaveStatus>(null);
   const initial = current?.form ?? defaultCapitalProfileForm();
   const form = useForm<CapitalProfileInput, unknown, CapitalProfileValues>({
     resolver: zodResolver(capitalProfileSchema),
     defaultValues: initial,
   });
   const {
-    handleSubmit,
     control,
     reset,
     formState: { isSubmitting, isDirty },
@@ -71,17 +66,10 @@ export function CapitalProfileForm({ current, versions, editable }: { current: C
   const regimes = useWatch({ control, name: "regimes" });
   const irMethod = useWatch({ control, name: "standardised.interestRateMethod" });
 
-  const onSubmit = handleSubmit(async (values) => {
-    setStatus(null);
-    try {
-      const saved = await apiFetch<CapitalProfileVersion>("/api/capital-profile", { method: "POST", body: values });
-      reset(saved.form);
-      setStatus({ tone: "ok", text: `Saved as version ${saved.version}. Runs started from now use it.` });
-      router.refresh();
-    } catch (error) {
-      if (error instanceof ApiError) setFieldErrors(form, error.fields);
-      setStatus(saveFailed(error));
-    }
+  const { status, setStatus, onSubmit } = useSettingsSave(form, async (values) => {
+    const saved = await apiFetch<CapitalProfileVersion>("/api/capital-profile", { method: "POST", body: values });
+    reset(saved.form);
+    return `Saved as version ${saved.version}. Runs started from now use it.`;
   });
 
   const num = (path: Path, label: string, hint?: string, step = "any") => (

@@ -1,18 +1,14 @@
 "use client";
 
-import { useState } from "react";
-import { useRouter } from "next/navigation";
 import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { firmSettingsSchema, REPORTING_CURRENCIES, type FirmSettingsInput } from "@/lib/validation/firm";
-import { apiFetch, ApiError } from "@/app/_components/api";
-import { TextField, NumberField, SelectField, TextAreaField, CheckboxField, setFieldErrors } from "@/app/_components/form/fields";
+import { apiFetch } from "@/app/_components/api";
+import { TextField, NumberField, SelectField, TextAreaField, CheckboxField } from "@/app/_components/form/fields";
 import type { FirmSettings } from "@/lib/data/firm";
-import { saveFailed, SaveButton, SaveStatusLine, type SaveStatus } from "./save-status";
+import { SaveButton, SaveStatusLine, useSettingsSave } from "./save-status";
 
 export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings; editable: boolean }) {
-  const router = useRouter();
-  const [status, setStatus] = useState<SaveStatus>(null);
   const form = useForm<FirmSettingsInput>({
     resolver: zodResolver(firmSettingsSchema) as never,
     defaultValues: {
@@ -27,7 +23,6 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
     },
   });
   const {
-    handleSubmit,
     control,
     formState: { isSubmitting, isDirty },
     reset,
@@ -35,17 +30,10 @@ export function FirmSettingsForm({ initial, editable }: { initial: FirmSettings;
   const rule = useWatch({ control, name: "deadlineRule" });
   const coApproval = useWatch({ control, name: "methodCoApproval" });
 
-  const onSubmit = handleSubmit(async (values) => {
-    setStatus(null);
-    try {
-      const saved = await apiFetch<FirmSettings>("/api/firm", { method: "PATCH", body: values });
-      reset({ ...values, name: saved.name });
-      setStatus({ tone: "ok", text: "Settings saved." });
-      router.refresh();
-    } catch (error) {
-      if (error instanceof ApiError) setFieldErrors(form, error.fields);
-      setStatus(saveFailed(error));
-    }
+  const { status, onSubmit } = useSettingsSave(form, async (values) => {
+    const saved = await apiFetch<FirmSettings>("/api/firm", { method: "PATCH", body: values });
+    reset({ ...values, name: saved.name });
+    return "Settings saved.";
   });
 
   return (
