@@ -7,6 +7,7 @@ import { ASSET_CLASS_LABELS, type AssetClass } from "@/lib/uploads/asset-classes
 import { describeComputedMethod } from "@/reports/method-text";
 import { FigureTable } from "@/app/_components/figure-table";
 import { pct } from "../_components/run-format";
+import { Bullets } from "../_components/bullets";
 
 const SOURCE_WORDS: Record<string, string> = { factor: "the factor's own choice", "asset-class": "its asset class", default: "the firm-wide default", legacy: "the one covariance model" };
 
@@ -22,11 +23,7 @@ export function ModelUsed({ results }: { results: RunResults }) {
   const sentences = describeComputedMethod(results.monthEnd, results.method.content);
   return (
     <div className="flex flex-col gap-3">
-      <ul className="list-disc space-y-1 pl-5 text-sm" data-testid="model-statements">
-        {sentences.map((s) => (
-          <li key={s}>{s}</li>
-        ))}
-      </ul>
+      <Bullets items={sentences} className="list-disc space-y-1 pl-5 text-sm" testId="model-statements" />
       {model ? (
         <div className="relative overflow-x-auto">
           <FigureTable

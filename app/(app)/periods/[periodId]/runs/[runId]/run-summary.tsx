@@ -12,6 +12,7 @@ import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunRecord, RunResults } from "@/lib/runs/types";
 import { confidence, METHOD_WORDS, money, num, pct } from "../_components/run-format";
 import { CompletedRun, RunStatusBadge, ZoneBadge } from "../_components/run-state";
+import { Bullets } from "../_components/bullets";
 import { useRun } from "../_components/use-run";
 import { ModelUsed } from "./model-used";
 import { countOf, plural } from "@/lib/text/count";
@@ -74,13 +75,7 @@ function VarTable({ results, currency }: { results: RunResults; currency: string
           )),
         )}
       </FigureTable>
-      <ul className="mt-2 list-disc pl-5 text-xs text-ink-muted">
-        {m.methods.map((method) => (
-          <li key={method.method}>
-            {METHOD_WORDS[method.method]}: {method.scalingStatement}
-          </li>
-        ))}
-      </ul>
+      <Bullets items={m.methods.map((method) => `${METHOD_WORDS[method.method]}: ${method.scalingStatement}`)} className="mt-2 list-disc pl-5 text-xs text-ink-muted" />
     </div>
   );
 }
@@ -138,11 +133,7 @@ function Reproduction({ r, periodId }: { r: NonNullable<RunResults["reproduction
         </Link>
       </p>
       {r.reasons.length ? (
-        <ul className="mt-2 list-disc pl-5 text-sm">
-          {r.reasons.map((reason) => (
-            <li key={reason}>{reason}</li>
-          ))}
-        </ul>
+        <Bullets items={r.reasons} className="mt-2 list-disc pl-5 text-sm" />
       ) : null}
       {r.differences.length ? (
         <div className="mt-3 max-h-80 overflow-auto rounded border border-ink-line bg-paper-raised">
@@ -316,11 +307,7 @@ export function RunSummary({ periodId, runId, canReproduce, canChooseForFiling }
                     Read it
                   </Link>
                 </p>
-                <ul className="mt-2 list-disc pl-5 text-xs text-ink-muted">
-                  {results.notes.map((n) => (
-                    <li key={n}>{n}</li>
-                  ))}
-                </ul>
+                <Bullets items={results.notes} className="mt-2 list-disc pl-5 text-xs text-ink-muted" />
               </Card>
             </div>
             <Card title="Model used for these figures" id="model">
@@ -383,21 +370,13 @@ export function RunSummary({ periodId, runId, canReproduce, canChooseForFiling }
             <div className="grid gap-6 lg:grid-cols-2">
               <Card title="Warnings" id="warnings">
                 {m.warnings.length ? (
-                  <ul className="list-disc pl-5 text-sm">
-                    {m.warnings.map((w, i) => (
-                      <li key={`${w.code}-${i}`}>{w.message}</li>
-                    ))}
-                  </ul>
+                  <Bullets items={m.warnings.map((w) => w.message)} className="list-disc pl-5 text-sm" />
                 ) : (
                   <p className="text-sm text-ink-muted">No warning.</p>
                 )}
               </Card>
               <Card title="Limitations" id="limitations">
-                <ul className="list-disc pl-5 text-sm">
-                  {m.limitations.map((l) => (
-                    <li key={l}>{l}</li>
-                  ))}
-                </ul>
+                <Bullets items={m.limitations} className="list-disc pl-5 text-sm" />
               </Card>
             </div>
             <p className="text-xs text-ink-muted">

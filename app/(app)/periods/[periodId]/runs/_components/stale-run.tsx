@@ -1,5 +1,6 @@
 import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunFreshness } from "@/lib/runs/freshness";
+import { Bullets } from "./bullets";
 
 /** "Stale" with what changed as its title, for a run whose inputs are no longer the period's current ones. */
 export function StaleRunBadge({ freshness }: { freshness: RunFreshness | null | undefined }) {
@@ -25,11 +26,7 @@ export function StaleRunNotice({
   return (
     <div role="status" className="mb-4 rounded-md border border-caution/30 bg-caution-bg p-3 text-sm text-ink" data-testid="stale-run-notice">
       <p className="font-semibold">{what} is stale: its inputs are no longer the period&apos;s current ones.</p>
-      <ul className="mt-1 list-disc pl-5">
-        {freshness.changes.map((c, i) => (
-          <li key={i}>{c.message}</li>
-        ))}
-      </ul>
+      <Bullets items={freshness.changes.map((c) => c.message)} className="mt-1 list-disc pl-5" />
       <p className="mt-1 text-ink-soft">{advice}</p>
     </div>
   );

@@ -9,6 +9,7 @@ import { formatDate } from "@/app/_components/format";
 import type { RunResults } from "@/lib/runs/types";
 import { compactMoney, confidence, METHOD_WORDS, money, num, pct } from "../../_components/run-format";
 import { CompletedRun, ZoneBadge } from "../../_components/run-state";
+import { Bullets } from "../../_components/bullets";
 
 function View({ results, currency }: { results: RunResults; currency: string }) {
   const bt = results.monthEnd.backtest;
@@ -126,11 +127,7 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
             <p className="text-sm text-ink-muted">No day&apos;s loss exceeded its VaR.</p>
           )}
           {bt.warnings.length ? (
-            <ul className="mt-3 list-disc pl-5 text-xs text-caution">
-              {bt.warnings.map((w) => (
-                <li key={w.code}>{w.message}</li>
-              ))}
-            </ul>
+            <Bullets items={bt.warnings.map((w) => w.message)} className="mt-3 list-disc pl-5 text-xs text-caution" />
           ) : null}
         </section>
       </div>

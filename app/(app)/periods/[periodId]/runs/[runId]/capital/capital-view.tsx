@@ -10,6 +10,7 @@ import { filedCapitalOf, RWA_MULTIPLIER } from "@/lib/runs/filed-capital";
 import { REGIME_LABELS } from "@/lib/validation/capital-profile";
 import { compactMoney, money, num, pct } from "../../_components/run-format";
 import { CompletedRun } from "../../_components/run-state";
+import { Bullets } from "../../_components/bullets";
 
 /** The blocks in the order the total adds them, with their names on screen. */
 export const BLOCK_WORDS: { key: keyof StandardisedBlocks; label: string }[] = [
@@ -349,11 +350,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
       {result.warnings.length > 0 ? (
         <section aria-labelledby="std-notes" className="rounded-lg border border-ink-line bg-paper-raised p-4">
           <h3 id="std-notes" className="mb-2 font-semibold">What the blocks did not cover or assumed</h3>
-          <ul className="list-disc pl-5 text-sm">
-            {result.warnings.map((w) => (
-              <li key={w.code + w.message}>{w.message}</li>
-            ))}
-          </ul>
+          <Bullets items={result.warnings.map((w) => w.message)} className="list-disc pl-5 text-sm" />
         </section>
       ) : null}
     </div>

@@ -10,6 +10,7 @@ import { formatDate } from "@/app/_components/format";
 import type { RunChange } from "@/lib/runs/types";
 import { compactMoney, confidence, money } from "../../_components/run-format";
 import { CompletedRun } from "../../_components/run-state";
+import { Bullets } from "../../_components/bullets";
 
 const STEP_WORDS = { positions: "Positions", volatilities: "Volatilities", correlations: "Correlations" } as const;
 
@@ -85,11 +86,7 @@ function View({ runId, currency }: { runId: string; currency: string }) {
         </p>
       ) : null}
       {x.warnings.length ? (
-        <ul className="list-disc pl-5 text-sm text-caution">
-          {x.warnings.map((w) => (
-            <li key={w.code}>{w.message}</li>
-          ))}
-        </ul>
+        <Bullets items={x.warnings.map((w) => w.message)} className="list-disc pl-5 text-sm text-caution" />
       ) : null}
     </div>
   );
