@@ -49,7 +49,8 @@ const WORKING = new Set(["reading", "confirming"]);
 /** What a finished confirmation stored, in words. */
 function confirmedText(kind: "positions" | "prices", summary: Record<string, unknown> | null): string {
   const done = (summary?.confirmed ?? summary ?? {}) as { stored?: number; added?: number; corrected?: number };
-  return kind === "positions" ? `Confirmed: ${done.stored ?? 0} positions stored in the period.` : `Confirmed: ${done.added ?? 0} new closes, ${done.corrected ?? 0} corrections.`;
+  const n = (v: number | undefined) => (v ?? 0).toLocaleString("en");
+  return kind === "positions" ? `Confirmed: ${n(done.stored)} positions stored in the period.` : `Confirmed: ${n(done.added)} new closes, ${n(done.corrected)} corrections.`;
 }
 
 /** The worker's progress on the upload: what it is doing, how far, and a failed attempt it is retrying. */
@@ -189,7 +190,7 @@ function Totals({ summary, kind, reportingCurrency }: { summary: Record<string, 
       </p>
       {s.added !== undefined ? (
         <p className="mt-1">
-          Stored: {s.added} new, <span data-testid="corrected-count">{s.corrected}</span> corrected (old prices kept), {s.unchanged} unchanged.
+          Stored: {s.added.toLocaleString("en")} new, <span data-testid="corrected-count">{(s.corrected ?? 0).toLocaleString("en")}</span> corrected (old prices kept), {(s.unchanged ?? 0).toLocaleString("en")} unchanged.
         </p>
       ) : null}
     </section>
