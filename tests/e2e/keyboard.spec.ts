@@ -63,7 +63,8 @@ test("a positions file is uploaded and confirmed with the keyboard alone", async
   const [chooser] = await Promise.all([page.waitForEvent("filechooser"), page.keyboard.press("Enter")]);
   await chooser.setFiles({ name: "pellam-positions-2026-09.csv", mimeType: "text/csv", buffer: Buffer.from(book) });
   await page.waitForURL(/\/data\/uploads\/[0-9a-f-]{36}/, { timeout: 60_000 });
-  await expect(page.getByRole("heading", { name: "Problems" })).toBeVisible();
+  // the job worker reads and checks the file first (it may be busy with another job): the problems come when it has
+  await expect(page.getByRole("heading", { name: "Problems" })).toBeVisible({ timeout: 60_000 });
   await expectNoSeriousViolations(page, "upload preview");
 
   const acknowledge = page.getByLabel(/I have read the \d+ warnings?/);
@@ -75,7 +76,7 @@ test("a positions file is uploaded and confirmed with the keyboard alone", async
   }
   await tabTo(page, page.getByRole("button", { name: "Confirm", exact: true }));
   await page.keyboard.press("Enter");
-  await expect(page.getByTestId("preview-message")).toContainText("Confirmed");
+  await expect(page.getByTestId("preview-message")).toContainText("Confirmed", { timeout: 60_000 });
 });
 
 test("a run is started with the keyboard and opens at once", async ({ page }) => {
