@@ -5,6 +5,7 @@ import { useRouter } from "next/navigation";
 import { apiFetch } from "@/app/_components/api";
 import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
 import type { MethodVersion } from "@/lib/data/method";
+import { Panel } from "@/app/_components/panel";
 
 /**
  * Approve, co-approve or discard a draft. What shows depends on the person: the risk analyst approves (and may
@@ -52,10 +53,7 @@ export function ApprovalPanel({
   const blockers = [!version.evidence ? "attach the evidence" : null, unsaved ? "save your changes" : null].filter(Boolean);
 
   return (
-    <section aria-labelledby="approval" className="rounded-lg border border-ink-line bg-paper-raised p-5">
-      <h2 id="approval" className="mb-2 text-lg font-semibold">
-        Approval
-      </h2>
+    <Panel id="approval" title="Approval" padding="p-5" headingClassName="mb-2 text-lg font-semibold">
       <p className="mb-3 text-sm text-ink-soft">
         {version.awaitingCoApproval
           ? `Approved by ${version.approvedBy?.name}; waiting for a compliance head to co-approve. Once approved, this version cannot change and replaces the current one for new runs.`
@@ -126,6 +124,6 @@ export function ApprovalPanel({
           {error}
         </p>
       ) : null}
-    </section>
+    </Panel>
   );
 }

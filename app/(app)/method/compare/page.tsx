@@ -8,6 +8,7 @@ import { methodDiffQuerySchema } from "@/lib/validation/method";
 import { VersionStatus } from "../_components/version-status";
 import { WORD_ROW, WORD_TABLE } from "../_components/method-view";
 import { FigureRow, FigureTable } from "@/app/_components/figure-table";
+import { Panel } from "@/app/_components/panel";
 
 export const metadata: Metadata = { title: "Compare method statement versions" };
 
@@ -61,10 +62,7 @@ export default async function CompareMethodPage({ searchParams }: { searchParams
             <VersionStatus status={diff.to.status} awaitingCoApproval={false} />
             {diff.to.reason ? <span className="text-ink-soft">· reason for version {diff.to.version}: {diff.to.reason}</span> : null}
           </p>
-          <section aria-labelledby="diff-content" className="rounded-lg border border-ink-line bg-paper-raised p-5">
-            <h2 id="diff-content" className="mb-3 text-lg font-semibold">
-              Method
-            </h2>
+          <Panel id="diff-content" title="Method" padding="p-5" headingClassName="mb-3 text-lg font-semibold">
             {diff.content.length === 0 ? (
               <p className="text-sm text-ink-soft">No field of the method differs.</p>
             ) : (
@@ -82,11 +80,8 @@ export default async function CompareMethodPage({ searchParams }: { searchParams
                 ))}
               </FigureTable>
             )}
-          </section>
-          <section aria-labelledby="diff-rationale" className="rounded-lg border border-ink-line bg-paper-raised p-5">
-            <h2 id="diff-rationale" className="mb-3 text-lg font-semibold">
-              Rationale
-            </h2>
+          </Panel>
+          <Panel id="diff-rationale" title="Rationale" padding="p-5" headingClassName="mb-3 text-lg font-semibold">
             {diff.rationale.changed ? (
               <div className="grid gap-4 text-sm md:grid-cols-2">
                 <div>
@@ -101,11 +96,8 @@ export default async function CompareMethodPage({ searchParams }: { searchParams
             ) : (
               <p className="text-sm text-ink-soft">Unchanged.</p>
             )}
-          </section>
-          <section aria-labelledby="diff-limitations" className="rounded-lg border border-ink-line bg-paper-raised p-5">
-            <h2 id="diff-limitations" className="mb-3 text-lg font-semibold">
-              Limitations
-            </h2>
+          </Panel>
+          <Panel id="diff-limitations" title="Limitations" padding="p-5" headingClassName="mb-3 text-lg font-semibold">
             {diff.limitations.added.length === 0 && diff.limitations.removed.length === 0 ? (
               <p className="text-sm text-ink-soft">Unchanged ({diff.limitations.kept}).</p>
             ) : (
@@ -125,7 +117,7 @@ export default async function CompareMethodPage({ searchParams }: { searchParams
                 <li className="text-ink-muted">{diff.limitations.kept} unchanged.</li>
               </ul>
             )}
-          </section>
+          </Panel>
           <p className="text-sm text-ink-soft">
             Evidence: version {diff.from.version} {diff.evidence.from ? `computed ${diff.evidence.from.slice(0, 10)}` : "has none"}; version {diff.to.version}{" "}
             {diff.evidence.to ? `computed ${diff.evidence.to.slice(0, 10)}` : "has none yet"}.

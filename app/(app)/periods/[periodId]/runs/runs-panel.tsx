@@ -18,6 +18,7 @@ import { RunProgress } from "./_components/run-progress";
 import { RunStatusBadge, ZoneBadge } from "./_components/run-state";
 import { StaleRunBadge } from "./_components/stale-run";
 import { isActive } from "./_components/use-run";
+import { Panel } from "@/app/_components/panel";
 
 const column = createColumnHelper<RunListItem>();
 
@@ -91,10 +92,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
 
   return (
     <div className="flex flex-col gap-6">
-      <section aria-labelledby="start-run" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h2 id="start-run" className="mb-2 font-semibold">
-          {active ? "A run is in progress" : "Start a run"}
-        </h2>
+      <Panel id="start-run" title={<>{active ? "A run is in progress" : "Start a run"}</>} headingClassName="mb-2 font-semibold">
         {active ? (
           <div className="flex flex-col gap-2">
             <RunProgress stage={active.stage} progress={active.progress} />
@@ -134,7 +132,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
             ) : null}
           </div>
         ) : null}
-      </section>
+      </Panel>
 
       <section aria-labelledby="runs-list">
         <h2 id="runs-list" className="mb-2 text-lg font-semibold">

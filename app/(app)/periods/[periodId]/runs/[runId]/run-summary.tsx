@@ -7,6 +7,7 @@ import { apiFetch } from "@/app/_components/api";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
 import { FigureTable } from "@/app/_components/figure-table";
+import { Panel } from "@/app/_components/panel";
 import { formatDate, formatTimestamp } from "@/app/_components/format";
 import { StatusBadge } from "@/app/_components/status-badge";
 import type { RunRecord, RunResults } from "@/lib/runs/types";
@@ -17,14 +18,12 @@ import { useRun } from "../_components/use-run";
 import { ModelUsed } from "./model-used";
 import { countOf, plural } from "@/lib/text/count";
 
+/** The summary's cards: a Panel with a little room under its heading. */
 function Card({ title, id, children, className = "" }: { title: string; id: string; children: React.ReactNode; className?: string }) {
   return (
-    <section aria-labelledby={id} className={`rounded-lg border border-ink-line bg-paper-raised p-4 ${className}`}>
-      <h2 id={id} className="mb-3 font-semibold">
-        {title}
-      </h2>
+    <Panel id={id} title={title} className={className} headingClassName="mb-3 font-semibold">
       {children}
-    </section>
+    </Panel>
   );
 }
 

@@ -10,6 +10,7 @@ import type { RunResults } from "@/lib/runs/types";
 import { compactMoney, confidence, METHOD_WORDS, money, num, pct } from "../../_components/run-format";
 import { CompletedRun, ZoneBadge } from "../../_components/run-state";
 import { Bullets } from "../../_components/bullets";
+import { Panel } from "@/app/_components/panel";
 
 function View({ results, currency }: { results: RunResults; currency: string }) {
   const bt = results.monthEnd.backtest;
@@ -21,10 +22,7 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
   return (
     <div className="flex flex-col gap-6">
       <DraftCaution />
-      <section aria-labelledby="bt-result" className="grid gap-4 rounded-lg border border-ink-line bg-paper-raised p-4 md:grid-cols-3">
-        <h2 id="bt-result" className="sr-only">
-          Result
-        </h2>
+      <Panel id="bt-result" title="Result" className="grid gap-4 md:grid-cols-3" headingClassName="sr-only">
         <div>
           <p className="text-sm text-ink-soft">Zone</p>
           <p className="mt-1" data-testid="backtest-zone">
@@ -46,12 +44,9 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
           <p className="text-sm">{METHOD_WORDS[bt.method]} one-day VaR forecast from the day before</p>
         </div>
         <p className="text-xs text-ink-muted md:col-span-3">{bt.statement}</p>
-      </section>
+      </Panel>
 
-      <section aria-labelledby="bt-chart" className="flex flex-col gap-3 rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h2 id="bt-chart" className="font-semibold">
-          P&amp;L against VaR, day by day
-        </h2>
+      <Panel id="bt-chart" title={<>P&amp;L against VaR, day by day</>} className="flex flex-col gap-3">
         <figure aria-labelledby="chart-bt" className="flex flex-col gap-2">
           <figcaption id="chart-bt" className="text-sm font-medium">
             Daily P&amp;L of today&apos;s book ({currency}) from {formatDate(s.dates[0])} to {formatDate(s.dates[s.dates.length - 1])} against the negative one-day {confidence(s.confidence)} VaR; a loss below the
@@ -86,13 +81,10 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
             </FigureTable>
           </div>
         </details>
-      </section>
+      </Panel>
 
       <div className="grid gap-6 lg:grid-cols-2">
-        <section aria-labelledby="bt-tests" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-          <h2 id="bt-tests" className="mb-3 font-semibold">
-            Statistical tests
-          </h2>
+        <Panel id="bt-tests" title="Statistical tests" headingClassName="mb-3 font-semibold">
           <FigureTable
             testId="backtest-tests"
             caption="Likelihood-ratio statistics with their χ² p-values; a small p-value speaks against the VaR model."
@@ -112,11 +104,8 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
               </tr>
             )}
           </FigureTable>
-        </section>
-        <section aria-labelledby="bt-exceptions" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-          <h2 id="bt-exceptions" className="mb-3 font-semibold">
-            Exceptions
-          </h2>
+        </Panel>
+        <Panel id="bt-exceptions" title="Exceptions" headingClassName="mb-3 font-semibold">
           {bt.exceptionList.length ? (
             <FigureTable testId="exception-table" caption="Days the loss exceeded the VaR" hiddenCaption columns={["Date", "P&L", "VaR", "Beyond the VaR"]}>
               {bt.exceptionList.map((e) => (
@@ -129,7 +118,7 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
           {bt.warnings.length ? (
             <Bullets items={bt.warnings.map((w) => w.message)} className="mt-3 list-disc pl-5 text-xs text-caution" />
           ) : null}
-        </section>
+        </Panel>
       </div>
     </div>
   );

@@ -11,6 +11,7 @@ import { REGIME_LABELS } from "@/lib/validation/capital-profile";
 import { compactMoney, money, num, pct } from "../../_components/run-format";
 import { CompletedRun } from "../../_components/run-state";
 import { Bullets } from "../../_components/bullets";
+import { Panel } from "@/app/_components/panel";
 
 /** The blocks in the order the total adds them, with their names on screen. */
 export const BLOCK_WORDS: { key: keyof StandardisedBlocks; label: string }[] = [
@@ -146,10 +147,7 @@ function BlocksChart({ result, currency }: { result: StandardisedResult; currenc
 function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; currency: string }) {
   const weightWord = ladder.method === "duration" ? "Yield change (points)" : "Risk weight";
   return (
-    <section aria-labelledby={`ladder-${ladder.currency}`} className="flex flex-col gap-3 rounded-lg border border-ink-line bg-paper-raised p-4" data-testid={`ladder-${ladder.currency}`}>
-      <h4 id={`ladder-${ladder.currency}`} className="font-semibold">
-        {ladder.currency} ladder ({ladder.method === "duration" ? "duration method" : "maturity method"}): charge {money(ladder.charge, currency)}
-      </h4>
+    <Panel id={`ladder-${ladder.currency}`} title={<>{ladder.currency} ladder ({ladder.method === "duration" ? "duration method" : "maturity method"}): charge {money(ladder.charge, currency)}</>} level={4} className="flex flex-col gap-3" testId={`ladder-${ladder.currency}`}>
       <div className="relative overflow-x-auto">
         <FigureTable className="min-w-full text-sm" caption={<>Each band: positions, weighted positions, the matched amount and its vertical disallowance at {pct(ladder.verticalRate, 0)}</>} {...CAPITAL_TABLE} columns={["Band", "Zone", weightWord, "Long", "Short", "Weighted long", "Weighted short", "Matched", "Net", "Vertical charge"]}>
           {ladder.bands.map((b) => (
@@ -200,7 +198,7 @@ function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; curr
         {ladder.currency}: vertical {money(ladder.vertical, currency)} + within zones {money(ladder.withinZones, currency)} + between zones{" "}
         {money(ladder.between.zone12 + ladder.between.zone23 + ladder.between.zone13, currency)} + residual {money(ladder.residualCharge, currency)} = {money(ladder.charge, currency)}
       </p>
-    </section>
+    </Panel>
   );
 }
 
@@ -208,8 +206,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
   const ir = result.interestRate;
   return (
     <div className="flex flex-col gap-6">
-      <section aria-labelledby="ir-specific" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h3 id="ir-specific" className="mb-2 font-semibold">Interest rate: specific risk, {money(result.blocks.interestRateSpecific, currency)}</h3>
+      <Panel id="ir-specific" title={<>Interest rate: specific risk, {money(result.blocks.interestRateSpecific, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
         {ir.specific.length === 0 ? (
           <p className="text-sm text-ink-soft">No debt positions.</p>
         ) : (
@@ -229,7 +226,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             </FigureTable>
           </div>
         )}
-      </section>
+      </Panel>
 
       <section aria-labelledby="ir-general" className="flex flex-col gap-4">
         <h3 id="ir-general" className="font-semibold">Interest rate: general market risk, {money(result.blocks.interestRateGeneral, currency)} (one ladder per currency, summed without offsetting)</h3>
@@ -256,10 +253,7 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
         {ir.byCurrency.length === 0 ? <p className="text-sm text-ink-soft">No positions on an interest-rate ladder.</p> : ir.byCurrency.map((l) => <Ladder key={l.currency} ladder={l} currency={currency} />)}
       </section>
 
-      <section aria-labelledby="equity-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h3 id="equity-block" className="mb-2 font-semibold">
-          Equities, per national market: specific {money(result.blocks.equitySpecific, currency)}, general {money(result.blocks.equityGeneral, currency)}
-        </h3>
+      <Panel id="equity-block" title={<>Equities, per national market: specific {money(result.blocks.equitySpecific, currency)}, general {money(result.blocks.equityGeneral, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
         {result.equity.byMarket.length === 0 ? (
           <p className="text-sm text-ink-soft">No equity positions.</p>
         ) : (
@@ -277,10 +271,9 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             ))}
           </FigureTable>
         )}
-      </section>
+      </Panel>
 
-      <section aria-labelledby="fx-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h3 id="fx-block" className="mb-2 font-semibold">Foreign exchange and gold (shorthand method): {money(result.blocks.fx, currency)}</h3>
+      <Panel id="fx-block" title={<>Foreign exchange and gold (shorthand method): {money(result.blocks.fx, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
         <div className="grid gap-4 lg:grid-cols-2">
           <FigureTable className="text-sm" testId="fx-table" caption={<>Net open position per currency against {result.fx.reportingCurrency}</>} {...CAPITAL_TABLE} columns={["Currency", "From positions", "Currency positions", "Net"]}>
             {result.fx.byCurrency.map((c) => (
@@ -309,10 +302,9 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             </dd>
           </dl>
         </div>
-      </section>
+      </Panel>
 
-      <section aria-labelledby="commodity-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h3 id="commodity-block" className="mb-2 font-semibold">Commodities: {money(result.blocks.commodities, currency)}</h3>
+      <Panel id="commodity-block" title={<>Commodities: {money(result.blocks.commodities, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
         {result.commodities.byCommodity.length === 0 ? (
           <p className="text-sm text-ink-soft">No commodity positions.</p>
         ) : (
@@ -325,10 +317,9 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             ))}
           </FigureTable>
         )}
-      </section>
+      </Panel>
 
-      <section aria-labelledby="options-block" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h3 id="options-block" className="mb-2 font-semibold">Options (simplified carve-out): {money(result.blocks.options, currency)}</h3>
+      <Panel id="options-block" title={<>Options (simplified carve-out): {money(result.blocks.options, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
         {result.options.length === 0 ? (
           <p className="text-sm text-ink-soft">No option positions.</p>
         ) : (
@@ -345,13 +336,12 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             ))}
           </FigureTable>
         )}
-      </section>
+      </Panel>
 
       {result.warnings.length > 0 ? (
-        <section aria-labelledby="std-notes" className="rounded-lg border border-ink-line bg-paper-raised p-4">
-          <h3 id="std-notes" className="mb-2 font-semibold">What the blocks did not cover or assumed</h3>
+        <Panel id="std-notes" title="What the blocks did not cover or assumed" level={3} headingClassName="mb-2 font-semibold">
           <Bullets items={result.warnings.map((w) => w.message)} className="list-disc pl-5 text-sm" />
-        </section>
+        </Panel>
       ) : null}
     </div>
   );

@@ -11,6 +11,7 @@ import type { RunChange } from "@/lib/runs/types";
 import { compactMoney, confidence, money } from "../../_components/run-format";
 import { CompletedRun } from "../../_components/run-state";
 import { Bullets } from "../../_components/bullets";
+import { Panel } from "@/app/_components/panel";
 
 const STEP_WORDS = { positions: "Positions", volatilities: "Volatilities", correlations: "Correlations" } as const;
 
@@ -39,10 +40,7 @@ function View({ runId, currency }: { runId: string; currency: string }) {
         </Link>
         , <span className="figure font-semibold">{money(x.currentVar, currency)}</span> now: a change of <span className="figure font-semibold">{money(x.change, currency)}</span>. Order: {x.order}.
       </p>
-      <section aria-labelledby="change-steps" className="grid gap-4 rounded-lg border border-ink-line bg-paper-raised p-4 lg:grid-cols-2">
-        <h2 id="change-steps" className="font-semibold lg:col-span-2">
-          The change, step by step
-        </h2>
+      <Panel id="change-steps" title="The change, step by step" className="grid gap-4 lg:grid-cols-2" headingClassName="font-semibold lg:col-span-2">
         <figure aria-labelledby="chart-change" className="flex flex-col gap-2">
           <figcaption id="chart-change" className="text-sm font-medium">
             Last period&apos;s VaR, the change from each step, and this period&apos;s VaR ({currency})
@@ -78,7 +76,7 @@ function View({ runId, currency }: { runId: string; currency: string }) {
           ))}
           <FigureRow className="text-right font-semibold" headClassName="text-left" head="Whole change" cells={[money(x.previousVar, currency), money(x.currentVar, currency), money(x.change, currency)]} />
         </FigureTable>
-      </section>
+      </Panel>
       {x.newFactors.length || x.droppedFactors.length ? (
         <p className="text-sm text-ink-soft">
           {x.newFactors.length ? `New this period: ${x.newFactors.join(", ")}. ` : ""}

@@ -12,6 +12,7 @@ import type { PositionContribution } from "@/lib/risk";
 import type { RunResults } from "@/lib/runs/types";
 import { ASSET_CLASS_WORDS, compactMoney, confidence, METHOD_WORDS, money, pct } from "../../_components/run-format";
 import { CompletedRun } from "../../_components/run-state";
+import { Panel } from "@/app/_components/panel";
 
 const column = createColumnHelper<PositionContribution>();
 
@@ -124,20 +125,14 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
         among positions so that the parts add up to the whole (Euler allocation); a negative part is a hedge. Diversification benefit: the sum of the asset classes&apos; stand-alone VaR less the
         book&apos;s VaR, <span className="figure font-semibold">{money(c.diversificationBenefit, currency)}</span> at one day.
       </p>
-      <section aria-labelledby="by-class" className="grid gap-4 rounded-lg border border-ink-line bg-paper-raised p-4 lg:grid-cols-2">
-        <h2 id="by-class" className="font-semibold lg:col-span-2">
-          By asset class
-        </h2>
+      <Panel id="by-class" title="By asset class" className="grid gap-4 lg:grid-cols-2" headingClassName="font-semibold lg:col-span-2">
         <GroupChart title={`Component VaR by asset class, one day, ${confidence(c.confidence)}`} id="chart-class" data={classes.map((x) => ({ label: x.label, value: x.componentVar }))} currency={currency} />
         <GroupTable caption="Component and stand-alone VaR by asset class" rows={classes} currency={currency} total={total} standAlone />
-      </section>
-      <section aria-labelledby="by-currency" className="grid gap-4 rounded-lg border border-ink-line bg-paper-raised p-4 lg:grid-cols-2">
-        <h2 id="by-currency" className="font-semibold lg:col-span-2">
-          By currency
-        </h2>
+      </Panel>
+      <Panel id="by-currency" title="By currency" className="grid gap-4 lg:grid-cols-2" headingClassName="font-semibold lg:col-span-2">
         <GroupChart title={`Component VaR by the positions' currency, one day, ${confidence(c.confidence)}`} id="chart-currency" data={currencies.map((x) => ({ label: x.label, value: x.componentVar }))} currency={currency} />
         <GroupTable caption="Component VaR by currency (each position with its price and exchange-rate risk)" rows={currencies} currency={currency} total={total} standAlone={false} />
-      </section>
+      </Panel>
       <section aria-labelledby="by-position" className="flex flex-col gap-4">
         <h2 id="by-position" className="font-semibold">
           By position

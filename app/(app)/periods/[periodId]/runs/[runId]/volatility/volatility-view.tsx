@@ -13,6 +13,7 @@ import type { VolatilityDetail } from "@/lib/runs/volatility-detail";
 import type { RunResults } from "@/lib/runs/types";
 import { ASSET_CLASS_WORDS, pct } from "../../_components/run-format";
 import { CompletedRun } from "../../_components/run-state";
+import { Panel } from "@/app/_components/panel";
 
 const ANNUAL = Math.sqrt(252);
 const TERM_DAYS_SHOWN = [1, 5, 10, 20, 60, 120, 250];
@@ -33,10 +34,7 @@ function Charts({ d }: { d: VolatilityDetail }) {
   const last = d.dates.length - 1;
   return (
     <>
-      <section aria-labelledby="vol-estimators" className="flex flex-col gap-3 rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h2 id="vol-estimators" className="font-semibold">
-          Conditional volatility under each estimator
-        </h2>
+      <Panel id="vol-estimators" title="Conditional volatility under each estimator" className="flex flex-col gap-3">
         <figure aria-labelledby="chart-vol" className="flex flex-col gap-2">
           <figcaption id="chart-vol" className="text-sm font-medium">
             {d.factor}: conditional volatility (annualised, %) under each estimator, {formatDate(d.dates[0])} to {formatDate(d.dates[last])}, with the squared daily returns behind them (basis points², right axis)
@@ -94,11 +92,8 @@ function Charts({ d }: { d: VolatilityDetail }) {
             </FigureTable>
           </div>
         </details>
-      </section>
-      <section aria-labelledby="vol-term" className="flex flex-col gap-3 rounded-lg border border-ink-line bg-paper-raised p-4">
-        <h2 id="vol-term" className="font-semibold">
-          GARCH(1,1) term structure
-        </h2>
+      </Panel>
+      <Panel id="vol-term" title="GARCH(1,1) term structure" className="flex flex-col gap-3">
         {d.termStructure ? (
           <>
             <figure aria-labelledby="chart-term" className="flex flex-col gap-2">
@@ -129,7 +124,7 @@ function Charts({ d }: { d: VolatilityDetail }) {
         ) : (
           <p className="text-sm text-ink-muted">GARCH(1,1) could not be fitted on this factor&apos;s returns, so there is no term structure.</p>
         )}
-      </section>
+      </Panel>
     </>
   );
 }
