@@ -38,13 +38,13 @@ export function FirstRunForm() {
       <fieldset className="flex flex-col gap-4">
         <legend className="mb-2 font-medium">The firm</legend>
         <TextField form={form} name="firmName" label="Firm name" autoFocus autoComplete="organization" />
-        <SelectField form={form} name="reportingCurrency" label="Reporting currency" hint="Capital and risk figures are shown in it; change it later under Settings.">
-          {REPORTING_CURRENCIES.map((c) => (
-            <option key={c} value={c}>
-              {c}
-            </option>
-          ))}
-        </SelectField>
+        <SelectField
+          form={form}
+          name="reportingCurrency"
+          label="Reporting currency"
+          hint="Capital and risk figures are shown in it; change it later under Settings."
+          options={REPORTING_CURRENCIES.map((c) => [c, c])}
+        />
       </fieldset>
       <fieldset className="flex flex-col gap-4">
         <legend className="mb-2 font-medium">Its first administrator (you)</legend>
