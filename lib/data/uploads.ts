@@ -60,6 +60,23 @@ function readOptionsOf(context: UploadContext): ReadOptions {
   return { numberFormat: context.numberFormat, ...(context.dateFormat && context.dateFormat !== "iso" ? { dateFormat: context.dateFormat } : {}) };
 }
 
+/** A new upload row, waiting to be read (its hash unknown until then when the bytes are not in hand). */
+function readingRow(id: string, context: UploadContext, file: { key: string; name: string; ufsUrl: string }, known: { sha256: string; sizeBytes: number }): typeof uploads.$inferInsert {
+  return {
+    id,
+    firmId: context.firmId,
+    periodId: context.periodId,
+    kind: context.kind,
+    fileName: file.name.slice(0, 255),
+    fileKey: file.key,
+    fileUrl: file.ufsUrl,
+    ...known,
+    options: readOptionsOf(context),
+    status: "reading",
+    uploadedBy: context.userId,
+  };
+}
+
 async function assertPeriodOrDropFile(context: UploadContext, fileKey: string) {
   if (!context.periodId) return;
   try {
@@ -79,20 +96,7 @@ export async function receiveUpload(context: UploadContext, file: { key: string;
   await assertPeriodOrDropFile(context, file.key);
   const id = crypto.randomUUID();
   await getDb().transaction(async (tx) => {
-    await tx.insert(uploads).values({
-      id,
-      firmId: context.firmId,
-      periodId: context.periodId,
-      kind: context.kind,
-      fileName: file.name.slice(0, 255),
-      fileKey: file.key,
-      fileUrl: file.ufsUrl,
-      sha256: "",
-      sizeBytes: file.size,
-      options: readOptionsOf(context),
-      status: "reading",
-      uploadedBy: context.userId,
-    });
+    await tx.insert(uploads).values(readingRow(id, context, file, { sha256: "", sizeBytes: file.size }));
     await enqueue(tx, { kind: "upload-read", firmId: context.firmId, payload: { uploadId: id }, dedupeKey: readJobKey(id), maxAttempts: UPLOAD_JOB_ATTEMPTS });
   });
   return { uploadId: id, duplicate: false };
@@ -121,20 +125,7 @@ export async function receiveUploadBytes(context: UploadContext, file: { key: st
   }
   await assertPeriodOrDropFile(context, file.key);
   const id = crypto.randomUUID();
-  await db.insert(uploads).values({
-    id,
-    firmId: context.firmId,
-    periodId: context.periodId,
-    kind: context.kind,
-    fileName: file.name.slice(0, 255),
-    fileKey: file.key,
-    fileUrl: file.ufsUrl,
-    sha256: hash,
-    sizeBytes: bytes.length,
-    options: readOptionsOf(context),
-    status: "reading",
-    uploadedBy: context.userId,
-  });
+  await db.insert(uploads).values(readingRow(id, context, file, { sha256: hash, sizeBytes: bytes.length }));
   try {
     await readUpload(context.firmId, id, { bytes });
   } catch (error) {

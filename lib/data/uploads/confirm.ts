@@ -40,6 +40,16 @@ export type ConfirmResult =
 
 class PricesChangedMeanwhile extends Error {}
 
+/** The last step's first write: the upload confirmed, if it is still in the state this confirmation started from. */
+async function claimConfirmed(tx: Tx, firmId: string, uploadId: string, how: ConfirmHow): Promise<void> {
+  const claimed = await tx
+    .update(uploads)
+    .set({ status: "confirmed", confirmedBy: how.by.userId, confirmedAt: now().toISOString() })
+    .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, firmId), eq(uploads.status, how.from)))
+    .returning({ id: uploads.id });
+  if (claimed.length === 0) throw new AppError("conflict:upload", "This upload was confirmed or cancelled meanwhile.");
+}
+
 function stop(how: ConfirmHow) {
   if (how.signal?.aborted) throw new Error("Stopped: the worker no longer holds this job.");
 }
@@ -103,14 +113,8 @@ async function confirmPositions(db: Database, row: typeof uploads.$inferSelect, 
   stop(how);
 
   await report("Making the positions count", 0.95);
-  const confirmedAt = now().toISOString();
   return db.transaction(async (tx) => {
-    const claimed = await tx
-      .update(uploads)
-      .set({ status: "confirmed", confirmedBy: how.by.userId, confirmedAt })
-      .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, firmId), eq(uploads.status, how.from)))
-      .returning({ id: uploads.id });
-    if (claimed.length === 0) throw new AppError("conflict:upload", "This upload was confirmed or cancelled meanwhile.");
+    await claimConfirmed(tx, firmId, uploadId, how);
     // Inside the transaction: a filing submitted or signed a moment ago is seen here, and refuses the upload.
     await assertPeriodTakesData(tx, firmId, periodId);
     const superseded = await tx
@@ -198,12 +202,7 @@ async function confirmPrices(db: Database, row: typeof uploads.$inferSelect, how
   const confirmedAt = now().toISOString();
   return db.transaction(async (tx) => {
     if ((await pricesVersion(tx, firmId)) !== version) throw new PricesChangedMeanwhile();
-    const claimed = await tx
-      .update(uploads)
-      .set({ status: "confirmed", confirmedBy: how.by.userId, confirmedAt })
-      .where(and(eq(uploads.id, uploadId), eq(uploads.firmId, firmId), eq(uploads.status, how.from)))
-      .returning({ id: uploads.id });
-    if (claimed.length === 0) throw new AppError("conflict:upload", "This upload was confirmed or cancelled meanwhile.");
+    await claimConfirmed(tx, firmId, uploadId, how);
     await upsertInstruments(tx, firmId, wanted, { uploadId, planned: ids });
     for (let i = 0; i < corrected.length; i += 500) {
       await tx.update(pricePoints).set({ current: false, replacedByUpload: uploadId }).where(and(eq(pricePoints.firmId, firmId), inArray(pricePoints.id, corrected.slice(i, i + 500))));

@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
-import { actorFor, freshDatabase, snapshot } from "../helpers/db";
+import { actorFor, snapshot } from "../helpers/db";
+import { SEEDED, worldAs } from "../helpers/people";
 import { receiveUploadBytes, confirmUpload, cancelUpload, listUploads, getUploadPreview, type UploadContext } from "@/lib/data/uploads";
 import { listPeriods } from "@/lib/data/periods";
 import { getDataQuality } from "@/lib/data/data-quality";
@@ -22,10 +23,7 @@ function context(actor: Actor, kind: "positions" | "prices"): UploadContext {
 const file = () => ({ key: `k${++n}`, name: `file-${n}.csv`, ufsUrl: `http://127.0.0.1:9/f/k${n}` });
 
 beforeAll(async () => {
-  process.env.BALLAST_CLOCK = "2026-12-01";
-  db = await freshDatabase();
-  officer = await actorFor("tomas.reyne@northmoor.example");
-  analyst = await actorFor("priya.castell@northmoor.example");
+  ({ db, officer, analyst } = await worldAs({ officer: SEEDED.northmoorOfficer, analyst: SEEDED.northmoorAnalyst }));
   periodId = (await listPeriods(officer))[0].id;
 });
 

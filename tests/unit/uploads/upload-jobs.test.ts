@@ -31,7 +31,7 @@ import { uploadReadJob } from "@/lib/jobs/kinds/upload-read";
 import { uploadConfirmJob } from "@/lib/jobs/kinds/upload-confirm";
 import { Worker } from "@/lib/jobs/worker";
 import { startUploadStandIn, storeFileInStandIn } from "@/scripts/upload-standin";
-import { actorFor, freshDatabase } from "../helpers/db";
+import { SEEDED, worldAs } from "../helpers/people";
 
 const HEADER = "as_of,book,instrument_id,instrument_name,asset_class,currency,quantity,price,market_value,delta_exposure";
 const enc = (text: string) => new TextEncoder().encode(text);
@@ -64,10 +64,7 @@ const positionsOf = async (id: string) => (await db.select({ id: positions.id })
 const partsOf = async (id: string) => (await db.select({ id: uploadParts.id }).from(uploadParts).where(eq(uploadParts.uploadId, id))).length;
 
 beforeAll(async () => {
-  process.env.BALLAST_CLOCK = "2026-12-01";
-  db = await freshDatabase();
-  officer = await actorFor("tomas.reyne@northmoor.example");
-  analyst = await actorFor("priya.castell@northmoor.example");
+  ({ db, officer, analyst } = await worldAs({ officer: SEEDED.northmoorOfficer, analyst: SEEDED.northmoorAnalyst }));
   periodId = (await listPeriods(officer))[0].id;
   storeDir = path.join(path.dirname(process.env.DATABASE_URL!.slice("file:".length)), "job-store");
   const token = Buffer.from(JSON.stringify({ apiKey: "sk_upload_jobs", appId: "jobs", regions: ["local"] })).toString("base64");
