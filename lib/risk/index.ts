@@ -1,8 +1,8 @@
 /** Ballast's risk engine, part 1: returns, volatility estimators, forecasts, comparison. Pure TypeScript. */
 export { ENGINE_VERSION } from "./version";
 export type { EstimatorKind, EngineWarning, VolatilityFit } from "./types";
-export { logReturns, simpleReturns, alignSeries } from "./returns";
-export type { ReturnOptions, DatedSeries, MissingRule, AlignOptions, AlignReport, AlignedSeries, CarriedPoint, DroppedDate } from "./returns";
+export { logReturns, simpleReturns, alignSeries, alignOnAxis, alignedLogReturns } from "./returns";
+export type { ReturnOptions, DatedSeries, SeriesOnAxis, MissingRule, AlignOptions, AlignReport, AlignedSeries, AlignedReturns, CarriedPoint, DroppedDate } from "./returns";
 export { garch11Variance, fitGarch11, GARCH_MIN_RETURNS, NEAR_INTEGRATED } from "./estimators/garch11";
 export type { Garch11Params, VariancePath, FitGarch11Options } from "./estimators/garch11";
 export { ewmaVariance, fitEwma, ewmaLogLikelihood } from "./estimators/ewma";

@@ -42,8 +42,13 @@ export interface DatedSeries {
   values: ArrayLike<number>;
 }
 
-/** What to do with a date on which some series has no value. */
-export type MissingRule = "drop" | "carry-forward" | "refuse";
+/**
+ * What to do with a date on which some series has no value: "drop" leaves it out; "carry-forward" carries the last
+ * value (up to carryLimit dates, flagged); "refuse" throws; "drop-inside-history" leaves it out only when a series
+ * lacks a value between its own first and last values, and outside that span the series simply has none there (NaN):
+ * the rule every run uses (lib/runs/align.ts).
+ */
+export type MissingRule = "drop" | "carry-forward" | "refuse" | "drop-inside-history";
 
 /** Options of alignSeries. */
 export interface AlignOptions {
@@ -60,7 +65,7 @@ export interface CarriedPoint {
   fromDate: string;
 }
 
-/** A date left out of the aligned result, and why. */
+/** A date left out of the aligned result, and why ("drop-inside-history": missingIds are the series without a value inside their own history). */
 export interface DroppedDate {
   date: string;
   missingIds: string[];
@@ -75,8 +80,11 @@ export interface AlignReport {
   keptDates: number;
   dropped: DroppedDate[];
   carried: CarriedPoint[];
-  /** per series: how many of its own dates it had, and how many of the kept values were carried */
-  perSeries: Record<string, { observed: number; carried: number }>;
+  /**
+   * per series: how many of its own dates it had, how many of the kept values were carried, and how many kept dates
+   * fall outside its own history (NaN there; only with "drop-inside-history")
+   */
+  perSeries: Record<string, { observed: number; carried: number; outsideHistory: number }>;
 }
 
 /** The aligned series: common dates and one value array per id, plus the report. */
@@ -86,17 +94,28 @@ export interface AlignedSeries {
   report: AlignReport;
 }
 
+/** Series already on one date axis (oldest first): each series' values on every axis date, NaN where it has none. */
+export interface SeriesOnAxis {
+  id: string;
+  values: ArrayLike<number>;
+}
+
 const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
+
+function checkCarryLimit(options: AlignOptions): number {
+  const carryLimit = options.carryLimit ?? 5;
+  if (!(Number.isInteger(carryLimit) && carryLimit >= 0)) throw new RangeError("alignSeries requires a non-negative integer carryLimit");
+  return carryLimit;
+}
 
 /**
  * Align several dated series on the union of their dates; a missing value is dropped, carried forward
- * (up to carryLimit dates, flagged) or refused, as the caller chooses, and every choice is reported.
+ * (up to carryLimit dates, flagged), refused, or dropped only inside a series' own history, as the caller chooses,
+ * and every choice is reported.
  * @throws {Error} on a malformed or repeated date, or with "refuse" on the first missing value
  */
 export function alignSeries(series: readonly DatedSeries[], options: AlignOptions): AlignedSeries {
-  const { missing } = options;
-  const carryLimit = options.carryLimit ?? 5;
-  if (!(Number.isInteger(carryLimit) && carryLimit >= 0)) throw new RangeError("alignSeries requires a non-negative integer carryLimit");
+  checkCarryLimit(options);
   if (series.length === 0) throw new RangeError("alignSeries requires at least one series");
   const maps = new Map<string, Map<string, number>>();
   const all = new Set<string>();
@@ -115,43 +134,83 @@ export function alignSeries(series: readonly DatedSeries[], options: AlignOption
     maps.set(s.id, m);
   }
   const union = [...all].sort();
+  return alignOnAxis(union, series.map((s) => {
+    const m = maps.get(s.id)!;
+    return { id: s.id, values: union.map((d) => m.get(d) ?? NaN) };
+  }), options);
+}
+
+/**
+ * alignSeries's kernel for series already on one date axis (oldest first; a non-finite value is a missing one): the
+ * same rules and report, with the axis taken as given (no date checks), and no series at all allowed.
+ * @throws {Error} with "refuse" on the first missing value
+ */
+export function alignOnAxis(axis: readonly string[], series: readonly SeriesOnAxis[], options: AlignOptions): AlignedSeries {
+  const { missing } = options;
+  const carryLimit = checkCarryLimit(options);
+  const n = axis.length;
   const ids = series.map((s) => s.id);
+  const has = (s: SeriesOnAxis, t: number) => Number.isFinite(s.values[t]);
+  // each series' own history: the axis positions of its first and last values (-1 when it has none)
+  const first: number[] = [];
+  const lastSeen: number[] = [];
+  const perSeries: AlignReport["perSeries"] = {};
+  for (const s of series) {
+    if (s.values.length !== n) throw new Error(`alignSeries: series "${s.id}" has ${s.values.length} values on an axis of ${n} dates`);
+    let f = -1;
+    let l = -1;
+    let observed = 0;
+    for (let t = 0; t < n; t++) {
+      if (!has(s, t)) continue;
+      if (f < 0) f = t;
+      l = t;
+      observed++;
+    }
+    first.push(f);
+    lastSeen.push(l);
+    perSeries[s.id] = { observed, carried: 0, outsideHistory: 0 };
+  }
   const dates: string[] = [];
   const values: Record<string, number[]> = Object.fromEntries(ids.map((id) => [id, [] as number[]]));
   const dropped: DroppedDate[] = [];
   const carried: CarriedPoint[] = [];
-  const perSeries: AlignReport["perSeries"] = Object.fromEntries(ids.map((id) => [id, { observed: maps.get(id)!.size, carried: 0 }]));
-  // last observed value per series, its date, and how many union dates it has been carried over
-  const last = new Map<string, { value: number; date: string; run: number }>();
+  // last observed value per series, its date, and how many axis dates it has been carried over
+  const last: ({ value: number; date: string; run: number } | undefined)[] = series.map(() => undefined);
 
-  for (const date of union) {
-    const missingIds = ids.filter((id) => !maps.get(id)!.has(date));
-    if (missingIds.length > 0 && missing === "refuse") {
-      throw new Error(`alignSeries: series "${missingIds[0]}" has no value on ${date} (missing: "refuse")`);
+  for (let t = 0; t < n; t++) {
+    const date = axis[t];
+    const absent: number[] = [];
+    for (let k = 0; k < series.length; k++) if (!has(series[k], t)) absent.push(k);
+    if (absent.length > 0 && missing === "refuse") {
+      throw new Error(`alignSeries: series "${ids[absent[0]]}" has no value on ${date} (missing: "refuse")`);
     }
-    let keep = missingIds.length === 0;
+    // the series whose absence drops the date: with "drop-inside-history" only those inside their own history
+    const blocking = missing === "drop-inside-history" ? absent.filter((k) => first[k] >= 0 && t >= first[k] && t <= lastSeen[k]) : absent;
+    let keep = blocking.length === 0;
     let reason: DroppedDate["reason"] = "missing";
     if (!keep && missing === "carry-forward") {
       keep = true;
-      for (const id of missingIds) {
-        const prev = last.get(id);
+      for (const k of absent) {
+        const prev = last[k];
         if (!prev) { keep = false; reason = "no-earlier-value"; break; }
         if (prev.run + 1 > carryLimit) { keep = false; reason = "beyond-carry-limit"; break; }
       }
     }
     // update the carry counters whatever happens on this date
-    for (const id of ids) {
-      const v = maps.get(id)!.get(date);
-      if (v !== undefined) last.set(id, { value: v, date, run: 0 });
-      else { const prev = last.get(id); if (prev) prev.run++; }
+    for (let k = 0; k < series.length; k++) {
+      if (has(series[k], t)) last[k] = { value: series[k].values[t], date, run: 0 };
+      else { const prev = last[k]; if (prev) prev.run++; }
     }
-    if (!keep) { dropped.push({ date, missingIds, reason }); continue; }
+    if (!keep) { dropped.push({ date, missingIds: blocking.map((k) => ids[k]), reason }); continue; }
     dates.push(date);
-    for (const id of ids) {
-      const v = maps.get(id)!.get(date);
-      if (v !== undefined) values[id].push(v);
-      else {
-        const prev = last.get(id)!;
+    for (let k = 0; k < series.length; k++) {
+      const id = ids[k];
+      if (has(series[k], t)) values[id].push(series[k].values[t]);
+      else if (missing === "drop-inside-history") {
+        values[id].push(NaN);
+        perSeries[id].outsideHistory++;
+      } else {
+        const prev = last[k]!;
         values[id].push(prev.value);
         carried.push({ date, id, fromDate: prev.date });
         perSeries[id].carried++;
@@ -161,6 +220,36 @@ export function alignSeries(series: readonly DatedSeries[], options: AlignOption
   return {
     dates,
     values,
-    report: { missing, carryLimit: missing === "carry-forward" ? carryLimit : null, unionDates: union.length, keptDates: dates.length, dropped, carried, perSeries },
+    report: { missing, carryLimit: missing === "carry-forward" ? carryLimit : null, unionDates: n, keptDates: dates.length, dropped, carried, perSeries },
   };
+}
+
+/** Log returns of aligned series between consecutive kept dates, with each series' unbroken returns up to the last date. */
+export interface AlignedReturns {
+  /** the date each return ends on: the kept dates but the first */
+  dates: string[];
+  /** ln(pₜ/pₜ₋₁) per series; NaN where either value is missing or not positive */
+  returns: Record<string, Float64Array>;
+  /** per series: how many returns up to the last date without a break (NaN) */
+  unbroken: Record<string, number>;
+}
+
+/** Log returns between consecutive aligned dates (NaN where either value is missing or not positive), and each series' unbroken run up to the last date. */
+export function alignedLogReturns(aligned: Pick<AlignedSeries, "dates" | "values">): AlignedReturns {
+  const m = aligned.dates.length;
+  const returns: Record<string, Float64Array> = {};
+  const unbroken: Record<string, number> = {};
+  for (const [id, v] of Object.entries(aligned.values)) {
+    const r = new Float64Array(Math.max(0, m - 1));
+    for (let i = 1; i < m; i++) {
+      const a = v[i - 1];
+      const b = v[i];
+      r[i - 1] = a > 0 && b > 0 ? Math.log(b / a) : NaN;
+    }
+    returns[id] = r;
+    let run = 0;
+    for (let t = r.length - 1; t >= 0 && Number.isFinite(r[t]); t--) run++;
+    unbroken[id] = run;
+  }
+  return { dates: aligned.dates.slice(1), returns, unbroken };
 }

@@ -3,9 +3,10 @@
  * dates. A date on which a factor inside its own history (between its first and last close) has no close is left
  * out for every factor, so the next return spans the gap for all of them alike (no price is invented or carried).
  * Before a factor's first close and after its last, it simply has no return (NaN), and the engine sees how many
- * returns it has up to the last date. Pure.
+ * returns it has up to the last date. The rule is the engine's (lib/risk/returns.ts, alignSeries's
+ * "drop-inside-history"); this file only adapts the stored closes to it. Pure.
  */
-import type { FactorReturns } from "@/lib/risk";
+import { alignedLogReturns, alignOnAxis, type FactorReturns } from "@/lib/risk";
 import type { RunInputs } from "./types";
 
 export interface Alignment {
@@ -20,55 +21,18 @@ export interface Alignment {
 export const ALIGNMENT_RULE =
   "Closes as of the period end, aligned on the union of the factors' dates; a date on which a factor inside its own history has no close is left out for every factor (the next return spans the gap); log returns.";
 
-/** Align stored closes into log returns. */
+/** Align stored closes into log returns: the engine's "drop-inside-history" rule on the stored date axis. */
 export function alignReturns(prices: RunInputs["prices"]): Alignment {
   const ids = Object.keys(prices.factors).sort();
   const n = prices.dates.length;
-  const first = new Map<string, number>();
-  const last = new Map<string, number>();
-  for (const id of ids) {
+  // one value per axis date; a close that is absent or not positive is no close
+  const series = ids.map((id) => {
     const closes = prices.factors[id].closes;
-    let f = -1;
-    let l = -1;
-    for (let t = 0; t < n; t++) {
-      const c = closes[t];
-      if (c !== null && c !== undefined && c > 0) {
-        if (f < 0) f = t;
-        l = t;
-      }
-    }
-    first.set(id, f);
-    last.set(id, l);
-  }
-  const keep: number[] = [];
-  const droppedDates: Alignment["droppedDates"] = [];
-  for (let t = 0; t < n; t++) {
-    const missing: string[] = [];
-    for (const id of ids) {
-      const f = first.get(id)!;
-      const l = last.get(id)!;
-      const c = prices.factors[id].closes[t];
-      if (f >= 0 && t >= f && t <= l && !(c !== null && c !== undefined && c > 0)) missing.push(id);
-    }
-    if (missing.length) droppedDates.push({ date: prices.dates[t], missing });
-    else keep.push(t);
-  }
-  const dates = keep.slice(1).map((t) => prices.dates[t]);
-  const factors: Record<string, Float64Array> = {};
-  const usableReturns: Record<string, number> = {};
-  for (const id of ids) {
-    const closes = prices.factors[id].closes;
-    const r = new Float64Array(Math.max(0, keep.length - 1));
-    for (let i = 1; i < keep.length; i++) {
-      const a = closes[keep[i - 1]];
-      const b = closes[keep[i]];
-      r[i - 1] = a !== null && a !== undefined && b !== null && b !== undefined && a > 0 && b > 0 ? Math.log(b / a) : NaN;
-    }
-    factors[id] = r;
-    let run = 0;
-    for (let t = r.length - 1; t >= 0 && Number.isFinite(r[t]); t--) run++;
-    usableReturns[id] = run;
-  }
+    return { id, values: Array.from({ length: n }, (_, t) => { const c = closes[t]; return c !== null && c !== undefined && c > 0 ? c : NaN; }) };
+  });
+  const aligned = alignOnAxis(prices.dates, series, { missing: "drop-inside-history" });
+  const { dates, returns: factors, unbroken: usableReturns } = alignedLogReturns(aligned);
+  const droppedDates = aligned.report.dropped.map((d) => ({ date: d.date, missing: d.missingIds }));
   return { returns: { dates, factors }, droppedDates, usableReturns, rule: ALIGNMENT_RULE };
 }
 
