@@ -3,14 +3,18 @@
  *   var --positions P.csv --prices PR.csv [--method parametric|historical|filtered] [--cov equal|ewma|garch-ccc]
  *       [--vol FACTOR=MODEL,…,default=MODEL] [--corr equal:N|ewma:L|ccc]
  *       [--lambda L] [--window N] [--confidence C] [--horizon H] [--scaling sqrt|term|overlap]
- *       [--reporting-currency CCY] [--missing drop|carry-forward] --json
+ *       [--reporting-currency CCY] [--missing drop|carry-forward|drop-inside-history] --json
+ *     --missing says what happens on a date some series has no price (default drop: the date is left out):
+ *     carry-forward carries the last price up to 5 dates; drop-inside-history is the rule every run uses (a date is
+ *     left out only where a series inside its own history has none; before its first price and after its last the
+ *     series simply has no return)
  *     --vol gives each factor its own volatility process (MODEL ma:M, ewma:L, ewma:fit, arch:M, garch, garch-t) and
  *     makes the covariance D·R·D with the --corr correlation (default ewma:λ with --lambda, else 0.94)
  *   backtest --input FILE.csv (date,pnl,var) [--confidence C] --json
  *   capital --input FILE.csv (date,var,svar; at least 60 rows, the last being t−1) [--exceptions N] [--mc M] [--ms M] --json
  */
 import { CliError, parseNumber, parseOptions, printJson, readCsv, type CliOptions, type CsvTable } from "./io";
-import { alignSeries, logReturns, type DatedSeries } from "../risk";
+import { alignedLogReturns, alignSeries, type DatedSeries } from "../risk";
 import { portfolioVar, type VarMethod, type CovarianceChoice } from "../risk/portfolio/run-month-end";
 import type { Position } from "../risk/portfolio/exposures";
 import { runBacktest } from "../risk/backtest/backtest";
@@ -127,7 +131,7 @@ function varCommand(argv: string[]): void {
   const method = choice<VarMethod>(options, "method", ["parametric", "historical", "filtered"], "parametric");
   const cov = choice<CovarianceChoice>(options, "cov", ["equal", "ewma", "garch-ccc"], "ewma");
   const scaling = choice<HorizonScaling>(options, "scaling", ["sqrt", "term", "overlap"], "sqrt");
-  const missing = choice(options, "missing", ["drop", "carry-forward"] as const, "drop");
+  const missing = choice(options, "missing", ["drop", "carry-forward", "drop-inside-history"] as const, "drop");
   const lambda = numberOption(options, "lambda", (v) => v > 0 && v < 1, "a number between 0 and 1");
   const window = numberOption(options, "window", (v) => Number.isInteger(v) && v >= 2, "a whole number of days of at least 2");
   const confidence = numberOption(options, "confidence", (v) => v > 0 && v < 1, "a number between 0 and 1, e.g. 0.99") ?? 0.99;
@@ -151,15 +155,17 @@ function varCommand(argv: string[]): void {
   const fxFactorId = (ccy: string, rep: string) => (ids.has(`${ccy}/${rep}`) ? `${ccy}/${rep}` : `${ccy}${rep}`);
   const aligned = alignSeries(series, { missing });
   if (aligned.dates.length < 3) throw new CliError(`--prices: only ${aligned.dates.length} dates remain after aligning the series (missing: ${missing})`);
+  // log returns between the kept dates (NaN only with drop-inside-history, where a series has no price)
+  const alignedReturns = alignedLogReturns(aligned);
   const factors: Record<string, number[]> = {};
-  for (const s of series) factors[s.id] = logReturns(aligned.values[s.id]);
+  for (const s of series) factors[s.id] = Array.from(alignedReturns.returns[s.id]);
   const vol = volRaw !== undefined ? parseVolSpecs(volRaw, ids) : null;
   const correlation = corrRaw !== undefined ? parseCorrelation(corrRaw) : undefined;
   let result;
   try {
     result = portfolioVar({
     positions,
-    returns: { dates: aligned.dates.slice(1), factors },
+    returns: { dates: alignedReturns.dates, factors },
     reportingCurrency: reporting,
     fxFactorId,
     method: {
@@ -182,8 +188,13 @@ function varCommand(argv: string[]): void {
   const c = figures.byConfidence[0];
   const long = horizon > 1;
   const warnings = [...result.warnings];
+  const outside = Object.entries(aligned.report.perSeries).filter(([, p]) => p.outsideHistory > 0);
+  if (outside.length) {
+    warnings.unshift({ code: "outside-history", message: `${outside.length} series had no price on some kept dates before their first or after their last price, and no return there (${outside.map(([id, p]) => `${id}: ${p.outsideHistory}`).join(", ")}).` });
+  }
   if (aligned.report.dropped.length) {
-    warnings.unshift({ code: "dates-dropped", message: `${aligned.report.dropped.length} date(s) were dropped because some series had no price on them (first: ${aligned.report.dropped[0].date}, missing ${aligned.report.dropped[0].missingIds.join(", ")}).` });
+    const why = missing === "drop-inside-history" ? "some series had no price on them inside their own history" : "some series had no price on them";
+    warnings.unshift({ code: "dates-dropped", message: `${aligned.report.dropped.length} date(s) were dropped because ${why} (first: ${aligned.report.dropped[0].date}, missing ${aligned.report.dropped[0].missingIds.join(", ")}).` });
   }
   if (aligned.report.carried.length) {
     warnings.unshift({ code: "prices-carried", message: `${aligned.report.carried.length} missing price(s) were carried forward from the previous date.` });
