@@ -1,6 +1,8 @@
 import { sql } from "drizzle-orm";
 import { sqliteTable, text, integer, real, index, uniqueIndex } from "drizzle-orm/sqlite-core";
 import { id, createdAt, firmColumns } from "../columns";
+import { firmReference } from "./firms";
+import { reportingPeriods } from "./periods";
 import type { ReadOptions } from "../../lib/uploads/types";
 
 /** An uploaded file: positions for a period, or price history for the firm. Confirmed by a person before use. */
@@ -8,8 +10,8 @@ export const uploads = sqliteTable(
   "uploads",
   {
     id: id(),
-    ...firmColumns,
-    periodId: text("period_id"),
+    ...firmReference(),
+    periodId: text("period_id").references(() => reportingPeriods.id),
     kind: text("kind").notNull(), // "positions" | "prices"
     fileName: text("file_name").notNull(),
     /** generated storage key, never the client's file name */
@@ -64,11 +66,12 @@ export const pricePoints = sqliteTable(
   "price_points",
   {
     id: id(),
-    ...firmColumns,
+    ...firmReference(),
+    /** no declared reference: a confirmation stages prices under instrument ids it adds only in its last step */
     instrumentId: text("instrument_id").notNull(),
     date: text("date").notNull(),
     close: real("close").notNull(),
-    uploadId: text("upload_id"),
+    uploadId: text("upload_id").references(() => uploads.id),
     current: integer("current", { mode: "boolean" }).notNull().default(true),
     replacedByUpload: text("replaced_by_upload"),
     /** written by a confirmation still in progress (current = false until its last step makes it current) */
@@ -90,8 +93,10 @@ export const uploadParts = sqliteTable(
   "upload_parts",
   {
     id: id(),
-    ...firmColumns,
-    uploadId: text("upload_id").notNull(),
+    ...firmReference(),
+    uploadId: text("upload_id")
+      .notNull()
+      .references(() => uploads.id),
     /** rows | problems */
     part: text("part").notNull(),
     seq: integer("seq").notNull(),
@@ -105,9 +110,13 @@ export const positions = sqliteTable(
   "positions",
   {
     id: id(),
-    ...firmColumns,
-    periodId: text("period_id").notNull(),
-    uploadId: text("upload_id").notNull(),
+    ...firmReference(),
+    periodId: text("period_id")
+      .notNull()
+      .references(() => reportingPeriods.id),
+    uploadId: text("upload_id")
+      .notNull()
+      .references(() => uploads.id),
     rowNumber: integer("row_number").notNull(),
     asOf: text("as_of").notNull(),
     book: text("book").notNull(),

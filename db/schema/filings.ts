@@ -1,6 +1,9 @@
 import { sql } from "drizzle-orm";
 import { sqliteTable, text, integer, index, uniqueIndex } from "drizzle-orm/sqlite-core";
-import { id, createdAt, firmColumns } from "../columns";
+import { id, createdAt } from "../columns";
+import { firmReference } from "./firms";
+import { reportingPeriods } from "./periods";
+import { runs } from "./runs";
 import type { FilingViewModel } from "../../reports/view-model";
 
 /** A draft filing assembled from a run. Signed versions are locked; a change is a new version pointing back. */
@@ -8,9 +11,13 @@ export const filings = sqliteTable(
   "filings",
   {
     id: id(),
-    ...firmColumns,
-    periodId: text("period_id").notNull(),
-    runId: text("run_id").notNull(),
+    ...firmReference(),
+    periodId: text("period_id")
+      .notNull()
+      .references(() => reportingPeriods.id),
+    runId: text("run_id")
+      .notNull()
+      .references(() => runs.id),
     version: integer("version").notNull().default(1),
     previousId: text("previous_id"),
     /** draft → in_review → changes_requested → in_review … → signed → filed */
@@ -38,8 +45,10 @@ export const reviewComments = sqliteTable(
   "review_comments",
   {
     id: id(),
-    ...firmColumns,
-    filingId: text("filing_id").notNull(),
+    ...firmReference(),
+    filingId: text("filing_id")
+      .notNull()
+      .references(() => filings.id),
     section: text("section").notNull(),
     body: text("body").notNull(),
     kind: text("kind").notNull().default("comment"), // comment | changes_requested | reply
@@ -54,8 +63,10 @@ export const signatures = sqliteTable(
   "signatures",
   {
     id: id(),
-    ...firmColumns,
-    filingId: text("filing_id").notNull(),
+    ...firmReference(),
+    filingId: text("filing_id")
+      .notNull()
+      .references(() => filings.id),
     signerId: text("signer_id").notNull(),
     signerName: text("signer_name").notNull(),
     licenceReference: text("licence_reference").notNull(),

@@ -1,5 +1,5 @@
 import { sqliteTable, text, integer, uniqueIndex, index } from "drizzle-orm/sqlite-core";
-import { id, createdAt, firmColumns } from "../columns";
+import { id, createdAt } from "../columns";
 
 /** A firm is a tenant: nobody sees another firm's rows. */
 export const firms = sqliteTable("firms", {
@@ -17,6 +17,9 @@ export const firms = sqliteTable("firms", {
   createdAt: createdAt(),
 });
 export type Firm = typeof firms.$inferSelect;
+
+/** The firm column of a tenant table that also declares it as a foreign key to firms.id. */
+export const firmReference = () => ({ firmId: text("firm_id").notNull().references(() => firms.id) });
 export type NewFirm = typeof firms.$inferInsert;
 
 /** People. A person signs in once and may belong to several firms through memberships. */
@@ -38,7 +41,7 @@ export const memberships = sqliteTable(
   "memberships",
   {
     id: id(),
-    ...firmColumns,
+    ...firmReference(),
     userId: text("user_id").notNull().references(() => users.id),
     /** JSON array of role names; validated by zod in lib/auth/permissions.ts */
     roles: text("roles", { mode: "json" }).$type<string[]>().notNull(),

@@ -1,6 +1,10 @@
 import { sql } from "drizzle-orm";
 import { sqliteTable, text, integer, real, index, uniqueIndex, blob } from "drizzle-orm/sqlite-core";
-import { id, createdAt, firmColumns } from "../columns";
+import { id, createdAt } from "../columns";
+import { firmReference } from "./firms";
+import { reportingPeriods } from "./periods";
+import { uploads } from "./data";
+import { methodStatements, capitalRuleProfiles } from "./method";
 import type { RunInputHashes, RunResults } from "../../lib/runs/types";
 
 /** A run computes every figure of a period from stated inputs; it is never edited. */
@@ -8,11 +12,17 @@ export const runs = sqliteTable(
   "runs",
   {
     id: id(),
-    ...firmColumns,
-    periodId: text("period_id").notNull(),
-    methodStatementId: text("method_statement_id").notNull(),
-    positionsUploadId: text("positions_upload_id").notNull(),
-    capitalProfileId: text("capital_profile_id"),
+    ...firmReference(),
+    periodId: text("period_id")
+      .notNull()
+      .references(() => reportingPeriods.id),
+    methodStatementId: text("method_statement_id")
+      .notNull()
+      .references(() => methodStatements.id),
+    positionsUploadId: text("positions_upload_id")
+      .notNull()
+      .references(() => uploads.id),
+    capitalProfileId: text("capital_profile_id").references(() => capitalRuleProfiles.id),
     /** queued → running → completed | failed */
     status: text("status").notNull().default("queued"),
     stage: text("stage").notNull().default("queued"),
@@ -45,8 +55,10 @@ export type Run = typeof runs.$inferSelect;
  * never today's data.
  */
 export const runInputs = sqliteTable("run_inputs", {
-  runId: text("run_id").primaryKey(),
-  ...firmColumns,
+  runId: text("run_id")
+    .primaryKey()
+    .references(() => runs.id),
+  ...firmReference(),
   /** gzip of the canonical JSON of RunInputs (lib/runs/types.ts) */
   data: blob("data", { mode: "buffer" }).notNull(),
   /** uncompressed size in bytes */

@@ -6,6 +6,8 @@
 import { sqliteTable, text, integer, blob, uniqueIndex, index } from "drizzle-orm/sqlite-core";
 import type { QualityReport } from "../../lib/uploads/data-quality";
 import { id, createdAt, firmColumns } from "../columns";
+import { firmReference } from "./firms";
+import { filings } from "./filings";
 
 /** The period's data-quality report as of the inputs fingerprinted by `inputsKey`. One row per firm and period. */
 export const dataQualityReports = sqliteTable(
@@ -31,8 +33,10 @@ export const packFiles = sqliteTable(
   "pack_files",
   {
     id: id(),
-    ...firmColumns,
-    filingId: text("filing_id").notNull(),
+    ...firmReference(),
+    filingId: text("filing_id")
+      .notNull()
+      .references(() => filings.id),
     version: integer("version").notNull(),
     /** draft | signed | filed | superseded (the state in the pack's file name) */
     state: text("state").notNull(),

@@ -61,7 +61,7 @@ describe("without a marked, completed run", () => {
     await w.db.$client.execute("DROP TRIGGER runs_filing_run_insert");
     await w.db.$client.execute({
       sql: `INSERT INTO runs (id, firm_id, period_id, method_statement_id, positions_upload_id, status, stage, progress, is_filing_run, started_by, created_at)
-            VALUES ('queued-run', ?, ?, 'm', 'u', 'failed', 'failed', 0, 1, ?, '2026-12-01T09:00:00.000Z')`,
+            VALUES ('queued-run', ?1, ?2, (SELECT id FROM method_statements WHERE firm_id = ?1 LIMIT 1), (SELECT id FROM uploads WHERE firm_id = ?1 AND kind = 'positions' LIMIT 1), 'failed', 'failed', 0, 1, ?3, '2026-12-01T09:00:00.000Z')`,
       args: [w.officer.firmId, w.periodId, w.analyst.userId],
     });
     const before = await snapshot(w.db);

@@ -114,8 +114,14 @@ describe("versions start as drafts and are signed only from review", () => {
   });
 
   it("refuses moving a draft straight to signed, and a version in review to signed without a signature", async () => {
+    // the filing's period and run are declared references (0019_foreign_keys.sql): a period of its own, one of the firm's runs
     await w.db.$client.execute({
-      sql: `INSERT INTO filings (id, firm_id, period_id, run_id, version, status, content, prepared_by, created_at) VALUES ('f8', ?, 'p8', 'r', 1, 'draft', '{}', 'u', 't')`,
+      sql: "INSERT INTO reporting_periods (id, firm_id, period_end, deadline, state, created_at) VALUES ('p8', ?, '2099-01-31', '2099-02-20', 'open', 't')",
+      args: [w.officer.firmId],
+    });
+    await w.db.$client.execute({
+      sql: `INSERT INTO filings (id, firm_id, period_id, run_id, version, status, content, prepared_by, created_at)
+            VALUES ('f8', ?1, 'p8', (SELECT id FROM runs WHERE firm_id = ?1 LIMIT 1), 1, 'draft', '{}', 'u', 't')`,
       args: [w.officer.firmId],
     });
     await expect(w.db.$client.execute("UPDATE filings SET status = 'signed' WHERE id = 'f8'")).rejects.toThrow(/becomes signed only from review and only with a signature in force/);
@@ -125,6 +131,7 @@ describe("versions start as drafts and are signed only from review", () => {
     await w.db.$client.execute("UPDATE filings SET status = 'draft', cover_note = 'edited' WHERE id = 'f8'");
     await w.db.$client.execute("DELETE FROM filings WHERE id = 'f8'");
     expect(await row("filings", "f8")).toBeUndefined();
+    await w.db.$client.execute("DELETE FROM reporting_periods WHERE id = 'p8'");
   });
 });
 
