@@ -42,12 +42,7 @@ export interface DatedSeries {
   values: ArrayLike<number>;
 }
 
-/**
- * What to do with a date on which some series has no value: "drop" leaves it out; "carry-forward" carries the last
- * value (up to carryLimit dates, flagged); "refuse" throws; "drop-inside-history" leaves it out only when a series
- * lacks a value between its own first and last values, and outside that span the series simply has none there (NaN):
- * the rule every run uses (lib/runs/align.ts).
- */
+/** A date some series lacks: "drop" it, "carry-forward" the last value, "refuse", or "drop-inside-history" (the runs' rule: drop only inside a series' own history, NaN outside it). */
 export type MissingRule = "drop" | "carry-forward" | "refuse" | "drop-inside-history";
 
 /** Options of alignSeries. */
@@ -108,12 +103,7 @@ function checkCarryLimit(options: AlignOptions): number {
   return carryLimit;
 }
 
-/**
- * Align several dated series on the union of their dates; a missing value is dropped, carried forward
- * (up to carryLimit dates, flagged), refused, or dropped only inside a series' own history, as the caller chooses,
- * and every choice is reported.
- * @throws {Error} on a malformed or repeated date, or with "refuse" on the first missing value
- */
+/** Align dated series on the union of their dates under the caller's MissingRule, reporting every choice. @throws {Error} on a malformed or repeated date, or with "refuse" on the first missing value */
 export function alignSeries(series: readonly DatedSeries[], options: AlignOptions): AlignedSeries {
   checkCarryLimit(options);
   if (series.length === 0) throw new RangeError("alignSeries requires at least one series");
@@ -140,11 +130,7 @@ export function alignSeries(series: readonly DatedSeries[], options: AlignOption
   }), options);
 }
 
-/**
- * alignSeries's kernel for series already on one date axis (oldest first; a non-finite value is a missing one): the
- * same rules and report, with the axis taken as given (no date checks), and no series at all allowed.
- * @throws {Error} with "refuse" on the first missing value
- */
+/** alignSeries's kernel for series already on one date axis (taken as given; non-finite = missing; no series allowed). @throws {Error} with "refuse" on the first missing value */
 export function alignOnAxis(axis: readonly string[], series: readonly SeriesOnAxis[], options: AlignOptions): AlignedSeries {
   const { missing } = options;
   const carryLimit = checkCarryLimit(options);
