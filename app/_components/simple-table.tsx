@@ -7,7 +7,9 @@ const isAligned = (c: SimpleColumn): c is { label: ReactNode; align: "right" } =
 
 /**
  * A static table in the app's boxed style: the scrolling frame, a screen-reader caption (or a heading it is labelled by),
- * one header row of column headings, and the body rows the page writes as children. For sortable, data-driven tables use DataTable.
+ * one header row of column headings, and the body rows the page writes as children. With `scroll`, a long table scrolls
+ * in a frame of that height under a sticky header, and the frame is a labelled region that takes keyboard focus.
+ * For sortable, data-driven tables use DataTable.
  */
 export function SimpleTable({
   caption,
@@ -15,6 +17,7 @@ export function SimpleTable({
   testId,
   columns,
   padding = "px-3 py-2",
+  scroll,
   children,
 }: {
   caption?: string;
@@ -23,13 +26,16 @@ export function SimpleTable({
   columns: SimpleColumn[];
   /** The heading cells' padding (the body rows set their own to match). */
   padding?: "px-3 py-2" | "px-4 py-2";
+  /** scroll inside a frame of this height, the frame named by `label` */
+  scroll?: { label: string; maxHeight: "max-h-80" | "max-h-96" };
   children: ReactNode;
 }) {
+  const frame = scroll ? { className: `${scroll.maxHeight} overflow-auto rounded-lg border border-ink-line bg-paper-raised`, tabIndex: 0, role: "region", "aria-label": scroll.label } : { className: "relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised" };
   return (
-    <div className="relative overflow-x-auto rounded-lg border border-ink-line bg-paper-raised">
+    <div {...frame}>
       <table className="w-full text-sm" aria-labelledby={labelledBy} data-testid={testId}>
         {caption ? <caption className="sr-only">{caption}</caption> : null}
-        <thead className="bg-paper-sunk text-left text-ink-soft">
+        <thead className={scroll ? "sticky top-0 bg-paper-sunk text-left text-ink-soft" : "bg-paper-sunk text-left text-ink-soft"}>
           <tr>
             {columns.map((c, i) => (
               <th key={i} scope="col" className={isAligned(c) ? `${padding} text-right font-medium` : `${padding} font-medium`}>

@@ -4,7 +4,8 @@ import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { UploadButton } from "@/app/_components/upload-button";
 import { inputClass } from "@/app/_components/field";
-import { DATE_FORMAT_LABELS, NUMBER_FORMAT_LABELS, type DateFormat, type NumberFormat } from "@/lib/uploads/types";
+import type { DateFormat, NumberFormat } from "@/lib/uploads/types";
+import { FormatSelect } from "./_components/format-select";
 
 interface Props {
   kind: "positions" | "prices";
@@ -67,26 +68,8 @@ export function FileUpload({ kind, periods = [] }: Props) {
             </select>
           </label>
         ) : null}
-        <label className="flex flex-col gap-1 text-sm" htmlFor={`${id}-format`}>
-          Numbers in the file
-          <select id={`${id}-format`} className={inputClass} value={numberFormat} onChange={(e) => setNumberFormat(e.target.value as NumberFormat)}>
-            {Object.entries(NUMBER_FORMAT_LABELS).map(([value, label]) => (
-              <option key={value} value={value}>
-                {label}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1 text-sm" htmlFor={`${id}-date-format`}>
-          Dates in the file
-          <select id={`${id}-date-format`} className={inputClass} value={dateFormat} onChange={(e) => setDateFormat(e.target.value as DateFormat)}>
-            {Object.entries(DATE_FORMAT_LABELS).map(([value, label]) => (
-              <option key={value} value={value}>
-                {label}
-              </option>
-            ))}
-          </select>
-        </label>
+        <FormatSelect what="numbers" id={`${id}-format`} value={numberFormat} onChange={(e) => setNumberFormat(e.target.value as NumberFormat)} />
+        <FormatSelect what="dates" id={`${id}-date-format`} value={dateFormat} onChange={(e) => setDateFormat(e.target.value as DateFormat)} />
         <div data-testid={`${kind}-upload-button`}>
           {kind === "positions" ? (
             periodId ? (

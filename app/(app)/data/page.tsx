@@ -110,35 +110,24 @@ export default async function DataPage() {
           {withHistory.length ? `, ${withHistory.reduce((s, c) => s + c.points, 0).toLocaleString("en")} closes in all` : ""}.
         </p>
         {coverage.length === 0 ? null : (
-          <div className="max-h-96 overflow-auto rounded-lg border border-ink-line bg-paper-raised" tabIndex={0} role="region" aria-label="Price history per instrument (scrolls)">
-            <table className="w-full text-sm">
-              <caption className="sr-only">Price history per instrument</caption>
-              <thead className="sticky top-0 bg-paper-sunk text-left text-ink-soft">
-                <tr>
-                  <th scope="col" className="px-3 py-2 font-medium">Instrument</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Asset class</th>
-                  <th scope="col" className="px-3 py-2 text-right font-medium">Closes</th>
-                  <th scope="col" className="px-3 py-2 font-medium">From</th>
-                  <th scope="col" className="px-3 py-2 font-medium">To</th>
-                  <th scope="col" className="px-3 py-2 text-right font-medium">Corrected</th>
-                </tr>
-              </thead>
-              <tbody>
-                {coverage.map((c) => (
-                  <tr key={c.code} className="border-t border-ink-line">
-                    <td className="px-3 py-1.5">
-                      <span className="font-medium">{c.code}</span> <span className="text-ink-muted">{c.name}</span>
-                    </td>
-                    <td className="px-3 py-1.5">{c.assetClass}</td>
-                    <td className="figure px-3 py-1.5 text-right">{c.points.toLocaleString("en")}</td>
-                    <td className="figure px-3 py-1.5">{c.first ?? "—"}</td>
-                    <td className="figure px-3 py-1.5">{c.last ?? "—"}</td>
-                    <td className="figure px-3 py-1.5 text-right">{c.corrections || ""}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <SimpleTable
+            caption="Price history per instrument"
+            scroll={{ label: "Price history per instrument (scrolls)", maxHeight: "max-h-96" }}
+            columns={["Instrument", "Asset class", { label: "Closes", align: "right" }, "From", "To", { label: "Corrected", align: "right" }]}
+          >
+            {coverage.map((c) => (
+              <tr key={c.code} className="border-t border-ink-line">
+                <td className="px-3 py-1.5">
+                  <span className="font-medium">{c.code}</span> <span className="text-ink-muted">{c.name}</span>
+                </td>
+                <td className="px-3 py-1.5">{c.assetClass}</td>
+                <td className="figure px-3 py-1.5 text-right">{c.points.toLocaleString("en")}</td>
+                <td className="figure px-3 py-1.5">{c.first ?? "—"}</td>
+                <td className="figure px-3 py-1.5">{c.last ?? "—"}</td>
+                <td className="figure px-3 py-1.5 text-right">{c.corrections || ""}</td>
+              </tr>
+            ))}
+          </SimpleTable>
         )}
       </section>
     </>

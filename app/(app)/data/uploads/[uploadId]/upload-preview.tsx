@@ -10,7 +10,9 @@ import { PageHeader } from "@/app/_components/page-header";
 import { UploadStatus } from "@/app/_components/upload-status";
 import { StatusBadge } from "@/app/_components/status-badge";
 import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
-import { DATE_FORMAT_LABELS, NUMBER_FORMAT_LABELS, type DateFormat, type NumberFormat, type Problem } from "@/lib/uploads/types";
+import type { DateFormat, NumberFormat, Problem } from "@/lib/uploads/types";
+import { FormatSelect } from "../../_components/format-select";
+import { SimpleTable } from "@/app/_components/simple-table";
 
 interface Group {
   key: string;
@@ -215,6 +217,8 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
   const pending = status === "pending";
   // Say what the worker finished while this page watched it (a reload shows the state itself).
   const previous = useRef<string | undefined>(undefined);
+  // what this page asked the worker for, so its answer is told even when the worker finished between two looks
+  const asked = useRef<"confirm" | "options" | null>(null);
   useEffect(() => {
     const data = preview.data;
     if (!data) return;
@@ -225,7 +229,8 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
       if (earlier) router.replace(`/data/uploads/${earlier}?duplicate=1`);
       return;
     }
-    if (before === "confirming" && data.upload.status === "confirmed") {
+    if ((before === "confirming" || asked.current === "confirm") && data.upload.status === "confirmed") {
+      asked.current = null;
       setMessage({ tone: "ok", text: confirmedText(data.upload.kind, data.upload.summary) });
       router.refresh();
     }
@@ -233,8 +238,10 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
       const why = (data.upload.summary as { confirmError?: string } | null)?.confirmError;
       setMessage({ tone: "alert", text: why ?? "Confirming did not finish; nothing of the file counts yet. Confirm again." });
     }
-    if (before === "reading" && data.upload.status === "pending") {
-      setMessage((m) => (m?.text.startsWith("Reading the file again") ? { tone: "ok", text: "Re-read with the new settings." } : m));
+    if ((before === "reading" || asked.current === "options") && data.upload.status === "pending") {
+      const reread = asked.current === "options";
+      asked.current = null;
+      if (reread) setMessage({ tone: "ok", text: "Re-read with the new settings." });
       setPage(1);
       void queryClient.invalidateQueries({ queryKey: ["upload-rows", uploadId] });
     }
@@ -250,6 +257,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
   const act = useMutation({
     mutationFn: (input: { path: string; method: string; body: unknown }) => apiFetch<Record<string, unknown>>(`/api/uploads/${kind}/${uploadId}/${input.path}`, { method: input.method, body: input.body }),
     onSuccess: (data, input) => {
+      asked.current = input.path === "confirm" || input.path === "options" ? input.path : null;
       if (input.path === "confirm") setMessage(data.status === "confirmed" ? { tone: "ok", text: confirmedText(kind, data) } : null);
       if (input.path === "cancel") setMessage({ tone: "ok", text: "Cancelled. Nothing from this file was stored." });
       if (input.path === "options") setMessage({ tone: "ok", text: "Reading the file again with the new settings." });
@@ -344,30 +352,19 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
           {problems.length === 0 ? (
             <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">Every row passed the checks.</p>
           ) : (
-            <div className="max-h-80 overflow-auto rounded-lg border border-ink-line bg-paper-raised">
-              <table className="w-full text-sm" data-testid="problems-table">
-                <caption className="sr-only">Problems found in the file</caption>
-                <thead className="sticky top-0 bg-paper-sunk text-left text-ink-soft">
-                  <tr>
-                    <th scope="col" className="px-3 py-2 font-medium">Row</th>
-                    <th scope="col" className="px-3 py-2 font-medium">Column</th>
-                    <th scope="col" className="px-3 py-2 font-medium">Problem</th>
-                    <th scope="col" className="px-3 py-2 font-medium">Severity</th>
+            <>
+              <SimpleTable caption="Problems found in the file" testId="problems-table" scroll={{ label: "Problems found in the file (scrolls)", maxHeight: "max-h-80" }} columns={["Row", "Column", "Problem", "Severity"]}>
+                {problems.slice(0, 1000).map((p, i) => (
+                  <tr key={i} className="border-t border-ink-line">
+                    <td className="figure px-3 py-1.5">{p.row ?? "—"}</td>
+                    <td className="px-3 py-1.5">{p.field ?? "—"}</td>
+                    <td className="px-3 py-1.5">{p.message}</td>
+                    <td className="px-3 py-1.5">{p.severity === "error" ? <StatusBadge tone="alert">Error</StatusBadge> : <StatusBadge tone="caution">Warning</StatusBadge>}</td>
                   </tr>
-                </thead>
-                <tbody>
-                  {problems.slice(0, 1000).map((p, i) => (
-                    <tr key={i} className="border-t border-ink-line">
-                      <td className="figure px-3 py-1.5">{p.row ?? "—"}</td>
-                      <td className="px-3 py-1.5">{p.field ?? "—"}</td>
-                      <td className="px-3 py-1.5">{p.message}</td>
-                      <td className="px-3 py-1.5">{p.severity === "error" ? <StatusBadge tone="alert">Error</StatusBadge> : <StatusBadge tone="caution">Warning</StatusBadge>}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-              {problems.length > 1000 ? <p className="p-2 text-sm text-ink-muted">Showing the first 1,000 of {problems.length.toLocaleString("en")}.</p> : null}
-            </div>
+                ))}
+              </SimpleTable>
+              {problems.length > 1000 ? <p className="mt-1 text-sm text-ink-muted">Showing the first 1,000 of {problems.length.toLocaleString("en")}.</p> : null}
+            </>
           )}
         </section>
 
@@ -384,26 +381,8 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
                 act.mutate({ path: "options", method: "PUT", body: { numberFormat: form.get("numberFormat"), dateFormat: form.get("dateFormat"), mapping: { ...(upload.options?.mapping ?? {}), ...mapping } } });
               }}
             >
-              <label className="flex max-w-xs flex-col gap-1 text-sm">
-                Numbers in the file
-                <select name="numberFormat" className={inputClass} defaultValue={upload.options?.numberFormat ?? "plain"}>
-                  {Object.entries(NUMBER_FORMAT_LABELS).map(([value, label]) => (
-                    <option key={value} value={value}>
-                      {label}
-                    </option>
-                  ))}
-                </select>
-              </label>
-              <label className="flex max-w-xs flex-col gap-1 text-sm">
-                Dates in the file
-                <select name="dateFormat" className={inputClass} defaultValue={upload.options?.dateFormat ?? "iso"}>
-                  {Object.entries(DATE_FORMAT_LABELS).map(([value, label]) => (
-                    <option key={value} value={value}>
-                      {label}
-                    </option>
-                  ))}
-                </select>
-              </label>
+              <FormatSelect what="numbers" className="max-w-xs" name="numberFormat" defaultValue={upload.options?.numberFormat ?? "plain"} />
+              <FormatSelect what="dates" className="max-w-xs" name="dateFormat" defaultValue={upload.options?.dateFormat ?? "iso"} />
               {missingColumns.length > 0 && header.length > 0 ? (
                 <fieldset className="flex flex-col gap-2" data-testid="column-mapping">
                   <legend className="text-sm font-medium">Match the file&apos;s columns to the fields Ballast needs</legend>
