@@ -29,6 +29,16 @@ export function openDatabase(url = databaseUrl()): Database {
   return drizzle(client, { schema }) as Database;
 }
 
+/** Whether an error (or its cause) is SQLite saying the database is locked by another writer. */
+export function isDatabaseBusy(error: unknown): boolean {
+  for (let e: unknown = error, depth = 0; e && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+    const { code, message } = e as { code?: unknown; message?: unknown };
+    if (typeof code === "string" && code.startsWith("SQLITE_BUSY")) return true;
+    if (typeof message === "string" && /SQLITE_BUSY|database is locked/.test(message)) return true;
+  }
+  return false;
+}
+
 /** How long a write waits for this process's other writes before giving up. */
 export const WRITE_WAIT_MS = 15_000;
 

@@ -7,7 +7,7 @@
  */
 import "server-only";
 import { and, eq, inArray, lt, sql } from "drizzle-orm";
-import { getDb, type Database, type Tx } from "@/db/client";
+import { getDb, isDatabaseBusy, type Database, type Tx } from "@/db/client";
 import { jobs, runs } from "@/db/schema";
 import { LEASE_MS, takeOverExpired } from "@/lib/jobs/queue";
 import type { runPayloadSchema } from "@/lib/jobs/payload";
@@ -42,7 +42,16 @@ export async function markIfInterrupted(firmId: string, scope: { runId?: string;
     .from(jobs)
     .where(and(eq(jobs.state, "running"), lt(jobs.leaseExpiresAt, at), eq(jobs.kind, "run"), eq(jobs.firmId, firmId)))
     .limit(1);
-  if (expired) await takeOverExpired(db, { kinds: ["run"], firmId });
+  // Marking is a courtesy of the read (the workers' sweep does it within seconds): a page never fails because another
+  // writer holds the database just then.
+  if (expired) {
+    try {
+      await takeOverExpired(db, { kinds: ["run"], firmId });
+    } catch (error) {
+      if (!isDatabaseBusy(error)) throw error;
+      return 0;
+    }
+  }
   const cutoff = new Date(Date.now() - LEASE_MS).toISOString();
   const key = sql`'run:' || ${runs.id}`;
   const conditions = [
@@ -59,10 +68,15 @@ export async function markIfInterrupted(firmId: string, scope: { runId?: string;
   // reads first: the common answer (nothing interrupted) writes nothing
   const found = await db.select({ id: runs.id }).from(runs).where(and(...conditions));
   if (found.length === 0) return 0;
-  const updated = await db
-    .update(runs)
-    .set({ status: "failed", stage: "failed", error: RUN_INTERRUPTED_MESSAGE, finishedAt: new Date().toISOString() })
-    .where(and(...conditions))
-    .returning({ id: runs.id });
-  return updated.length;
+  try {
+    const updated = await db
+      .update(runs)
+      .set({ status: "failed", stage: "failed", error: RUN_INTERRUPTED_MESSAGE, finishedAt: new Date().toISOString() })
+      .where(and(...conditions))
+      .returning({ id: runs.id });
+    return updated.length;
+  } catch (error) {
+    if (!isDatabaseBusy(error)) throw error;
+    return 0;
+  }
 }

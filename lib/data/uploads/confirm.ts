@@ -22,7 +22,7 @@ import { enqueueQualityRefresh, periodsTakingPrices } from "../quality-jobs";
 import { clearParts, eachPart, readAll } from "./parts";
 
 /** Rows written per staging transaction. */
-const STAGE_ROWS = 20_000;
+const STAGE_ROWS = 5_000;
 
 export interface ConfirmHow {
   /** the status the upload is in while this runs: "pending" (inline) or "confirming" (the job) */

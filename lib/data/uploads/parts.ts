@@ -11,7 +11,7 @@ import { uploadParts } from "@/db/schema";
 /** Items per stored part. */
 export const UPLOAD_PART_SIZE = 1000;
 /** Parts written per transaction. */
-const PARTS_PER_WRITE = 20;
+const PARTS_PER_WRITE = 5;
 
 export type PartName = "rows" | "problems";
 

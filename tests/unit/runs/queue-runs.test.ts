@@ -8,6 +8,7 @@
  */
 import { beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
+import { createClient } from "@libsql/client";
 import type { Database } from "@/db/client";
 import { jobs, runInputs, runs } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
@@ -142,4 +143,23 @@ describe("a run whose worker stopped", () => {
     expect(again.inputHashes).toEqual(original.inputHashes);
     expect(again.results!.monthEnd).toEqual(original.results!.monthEnd);
   }, 180_000);
+});
+
+describe("a read while another process holds the database", () => {
+  it("answers without marking an expired run (the workers' sweep does that), and marks it once the database is free", async () => {
+    const started = await startRun(analyst, periodId, { excludeShortHistory: true });
+    const job = await claim(db, { owner: "killed-worker", kinds: ["run"] });
+    await db.update(jobs).set({ leaseExpiresAt: new Date(Date.now() - 1).toISOString() }).where(eq(jobs.id, job!.id));
+    // another process (a worker storing a large file) holds the write lock for longer than the busy timeout
+    const other = createClient({ url: process.env.DATABASE_URL! });
+    const held = await other.transaction("write"); // BEGIN IMMEDIATE: the write lock until rolled back
+    try {
+      expect((await getRun(analyst, started.id)).status).toBe("queued");
+    } finally {
+      await held.rollback();
+      other.close();
+    }
+    expect((await getRun(analyst, started.id)).status).toBe("failed");
+    expect((await jobOf(started.id)).state).toBe("interrupted");
+  }, 60_000);
 });

@@ -171,9 +171,9 @@ describe("an interrupted confirmation", () => {
         },
       }),
     ).rejects.toThrow(/Stopped/);
-    expect(stages[0]).toMatch(/^Stored 20,000 positions of 45,000$/);
+    expect(stages[0]).toMatch(/^Stored 5,000 positions of 45,000$/);
     expect(await statusOf(uploadId)).toBe("pending");
-    expect(await positionsOf(uploadId)).toBe(20_000); // staged under an upload no reader reads
+    expect(await positionsOf(uploadId)).toBe(5_000); // staged under an upload no reader reads
     expect((await listUploads(officer)).filter((u) => u.kind === "positions" && u.status === "confirmed").map((u) => u.id)).toEqual(before);
     await expect(confirmUpload(officer, uploadId, { acknowledgeWarnings: false })).resolves.toMatchObject({ status: "confirmed", stored: 45_000 });
     expect(await positionsOf(uploadId)).toBe(45_000);
@@ -192,7 +192,7 @@ describe("an interrupted confirmation", () => {
       applyConfirm(analyst.firmId, uploadId, { from: "pending", by: { userId: analyst.userId, name: analyst.name }, warningsAcknowledged: 0, signal: controller.signal, progress: async (stage) => void (stage.startsWith("Stored") && controller.abort()) }),
     ).rejects.toThrow(/Stopped/);
     const staged = await db.select({ current: pricePoints.current }).from(pricePoints).where(and(eq(pricePoints.uploadId, uploadId), eq(pricePoints.staged, true)));
-    expect(staged.length).toBe(20_000);
+    expect(staged.length).toBe(5_000);
     expect(staged.every((p) => !p.current)).toBe(true);
     expect(JSON.stringify(await priceCoverage(analyst))).toBe(coverage);
     await expect(confirmUpload(analyst, uploadId, { acknowledgeWarnings: false })).resolves.toMatchObject({ status: "confirmed", added: points, corrected: 0 });
