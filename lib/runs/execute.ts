@@ -19,7 +19,7 @@ import { jobByKey } from "@/lib/jobs/queue";
 import { readPayload, runPayloadSchema } from "@/lib/jobs/payload";
 import { runJobKey } from "./staleness";
 import { inputHashesOf, compareRuns, asStored } from "./compare";
-import { computeRun } from "./compute";
+import { computeRun, type ComputeContext, type RunProgress } from "./compute";
 import { RUN_STAGES, type RunInputHashes, type RunInputs, type RunResults } from "./types";
 
 /** Progress 0..1 of a stage at a fraction of its own work. */
@@ -39,6 +39,8 @@ export interface ExecuteOptions {
   /** extend the job's lease; false when it was lost (the run is then interrupted: stop) */
   heartbeat?: () => Promise<boolean>;
   signal?: AbortSignal;
+  /** how to compute: computeRun here (the default), or in a thread of its own (the job worker: computeInThread) */
+  compute?: (inputs: RunInputs, context: ComputeContext, onProgress?: RunProgress, signal?: AbortSignal) => Promise<RunResults>;
 }
 
 /** How often a progress report also extends the job's lease (the worker's own timer cannot fire during a long step). */
@@ -124,7 +126,7 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
         inputs = unpackInputs(packed.data);
         await report("inputs", 1);
       }
-      let results: RunResults = await computeRun(inputs, { fromStoredInputsOf: run.reproducesRunId }, report);
+      let results: RunResults = await (options.compute ?? computeRun)(inputs, { fromStoredInputsOf: run.reproducesRunId }, report, options.signal);
       await report("storing", 0);
       results = asStored(results);
       if (run.reproducesRunId) {

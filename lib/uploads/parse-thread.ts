@@ -8,5 +8,5 @@ import type { ReadOptions } from "./types";
 
 const input = workerData as { bytes: Uint8Array; kind: UploadKind; options: ReadOptions; context: ParseFileContext };
 parseFile(input.bytes, input.kind, input.options, input.context, (done, total) => parentPort!.postMessage({ type: "progress", done, total }))
-  .then((parsed) => parentPort!.postMessage({ type: "done", parsed }))
+  .then((value) => parentPort!.postMessage({ type: "done", value }))
   .catch((error: unknown) => parentPort!.postMessage({ type: "error", message: error instanceof Error ? error.message : String(error) }));

@@ -14,8 +14,10 @@ import type { JobKind } from "../types";
 export const runJob: JobKind = {
   async handle(context) {
     const { executeRun } = await import("@/lib/runs/execute");
+    const { computeInThread } = await import("@/lib/runs/compute-in-thread");
     const payload = readPayload(context.job, runPayloadSchema);
-    const outcome = await executeRun(payload.runId, { excludeShortHistory: payload.excludeShortHistory, heartbeat: context.heartbeat, signal: context.signal });
+    // computed in a thread of its own, so that the worker's heartbeat goes on through a large book's long steps
+    const outcome = await executeRun(payload.runId, { excludeShortHistory: payload.excludeShortHistory, heartbeat: context.heartbeat, signal: context.signal, compute: computeInThread });
     return { outcome };
   },
   async onGivenUp(job: Job, db: Database, reason: string) {
