@@ -49,7 +49,9 @@ export type UploadContext = {
   dateFormat?: DateFormat;
 };
 
-const PERMISSION = { positions: "positions.upload", prices: "prices.upload" } as const;
+/** Who may upload, confirm, cancel and re-read each kind of file (the routes of each kind take the same). */
+export const UPLOAD_PERMISSION = { positions: "positions.upload", prices: "prices.upload" } as const;
+const PERMISSION = UPLOAD_PERMISSION;
 /** The dedupe keys of an upload's jobs: one read and one confirmation at a time. */
 export const readJobKey = (uploadId: string) => `upload-read:${uploadId}`;
 export const confirmJobKey = (uploadId: string) => `upload-confirm:${uploadId}`;
@@ -144,6 +146,12 @@ async function getUploadRow(actor: Actor, uploadId: string) {
   const [row] = await getDb().select().from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId)));
   if (!row) throw new AppError("not_found:upload", "No such upload.");
   return row;
+}
+
+/** The actor's firm has this upload and it is of `kind` (each kind has its own routes): else not found. */
+export async function assertUploadKind(actor: Actor, uploadId: string, kind: UploadKind): Promise<void> {
+  const [row] = await getDb().select({ id: uploads.id }).from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId), eq(uploads.kind, kind)));
+  if (!row) throw new AppError("not_found:upload", "No such upload.");
 }
 
 /** Whether the actor's firm has this upload (the preview page answers a real 404 otherwise). */
