@@ -165,7 +165,8 @@ export async function readUpload(firmId: string, uploadId: string, how: ReadHow 
   await writeParts(db, firmId, uploadId, "problems", parsed.problems, stillOurs);
 
   const tally = counts(parsed);
-  const firstRead = row.summary === null;
+  // the receipt is audited once, by the read that first gets through (a handed-over file has no hash until then)
+  const firstRead = row.summary === null || row.sha256 === "";
   const stored = await db.transaction(async (tx) => {
     const done = await tx
       .update(uploads)

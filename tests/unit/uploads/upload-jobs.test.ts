@@ -252,5 +252,7 @@ describe("an interrupted confirmation", () => {
     await expect(requestConfirm(officer, uploadId, { acknowledgeWarnings: false })).rejects.toMatchObject({ kind: "conflict" });
     await updateUploadOptions(officer, uploadId, { numberFormat: "plain" });
     expect(await readUpload(officer.firmId, uploadId)).toMatchObject({ status: "pending", rows: 3 });
+    // the file's receipt is in the audit trail once, from the read that got through
+    expect(await db.select().from(auditEvents).where(and(eq(auditEvents.action, "upload.receive"), eq(auditEvents.entityId, uploadId)))).toHaveLength(1);
   });
 });
