@@ -425,9 +425,9 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
     byConfidence: m.byConfidence.map((c) => ({
       confidence: c.confidence,
       oneDay: { var: c.oneDay.var, es: c.oneDay.es },
-      horizon: { var: c.tenDay.var, es: c.tenDay.es },
+      horizon: { var: c.horizon.var, es: c.horizon.es },
       diversificationBenefit1d: c.diversificationBenefit,
-      diversificationBenefitHorizon: c.diversificationBenefit10d,
+      diversificationBenefitHorizon: c.diversificationBenefitHorizon,
     })),
   }));
 
@@ -437,12 +437,12 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       label: assetClassLabel(cls),
       componentVar1d: g.componentVar,
       componentEs1d: g.componentEs,
-      componentVarHorizon: g.componentVar10d,
-      componentEsHorizon: g.componentEs10d,
+      componentVarHorizon: g.componentVarHorizon,
+      componentEsHorizon: g.componentEsHorizon,
       standAloneVar1d: g.standAloneVar,
       standAloneEs1d: g.standAloneEs,
-      standAloneVarHorizon: g.standAloneVar10d,
-      standAloneEsHorizon: g.standAloneEs10d,
+      standAloneVarHorizon: g.standAloneVarHorizon,
+      standAloneEsHorizon: g.standAloneEsHorizon,
     }));
 
   const contributions: ContributionSet[] = primary.byConfidence.map((c) => ({
@@ -455,8 +455,8 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       exposure: p.exposure,
       componentVar1d: p.componentVar,
       componentEs1d: p.componentEs,
-      componentVarHorizon: p.componentVar10d,
-      componentEsHorizon: p.componentEs10d,
+      componentVarHorizon: p.componentVarHorizon,
+      componentEsHorizon: p.componentEsHorizon,
       marginalVar: p.marginalVar,
       shareOfVar: c.oneDay.var !== 0 ? p.componentVar / c.oneDay.var : 0,
     })),
@@ -465,8 +465,8 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
       currency,
       componentVar1d: g.componentVar,
       componentEs1d: g.componentEs,
-      componentVarHorizon: g.componentVar10d,
-      componentEsHorizon: g.componentEs10d,
+      componentVarHorizon: g.componentVarHorizon,
+      componentEsHorizon: g.componentEsHorizon,
     })),
   }));
 
@@ -551,7 +551,7 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
   const pnlDates = pnl?.map((p) => p.date) ?? [];
   const points: VarHistoryRow[] = r.varHistory.points.map((p) => {
     const k = pnl ? firstAfter(pnlDates, p.asOf) : -1;
-    return { asOf: p.asOf, var1d: [...p.var1d], es1d: [...p.es1d], varHorizon: [...p.var10d], esHorizon: [...p.es10d], pnlNext: k >= 0 && pnl ? pnl[k].pnl : null };
+    return { asOf: p.asOf, var1d: [...p.var1d], es1d: [...p.es1d], varHorizon: [...p.varHorizon], esHorizon: [...p.esHorizon], pnlNext: k >= 0 && pnl ? pnl[k].pnl : null };
   });
   const pnlVsVar: BacktestFigures["pnlVsVar"] = [];
   if (series) {
@@ -613,7 +613,7 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
     window: { ...s.window },
     searchRule: s.searchRule,
     windowsSearched: s.windowsSearched,
-    byConfidence: s.byConfidence.map((c) => ({ confidence: c.confidence, oneDay: { var: c.oneDay.var, es: c.oneDay.es }, horizon: { var: c.tenDay.var, es: c.tenDay.es } })),
+    byConfidence: s.byConfidence.map((c) => ({ confidence: c.confidence, oneDay: { var: c.oneDay.var, es: c.oneDay.es }, horizon: { var: c.horizon.var, es: c.horizon.es } })),
     statement: s.statement,
   };
 

@@ -16,7 +16,7 @@ import { now, today } from "@/lib/clock";
 import type { Actor } from "@/lib/auth/actor";
 import { BASEL_CAPITAL_PROFILE } from "@/lib/risk/capital/capital";
 import { explainRuns, explainVarChange } from "@/lib/risk";
-import { storedPortfolioStateOf } from "@/lib/runs/stored-state";
+import { resultsUnderCurrentNames, storedPortfolioStateOf } from "@/lib/runs/stored-state";
 import { infeasibilityMessage, methodInfeasibilities, type Infeasibility } from "@/lib/runs/feasibility";
 import { runInputsExport, runInputsFileName } from "@/lib/runs/export";
 import { methodContentSchema, type MethodContent } from "@/lib/validation/method";
@@ -52,7 +52,7 @@ function toRecord(row: { run: RunRow; startedByName: string | null; methodVersio
     progress: r.progress,
     inputHashes: r.inputHashes ?? null,
     engineVersion: r.engineVersion,
-    results: r.results ?? null,
+    results: r.results ? resultsUnderCurrentNames(r.results) : null,
     error: r.error,
     isFilingRun: r.isFilingRun,
     reproducesRunId: r.reproducesRunId,
@@ -69,7 +69,7 @@ function headlineOf(results: RunResults | null): RunListItem["headline"] {
   const m = results.monthEnd;
   const primary = m.methods.find((x) => x.method === m.primaryMethod) ?? m.methods[0];
   const c = primary.byConfidence.find((x) => x.confidence === m.capital.profile.confidence) ?? primary.byConfidence[0];
-  return { var1d: c.oneDay.var, var10d: c.tenDay.var, es10d: c.tenDay.es, confidence: c.confidence, capital: m.capital.capital, zone: m.backtest.zone };
+  return { var1d: c.oneDay.var, varHorizon: c.horizon.var, esHorizon: c.horizon.es, confidence: c.confidence, capital: m.capital.capital, zone: m.backtest.zone };
 }
 
 async function selectRuns(firmId: string, where: ReturnType<typeof and>) {

@@ -200,8 +200,8 @@ function varCommand(argv: string[]): void {
     warnings.unshift({ code: "prices-carried", message: `${aligned.report.carried.length} missing price(s) were carried forward from the previous date.` });
   }
   printJson({
-    var: long ? c.tenDay.var : c.oneDay.var,
-    es: long ? c.tenDay.es : c.oneDay.es,
+    var: long ? c.horizon.var : c.oneDay.var,
+    es: long ? c.horizon.es : c.oneDay.es,
     confidence,
     horizonDays: horizon,
     method,
@@ -215,18 +215,18 @@ function varCommand(argv: string[]): void {
       assetClass: p.assetClass,
       currency: p.currency,
       marketValue: p.marketValue,
-      componentVar: long ? p.componentVar10d : p.componentVar,
-      componentEs: long ? p.componentEs10d : p.componentEs,
-      marginalVar: long ? (p.marketValue !== 0 ? p.componentVar10d / p.marketValue : 0) : p.marginalVar,
+      componentVar: long ? p.componentVarHorizon : p.componentVar,
+      componentEs: long ? p.componentEsHorizon : p.componentEs,
+      marginalVar: long ? (p.marketValue !== 0 ? p.componentVarHorizon / p.marketValue : 0) : p.marginalVar,
     })),
     byAssetClass: Object.fromEntries(
       Object.entries(c.byAssetClass).map(([k, g]) => [k, long
-        ? { componentVar: g.componentVar10d, componentEs: g.componentEs10d, standAloneVar: g.standAloneVar10d, standAloneEs: g.standAloneEs10d }
+        ? { componentVar: g.componentVarHorizon, componentEs: g.componentEsHorizon, standAloneVar: g.standAloneVarHorizon, standAloneEs: g.standAloneEsHorizon }
         : { componentVar: g.componentVar, componentEs: g.componentEs, standAloneVar: g.standAloneVar, standAloneEs: g.standAloneEs }]),
     ),
-    byCurrency: Object.fromEntries(Object.entries(c.byCurrency).map(([k, g]) => [k, { componentVar: long ? g.componentVar10d : g.componentVar, componentEs: long ? g.componentEs10d : g.componentEs }])),
+    byCurrency: Object.fromEntries(Object.entries(c.byCurrency).map(([k, g]) => [k, { componentVar: long ? g.componentVarHorizon : g.componentVar, componentEs: long ? g.componentEsHorizon : g.componentEs }])),
     byFactor: c.byFactor,
-    diversificationBenefit: long ? c.diversificationBenefit10d : c.diversificationBenefit,
+    diversificationBenefit: long ? c.diversificationBenefitHorizon : c.diversificationBenefit,
     covarianceCheck: result.covarianceCheck,
     factors: result.model.factors.map((f) => ({ factor: f.factor, model: f.label, variance: f.variance, params: f.params, startUp: f.startUp, fallback: f.fallback })),
     correlation: { factors: result.correlation.factors, matrix: result.correlation.matrix, estimator: result.model.correlation.label, repair: result.model.correlation.repair },

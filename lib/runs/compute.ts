@@ -223,7 +223,7 @@ export async function computeRun(inputs: RunInputs, context: ComputeContext = { 
     const profile = inputs.capitalProfile.profile;
     const ci = monthEnd.confidences.indexOf(profile.confidence);
     const horizonOf = (p: (typeof monthEnd.varHistory.points)[number]) =>
-      profile.horizonDays === 1 ? p.var1d[ci] : profile.horizonDays === monthEnd.horizonDays ? p.var10d[ci] : p.var1d[ci] * Math.sqrt(profile.horizonDays);
+      profile.horizonDays === 1 ? p.var1d[ci] : profile.horizonDays === monthEnd.horizonDays ? p.varHorizon[ci] : p.var1d[ci] * Math.sqrt(profile.horizonDays);
     const history = monthEnd.varHistory.points.slice(-profile.averagingDays).map(horizonOf);
     const sVar = monthEnd.capital.stressedVarLast ?? 0;
     const capital = capitalCharge({ varHistory: history, stressedVarHistory: history.map(() => sVar), plusFactor: firmPlus }, profile);

@@ -36,3 +36,32 @@ export function storedPortfolioStateOf(results: RunResults): PortfolioState | nu
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) values[i * n + j] = c.matrix[i][j];
   return { factors: [...c.factors], exposures, volatilities, correlation: { size: n, values } };
 }
+
+/** The names runs stored before the horizon figures were named for any horizon (`tenDay`, `var10d`, …), and today's. */
+const EARLIER_HORIZON_KEYS: Readonly<Record<string, string>> = {
+  tenDay: "horizon",
+  var10d: "varHorizon",
+  es10d: "esHorizon",
+  componentVar10d: "componentVarHorizon",
+  componentEs10d: "componentEsHorizon",
+  standAloneVar10d: "standAloneVarHorizon",
+  standAloneEs10d: "standAloneEsHorizon",
+  diversificationBenefit10d: "diversificationBenefitHorizon",
+};
+
+function renameKeys(value: unknown): unknown {
+  if (Array.isArray(value)) return value.map(renameKeys);
+  if (value === null || typeof value !== "object") return value;
+  return Object.fromEntries(Object.entries(value).map(([k, v]) => [EARLIER_HORIZON_KEYS[k] ?? k, renameKeys(v)]));
+}
+
+/**
+ * A run's stored results under today's names: results stored before the horizon figures were renamed come back with
+ * `horizon`, `varHorizon`, `componentVarHorizon`, … in place of `tenDay`, `var10d`, `componentVar10d`, … (same
+ * values; a completed run's stored row never changes). Results already under today's names are returned as they are.
+ */
+export function resultsUnderCurrentNames(results: RunResults): RunResults {
+  const first = results.monthEnd?.methods?.[0]?.byConfidence?.[0] as object | undefined;
+  if (!first || !("tenDay" in first)) return results;
+  return renameKeys(results) as RunResults;
+}

@@ -217,7 +217,7 @@ export interface RunRecord {
 
 /** A run in a list: everything but the results, plus the headline figures. */
 export interface RunListItem extends Omit<RunRecord, "results"> {
-  headline: { var1d: number; var10d: number; es10d: number; confidence: number; capital: number; zone: string } | null;
+  headline: { var1d: number; varHorizon: number; esHorizon: number; confidence: number; capital: number; zone: string } | null;
   /** whether the run's inputs are still the period's current ones (lib/runs/freshness.ts) */
   freshness?: RunFreshness | null;
 }

@@ -108,7 +108,7 @@ describe("from the marked run", () => {
     const total = vm.figures.totals.find((t) => t.primary)!;
     primary.byConfidence.forEach((c, i) => {
       expect(total.byConfidence[i].oneDay).toEqual({ var: c.oneDay.var, es: c.oneDay.es });
-      expect(total.byConfidence[i].horizon).toEqual({ var: c.tenDay.var, es: c.tenDay.es });
+      expect(total.byConfidence[i].horizon).toEqual({ var: c.horizon.var, es: c.horizon.es });
       expect(vm.figures.byAssetClass[i].rows.map((r) => r.assetClass).sort()).toEqual(Object.keys(c.byAssetClass).sort());
     });
     expect(vm.figures.stressed.window).toEqual(m.stressed.window);

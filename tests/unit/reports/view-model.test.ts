@@ -24,11 +24,11 @@ describe("buildFilingViewModel from a completed run", () => {
       const t = f.totals.find((x) => x.method === m.method)!;
       expect(t.primary).toBe(m.method === r.primaryMethod);
       m.byConfidence.forEach((c, i) => {
-        expect(t.byConfidence[i]).toEqual({ confidence: c.confidence, oneDay: c.oneDay, horizon: c.tenDay, diversificationBenefit1d: c.diversificationBenefit, diversificationBenefitHorizon: c.diversificationBenefit10d });
+        expect(t.byConfidence[i]).toEqual({ confidence: c.confidence, oneDay: c.oneDay, horizon: c.horizon, diversificationBenefit1d: c.diversificationBenefit, diversificationBenefitHorizon: c.diversificationBenefitHorizon });
       });
     }
     expect(f.stressed.window).toEqual(r.stressed.window);
-    expect(f.stressed.byConfidence.map((c) => c.horizon.var)).toEqual(r.stressed.byConfidence.map((c) => c.tenDay.var));
+    expect(f.stressed.byConfidence.map((c) => c.horizon.var)).toEqual(r.stressed.byConfidence.map((c) => c.horizon.var));
     expect(f.varHistory.points.map((p) => p.var1d)).toEqual(r.varHistory.points.map((p) => p.var1d));
   });
 

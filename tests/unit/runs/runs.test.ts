@@ -120,7 +120,7 @@ describe("a run of the demo period", () => {
     const [c99, c975] = p.byConfidence;
     expect(c99.oneDay.var / p.portfolioVolatility).toBeCloseTo(2.3263478740408408, 10);
     expect(c975.oneDay.var / p.portfolioVolatility).toBeCloseTo(1.959963984540054, 10);
-    expect(c99.tenDay.var / c99.oneDay.var).toBeCloseTo(Math.sqrt(10), 10);
+    expect(c99.horizon.var / c99.oneDay.var).toBeCloseTo(Math.sqrt(10), 10);
   });
 
   it("keeps 60 days of VaR history and the backtest day by day, with the engine's exceptions", () => {
@@ -228,7 +228,7 @@ describe("a run of the demo period", () => {
     const list = await listRuns(auditor, periodId);
     expect(list.length).toBeGreaterThanOrEqual(3);
     const mine = list.find((r) => r.id === run.id)!;
-    expect(mine.headline!.var10d).toBe(run.results!.monthEnd.methods[0].byConfidence[0].tenDay.var);
+    expect(mine.headline!.varHorizon).toBe(run.results!.monthEnd.methods[0].byConfidence[0].horizon.var);
     expect("results" in mine).toBe(false);
   });
 

@@ -120,8 +120,8 @@ export function varCore(input: MonthEndInput, onProgress?: ProgressCallback) {
         exposure: p.deltaExposure ?? p.marketValue,
         componentVar: posVar[j],
         componentEs: posEs[j],
-        componentVar10d: posVar10[j],
-        componentEs10d: posEs10[j],
+        componentVarHorizon: posVar10[j],
+        componentEsHorizon: posEs10[j],
         marginalVar: p.marketValue !== 0 ? posVar[j] / p.marketValue : 0,
       }));
       const byAssetClass: ConfidenceFigures["byAssetClass"] = {};
@@ -133,25 +133,25 @@ export function varCore(input: MonthEndInput, onProgress?: ProgressCallback) {
         const s10 = ev.ten(e, c);
         standAloneSum += s1.var;
         standAloneSum10 += s10.var;
-        byAssetClass[cls] = { componentVar: 0, componentEs: 0, componentVar10d: 0, componentEs10d: 0, standAloneVar: s1.var, standAloneEs: s1.es, standAloneVar10d: s10.var, standAloneEs10d: s10.es };
+        byAssetClass[cls] = { componentVar: 0, componentEs: 0, componentVarHorizon: 0, componentEsHorizon: 0, standAloneVar: s1.var, standAloneEs: s1.es, standAloneVarHorizon: s10.var, standAloneEsHorizon: s10.es };
       }
       const byCurrency: Record<string, GroupFigure> = {};
       for (let j = 0; j < positions.length; j++) {
         const a = byAssetClass[assetClassOf[j]];
-        a.componentVar += posVar[j]; a.componentEs += posEs[j]; a.componentVar10d += posVar10[j]; a.componentEs10d += posEs10[j];
-        const g = (byCurrency[currencyOf[j]] ??= { componentVar: 0, componentEs: 0, componentVar10d: 0, componentEs10d: 0 });
-        g.componentVar += posVar[j]; g.componentEs += posEs[j]; g.componentVar10d += posVar10[j]; g.componentEs10d += posEs10[j];
+        a.componentVar += posVar[j]; a.componentEs += posEs[j]; a.componentVarHorizon += posVar10[j]; a.componentEsHorizon += posEs10[j];
+        const g = (byCurrency[currencyOf[j]] ??= { componentVar: 0, componentEs: 0, componentVarHorizon: 0, componentEsHorizon: 0 });
+        g.componentVar += posVar[j]; g.componentEs += posEs[j]; g.componentVarHorizon += posVar10[j]; g.componentEsHorizon += posEs10[j];
       }
       return {
         confidence: c,
         oneDay: { var: one.var, es: one.es },
-        tenDay: { var: ten.var, es: ten.es },
+        horizon: { var: ten.var, es: ten.es },
         contributions,
         byFactor: factorIds.map((f, i) => ({ factor: f, exposure: exposures[i], marginalVar: one.varMarginal[i], componentVar: exposures[i] * one.varMarginal[i] })),
         byAssetClass,
         byCurrency,
         diversificationBenefit: standAloneSum - one.var,
-        diversificationBenefit10d: standAloneSum10 - ten.var,
+        diversificationBenefitHorizon: standAloneSum10 - ten.var,
       };
     });
     methodFigures.push({ method: m, portfolioVolatility: ev.sigma, scaling: scalingFor(m), scalingStatement: describeScaling(scalingFor(m), H, !!prepared.perFactor), scenarios: ev.scenarios, byConfidence });

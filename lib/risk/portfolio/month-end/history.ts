@@ -228,7 +228,7 @@ export function varHistory(core: VarCore, onProgress?: ProgressCallback): VarHis
   const points: VarHistoryPoint[] = [];
   for (let s = Math.max(from, L - Hd + 1); s <= L; s++) {
     const n = s - from;
-    points.push({ asOf: asOfIndex(s), var1d: var1.map((v) => v[n]), var10d: var10.map((v) => v[n]), es1d: es1.map((v) => v[n]), es10d: es10.map((v) => v[n]) });
+    points.push({ asOf: asOfIndex(s), var1d: var1.map((v) => v[n]), varHorizon: var10.map((v) => v[n]), es1d: es1.map((v) => v[n]), esHorizon: es10.map((v) => v[n]) });
   }
   onProgress?.("history", 1);
   return { from, var1, var10, es1, es10, points };

@@ -39,7 +39,7 @@ if (ask && (ask.include === "standard" || (ask.extra?.length ?? 0) > 0)) {
       const other = runMonthEnd({ ...input, method: methodOfCandidate(input.method, c) });
       const ci2 = other.confidences.indexOf(profile.confidence);
       const pts = other.varHistory.points;
-      const cap2 = pts.slice(-profile.averagingDays).map((p) => (profile.horizonDays === 1 ? p.var1d[ci2] : profile.horizonDays === other.horizonDays ? p.var10d[ci2] : p.var1d[ci2] * Math.sqrt(profile.horizonDays)));
+      const cap2 = pts.slice(-profile.averagingDays).map((p) => (profile.horizonDays === 1 ? p.var1d[ci2] : profile.horizonDays === other.horizonDays ? p.varHorizon[ci2] : p.var1d[ci2] * Math.sqrt(profile.horizonDays)));
       const series = other.backtestSeries as StoredBacktestSeries;
       if (series.dates.length !== btVar.length || series.dates[0] !== dates[btFrom]) throw new RangeError(`its backtest covers ${series.dates.length} days from ${series.dates[0]}, not the run's ${btVar.length} from ${dates[btFrom]}`);
       return rowFromSeries(c, ctx, series.var, cap2);
@@ -88,7 +88,7 @@ export function runMonthEnd(input: MonthEndInput, onProgress?: ProgressCallback)
   for (let s = Math.max(from, L - profile.averagingDays + 1); s <= L; s++) capVars.push(horizonOf(s - from, ci, var1, var10));
   if (capVars.length < profile.averagingDays) throw new RangeError(`runMonthEnd: capital needs ${profile.averagingDays} days of VaR history, the sample gives ${capVars.length}`);
   const sCi = stressedByConfidence[ci];
-  const sVar = profile.horizonDays === 1 ? sCi.oneDay.var : profile.horizonDays === H ? sCi.tenDay.var : sCi.oneDay.var * Math.sqrt(profile.horizonDays);
+  const sVar = profile.horizonDays === 1 ? sCi.oneDay.var : profile.horizonDays === H ? sCi.horizon.var : sCi.oneDay.var * Math.sqrt(profile.horizonDays);
   const plusFactor = bt.days === 250 ? bt.plusFactor : trafficLight(bt.days, bt.exceptions, 1 - profile.confidence).plusFactor;
   const capital = capitalCharge({ varHistory: capVars, stressedVarHistory: new Array(capVars.length).fill(sVar), plusFactor }, profile);
   onProgress?.("capital", 1);

@@ -54,7 +54,7 @@ export function stressedVar(core: VarCore): { stressed: StressedFigures; S: numb
         ten = { var: t10.var, es: t10.es };
       } else ten = { var: t1.var * Math.sqrt(H), es: t1.es * Math.sqrt(H) };
     }
-    return { confidence: c, oneDay: one, tenDay: ten };
+    return { confidence: c, oneDay: one, horizon: ten };
   });
   const stressed: StressedFigures = {
     method: primary,

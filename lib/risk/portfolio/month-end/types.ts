@@ -96,8 +96,8 @@ export interface PositionContribution {
   exposure: number;
   componentVar: number;
   componentEs: number;
-  componentVar10d: number;
-  componentEs10d: number;
+  componentVarHorizon: number;
+  componentEsHorizon: number;
   /** component VaR per unit of market value (the VaR change per unit when the position is scaled up) */
   marginalVar: number;
 }
@@ -105,21 +105,21 @@ export interface PositionContribution {
 export interface GroupFigure {
   componentVar: number;
   componentEs: number;
-  componentVar10d: number;
-  componentEs10d: number;
+  componentVarHorizon: number;
+  componentEsHorizon: number;
 }
 
 export interface ConfidenceFigures {
   confidence: number;
   oneDay: VarFigure;
-  tenDay: VarFigure;
+  horizon: VarFigure;
   contributions: PositionContribution[];
   byFactor: { factor: string; exposure: number; marginalVar: number; componentVar: number }[];
-  byAssetClass: Record<string, GroupFigure & { standAloneVar: number; standAloneEs: number; standAloneVar10d: number; standAloneEs10d: number }>;
+  byAssetClass: Record<string, GroupFigure & { standAloneVar: number; standAloneEs: number; standAloneVarHorizon: number; standAloneEsHorizon: number }>;
   byCurrency: Record<string, GroupFigure>;
   /** Σ stand-alone VaR by asset class − total VaR (one day) */
   diversificationBenefit: number;
-  diversificationBenefit10d: number;
+  diversificationBenefitHorizon: number;
 }
 
 export interface MethodFigures {
@@ -137,7 +137,7 @@ export interface StressedFigures {
   window: { start: string; end: string; days: number; chosenBy: "search" | "analyst" };
   searchRule: string | null;
   windowsSearched: number | null;
-  byConfidence: { confidence: number; oneDay: VarFigure; tenDay: VarFigure }[];
+  byConfidence: { confidence: number; oneDay: VarFigure; horizon: VarFigure }[];
   statement: string;
 }
 
@@ -146,9 +146,9 @@ export interface VarHistoryPoint {
   asOf: string;
   /** by confidence, in the order of `confidences` */
   var1d: number[];
-  var10d: number[];
+  varHorizon: number[];
   es1d: number[];
-  es10d: number[];
+  esHorizon: number[];
 }
 
 export interface MonthEndResult {

@@ -29,12 +29,12 @@ describe("methods configured as before issue 13 give the same figures, bit for b
         m.byConfidence.forEach((c, j) => {
           const got = r.methods[i].byConfidence[j];
           expect(got.oneDay).toEqual(c.oneDay);
-          expect(got.tenDay).toEqual(c.tenDay);
+          expect(got.horizon).toEqual(c.tenDay); // recorded when the engine named the horizon figure `tenDay`
           expect(got.contributions.map((p) => p.componentVar)).toEqual(c.componentVar);
         });
       });
       expect(r.varHistory.points.map((p) => p.var1d[0])).toEqual(f.history);
-      expect(r.varHistory.points.map((p) => p.var10d[0])).toEqual(f.history10);
+      expect(r.varHistory.points.map((p) => p.varHorizon[0])).toEqual(f.history10);
       expect({ days: r.backtest.days, exceptions: r.backtest.exceptions }).toEqual(f.backtest);
       expect(r.capital.capital).toBe(f.capital);
       expect(r.stressed.byConfidence[0].oneDay.var).toBe(f.stressed);

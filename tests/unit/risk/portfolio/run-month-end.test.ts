@@ -28,7 +28,7 @@ describe("runMonthEnd", () => {
         const total = c.oneDay.var;
         expect(sum(c.contributions.map((p) => p.componentVar))).toBeCloseTo(total, 4);
         expect(sum(c.contributions.map((p) => p.componentEs))).toBeCloseTo(c.oneDay.es, 4);
-        expect(sum(c.contributions.map((p) => p.componentVar10d))).toBeCloseTo(c.tenDay.var, 4);
+        expect(sum(c.contributions.map((p) => p.componentVarHorizon))).toBeCloseTo(c.horizon.var, 4);
         expect(sum(Object.values(c.byAssetClass).map((g) => g.componentVar))).toBeCloseTo(total, 4);
         expect(sum(Object.values(c.byCurrency).map((g) => g.componentVar))).toBeCloseTo(total, 4);
         expect(sum(c.byFactor.map((f) => f.componentVar))).toBeCloseTo(total, 4);
@@ -42,7 +42,7 @@ describe("runMonthEnd", () => {
   it("ES is at least VaR; ten-day parametric is √10 × one-day under square-root scaling", () => {
     for (const m of result.methods) for (const c of m.byConfidence) expect(c.oneDay.es).toBeGreaterThanOrEqual(c.oneDay.var - 1e-9);
     const p = result.methods.find((m) => m.method === "parametric")!.byConfidence[0];
-    expect(p.tenDay.var).toBeCloseTo(p.oneDay.var * Math.sqrt(10), 6);
+    expect(p.horizon.var).toBeCloseTo(p.oneDay.var * Math.sqrt(10), 6);
   });
 
   it("the last point of the VaR history is today's figure", () => {
@@ -57,10 +57,10 @@ describe("runMonthEnd", () => {
   it("backtests 250 days and builds capital from the 60-day history and the stressed VaR", () => {
     expect(result.backtest.days).toBe(250);
     expect(result.backtest.exceptionList.length).toBe(result.backtest.exceptions);
-    const tenDay = result.varHistory.points.map((p) => p.var10d[0]);
-    expect(result.capital.varAverage).toBeCloseTo(sum(tenDay) / 60, 6);
-    expect(result.capital.varLast).toBeCloseTo(tenDay[59], 6);
-    expect(result.capital.stressedVarLast).toBeCloseTo(result.stressed.byConfidence[0].tenDay.var, 6);
+    const horizon = result.varHistory.points.map((p) => p.varHorizon[0]);
+    expect(result.capital.varAverage).toBeCloseTo(sum(horizon) / 60, 6);
+    expect(result.capital.varLast).toBeCloseTo(horizon[59], 6);
+    expect(result.capital.stressedVarLast).toBeCloseTo(result.stressed.byConfidence[0].horizon.var, 6);
     expect(result.capital.capital).toBeCloseTo(result.capital.varTerm + result.capital.stressedVarTerm, 6);
     expect(result.capital.multiplier).toBeCloseTo(3 + result.backtest.plusFactor, 12);
   });
@@ -105,9 +105,9 @@ describe("runMonthEnd", () => {
     expect(r.covarianceCheck.check.status).toBe("positive-definite");
     expect(r.volatilityModels).toHaveLength(r.factors.used.length);
     const p = r.methods[0].byConfidence[0];
-    expect(p.tenDay.var).not.toBeCloseTo(p.oneDay.var * Math.sqrt(10), 2);
-    expect(r.varHistory.points.at(-1)!.var10d[0]).toBeCloseTo(p.tenDay.var, 6);
-    expect(sum(p.contributions.map((c) => c.componentVar10d))).toBeCloseTo(p.tenDay.var, 4);
+    expect(p.horizon.var).not.toBeCloseTo(p.oneDay.var * Math.sqrt(10), 2);
+    expect(r.varHistory.points.at(-1)!.varHorizon[0]).toBeCloseTo(p.horizon.var, 6);
+    expect(sum(p.contributions.map((c) => c.componentVarHorizon))).toBeCloseTo(p.horizon.var, 4);
   });
 
   it("historical and filtered as primary: the history's last point is today's figure", () => {
@@ -117,14 +117,14 @@ describe("runMonthEnd", () => {
       const last = r.varHistory.points.at(-1)!;
       expect(last.var1d[0]).toBeCloseTo(today[0].oneDay.var, 6);
       expect(last.es1d[1]).toBeCloseTo(today[1].oneDay.es, 6);
-      expect(last.var10d[0]).toBeCloseTo(today[0].tenDay.var, 6);
+      expect(last.varHorizon[0]).toBeCloseTo(today[0].horizon.var, 6);
     }
   });
 
   it("overlapping ten-day returns for historical simulation", () => {
     const r = runMonthEnd({ ...base, method: { methods: ["historical"], scaling: "overlap", historicalWindow: 250 } });
     expect(r.methods[0].scalingStatement).toMatch(/overlapping/);
-    expect(r.varHistory.points.at(-1)!.var10d[0]).toBeCloseTo(r.methods[0].byConfidence[0].tenDay.var, 6);
+    expect(r.varHistory.points.at(-1)!.varHorizon[0]).toBeCloseTo(r.methods[0].byConfidence[0].horizon.var, 6);
   });
 
   it("a factor that starts late shortens the working sample and says so; one too short is excluded and listed", () => {

@@ -75,7 +75,7 @@ export function RunsPanel({ periodId, currency, canStart, locked }: { periodId: 
       header: () => <span className="block text-right">10-day VaR</span>,
       cell: (c) => {
         const h = c.row.original.headline;
-        return <span className="figure block text-right">{h ? `${money(h.var10d, currency)} (${confidence(h.confidence)})` : "—"}</span>;
+        return <span className="figure block text-right">{h ? `${money(h.varHorizon, currency)} (${confidence(h.confidence)})` : "—"}</span>;
       },
     }),
     column.display({

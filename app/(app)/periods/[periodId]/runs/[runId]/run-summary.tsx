@@ -68,8 +68,8 @@ function VarTable({ results, currency }: { results: RunResults; currency: string
               <td className="py-1.5 pr-2 text-left">{confidence(c.confidence)}</td>
               <td className="py-1.5 pr-2">{money(c.oneDay.var, currency)}</td>
               <td className="py-1.5 pr-2">{money(c.oneDay.es, currency)}</td>
-              <td className="py-1.5 pr-2">{money(c.tenDay.var, currency)}</td>
-              <td className="py-1.5">{money(c.tenDay.es, currency)}</td>
+              <td className="py-1.5 pr-2">{money(c.horizon.var, currency)}</td>
+              <td className="py-1.5">{money(c.horizon.es, currency)}</td>
             </tr>
           )),
         )}
@@ -259,7 +259,7 @@ export function RunSummary({ periodId, runId, canReproduce, canChooseForFiling }
                     <tr key={c.confidence} className="border-b border-ink-line/60 text-right">
                       <td className="py-1.5 pr-2 text-left">{confidence(c.confidence)}</td>
                       <td className="py-1.5 pr-2">{money(c.oneDay.var, currency)}</td>
-                      <td className="py-1.5">{money(c.tenDay.var, currency)}</td>
+                      <td className="py-1.5">{money(c.horizon.var, currency)}</td>
                     </tr>
                   ))}
                 </FigureTable>

@@ -41,7 +41,7 @@ function GroupChart({ title, id, data, currency }: { title: string; id: string; 
   );
 }
 
-function GroupTable({ caption, rows, currency, total, standAlone }: { caption: string; rows: { label: string; componentVar: number; componentVar10d: number; standAloneVar?: number }[]; currency: string; total: number; standAlone: boolean }) {
+function GroupTable({ caption, rows, currency, total, standAlone }: { caption: string; rows: { label: string; componentVar: number; componentVarHorizon: number; standAloneVar?: number }[]; currency: string; total: number; standAlone: boolean }) {
   return (
     // without the stand-alone column the 10-day column ends the row and keeps its gap, as it always has
     <FigureTable caption={caption} padLast={!standAlone} columns={["Group", "Component VaR 1 day", "Share", "Component VaR 10 days", ...(standAlone ? ["Stand-alone VaR 1 day"] : [])]}>
@@ -52,7 +52,7 @@ function GroupTable({ caption, rows, currency, total, standAlone }: { caption: s
           headClassName="whitespace-normal text-left font-normal"
           padLast={!standAlone}
           head={r.label}
-          cells={[money(r.componentVar, currency), pct(r.componentVar / total, 1), money(r.componentVar10d, currency), ...(standAlone ? [money(r.standAloneVar, currency)] : [])]}
+          cells={[money(r.componentVar, currency), pct(r.componentVar / total, 1), money(r.componentVarHorizon, currency), ...(standAlone ? [money(r.standAloneVar, currency)] : [])]}
         />
       ))}
     </FigureTable>
@@ -69,7 +69,7 @@ function PositionsTable({ rows, currency, total }: { rows: PositionContribution[
     column.accessor("marketValue", { header: "Market value", cell: (c) => right(money(c.getValue(), currency)) }),
     column.accessor("componentVar", { header: "Component VaR 1 day", cell: (c) => right(money(c.getValue(), currency)) }),
     column.accessor((p) => p.componentVar / total, { id: "share", header: "Share", cell: (c) => right(pct(c.getValue(), 1)) }),
-    column.accessor("componentVar10d", { header: "Component VaR 10 days", cell: (c) => right(money(c.getValue(), currency)) }),
+    column.accessor("componentVarHorizon", { header: "Component VaR 10 days", cell: (c) => right(money(c.getValue(), currency)) }),
     column.accessor("marginalVar", { header: "Per unit of value", cell: (c) => right(pct(c.getValue(), 3)) }),
   ];
   // TanStack Table returns fresh functions each render; this component does not memoise around them.
