@@ -16,6 +16,7 @@ import { describeComputedMethod } from "./method-text";
 
 const MODEL_SOURCE_WORDS: Record<string, string> = { factor: "the factor", "asset-class": "its asset class", default: "the firm-wide default", legacy: "the one covariance model" };
 import { formatMonth } from "./format";
+import { defaultFxFactorId } from "@/lib/risk/portfolio/exposures";
 
 export { canonicalContent, contentHash, CANONICAL_SCHEMA } from "./canonical";
 
@@ -498,7 +499,7 @@ export function buildFilingViewModel(input: FilingPackInput): FilingViewModel {
 
   // risk factors
   const exposureOf = new Map(atCapital.byFactor.map((f) => [f.factor, f.exposure]));
-  const fxIds = new Set(atCapital.contributions.filter((p) => p.currency !== r.reportingCurrency).map((p) => `${p.currency}${r.reportingCurrency}`));
+  const fxIds = new Set(atCapital.contributions.filter((p) => p.currency !== r.reportingCurrency).map((p) => defaultFxFactorId(p.currency, r.reportingCurrency)));
   const kindOf = (f: string): RiskFactorRow["kind"] => (fxIds.has(f) ? "exchange rate" : "price");
   let riskFactors: RiskFactorRow[];
   if (input.riskFactors && input.riskFactors.length) {

@@ -120,7 +120,7 @@ export const positions = sqliteTable(
     rowNumber: integer("row_number").notNull(),
     asOf: text("as_of").notNull(),
     book: text("book").notNull(),
-    instrumentCode: text("instrument_code").notNull(),
+    instrument: text("instrument_code").notNull(),
     instrumentName: text("instrument_name").notNull(),
     assetClass: text("asset_class").notNull(),
     currency: text("currency").notNull(),

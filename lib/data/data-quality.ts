@@ -108,12 +108,12 @@ async function computeReport(actor: Actor, periodId: string): Promise<Omit<DataQ
   const extraItems =
     profile?.filedRegime === "standardised"
       ? standardisedQualityItems(
-          rows.map((r) => ({ row: r.rowNumber, instrumentId: r.instrumentCode, assetClass: r.assetClass, currency: r.currency, quantity: r.quantity, marketValue: r.marketValue, attributes: attributesFromStored(r) })),
+          rows.map((r) => ({ row: r.rowNumber, instrument: r.instrument, assetClass: r.assetClass, currency: r.currency, quantity: r.quantity, marketValue: r.marketValue, attributes: attributesFromStored(r) })),
           { reportingCurrency: actor.reportingCurrency, asOf: period.periodEnd, profile: profile.standardised },
         )
       : [];
   const report = dataQualityReport(
-    rows.map((r) => ({ instrumentId: r.instrumentCode, currency: r.currency, quantity: r.quantity, price: r.price, marketValue: r.marketValue })),
+    rows.map((r) => ({ instrument: r.instrument, currency: r.currency, quantity: r.quantity, price: r.price, marketValue: r.marketValue })),
     series,
     { reportingCurrency: actor.reportingCurrency, periodEnd: period.periodEnd, holidays: holidaySet, extraItems },
   );

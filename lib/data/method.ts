@@ -309,7 +309,7 @@ export async function computeEvidence(
     if (upload) {
       source = "positions";
       const rows = await db
-        .select({ code: positions.instrumentCode, assetClass: positions.assetClass })
+        .select({ code: positions.instrument, assetClass: positions.assetClass })
         .from(positions)
         .where(and(eq(positions.firmId, actor.firmId), eq(positions.uploadId, upload.id)));
       for (const r of rows) classes.set(r.assetClass, [...(classes.get(r.assetClass) ?? []), r.code]);

@@ -205,7 +205,7 @@ async function storedPositionsOf(actor: Actor, uploadId: string): Promise<Stored
   return rows.map((r) => ({
     row: r.rowNumber,
     book: r.book,
-    instrument: r.instrumentCode,
+    instrument: r.instrument,
     name: r.instrumentName,
     assetClass: r.assetClass,
     currency: r.currency,

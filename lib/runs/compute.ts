@@ -12,6 +12,7 @@ import { factorVolatility, OTHER_SETTINGS_STATEMENT } from "./factor-volatility"
 import { engineMethodOf, firmPlusFactor, runStatements, storedHistoryDays } from "./method-map";
 import { readMethodContent } from "@/lib/validation/method";
 import type { FactorVolatility, PositionsSummary, RunInputs, RunResults, StoredPosition } from "./types";
+import { defaultFxFactorId } from "@/lib/risk/portfolio/exposures";
 
 export type RunProgress = (stage: string, fraction: number) => void | Promise<void>;
 
@@ -30,7 +31,8 @@ export interface HistoryAssessment {
 /** Factor id of a position's price, and the positions' instrument label (book and instrument). */
 export const priceFactorOf = (p: StoredPosition): string => p.instrument;
 export const positionLabelOf = (p: StoredPosition): string => `${p.book} · ${p.instrument}`;
-export const fxFactorOf = (currency: string, reportingCurrency: string): string => `${currency}${reportingCurrency}`;
+/** The exchange-rate factor of a currency against the reporting currency (the engine's one definition). */
+export const fxFactorOf = defaultFxFactorId;
 
 /** The factors a book needs: each position's price factor and, for a foreign position, its exchange-rate factor. */
 export function neededFactors(positions: readonly StoredPosition[], reportingCurrency: string): Map<string, { assetClass: string; currency: string }> {

@@ -41,7 +41,7 @@ export function standardisedOfRun(inputs: Pick<RunInputs, "positions" | "capital
   if (!cp.regimes || !computesRegime(cp.regimes, "standardised")) return null;
   const profile = cp.standardised ?? { ...STANDARDISED_1996_PROFILE, showRwa: cp.showRwa ?? false };
   const positions = inputs.positions.map((p: StoredPosition) =>
-    standardisedPositionOf({ instrumentId: p.instrument, assetClass: p.assetClass, currency: p.currency, quantity: p.quantity, marketValue: p.marketValue, attributes: p.attributes }, inputs.reportingCurrency),
+    standardisedPositionOf({ instrument: p.instrument, assetClass: p.assetClass, currency: p.currency, quantity: p.quantity, marketValue: p.marketValue, attributes: p.attributes }, inputs.reportingCurrency),
   );
   const options = { reportingCurrency: inputs.reportingCurrency, asOf: inputs.periodEnd, profile };
   const issues = validateStandardisedPositions(positions, options);

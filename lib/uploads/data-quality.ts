@@ -4,6 +4,7 @@
  */
 import { isWeekend, parseISO, addDays, format } from "date-fns";
 import { countOf } from "@/lib/text/count";
+import { defaultFxFactorId } from "@/lib/risk/portfolio/exposures";
 
 export type QualitySeverity = "error" | "warning" | "info";
 
@@ -49,7 +50,7 @@ export interface QualityItem {
 export const CONFIRMABLE_CHECKS: readonly QualityCheck[] = ["extreme-return"];
 
 export interface QualityPosition {
-  instrumentId: string;
+  instrument: string;
   currency: string;
   quantity: number;
   price: number;
@@ -181,24 +182,24 @@ export function dataQualityReport(
   const seen = new Set<string>();
   const tolerance = options.valueTolerance ?? 0.005;
   for (const p of positionsInPeriod) {
-    if (!seen.has(p.instrumentId)) {
-      seen.add(p.instrumentId);
-      const s = series.get(p.instrumentId);
-      items.push(...checkSeries(p.instrumentId, s?.dates ?? [], s?.closes ?? [], options));
+    if (!seen.has(p.instrument)) {
+      seen.add(p.instrument);
+      const s = series.get(p.instrument);
+      items.push(...checkSeries(p.instrument, s?.dates ?? [], s?.closes ?? [], options));
     }
     if (p.currency !== options.reportingCurrency) {
-      const pair = `${p.currency}${options.reportingCurrency}`;
+      const pair = defaultFxFactorId(p.currency, options.reportingCurrency);
       if (!seen.has(pair)) {
         seen.add(pair);
         const fx = series.get(pair);
         if (!fx || fx.dates.length === 0) {
-          items.push({ check: "missing-fx", severity: "error", instrument: p.instrumentId, message: `${p.instrumentId} is in ${p.currency}, but there is no ${pair} exchange-rate series: its currency risk cannot be measured.` });
+          items.push({ check: "missing-fx", severity: "error", instrument: p.instrument, message: `${p.instrument} is in ${p.currency}, but there is no ${pair} exchange-rate series: its currency risk cannot be measured.` });
         } else items.push(...checkSeries(pair, fx.dates, fx.closes, options));
       } else if (!series.get(pair)?.dates.length) {
-        items.push({ check: "missing-fx", severity: "error", instrument: p.instrumentId, message: `${p.instrumentId} is in ${p.currency}, but there is no ${pair} exchange-rate series: its currency risk cannot be measured.` });
+        items.push({ check: "missing-fx", severity: "error", instrument: p.instrument, message: `${p.instrument} is in ${p.currency}, but there is no ${pair} exchange-rate series: its currency risk cannot be measured.` });
       }
     }
-    const fxSeries = p.currency === options.reportingCurrency ? null : series.get(`${p.currency}${options.reportingCurrency}`);
+    const fxSeries = p.currency === options.reportingCurrency ? null : series.get(defaultFxFactorId(p.currency, options.reportingCurrency));
     const rateIndex = fxSeries ? fxSeries.dates.findLastIndex((d) => d <= options.periodEnd) : -1;
     const rate = p.currency === options.reportingCurrency ? 1 : rateIndex >= 0 ? fxSeries!.closes[rateIndex] : null;
     if (rate !== null) {
@@ -207,8 +208,8 @@ export function dataQualityReport(
         items.push({
           check: "market-value-mismatch",
           severity: "warning",
-          instrument: p.instrumentId,
-          message: `${p.instrumentId}: market value ${p.marketValue.toFixed(2)} differs from quantity × price${rate !== 1 ? " × rate" : ""} = ${computed.toFixed(2)}.`,
+          instrument: p.instrument,
+          message: `${p.instrument}: market value ${p.marketValue.toFixed(2)} differs from quantity × price${rate !== 1 ? " × rate" : ""} = ${computed.toFixed(2)}.`,
         });
       }
     }

@@ -9,11 +9,12 @@ import { ASSET_CLASSES, parseAssetClass } from "./asset-classes";
 import { PROGRESS_EVERY, type ParseProgress, type Problem, type RawTable, type ReadOptions } from "./types";
 import type { StandardisedProfile } from "@/lib/risk/standardised";
 import { POSITION_ATTRIBUTE_FIELDS, positionAttributesSchema, readPositionAttributes, standardisedRequirementProblems } from "./position-attributes";
+import { defaultFxFactorId } from "@/lib/risk/portfolio/exposures";
 
 export const POSITION_FIELDS = {
   asOf: { label: "as-of date", required: true, aliases: ["asof", "asofdate", "date", "positiondate", "valuationdate"] },
   book: { label: "book / account", required: true, aliases: ["book", "account", "bookaccount", "portfolio"] },
-  instrumentId: { label: "instrument id", required: true, aliases: ["instrumentid", "instrument", "instrumentcode", "isin", "ticker", "code", "id"] },
+  instrument: { label: "instrument id", required: true, aliases: ["instrumentid", "instrument", "instrumentcode", "isin", "ticker", "code", "id"] },
   instrumentName: { label: "instrument name", required: true, aliases: ["instrumentname", "name", "description"] },
   assetClass: { label: "asset class", required: true, aliases: ["assetclass", "class", "assettype"] },
   currency: { label: "currency", required: true, aliases: ["currency", "ccy", "curr"] },
@@ -37,7 +38,7 @@ export const positionRowSchema = z.object({
   row: z.number().int(),
   asOf: z.string().regex(/^\d{4}-\d{2}-\d{2}$/),
   book: z.string().min(1, "is empty").max(120, "is longer than 120 characters"),
-  instrumentId: z.string().min(1, "is empty").max(64, "is longer than 64 characters"),
+  instrument: z.string().min(1, "is empty").max(64, "is longer than 64 characters"),
   instrumentName: z.string().min(1, "is empty").max(200, "is longer than 200 characters"),
   assetClass: z.enum(ASSET_CLASSES),
   currency: z.string().refine(isIsoCurrency, "is not an ISO 4217 currency code"),
@@ -230,7 +231,7 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
 
     const rateOf = (ccy: string) => (ccy === context.reportingCurrency ? 1 : context.fxToReporting?.[ccy]);
     const fx = rateOf(currency);
-    const pair = `${currency}${context.reportingCurrency}`;
+    const pair = defaultFxFactorId(currency, context.reportingCurrency);
     const note = readText(cell(raw, "marketValueNote")).slice(0, 500);
     const valueCurrency = readText(cell(raw, "marketValueCurrency")).toUpperCase();
     if (fx === undefined && isIsoCurrency(currency)) {
@@ -261,7 +262,7 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
       row,
       asOf: "value" in asOf ? asOf.value : "",
       book: readText(cell(raw, "book")),
-      instrumentId: readText(cell(raw, "instrumentId")),
+      instrument: readText(cell(raw, "instrument")),
       instrumentName: readText(cell(raw, "instrumentName")),
       assetClass: assetClass ?? "other",
       currency,
@@ -285,10 +286,10 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
     }
 
     if (checked.success) {
-      const key = `${candidate.book}\u0000${candidate.instrumentId}`;
+      const key = `${candidate.book}\u0000${candidate.instrument}`;
       const first = seen.get(key);
       if (first !== undefined) {
-        fail("instrumentId", `duplicate position: book "${candidate.book}" and instrument "${candidate.instrumentId}" already appear on row ${first}`);
+        fail("instrument", `duplicate position: book "${candidate.book}" and instrument "${candidate.instrument}" already appear on row ${first}`);
       } else seen.set(key, row);
       if (givenValue != null && computed !== null) {
         const gap = Math.abs(givenValue - computed);
@@ -343,7 +344,7 @@ export function parsePositions(table: RawTable, options: ReadOptions, context: P
     .sort()
     .map((c) => {
       const date = context.fxDates?.[c] ?? null;
-      return { currency: c, pair: `${c}${context.reportingCurrency}`, rate: context.fxToReporting![c], date, periodEnd: !(date && context.periodEnd && date < lastWeekdayOnOrBefore(context.periodEnd)) };
+      return { currency: c, pair: defaultFxFactorId(c, context.reportingCurrency), rate: context.fxToReporting![c], date, periodEnd: !(date && context.periodEnd && date < lastWeekdayOnOrBefore(context.periodEnd)) };
     });
   return { ...empty, missingColumns, rows, problems, totals: positionTotals(rows), rates };
 }

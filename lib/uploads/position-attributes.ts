@@ -155,7 +155,7 @@ export function defaultInstrumentType(assetClass: string): InstrumentType | null
 
 /** What the blocks need of a position: the stored or parsed row's own fields and its attributes. */
 export interface PositionForBlocks {
-  instrumentId: string;
+  instrument: string;
   assetClass: string;
   currency: string;
   quantity: number;
@@ -171,13 +171,13 @@ export interface PositionForBlocks {
 export function standardisedPositionOf(p: PositionForBlocks, reportingCurrency?: string): StandardisedPosition {
   const a = p.attributes ?? {};
   const instrumentType = a.instrumentType ?? defaultInstrumentType(p.assetClass);
-  const onRateSeries = instrumentType === "currency" && reportingCurrency !== undefined && p.currency === reportingCurrency && new RegExp(`^[A-Z]{3}${reportingCurrency}$`).test(p.instrumentId);
+  const onRateSeries = instrumentType === "currency" && reportingCurrency !== undefined && p.currency === reportingCurrency && new RegExp(`^[A-Z]{3}${reportingCurrency}$`).test(p.instrument);
   const out: StandardisedPosition = {
-    instrument: p.instrumentId,
+    instrument: p.instrument,
     assetClass: p.assetClass,
     instrumentType: (instrumentType ?? "") as InstrumentType,
     marketValue: p.marketValue,
-    currency: onRateSeries ? p.instrumentId.slice(0, 3) : p.currency,
+    currency: onRateSeries ? p.instrument.slice(0, 3) : p.currency,
   };
   for (const key of POSITION_ATTRIBUTE_KEYS) {
     if (key === "instrumentType") continue;
@@ -303,7 +303,7 @@ export function standardisedQualityItems(
   return standardisedRequirementProblems(rows, context).map((p) => ({
     check: "standardised-attribute" as const,
     severity: "error" as const,
-    instrument: (p.row !== null ? byRow.get(p.row)?.instrumentId : undefined) ?? "",
-    message: `Row ${p.row ?? "?"} (${(p.row !== null ? byRow.get(p.row)?.instrumentId : undefined) ?? "?"}), ${p.message}. Upload the positions again with the column filled in, or change the filed figure in Settings.`,
+    instrument: (p.row !== null ? byRow.get(p.row)?.instrument : undefined) ?? "",
+    message: `Row ${p.row ?? "?"} (${(p.row !== null ? byRow.get(p.row)?.instrument : undefined) ?? "?"}), ${p.message}. Upload the positions again with the column filled in, or change the filed figure in Settings.`,
   }));
 }

@@ -236,7 +236,7 @@ describe("committed demo files", () => {
     const parsed = positions("northmoor-positions-bad.csv", "EUR", NOVEMBER_AS_OF, all);
     const errors = parsed.problems.filter((p) => (p as { severity: string }).severity === "error") as { row: number; field: string }[];
     const label: Record<string, string> = {
-      as_of: POSITION_FIELDS.asOf.label, instrument_id: POSITION_FIELDS.instrumentId.label, asset_class: POSITION_FIELDS.assetClass.label,
+      as_of: POSITION_FIELDS.asOf.label, instrument_id: POSITION_FIELDS.instrument.label, asset_class: POSITION_FIELDS.assetClass.label,
       currency: POSITION_FIELDS.currency.label, quantity: POSITION_FIELDS.quantity.label, price: POSITION_FIELDS.price.label,
     };
     for (const planted of BAD_ROWS) {
@@ -247,7 +247,7 @@ describe("committed demo files", () => {
     expect(BAD_ROWS.filter((r) => r.error).length).toBe(9);
     expect(errors.length).toBe(9);
     const formula = parsed.rows.find((r) => r.instrumentName.startsWith("=HYPERLINK("));
-    expect(formula?.instrumentId).toBe("NMB-EQ-KITTIWAKE");
+    expect(formula?.instrument).toBe("NMB-EQ-KITTIWAKE");
   });
 
   it("the data-quality report finds the planted problems, and no stale run or gap elsewhere", () => {

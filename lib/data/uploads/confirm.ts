@@ -97,14 +97,14 @@ async function confirmPositions(db: Database, row: typeof uploads.$inferSelect, 
         tx,
         "positions",
         ["id", "firm_id", "period_id", "upload_id", "row_number", "as_of", "book", "instrument_code", "instrument_name", "asset_class", "currency", "quantity", "price", "market_value", "delta_exposure", ...ATTRIBUTE_SQL_COLUMNS],
-        rows.map((r) => [orderedId(), firmId, periodId, uploadId, r.row, r.asOf, r.book, r.instrumentId, r.instrumentName, r.assetClass, r.currency, r.quantity, r.price, r.marketValue, r.deltaExposure, ...attributeSqlValues(r.attributes)]),
+        rows.map((r) => [orderedId(), firmId, periodId, uploadId, r.row, r.asOf, r.book, r.instrument, r.instrumentName, r.assetClass, r.currency, r.quantity, r.price, r.marketValue, r.deltaExposure, ...attributeSqlValues(r.attributes)]),
       );
     });
     await report(`Stored ${countOf(stored, "position")} of ${total.toLocaleString("en")}`, 0.05 + 0.85 * (stored / Math.max(1, total)));
   };
   for await (const items of eachPart(db, firmId, uploadId, "rows")) {
     for (const r of items as PositionRow[]) {
-      wanted.set(r.instrumentId, { name: r.instrumentName, assetClass: r.assetClass, currency: r.currency });
+      wanted.set(r.instrument, { name: r.instrumentName, assetClass: r.assetClass, currency: r.currency });
       batch.push(r);
     }
     if (batch.length >= STAGE_ROWS) await flush();

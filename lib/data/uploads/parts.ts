@@ -30,6 +30,15 @@ export async function writeParts(db: Database, firmId: string, uploadId: string,
   }
 }
 
+/**
+ * An item under today's names: position rows read before the parsed row named its instrument code `instrument`
+ * (as the engine, the run inputs and the price rows do) carry it as `instrumentId`.
+ */
+function underCurrentNames(item: unknown): unknown {
+  if (item === null || typeof item !== "object" || !("instrumentId" in item) || "instrument" in item) return item;
+  return Object.fromEntries(Object.entries(item).map(([k, v]) => [k === "instrumentId" ? "instrument" : k, v]));
+}
+
 /** Items [from, to) of a stored part list. */
 export async function readItems(db: Database | Tx, firmId: string, uploadId: string, part: PartName, from: number, to: number): Promise<unknown[]> {
   if (to <= from) return [];
@@ -40,7 +49,7 @@ export async function readItems(db: Database | Tx, firmId: string, uploadId: str
     .from(uploadParts)
     .where(and(eq(uploadParts.firmId, firmId), eq(uploadParts.uploadId, uploadId), eq(uploadParts.part, part), gte(uploadParts.seq, first), lte(uploadParts.seq, last)))
     .orderBy(asc(uploadParts.seq));
-  const items = rows.flatMap((r) => r.items);
+  const items = rows.flatMap((r) => r.items.map(underCurrentNames));
   const offset = from - first * UPLOAD_PART_SIZE;
   return items.slice(offset, offset + (to - from));
 }
@@ -53,7 +62,7 @@ export async function* eachPart(db: Database, firmId: string, uploadId: string, 
       .from(uploadParts)
       .where(and(eq(uploadParts.firmId, firmId), eq(uploadParts.uploadId, uploadId), eq(uploadParts.part, part), gte(uploadParts.seq, seq), lte(uploadParts.seq, seq + PARTS_PER_WRITE - 1)))
       .orderBy(asc(uploadParts.seq));
-    for (const r of rows) yield r.items;
+    for (const r of rows) yield r.items.map(underCurrentNames);
     if (rows.length < PARTS_PER_WRITE) return;
   }
 }

@@ -37,7 +37,7 @@ describe("a run that files the standardised figure", () => {
     const std = run.results!.standardised!;
     expect(std.error).toBeNull();
     const again = computeStandardised(
-      inputs.positions.map((p) => standardisedPositionOf({ instrumentId: p.instrument, assetClass: p.assetClass, currency: p.currency, quantity: p.quantity, marketValue: p.marketValue, attributes: p.attributes }, "EUR")),
+      inputs.positions.map((p) => standardisedPositionOf({ instrument: p.instrument, assetClass: p.assetClass, currency: p.currency, quantity: p.quantity, marketValue: p.marketValue, attributes: p.attributes }, "EUR")),
       { reportingCurrency: "EUR", asOf: "2026-11-30", profile: inputs.capitalProfile.standardised! },
     );
     expect(std.result).toEqual(JSON.parse(JSON.stringify(again)));

@@ -63,7 +63,7 @@ describe("evidence on the seeded demo data", () => {
     // templates/demo/northmoor-positions-2026-11.csv: equity, etf, government_bond, corporate_bond, commodity_future,
     // fx (the currency positions held on USDEUR and GBPEUR) and other (the interest-rate swap).
     expect(evidence.classes.map((c) => c.assetClass)).toEqual(["commodity_future", "corporate_bond", "equity", "etf", "fx", "government_bond", "other"]);
-    const held = await db.select({ code: positions.instrumentCode, assetClass: positions.assetClass }).from(positions).innerJoin(uploads, eq(uploads.id, positions.uploadId)).where(eq(uploads.status, "confirmed"));
+    const held = await db.select({ code: positions.instrument, assetClass: positions.assetClass }).from(positions).innerJoin(uploads, eq(uploads.id, positions.uploadId)).where(eq(uploads.status, "confirmed"));
     for (const c of evidence.classes) {
       expect(c.error).toBeNull();
       // templates/demo/README.md: Northmoor's history runs 2023-01-02 to 2026-11-20.

@@ -56,7 +56,7 @@ function fixtureInputs(): RunInputs {
   for (const [id, f] of Object.entries(factors)) series.set(id, { dates: [...dates], closes: f.closes.map((c) => Math.round((c as number) * 10_000) / 10_000) });
   const stale = series.get("INST0003")!;
   for (let t = stale.closes.length - 6; t < stale.closes.length; t++) stale.closes[t] = stale.closes[stale.closes.length - 7];
-  const qualityPositions: QualityPosition[] = positions.map((p, j) => ({ instrumentId: p.instrument, currency: p.currency, quantity: p.quantity, price: p.price, marketValue: j === 2 ? p.marketValue * 1.02 : p.marketValue }));
+  const qualityPositions: QualityPosition[] = positions.map((p, j) => ({ instrument: p.instrument, currency: p.currency, quantity: p.quantity, price: p.price, marketValue: j === 2 ? p.marketValue * 1.02 : p.marketValue }));
   const report = dataQualityReport(qualityPositions, series, { reportingCurrency: "EUR", periodEnd, minReturns: 250 });
 
   return {

@@ -64,7 +64,7 @@ describe("stored data-quality report", () => {
 
   it("is computed again after a price correction, and reports the corrected history", async () => {
     // a recent stored close of one instrument the period holds, corrected to ten times itself: an extreme move
-    const [held] = await db.select({ code: positions.instrumentCode }).from(positions).innerJoin(uploads, eq(uploads.id, positions.uploadId)).where(and(eq(positions.firmId, analyst.firmId), eq(positions.periodId, periodId), eq(uploads.status, "confirmed"))).limit(1);
+    const [held] = await db.select({ code: positions.instrument }).from(positions).innerJoin(uploads, eq(uploads.id, positions.uploadId)).where(and(eq(positions.firmId, analyst.firmId), eq(positions.periodId, periodId), eq(uploads.status, "confirmed"))).limit(1);
     const [instrument] = await db.select().from(instruments).where(and(eq(instruments.firmId, analyst.firmId), eq(instruments.code, held.code)));
     const points = await db.select().from(pricePoints).where(and(eq(pricePoints.firmId, analyst.firmId), eq(pricePoints.instrumentId, instrument.id), eq(pricePoints.current, true)));
     const sorted = points.sort((a, b) => a.date.localeCompare(b.date));

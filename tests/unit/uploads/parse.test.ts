@@ -122,7 +122,7 @@ describe("positions", () => {
     expect(parsed.problems).toEqual([]);
     expect(parsed.rows[0].instrumentName).toBe('=HYPERLINK("http://example.invalid","x")');
     expect(parsed.rows[0].book).toBe("+BOOK");
-    expect(parsed.rows[1]).toMatchObject({ book: "@desk", instrumentId: "-EQ-B", instrumentName: "-minus" });
+    expect(parsed.rows[1]).toMatchObject({ book: "@desk", instrument: "-EQ-B", instrumentName: "-minus" });
   });
 
   it("cross-checks a given market value and refuses the row when it differs beyond the tolerance", async () => {

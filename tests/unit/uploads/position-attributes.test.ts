@@ -56,9 +56,9 @@ describe("reading the optional columns", () => {
   });
 
   it("reads the instrument type from the asset class where the file gives none", () => {
-    const p = standardisedPositionOf({ instrumentId: "EQ-A", assetClass: "equity", currency: "EUR", quantity: 1, marketValue: 10, attributes: { nationalMarket: "DE" } });
+    const p = standardisedPositionOf({ instrument: "EQ-A", assetClass: "equity", currency: "EUR", quantity: 1, marketValue: 10, attributes: { nationalMarket: "DE" } });
     expect(p).toEqual({ instrument: "EQ-A", assetClass: "equity", instrumentType: "equity", marketValue: 10, currency: "EUR", nationalMarket: "DE" });
-    expect(standardisedPositionOf({ instrumentId: "F", assetClass: "commodity_future", currency: "USD", quantity: 1, marketValue: 10 }).instrumentType).toBe("future");
+    expect(standardisedPositionOf({ instrument: "F", assetClass: "commodity_future", currency: "USD", quantity: 1, marketValue: 10 }).instrumentType).toBe("future");
   });
 });
 
@@ -77,7 +77,7 @@ describe("a firm that files the standardised figure", () => {
     expect(errors[0].field).toBe("residual maturity (years)");
     expect(errors[0].message).toMatch(/residual_maturity_years/);
     expect(errors[0].message).toMatch(/maturity_date/);
-    expect(parsed.rows.map((r) => r.instrumentId)).toEqual(["GB-2031", "EQ-A"]);
+    expect(parsed.rows.map((r) => r.instrument)).toEqual(["GB-2031", "EQ-A"]);
   });
 
   it("refuses an equity without its national market and a commodity future without its notional", async () => {
@@ -98,8 +98,8 @@ describe("a firm that files the standardised figure", () => {
 describe("the data-quality report under a profile that files the standardised figure", () => {
   it("lists each confirmed position lacking an attribute as an error naming its row, counted with the rest", () => {
     const rows = [
-      { row: 2, instrumentId: "GB-2031", assetClass: "government_bond", currency: "EUR", quantity: 1, marketValue: 100, attributes: { instrumentType: "bond" as const, issuerCategory: "government" as const, coupon: 2.25 } },
-      { row: 3, instrumentId: "EQ-A", assetClass: "equity", currency: "EUR", quantity: 1, marketValue: 50, attributes: { nationalMarket: "DE" } },
+      { row: 2, instrument: "GB-2031", assetClass: "government_bond", currency: "EUR", quantity: 1, marketValue: 100, attributes: { instrumentType: "bond" as const, issuerCategory: "government" as const, coupon: 2.25 } },
+      { row: 3, instrument: "EQ-A", assetClass: "equity", currency: "EUR", quantity: 1, marketValue: 50, attributes: { nationalMarket: "DE" } },
     ];
     const extraItems = standardisedQualityItems(rows, { reportingCurrency: "EUR", asOf: "2026-11-30", profile: STANDARDISED_1996_PROFILE });
     expect(extraItems).toHaveLength(1);

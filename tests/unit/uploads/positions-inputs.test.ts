@@ -156,7 +156,7 @@ describe("a SEK book in a EUR firm", () => {
     const returns = { dates, factors: { "EQ-SKOG": series(), "EQ-HAMN": series(), SEKEUR: series() } };
     const varOf = (book: typeof inSek.rows) =>
       portfolioVar({
-        positions: book.map((r) => ({ instrument: r.instrumentId, marketValue: r.marketValue, currency: r.currency, assetClass: r.assetClass })),
+        positions: book.map((r) => ({ instrument: r.instrument, marketValue: r.marketValue, currency: r.currency, assetClass: r.assetClass })),
         returns,
         reportingCurrency: "EUR",
         method: { methods: ["parametric"], covariance: "equal", confidences: [0.99], stressWindow: undefined },
@@ -173,7 +173,7 @@ describe("a SEK book in a EUR firm", () => {
 describe("the column guide", () => {
   it("explains every core column the parser reads, with its unit and an example", () => {
     // the standardised attribute columns are described beside their reader (lib/uploads/position-attributes.ts)
-    const core = ["asOf", "book", "instrumentId", "instrumentName", "assetClass", "currency", "quantity", "price", "marketValue", "deltaExposure", "marketValueCurrency", "marketValueNote"];
+    const core = ["asOf", "book", "instrument", "instrumentName", "assetClass", "currency", "quantity", "price", "marketValue", "deltaExposure", "marketValueCurrency", "marketValueNote"];
     expect(core.every((f) => f in POSITION_FIELDS)).toBe(true);
     for (const field of core) {
       const entry = POSITION_COLUMN_GUIDE.find((g) => g.field === field);

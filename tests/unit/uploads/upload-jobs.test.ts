@@ -100,10 +100,19 @@ describe("an upload handed over by the upload service", () => {
     const page = await getUploadRows(officer, uploadId, 41, 25); // rows 1,001–1,025 span the first and second part
     expect(page.total).toBe(2_500);
     expect(page.rows).toHaveLength(25);
-    expect((page.rows[0] as { instrumentId: string }).instrumentId).toBe("JOB-1000");
-    expect((await getUploadRows(officer, uploadId, 100, 25)).rows.map((r) => (r as { instrumentId: string }).instrumentId).at(-1)).toBe("JOB-2499");
+    expect((page.rows[0] as { instrument: string }).instrument).toBe("JOB-1000");
+    expect((await getUploadRows(officer, uploadId, 100, 25)).rows.map((r) => (r as { instrument: string }).instrument).at(-1)).toBe("JOB-2499");
     const [received] = await db.select().from(auditEvents).where(and(eq(auditEvents.action, "upload.receive"), eq(auditEvents.entityId, uploadId)));
     expect(received).toMatchObject({ actorId: officer.userId, actorName: officer.name });
+  });
+
+  it("reads rows stored under the earlier field name (instrumentId) under today's (instrument), in the preview and the confirmation", async () => {
+    const [first] = await db.select().from(uploadParts).where(and(eq(uploadParts.uploadId, uploadId), eq(uploadParts.part, "rows"), eq(uploadParts.seq, 0)));
+    const earlier = (first.items as Record<string, unknown>[]).map((r) => Object.fromEntries(Object.entries(r).map(([k, v]) => [k === "instrument" ? "instrumentId" : k, v])));
+    await db.update(uploadParts).set({ items: earlier }).where(eq(uploadParts.id, first.id));
+    const page = await getUploadRows(officer, uploadId, 1, 25);
+    expect(Object.keys(page.rows[0] as object)).toEqual(Object.keys(earlier[0]).map((k) => (k === "instrumentId" ? "instrument" : k)));
+    expect((page.rows[0] as { instrument: string }).instrument).toBe("JOB-0");
   });
 
   it("is confirmed through the queue: answered at once, stored by the worker, counted in one last step", async () => {

@@ -1,6 +1,6 @@
 /** Preparing a month-end run: the method's defaults, usable factors, exposures, the working sample, volatility and covariance. */
 import type { EngineWarning } from "../../types";
-import { positionsToExposures } from "../exposures";
+import { defaultFxFactorId, positionsToExposures } from "../exposures";
 import type { CorrelationSpec, VolatilityChoice } from "../../process/types";
 import { neededReturns, resolveCorrelation, resolveFactorSpecs, type FactorSpec } from "../per-factor";
 import { countOf, isAre, listSome } from "../../../text/count";
@@ -84,7 +84,7 @@ export function prepareRun(input: MonthEndInput, onProgress?: ProgressCallback):
   if (input.positions.length === 0) throw new RangeError("runMonthEnd requires at least one position");
   const baseNeed = minimumDays(method);
   // each factor's class: its positions' asset class, "fx" for an exchange-rate factor
-  const fxOf = input.fxFactorId ?? ((c: string, r: string) => `${c}${r}`);
+  const fxOf = input.fxFactorId ?? defaultFxFactorId;
   const classes = new Map<string, string | null>();
   for (const p of input.positions) {
     const id = p.factor ?? p.instrument;

@@ -86,7 +86,6 @@ const COLUMN_LABELS: Record<string, string> = {
   row: "Row",
   asOf: "As of",
   book: "Book",
-  instrumentId: "Instrument",
   instrumentName: "Name",
   assetClass: "Asset class",
   currency: "Ccy",
@@ -437,7 +436,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
                       {rows.data?.rows.map((r, i) => (
                         <tr key={i} className="border-t border-ink-line">
                           {columns.map((c) => (
-                            <td key={c} className={`px-3 py-1.5 ${typeof r[c] === "number" ? "figure whitespace-nowrap text-right" : c === "asOf" || c === "date" || c === "instrumentId" ? "whitespace-nowrap" : ""}`}>
+                            <td key={c} className={`px-3 py-1.5 ${typeof r[c] === "number" ? "figure whitespace-nowrap text-right" : c === "asOf" || c === "date" || c === "instrument" ? "whitespace-nowrap" : ""}`}>
                               {cellText(r[c], c)}
                             </td>
                           ))}
