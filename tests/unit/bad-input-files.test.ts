@@ -8,7 +8,7 @@ import { receiveUploadBytes, confirmUpload, getUploadPreview } from "@/lib/data/
 import { listPeriods } from "@/lib/data/periods";
 import type { Database } from "@/db/client";
 import type { Actor } from "@/lib/auth/actor";
-import { lyingZip } from "./helpers/lying-zip";
+import { lyingZip, outOfProportionZip } from "./helpers/lying-zip";
 
 /**
  * The malformed-file corpus (tests/fixtures/bad-input/files.json): each file, received as an upload, must produce
@@ -29,18 +29,7 @@ async function generated(name: string): Promise<Uint8Array> {
     return new Uint8Array((await wb.outputAsync()) as Buffer);
   }
   if (name === "workbook-lying-about-its-sizes") return lyingZip([{ name: "xl/worksheets/sheet1.xml", realBytes: 64 * 1024 * 1024 }]);
-  // A zip whose central directory declares one entry of 1 GB inside a tiny archive.
-  const entry = new Uint8Array(47);
-  const dv = new DataView(entry.buffer);
-  dv.setUint32(0, 0x02014b50, true);
-  dv.setUint32(24, 1_000_000_000, true);
-  dv.setUint16(28, 1, true);
-  const eocd = new Uint8Array(22);
-  const ev = new DataView(eocd.buffer);
-  ev.setUint32(0, 0x06054b50, true);
-  ev.setUint16(10, 1, true);
-  ev.setUint32(16, 4, true);
-  return new Uint8Array([0x50, 0x4b, 0x03, 0x04, ...entry, ...eocd]);
+  return outOfProportionZip();
 }
 
 let db: Database;

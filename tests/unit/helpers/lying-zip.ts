@@ -1,7 +1,7 @@
 /**
- * A zip archive made by hand whose headers lie about their sizes: each entry declares `declared` bytes
- * uncompressed (and its real compressed length), while its deflate stream really expands to `realBytes` zeros.
- * Built as a stream so the test never holds the expanded bytes.
+ * Zip archives made by hand whose headers lie about their sizes. `lyingZip`: each entry declares `declared` bytes
+ * uncompressed (and its real compressed length), while its deflate stream really expands to `realBytes` zeros,
+ * built as a stream so the test never holds the expanded bytes. `outOfProportionZip`: a tiny archive declaring 1 GB.
  */
 import { createDeflateRaw } from "node:zlib";
 
@@ -60,4 +60,22 @@ export async function lyingZip(entries: { name: string; realBytes: number }[], d
   eocd.writeUInt32LE(directory.length, 12);
   eocd.writeUInt32LE(offset, 16);
   return new Uint8Array(Buffer.concat([...locals, directory, eocd]));
+}
+
+/**
+ * A zip of about 100 bytes made by hand whose central directory declares one entry of 1 GB uncompressed (a
+ * one-byte name, no data): out of any proportion to its size.
+ */
+export function outOfProportionZip(): Uint8Array {
+  const entry = new Uint8Array(46 + 1);
+  const dv = new DataView(entry.buffer);
+  dv.setUint32(0, 0x02014b50, true);
+  dv.setUint32(24, 1_000_000_000, true);
+  dv.setUint16(28, 1, true);
+  const eocd = new Uint8Array(22);
+  const ev = new DataView(eocd.buffer);
+  ev.setUint32(0, 0x06054b50, true);
+  ev.setUint16(10, 1, true);
+  ev.setUint32(16, 4, true);
+  return new Uint8Array([0x50, 0x4b, 0x03, 0x04, ...entry, ...eocd]);
 }

@@ -6,6 +6,7 @@ import { parsePrices } from "@/lib/uploads/parse-prices";
 import { readNumber, readDate } from "@/lib/uploads/cells";
 import { checkZipProportions } from "@/lib/uploads/zip-guard";
 import { FileRejected, type ReadOptions } from "@/lib/uploads/types";
+import { outOfProportionZip } from "../helpers/lying-zip";
 
 const HEADER = "as_of,book,instrument_id,instrument_name,asset_class,currency,quantity,price,market_value,delta_exposure";
 const plain: ReadOptions = { numberFormat: "plain" };
@@ -213,18 +214,8 @@ describe("workbooks", () => {
   });
 
   it("refuses a zip whose declared expansion is out of proportion", () => {
-    // A hand-made central directory: one entry declaring 1 GB uncompressed inside a 100-byte archive.
-    const entry = new Uint8Array(46 + 1);
-    const dv = new DataView(entry.buffer);
-    dv.setUint32(0, 0x02014b50, true);
-    dv.setUint32(24, 1_000_000_000, true);
-    dv.setUint16(28, 1, true);
-    const eocd = new Uint8Array(22);
-    const ev = new DataView(eocd.buffer);
-    ev.setUint32(0, 0x06054b50, true);
-    ev.setUint16(10, 1, true);
-    ev.setUint32(16, 4, true);
-    const zip = new Uint8Array([0x50, 0x4b, 0x03, 0x04, ...entry, ...eocd]);
+    // one entry declaring 1 GB uncompressed inside a 100-byte archive
+    const zip = outOfProportionZip();
     expect(() => checkZipProportions(zip)).toThrow(/out of proportion/);
   });
 });
