@@ -27,7 +27,22 @@ import {
 import { contentHash, FILING_STATUS_LABELS, VAR_METHOD_LABELS, type FilingViewModel } from "../view-model";
 import { filingSections, statusMarking, type Block, type Section } from "../sections";
 import { CAPITAL_TABLE_COLUMNS, capitalTableRows } from "../capital-table";
-import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatPercent, formatTimestamp } from "../format";
+import {
+  backtestTable,
+  componentCells,
+  coverTable,
+  dataQualityTable,
+  exceptionsTable,
+  runRecordTable,
+  signOffTable,
+  stressedTable,
+  totalsTable,
+  varEsCells,
+  varEsColumns,
+  type FilingTable,
+  type FilingTableColumn,
+} from "../filing-tables";
+import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatPercent } from "../format";
 import { neutralise } from "../neutralise";
 import { renderPng, varPnlChart, volatilityChart, type Chart } from "../charts";
 import { COLOURS, filingStyles, STYLE } from "./styles";
@@ -45,13 +60,6 @@ export interface WordPackOptions {
   charts?: boolean;
 }
 
-interface Column {
-  header: string;
-  numeric?: boolean;
-  /** relative width */
-  weight?: number;
-}
-
 type FileChild = Paragraph | Table;
 
 const thin = { style: BorderStyle.SINGLE, size: 4, color: COLOURS.line };
@@ -62,7 +70,7 @@ function cellParagraph(text: string, style: string, bold = false): Paragraph {
 }
 
 /** A table with a repeated header row, light rules, numbers right-aligned; `totalRows` are shaded and bold. */
-function table(columns: Column[], rows: string[][], options: { totalRows?: number[]; caption?: string } = {}): FileChild[] {
+function table(columns: FilingTableColumn[], rows: string[][], options: { totalRows?: number[]; caption?: string } = {}): FileChild[] {
   const weights = columns.map((c) => c.weight ?? 1);
   const sum = weights.reduce((a, b) => a + b, 0);
   const widths = weights.map((w) => Math.floor((w / sum) * BODY_TWIPS));
@@ -112,6 +120,11 @@ function table(columns: Column[], rows: string[][], options: { totalRows?: numbe
   return out;
 }
 
+/** A table both the page and the pack draw (../filing-tables), without the page's caption. */
+function shared({ columns, rows, totalRows }: FilingTable): FileChild[] {
+  return table(columns, rows, { totalRows });
+}
+
 function blockParagraph(b: Exclude<Block, { kind: "table" | "chart" }>, section: Section, first: boolean, beforeFigure: boolean): Paragraph {
   // a paragraph that introduces a table or chart stays on its page
   const keepNext = beforeFigure || undefined;
@@ -138,54 +151,26 @@ function tables(vm: FilingViewModel): Record<string, () => FileChild[]> {
   const t = (s: string) => neutralise(s);
   const capConf = f.capitalConfidence;
   return {
-    cover: () =>
-      table(
-        [{ header: "Item", weight: 1 }, { header: "Value", weight: 2.2 }],
-        [
-          ["Firm", vm.firm.name],
-          ["Reporting period", `${vm.period.label}, ending ${formatDate(vm.period.end)}`],
-          ["Reporting currency", vm.firm.reportingCurrency],
-          ["Regulator", vm.firm.regulator || "Not set in the firm's profile"],
-          ["Filing deadline", vm.period.deadline ? formatDate(vm.period.deadline) : "Not set"],
-          ["Filing version", String(vm.filing.version)],
-          ["Status", FILING_STATUS_LABELS[vm.filing.status]],
-          ["Prepared by", vm.filing.preparedBy],
-          ["Submitted for review by", vm.filing.submittedBy ?? "Not yet submitted"],
-          ["Figures as of", formatDate(f.asOf)],
-          ["Run", `${vm.engine.runId}, started by ${vm.engine.startedBy}`],
-          ["Method statement", `Version ${vm.method.version}`],
-          ...(vm.filing.filedAt ? [["Filed", `${formatDate(vm.filing.filedAt)}${vm.filing.filingReference ? `, regulator's reference ${vm.filing.filingReference}` : ""}`]] : []),
-        ],
-      ),
+    cover: () => {
+      const { columns, rows } = coverTable(vm, FILING_STATUS_LABELS[vm.filing.status]);
+      const filed = vm.filing.filedAt ? [["Filed", `${formatDate(vm.filing.filedAt)}${vm.filing.filingReference ? `, regulator's reference ${vm.filing.filingReference}` : ""}`]] : [];
+      return table(columns, [...rows, ...filed]);
+    },
     capital: () => {
       const { rows, totalRows } = capitalTableRows(f.capital, ccy);
       return table([...CAPITAL_TABLE_COLUMNS], rows, { totalRows });
     },
-    totals: () =>
-      table(
-        [
-          { header: "Method", weight: 2.2 },
-          { header: "Confidence", numeric: true, weight: 1 },
-          { header: `VaR, 1 day (${ccy})`, numeric: true, weight: 1.3 },
-          { header: `ES, 1 day (${ccy})`, numeric: true, weight: 1.3 },
-          { header: `VaR, ${H} days (${ccy})`, numeric: true, weight: 1.3 },
-          { header: `ES, ${H} days (${ccy})`, numeric: true, weight: 1.3 },
-        ],
-        f.totals.flatMap((m) => m.byConfidence.map((c) => [`${m.label}${m.primary ? " (primary)" : ""}`, formatConfidence(c.confidence), a(c.oneDay.var), a(c.oneDay.es), a(c.horizon.var), a(c.horizon.es)])),
-      ),
+    totals: () => shared(totalsTable(f)),
     "asset-classes": () =>
       f.byAssetClass.flatMap((set) => {
         const total = f.totals.find((m) => m.primary)!.byConfidence.find((c) => c.confidence === set.confidence)!;
-        const rows = set.rows.map((r) => [r.label, a(r.componentVar1d), a(r.componentEs1d), a(r.componentVarHorizon), a(r.componentEsHorizon), a(r.standAloneVar1d), a(r.standAloneVarHorizon)]);
-        rows.push(["Book total", a(total.oneDay.var), a(total.oneDay.es), a(total.horizon.var), a(total.horizon.es), a(set.rows.reduce((s, r) => s + r.standAloneVar1d, 0)), a(set.rows.reduce((s, r) => s + r.standAloneVarHorizon, 0))]);
+        const rows = set.rows.map((r) => [r.label, ...componentCells(r), a(r.standAloneVar1d), a(r.standAloneVarHorizon)]);
+        rows.push(["Book total", ...varEsCells(total), a(set.rows.reduce((s, r) => s + r.standAloneVar1d, 0)), a(set.rows.reduce((s, r) => s + r.standAloneVarHorizon, 0))]);
         rows.push(["Diversification benefit", "", "", "", "", a(total.diversificationBenefit1d), a(total.diversificationBenefitHorizon)]);
         return table(
           [
             { header: "Asset class", weight: 2 },
-            { header: `Component VaR, 1 day (${ccy})`, numeric: true },
-            { header: `Component ES, 1 day (${ccy})`, numeric: true },
-            { header: `Component VaR, ${H} days (${ccy})`, numeric: true },
-            { header: `Component ES, ${H} days (${ccy})`, numeric: true },
+            ...varEsColumns("Component ", ccy, H),
             { header: `Stand-alone VaR, 1 day (${ccy})`, numeric: true },
             { header: `Stand-alone VaR, ${H} days (${ccy})`, numeric: true },
           ],
@@ -193,44 +178,9 @@ function tables(vm: FilingViewModel): Record<string, () => FileChild[]> {
           { caption: `At ${formatConfidence(set.confidence)} confidence, ${VAR_METHOD_LABELS[f.primaryMethod].toLowerCase()}`, totalRows: [rows.length - 2, rows.length - 1] },
         );
       }),
-    stressed: () =>
-      table(
-        [
-          { header: "Confidence", weight: 1 },
-          { header: `Stressed VaR, 1 day (${ccy})`, numeric: true, weight: 1.4 },
-          { header: `Stressed ES, 1 day (${ccy})`, numeric: true, weight: 1.4 },
-          { header: `Stressed VaR, ${H} days (${ccy})`, numeric: true, weight: 1.4 },
-          { header: `Stressed ES, ${H} days (${ccy})`, numeric: true, weight: 1.4 },
-        ],
-        f.stressed.byConfidence.map((c) => [formatConfidence(c.confidence), a(c.oneDay.var), a(c.oneDay.es), a(c.horizon.var), a(c.horizon.es)]),
-      ),
-    "backtest-tests": () => {
-      const b = f.backtest;
-      const rows = [
-        ["Days compared", String(b.days), ""],
-        ["Exceptions (expected)", `${b.exceptions} (${formatNumber(b.expectedExceptions, 1)})`, ""],
-        ["Zone and plus factor", `${b.zone}, ${formatNumber(b.plusFactor, 2)}`, `cumulative probability ${formatNumber(b.cumulativeProbability, 4)}`],
-        ["Kupiec, likelihood ratio", formatNumber(b.kupiec.lr, 3), `p-value ${formatPValue(b.kupiec.pValue)}`],
-      ];
-      if (b.christoffersen) {
-        rows.push(["Christoffersen, independence", formatNumber(b.christoffersen.lrInd, 3), `p-value ${formatPValue(b.christoffersen.pValueInd)}`]);
-        rows.push(["Christoffersen, conditional coverage", formatNumber(b.christoffersen.lrCc, 3), `p-value ${formatPValue(b.christoffersen.pValueCc)}`]);
-      }
-      return table([{ header: "Measure", weight: 2.2 }, { header: "Value", numeric: true, weight: 1.2 }, { header: "Note", weight: 2 }], rows);
-    },
-    exceptions: () =>
-      f.backtest.exceptionList.length
-        ? table(
-            [
-              { header: "Date", weight: 1.1 },
-              { header: `P&L (${ccy})`, numeric: true, weight: 1.1 },
-              { header: `VaR (${ccy})`, numeric: true, weight: 1.1 },
-              { header: `Loss beyond VaR (${ccy})`, numeric: true, weight: 1.1 },
-              { header: "Explanation", weight: 3.2 },
-            ],
-            f.backtest.exceptionList.map((e) => [formatDate(e.date), a(e.pnl), a(e.var), a(e.excess), e.explanation ? t(e.explanation) : "No explanation given."]),
-          )
-        : [],
+    stressed: () => shared(stressedTable(f)),
+    "backtest-tests": () => shared(backtestTable(f.backtest)),
+    exceptions: () => (f.backtest.exceptionList.length ? shared(exceptionsTable(f, (e) => (e.explanation ? t(e.explanation) : "No explanation given."))) : []),
     "method-models": () =>
       vm.method.models?.length
         ? table(
@@ -257,35 +207,9 @@ function tables(vm: FilingViewModel): Record<string, () => FileChild[]> {
             ),
           )
         : [],
-    "run-record": () =>
-      table(
-        [{ header: "Input", weight: 1 }, { header: "SHA-256", weight: 4 }],
-        [...vm.engine.inputHashes.map((h) => [h.name, h.hash]), ["engine version", vm.engine.version]],
-      ),
-    "data-quality": () =>
-      vm.dataQuality.items.length
-        ? table(
-            [{ header: "Severity", weight: 0.9 }, { header: "Check", weight: 1.8 }, { header: "Instrument", weight: 1.3 }, { header: "Finding", weight: 4 }],
-            vm.dataQuality.items.map((i) => [i.severity, i.label, t(i.instrument), t(i.message)]),
-          )
-        : [],
-    "sign-off": () =>
-      table(
-        [{ header: "Item", weight: 1.2 }, { header: "Value", weight: 3.6 }],
-        vm.signOff
-          ? [
-              ["Signed by", vm.signOff.signerName],
-              [vm.firm.licenceLabel, vm.signOff.licenceReference],
-              ["Signed at", formatTimestamp(vm.signOff.signedAt)],
-              ["Content hash (SHA-256)", vm.signOff.contentHash],
-            ]
-          : [
-              ["Signed by", "—"],
-              [vm.firm.licenceLabel, "—"],
-              ["Signed at", "—"],
-              ["Content hash (SHA-256)", "Filled in when the filing is signed"],
-            ],
-      ),
+    "run-record": () => shared(runRecordTable(vm, (h) => h.hash)),
+    "data-quality": () => (vm.dataQuality.items.length ? shared(dataQualityTable(vm, t)) : []),
+    "sign-off": () => shared(signOffTable(vm, (hash) => hash)),
     positions: () =>
       table(
         [
@@ -334,17 +258,10 @@ function tables(vm: FilingViewModel): Record<string, () => FileChild[]> {
     "contributions-currency": () => {
       const set = f.contributions.find((c) => c.confidence === capConf)!;
       const total = f.totals.find((m) => m.primary)!.byConfidence.find((c) => c.confidence === capConf)!;
-      const rows = set.byCurrency.map((g) => [g.currency, a(g.componentVar1d), a(g.componentEs1d), a(g.componentVarHorizon), a(g.componentEsHorizon), formatPercent(total.oneDay.var ? g.componentVar1d / total.oneDay.var : 0, 1)]);
-      rows.push(["Book total", a(total.oneDay.var), a(total.oneDay.es), a(total.horizon.var), a(total.horizon.es), "100.0 %"]);
+      const rows = set.byCurrency.map((g) => [g.currency, ...componentCells(g), formatPercent(total.oneDay.var ? g.componentVar1d / total.oneDay.var : 0, 1)]);
+      rows.push(["Book total", ...varEsCells(total), "100.0 %"]);
       return table(
-        [
-          { header: "Currency", weight: 1.2 },
-          { header: `Component VaR, 1 day (${ccy})`, numeric: true },
-          { header: `Component ES, 1 day (${ccy})`, numeric: true },
-          { header: `Component VaR, ${H} days (${ccy})`, numeric: true },
-          { header: `Component ES, ${H} days (${ccy})`, numeric: true },
-          { header: "Share of VaR", numeric: true, weight: 0.9 },
-        ],
+        [{ header: "Currency", weight: 1.2 }, ...varEsColumns("Component ", ccy, H), { header: "Share of VaR", numeric: true, weight: 0.9 }],
         rows,
         { caption: `By currency, at ${formatConfidence(capConf)} confidence`, totalRows: [rows.length - 1] },
       );
