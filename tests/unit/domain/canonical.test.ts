@@ -1,18 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { canonicalJson, hashOf, sha256Hex } from "@/lib/domain/canonical";
-
-/**
- * Reference serialiser: JSON.stringify (ECMA-262 §25.5.2) for every leaf, keys in Array.prototype.sort's default order
- * (UTF-16 code units). Written out here because JSON.stringify itself puts integer-like keys ("9", "10") first.
- */
-function referenceJson(value: unknown): string {
-  if (Array.isArray(value)) return `[${value.map(referenceJson).join(",")}]`;
-  if (value && typeof value === "object") {
-    const o = value as Record<string, unknown>;
-    return `{${Object.keys(o).filter((k) => o[k] !== undefined).sort().map((k) => `${JSON.stringify(k)}:${referenceJson(o[k])}`).join(",")}}`;
-  }
-  return JSON.stringify(value);
-}
+import { referenceJson } from "../helpers/reference-json";
 
 describe("the one canonical JSON", () => {
   it("equals the reference serialisation for plain JSON values, integer-like keys sorted as strings", () => {
@@ -24,6 +12,7 @@ describe("the one canonical JSON", () => {
       42,
       null,
     ];
+    // the reference: JSON.stringify (ECMA-262 §25.5.2) for every leaf, keys sorted by UTF-16 code unit (helpers/reference-json.ts)
     for (const v of values) expect(canonicalJson(v)).toBe(referenceJson(v));
     expect(canonicalJson({ 9: "b", 10: "a" })).toBe('{"10":"a","9":"b"}'); // by code unit, not numerically
   });
