@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { portfolioVar, prepareRun, type MonthEndInput } from "@/lib/risk/portfolio/run-month-end";
 import { ewmaCovariance } from "@/lib/risk/portfolio/covariance";
-import { syntheticBook } from "@/tests/unit/risk/portfolio/synthetic-book";
+import { bookInput, syntheticBook } from "@/tests/unit/risk/portfolio/synthetic-book";
 
 // Covariance = D·R·D (issue 13). Σᵢⱼ = σᵢ·σⱼ·ρᵢⱼ is the textbook definition of a covariance from volatilities and a
 // correlation (e.g. Hull, "Options, Futures, and Other Derivatives", the chapter on value at risk: the variance of a
@@ -64,10 +64,9 @@ describe("the EWMA special case", () => {
     // D·R·D with D² = diag(Σ) and R = Σ scaled to a unit diagonal is Σ itself (algebra, no source needed)
     const book = syntheticBook(8, 400, 24, 5);
     const lambda = 0.94;
-    const p = prepareRun({
-      positions: book.positions, returns: book.returns, reportingCurrency: "USD",
-      method: { methods: ["parametric"], volatility: { default: { kind: "ewma", lambda, init: { firstReturns: 30 } } }, correlation: { kind: "ewma", lambda, startupDays: 30 } },
-    });
+    const p = prepareRun(
+      bookInput(book, { methods: ["parametric"], volatility: { default: { kind: "ewma", lambda, init: { firstReturns: 30 } } }, correlation: { kind: "ewma", lambda, startupDays: 30 } }),
+    );
     const direct = ewmaCovariance(p.returns, lambda, { startupDays: 30 });
     for (let i = 0; i < direct.values.length; i++) expect(relErr(p.covariance.values[i], direct.values[i])).toBeLessThan(1e-12);
   });

@@ -3,7 +3,7 @@ import { runMonthEnd } from "@/lib/risk/portfolio/run-month-end";
 import { fitGarch11, garch11Variance } from "@/lib/risk/estimators/garch11";
 import { ewmaCovariance } from "@/lib/risk/portfolio/covariance";
 import { covarianceToCorrelation } from "@/lib/risk/portfolio/matrix";
-import { syntheticBook } from "@/tests/unit/risk/portfolio/synthetic-book";
+import { bookInput, syntheticBook } from "@/tests/unit/risk/portfolio/synthetic-book";
 
 // The out-of-sample backtest of a GARCH(1,1) book against a plain loop written from the stated rule (issue 13):
 // parameters re-estimated every N business days counting back from the as-of date, each fit on the data before its
@@ -16,11 +16,10 @@ describe("out-of-sample GARCH backtest = a plain loop that refits on the stated 
   it("three GARCH(1,1) factors, EWMA correlation, refits every 21 days", () => {
     const book = syntheticBook(3, 520, 9, 17);
     const N = 21;
-    const r = runMonthEnd({
-      positions: book.positions, returns: book.returns, reportingCurrency: "USD",
-      method: { methods: ["parametric"], confidences: [0.99], horizonDays: 1, backtestDays: 60, historyDays: 60, stressWindowDays: 100,
-        volatility: { default: { kind: "garch" } }, correlation: { kind: "ewma", lambda: 0.94 }, backtestRefit: { mode: "rolling", everyDays: N } },
-    });
+    const r = runMonthEnd(
+      bookInput(book, { methods: ["parametric"], confidences: [0.99], horizonDays: 1, backtestDays: 60, historyDays: 60, stressWindowDays: 100,
+        volatility: { default: { kind: "garch" } }, correlation: { kind: "ewma", lambda: 0.94 }, backtestRefit: { mode: "rolling", everyDays: N } }),
+    );
     const ids = r.factors.used;
     const L = r.sample.days;
     const returns = ids.map((id) => Float64Array.from(book.returns.factors[id] as ArrayLike<number>).subarray(book.returns.dates.length - L));
@@ -63,10 +62,7 @@ describe("out-of-sample GARCH backtest = a plain loop that refits on the stated 
 
   it("full-sample is an explicit choice and states its limitation", () => {
     const book = syntheticBook(2, 400, 4, 3);
-    const r = runMonthEnd({
-      positions: book.positions, returns: book.returns, reportingCurrency: "USD",
-      method: { methods: ["parametric"], backtestDays: 60, stressWindowDays: 100, volatility: { default: { kind: "garch" } }, backtestRefit: { mode: "full-sample" } },
-    });
+    const r = runMonthEnd(bookInput(book, { methods: ["parametric"], backtestDays: 60, stressWindowDays: 100, volatility: { default: { kind: "garch" } }, backtestRefit: { mode: "full-sample" } }));
     expect(r.model!.backtest.limitation).toMatch(/in-sample/);
     expect(r.limitations.join(" ")).toMatch(/in-sample/);
   });

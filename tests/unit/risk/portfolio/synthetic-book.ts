@@ -1,7 +1,7 @@
 /** A synthetic book for tests and the bench: invented instruments, seeded returns with a calm–stress–calm path. */
 import { mulberry32, normalSampler } from "@/lib/risk/random";
 import type { Position } from "@/lib/risk/portfolio/exposures";
-import type { FactorReturns } from "@/lib/risk/portfolio/run-month-end";
+import type { FactorReturns, MonthEndInput, MonthEndMethod } from "@/lib/risk/portfolio/run-month-end";
 
 export interface SyntheticBook {
   positions: Position[];
@@ -60,4 +60,9 @@ export function syntheticBook(instruments: number, days: number, positionsCount:
     });
   }
   return { positions, returns: { dates, factors } };
+}
+
+/** The book as the engine's month-end input, in USD, under `method`. */
+export function bookInput(book: SyntheticBook, method: MonthEndMethod): MonthEndInput {
+  return { positions: book.positions, returns: book.returns, reportingCurrency: "USD", method };
 }
