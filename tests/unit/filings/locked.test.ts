@@ -25,23 +25,24 @@ beforeAll(async () => {
   signatureId = (await signFiling(w.head, filingId, attestation(w.head))).signature!.id;
 });
 
+/** `UPDATE table SET column = value` on the row `id` is refused with `message`, and the row is as it was. */
+async function expectUpdateRefused(table: string, id: string, column: string, value: string, message: RegExp) {
+  const before = await row(table, id);
+  await expect(w.db.$client.execute({ sql: `UPDATE ${table} SET ${column} = ${value} WHERE id = ?`, args: [id] }), column).rejects.toThrow(message);
+  expect(await row(table, id)).toEqual(before);
+}
+
+/** A signed version's columns, each with a change to it (SQL literals). */
+const FILING_CHANGES = { content: `'{"figures":{}}'`, cover_note: "'rewritten'", reason: "'a reason'", run_id: "'another run'", version: "7",
+  previous_id: "'x'", prepared_by: "'someone'", submitted_by: "NULL", period_id: "'another period'", firm_id: "'another firm'" };
+/** A signature's columns but its superseding, each with a change to it. */
+const SIGNATURE_CHANGES = { content_hash: `'${"0".repeat(64)}'`, signer_name: "'Someone Else'", signer_id: "'x'", licence_reference: "'X'",
+  signed_at: "'2020-01-01'", attestation: "''", superseded_reason: "'no time given'" };
+
 describe("a signed version at the database", () => {
-  for (const [column, value] of [
-    ["content", `'{"figures":{}}'`],
-    ["cover_note", "'rewritten'"],
-    ["reason", "'a reason'"],
-    ["run_id", "'another run'"],
-    ["version", "7"],
-    ["previous_id", "'x'"],
-    ["prepared_by", "'someone'"],
-    ["submitted_by", "NULL"],
-    ["period_id", "'another period'"],
-    ["firm_id", "'another firm'"],
-  ] as const) {
+  for (const [column, value] of Object.entries(FILING_CHANGES)) {
     it(`refuses UPDATE of ${column}`, async () => {
-      const before = await row("filings", filingId);
-      await expect(w.db.$client.execute({ sql: `UPDATE filings SET ${column} = ${value} WHERE id = ?`, args: [filingId] })).rejects.toThrow(/a signed filing cannot be changed: a change makes a new version/);
-      expect(await row("filings", filingId)).toEqual(before);
+      await expectUpdateRefused("filings", filingId, column, value, /a signed filing cannot be changed: a change makes a new version/);
     });
   }
 
@@ -72,19 +73,7 @@ describe("a signed version at the database", () => {
   });
 
   it("refuses any change to a signature but marking it superseded", async () => {
-    for (const [column, value] of [
-      ["content_hash", `'${"0".repeat(64)}'`],
-      ["signer_name", "'Someone Else'"],
-      ["signer_id", "'x'"],
-      ["licence_reference", "'X'"],
-      ["signed_at", "'2020-01-01'"],
-      ["attestation", "''"],
-      ["superseded_reason", "'no time given'"],
-    ] as const) {
-      const before = await row("signatures", signatureId);
-      await expect(w.db.$client.execute({ sql: `UPDATE signatures SET ${column} = ${value} WHERE id = ?`, args: [signatureId] }), column).rejects.toThrow(/a signature cannot be changed/);
-      expect(await row("signatures", signatureId)).toEqual(before);
-    }
+    for (const [column, value] of Object.entries(SIGNATURE_CHANGES)) await expectUpdateRefused("signatures", signatureId, column, value, /a signature cannot be changed/);
   });
 
   it("refuses a second signature while one is in force, and a signature on a version not in review", async () => {
