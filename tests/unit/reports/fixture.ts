@@ -5,6 +5,7 @@
  * firm and the people are the invented demo ones. Formula-looking text is planted in a position's instrument (which
  * has no prices and is left out), the cover note, the exception explanations and the method statement's limitations.
  */
+import { beforeAll } from "vitest";
 import { BASEL_CAPITAL_PROFILE } from "@/lib/risk/capital/capital";
 import { computeRun } from "@/lib/runs/compute";
 import { inputHashesOf } from "@/lib/runs/compare";
@@ -160,4 +161,15 @@ export async function builtPacks<T>(build: (vm: FilingViewModel) => Promise<Buff
   const draft = await read(draftBytes);
   const signed = await read(await build(f.signed));
   return { vm: f.vm, signedVm: f.signed, draftBytes, draft, signed };
+}
+
+export type BuiltPacks<T> = Awaited<ReturnType<typeof builtPacks<T>>>;
+
+/** `builtPacks` in the test file's beforeAll: the object returned is filled in then, for the file's tests to read. */
+export function packsBuiltBeforeAll<T>(build: (vm: FilingViewModel) => Promise<Buffer>, read: (bytes: Buffer) => Promise<T>): BuiltPacks<T> {
+  const packs = {} as BuiltPacks<T>;
+  beforeAll(async () => {
+    Object.assign(packs, await builtPacks(build, read));
+  });
+  return packs;
 }

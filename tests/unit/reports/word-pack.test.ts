@@ -1,13 +1,12 @@
 import JSZip from "jszip";
-import { beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { DRAFT_CAUTION } from "@/app/_components/draft-caution";
 import { buildWordPack } from "@/reports/docx/filing-pack";
 import { varPnlChart, volatilityChart } from "@/reports/charts";
 import { STYLE } from "@/reports/docx/styles";
 import { formatAmount, formatConfidence, formatDate, formatNumber, formatPValue, formatPercent } from "@/reports/format";
 import { filingSections } from "@/reports/sections";
-import type { FilingViewModel } from "@/reports/view-model";
-import { builtPacks, FORMULA_TEXT } from "./fixture";
+import { FORMULA_TEXT, packsBuiltBeforeAll } from "./fixture";
 
 interface Unpacked {
   zip: JSZip;
@@ -60,28 +59,21 @@ function tableStartingWith(all: string[][][], header: string): string[][] {
   return t;
 }
 
-let vm: FilingViewModel;
-let signedVm: FilingViewModel;
-let draft: Unpacked;
-let signed: Unpacked;
-
-beforeAll(async () => {
-  ({ vm, signedVm, draft, signed } = await builtPacks(buildWordPack, unpack));
-});
+const packs = packsBuiltBeforeAll(buildWordPack, unpack);
 
 describe("the Word pack", () => {
   it("has every section, each heading styled once as a heading", () => {
-    const paras = paragraphs(draft.document);
-    for (const s of filingSections(vm)) {
+    const paras = paragraphs(packs.draft.document);
+    for (const s of filingSections(packs.vm)) {
       const style = s.id === "cover" ? STYLE.coverTitle : "Heading1";
       expect(paras.filter((p) => p.style === style && p.text === s.title), s.title).toHaveLength(1);
     }
-    for (const id of Object.values(STYLE)) expect(draft.styles.match(new RegExp(`w:styleId="${id}"`, "g")), id).toHaveLength(1);
+    for (const id of Object.values(STYLE)) expect(packs.draft.styles.match(new RegExp(`w:styleId="${id}"`, "g")), id).toHaveLength(1);
   });
 
   it("shows the capital with every term, and VaR and ES by method, confidence and asset class, with units", () => {
-    const all = tables(draft.document);
-    const f = vm.figures;
+    const all = tables(packs.draft.document);
+    const f = packs.vm.figures;
     const c = f.capital;
     const capital = tableStartingWith(all, "Term");
     expect(capital[0]).toEqual(["Term", "Value", "Unit"]);
@@ -109,8 +101,8 @@ describe("the Word pack", () => {
   });
 
   it("shows the backtest tests and every exception with its explanation", () => {
-    const all = tables(draft.document);
-    const b = vm.figures.backtest;
+    const all = tables(packs.draft.document);
+    const b = packs.vm.figures.backtest;
     const tests = tableStartingWith(all, "Measure");
     expect(tests).toContainEqual(["Kupiec, likelihood ratio", formatNumber(b.kupiec.lr, 3), `p-value ${formatPValue(b.kupiec.pValue)}`]);
     expect(tests).toContainEqual(["Zone and plus factor", `${b.zone}, ${formatNumber(b.plusFactor, 2)}`, `cumulative probability ${formatNumber(b.cumulativeProbability, 4)}`]);
@@ -119,8 +111,8 @@ describe("the Word pack", () => {
   });
 
   it("lists the positions, risk factors, correlation, contributions and VaR history", () => {
-    const all = tables(draft.document);
-    const f = vm.figures;
+    const all = tables(packs.draft.document);
+    const f = packs.vm.figures;
     const positions = tableStartingWith(all, "Instrument");
     expect(positions.slice(1).map((r) => [r[0], r[3], r[5]])).toEqual(f.positions.map((p) => [p.instrument, formatAmount(p.marketValue), p.componentVar1d === null ? "—" : formatAmount(p.componentVar1d)]));
     const factors = tableStartingWith(all, "Factor");
@@ -135,67 +127,67 @@ describe("the Word pack", () => {
   });
 
   it("carries the caution in the body and in the footer, with the firm, the period and page numbers on every page", () => {
-    const paras = paragraphs(draft.document);
+    const paras = paragraphs(packs.draft.document);
     expect(paras.filter((p) => p.style === STYLE.caution && p.text.includes(DRAFT_CAUTION)).length).toBeGreaterThanOrEqual(2);
-    expect(draft.footers).toHaveLength(1);
-    const footer = draft.footers[0];
+    expect(packs.draft.footers).toHaveLength(1);
+    const footer = packs.draft.footers[0];
     expect(textOf(footer)).toContain(`Draft caution: ${DRAFT_CAUTION}`);
-    expect(textOf(footer)).toContain(`Northmoor Brokerage Ltd · reporting period ending ${formatDate(vm.period.end)} · version 2`);
+    expect(textOf(footer)).toContain(`Northmoor Brokerage Ltd · reporting period ending ${formatDate(packs.vm.period.end)} · version 2`);
     expect(footer).toMatch(/<w:instrText[^>]*>\s*PAGE\s*<\/w:instrText>/);
     expect(footer).toMatch(/<w:instrText[^>]*>\s*NUMPAGES\s*<\/w:instrText>/);
   });
 
   it("marks every page DRAFT until signed: one default header for the only section, no first-page or even-page variant", () => {
-    expect(draft.headers).toHaveLength(1);
-    expect(textOf(draft.headers[0])).toContain("DRAFT — NOT SIGNED");
-    const sections = draft.document.match(/<w:sectPr[\s\S]*?<\/w:sectPr>/g)!;
+    expect(packs.draft.headers).toHaveLength(1);
+    expect(textOf(packs.draft.headers[0])).toContain("DRAFT — NOT SIGNED");
+    const sections = packs.draft.document.match(/<w:sectPr[\s\S]*?<\/w:sectPr>/g)!;
     expect(sections).toHaveLength(1);
     expect(sections[0]).toMatch(/<w:headerReference w:type="default"/);
     expect(sections[0]).toMatch(/<w:footerReference w:type="default"/);
     expect(sections[0]).not.toMatch(/w:titlePg|w:type="first"|w:type="even"/);
-    expect(draft.settings).not.toMatch(/<w:evenAndOddHeaders(?! w:val="false")/);
-    const signOff = tables(draft.document).filter((t) => t[1]?.[0] === "Signed by").at(-1)!;
+    expect(packs.draft.settings).not.toMatch(/<w:evenAndOddHeaders(?! w:val="false")/);
+    const signOff = tables(packs.draft.document).filter((t) => t[1]?.[0] === "Signed by").at(-1)!;
     expect(signOff.slice(1)).toEqual([["Signed by", "—"], ["Registration no.", "—"], ["Signed at", "—"], ["Content hash (SHA-256)", "Filled in when the filing is signed"]]);
-    expect(textOf(draft.document)).toContain("Not signed. This version is a draft until the compliance head signs it in Ballast.");
+    expect(textOf(packs.draft.document)).toContain("Not signed. This version is a draft until the compliance head signs it in Ballast.");
   });
 
   it("once signed, fills the sign-off block with the signer and the content hash, and drops the DRAFT marking", () => {
-    const hash = signedVm.signOff!.contentHash;
-    expect(textOf(signed.headers[0])).toMatch(new RegExp(`^SIGNED by Helen Marsh on 3 Dec 2026 · SHA-256 ${hash.slice(0, 12)}…`));
-    for (const part of [signed.document, ...signed.headers, ...signed.footers]) expect(textOf(part)).not.toContain("DRAFT — NOT SIGNED");
-    const signOff = tables(signed.document).filter((t) => t[1]?.[0] === "Signed by").at(-1)!;
+    const hash = packs.signedVm.signOff!.contentHash;
+    expect(textOf(packs.signed.headers[0])).toMatch(new RegExp(`^SIGNED by Helen Marsh on 3 Dec 2026 · SHA-256 ${hash.slice(0, 12)}…`));
+    for (const part of [packs.signed.document, ...packs.signed.headers, ...packs.signed.footers]) expect(textOf(part)).not.toContain("DRAFT — NOT SIGNED");
+    const signOff = tables(packs.signed.document).filter((t) => t[1]?.[0] === "Signed by").at(-1)!;
     expect(signOff.slice(1)).toEqual([["Signed by", "Helen Marsh"], ["Registration no.", "FMA-CO-20931"], ["Signed at", "2026-12-03 15:42 UTC"], ["Content hash (SHA-256)", hash]]);
-    const paras = paragraphs(signed.document);
+    const paras = paragraphs(packs.signed.document);
     expect(paras.some((p) => p.style === STYLE.hash && p.text === hash)).toBe(true);
     expect(paras.some((p) => p.text.startsWith("Version 1: signed by Helen Marsh (FMA-CO-20931) on 2026-12-02 11:05 UTC") && p.text.endsWith("Explanations were missing."))).toBe(true);
   });
 
   it("embeds the two charts as PNG images with alternative text, or leaves them out when asked", async () => {
-    const media = Object.keys(draft.zip.files).filter((n) => n.startsWith("word/media/"));
+    const media = Object.keys(packs.draft.zip.files).filter((n) => n.startsWith("word/media/"));
     expect(media).toHaveLength(2);
     // IHDR width and height: each chart at its own pixel size (the volatility chart grows with its labels)
-    const sizes = [volatilityChart(vm)!, varPnlChart(vm)!].map((c) => [c.width, c.height]);
+    const sizes = [volatilityChart(packs.vm)!, varPnlChart(packs.vm)!].map((c) => [c.width, c.height]);
     for (const name of media) {
-      const png = await draft.zip.file(name)!.async("nodebuffer");
+      const png = await packs.draft.zip.file(name)!.async("nodebuffer");
       expect(png.subarray(0, 8).toString("hex")).toBe("89504e470d0a1a0a"); // PNG signature (PNG specification, 5.2)
       expect(sizes).toContainEqual([png.readUInt32BE(16), png.readUInt32BE(20)]);
     }
-    expect(draft.document).toContain('descr="One-day volatility of each risk factor by estimator (%).');
-    expect(draft.document).toContain(`descr="Daily P&amp;L against the one-day VaR at 99 % (EUR), ${vm.figures.backtest.pnlVsVar.length} days`);
-    const plain = await unpack(await buildWordPack(vm, { charts: false }));
+    expect(packs.draft.document).toContain('descr="One-day volatility of each risk factor by estimator (%).');
+    expect(packs.draft.document).toContain(`descr="Daily P&amp;L against the one-day VaR at 99 % (EUR), ${packs.vm.figures.backtest.pnlVsVar.length} days`);
+    const plain = await unpack(await buildWordPack(packs.vm, { charts: false }));
     expect(Object.keys(plain.zip.files).filter((n) => n.startsWith("word/media/"))).toHaveLength(0);
   });
 
   it("shows formula-looking text as the workbook does: prefixed where it begins a cell or a line", () => {
-    const all = tables(draft.document);
+    const all = tables(packs.draft.document);
     const quality = tableStartingWith(all, "Severity");
     expect(quality.some((r) => r[2] === `'${FORMULA_TEXT}` && r[3] === `'${FORMULA_TEXT} has no price history.`)).toBe(true);
-    const paras = paragraphs(draft.document);
+    const paras = paragraphs(packs.draft.document);
     expect(paras.some((p) => p.text === `'${FORMULA_TEXT} was found in the positions file and is listed as left out.`)).toBe(true);
   });
 
   it("refuses to build a signed pack whose content differs from what was signed", async () => {
-    const changed = structuredClone(signedVm);
+    const changed = structuredClone(packs.signedVm);
     changed.figures.backtest.exceptionList[0].explanation = "Changed after signing.";
     await expect(buildWordPack(changed)).rejects.toThrow("does not match this filing's content");
   });
