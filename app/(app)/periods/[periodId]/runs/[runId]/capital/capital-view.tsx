@@ -28,20 +28,42 @@ export const BLOCK_WORDS: { key: keyof StandardisedBlocks; label: string }[] = [
 const CAPITAL_TABLE = { pad: "py-1.5", gap: "pr-3", padLast: true, bodyClassName: "" } as const;
 const td = "py-1 pr-3 figure text-right";
 
-function Money({ value, currency }: { value: number; currency: string }) {
-  return <>{money(value, currency)}</>;
-}
-
-/** Amounts in the reporting currency side by side, one figure cell each. */
-function MoneyCells({ values, currency }: { values: number[]; currency: string }) {
+/** Figures side by side, one right-aligned cell each. */
+function FigureCells({ values }: { values: React.ReactNode[] }) {
   return (
     <>
       {values.map((v, i) => (
         <td key={i} className={td}>
-          {money(v, currency)}
+          {v}
         </td>
       ))}
     </>
+  );
+}
+
+/** Amounts in the reporting currency side by side, one figure cell each. */
+function MoneyCells({ values, currency }: { values: number[]; currency: string }) {
+  return <FigureCells values={values.map((v) => money(v, currency))} />;
+}
+
+/** A body row of the capital tables: what the row is, then its cells. */
+function Row({ head, children }: { head: React.ReactNode; children: React.ReactNode }) {
+  return (
+    <tr className="border-b border-ink-line/60">
+      <th scope="row" className="py-1 pr-3 text-left font-normal">
+        {head}
+      </th>
+      {children}
+    </tr>
+  );
+}
+
+/** A building block's card: its heading, then what it holds, or `empty` (the line saying it has no positions) when that is given. */
+function BlockPanel({ id, title, empty, children }: { id: string; title: React.ReactNode; empty?: string | false; children: React.ReactNode }) {
+  return (
+    <Panel id={id} title={title} level={3} headingClassName="mb-2 font-semibold">
+      {empty ? <p className="text-sm text-ink-soft">{empty}</p> : children}
+    </Panel>
   );
 }
 
@@ -115,20 +137,15 @@ function BlocksChart({ result, currency }: { result: StandardisedResult; currenc
       </div>
       <FigureTable className="mt-3 w-full text-sm" testId="blocks-table" caption="The chart's figures: each block's charge and its share of the total" {...CAPITAL_TABLE} columns={["Block", "Charge", "Share"]}>
         {data.map((d) => (
-          <tr key={d.label} className="border-b border-ink-line/60">
-            <th scope="row" className="py-1 pr-3 text-left font-normal">
-              {d.label}
-            </th>
-            <td className={td}>{money(d.value, currency)}</td>
-            <td className={td}>{result.total > 0 ? pct(d.value / result.total, 1) : "—"}</td>
-          </tr>
+          <Row key={d.label} head={d.label}>
+            <FigureCells values={[money(d.value, currency), result.total > 0 ? pct(d.value / result.total, 1) : "—"]} />
+          </Row>
         ))}
         <tr className="font-semibold">
           <th scope="row" className="py-1 pr-3 text-left">
             Total market-risk capital
           </th>
-          <td className={td}>{money(result.total, currency)}</td>
-          <td className={td}>100 %</td>
+          <FigureCells values={[money(result.total, currency), "100 %"]} />
         </tr>
         {result.rwa ? (
           <tr>
@@ -153,8 +170,7 @@ function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; curr
           {ladder.bands.map((b) => (
             <tr key={b.index} className="border-b border-ink-line/60">
               <th scope="row" className="py-1 pr-3 text-left font-normal whitespace-nowrap">{b.band}</th>
-              <td className={td}>{b.zone}</td>
-              <td className={td}>{ladder.method === "duration" ? num(b.weight, 2) : pct(b.weight, 2)}</td>
+              <FigureCells values={[b.zone, ladder.method === "duration" ? num(b.weight, 2) : pct(b.weight, 2)]} />
               <MoneyCells currency={currency} values={[b.long, b.short, b.weightedLong, b.weightedShort, b.matched, b.net, b.verticalCharge]} />
             </tr>
           ))}
@@ -163,12 +179,11 @@ function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; curr
       <div className="grid gap-4 lg:grid-cols-2">
         <FigureTable className="text-sm" caption="Within each zone: the bands' nets and the horizontal disallowance" {...CAPITAL_TABLE} columns={["Zone", "Net long", "Net short", "Matched", "Rate", "Charge", "Zone net"]}>
           {ladder.zones.map((z) => (
-            <tr key={z.zone} className="border-b border-ink-line/60">
-              <th scope="row" className="py-1 pr-3 text-left font-normal">Zone {z.zone}</th>
+            <Row key={z.zone} head={<>Zone {z.zone}</>}>
               <MoneyCells currency={currency} values={[z.netLong, z.netShort, z.matched]} />
               <td className={td}>{pct(z.rate, 0)}</td>
               <MoneyCells currency={currency} values={[z.charge, z.net]} />
-            </tr>
+            </Row>
           ))}
         </FigureTable>
         <FigureTable className="text-sm" caption="Between zones, in the order applied, then the residual net position" {...CAPITAL_TABLE} columns={["Step", "Matched", "Rate", "Charge"]}>
@@ -179,19 +194,13 @@ function Ladder({ ladder, currency }: { ladder: InterestRateCurrencyResult; curr
               ["Zone 1 against zone 3", ladder.betweenDetail.zone13],
             ] as const
           ).map(([label, d]) => (
-            <tr key={label} className="border-b border-ink-line/60">
-              <th scope="row" className="py-1 pr-3 text-left font-normal">{label}</th>
-              <td className={td}><Money value={d.matched} currency={currency} /></td>
-              <td className={td}>{pct(d.rate, 0)}</td>
-              <td className={td}><Money value={d.charge} currency={currency} /></td>
-            </tr>
+            <Row key={label} head={label}>
+              <FigureCells values={[money(d.matched, currency), pct(d.rate, 0), money(d.charge, currency)]} />
+            </Row>
           ))}
-          <tr className="border-b border-ink-line/60">
-            <th scope="row" className="py-1 pr-3 text-left font-normal">Residual net position</th>
-            <td className={td}><Money value={ladder.residual} currency={currency} /></td>
-            <td className={td}>{ladder.residual > 0 ? pct(ladder.residualCharge / ladder.residual, 0) : "—"}</td>
-            <td className={td}><Money value={ladder.residualCharge} currency={currency} /></td>
-          </tr>
+          <Row head="Residual net position">
+            <FigureCells values={[money(ladder.residual, currency), ladder.residual > 0 ? pct(ladder.residualCharge / ladder.residual, 0) : "—", money(ladder.residualCharge, currency)]} />
+          </Row>
         </FigureTable>
       </div>
       <p className="text-sm figure">
@@ -206,27 +215,19 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
   const ir = result.interestRate;
   return (
     <div className="flex flex-col gap-6">
-      <Panel id="ir-specific" title={<>Interest rate: specific risk, {money(result.blocks.interestRateSpecific, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
-        {ir.specific.length === 0 ? (
-          <p className="text-sm text-ink-soft">No debt positions.</p>
-        ) : (
-          <div className="relative overflow-x-auto">
-            <FigureTable className="min-w-full text-sm" caption="Each issue's net position, long or short alike, times its category's weight" leftColumns={3} {...CAPITAL_TABLE} columns={["Issue", "Currency", "Issuer", "Residual maturity", "Net position", "Weight", "Charge"]}>
-              {ir.specific.map((l) => (
-                <tr key={`${l.instrument}-${l.currency}`} className="border-b border-ink-line/60">
-                  <th scope="row" className="py-1 pr-3 text-left font-normal">{l.instrument}</th>
-                  <td className="py-1 pr-3">{l.currency}</td>
-                  <td className="py-1 pr-3">{l.issuerCategory}</td>
-                  <td className={td}>{years(l.residualMaturityYears)}</td>
-                  <td className={td}><Money value={l.net} currency={currency} /></td>
-                  <td className={td}>{pct(l.rate, 2)}</td>
-                  <td className={td}><Money value={l.charge} currency={currency} /></td>
-                </tr>
-              ))}
-            </FigureTable>
-          </div>
-        )}
-      </Panel>
+      <BlockPanel id="ir-specific" title={<>Interest rate: specific risk, {money(result.blocks.interestRateSpecific, currency)}</>} empty={ir.specific.length === 0 && "No debt positions."}>
+        <div className="relative overflow-x-auto">
+          <FigureTable className="min-w-full text-sm" caption="Each issue's net position, long or short alike, times its category's weight" leftColumns={3} {...CAPITAL_TABLE} columns={["Issue", "Currency", "Issuer", "Residual maturity", "Net position", "Weight", "Charge"]}>
+            {ir.specific.map((l) => (
+              <Row key={`${l.instrument}-${l.currency}`} head={l.instrument}>
+                <td className="py-1 pr-3">{l.currency}</td>
+                <td className="py-1 pr-3">{l.issuerCategory}</td>
+                <FigureCells values={[years(l.residualMaturityYears), money(l.net, currency), pct(l.rate, 2), money(l.charge, currency)]} />
+              </Row>
+            ))}
+          </FigureTable>
+        </div>
+      </BlockPanel>
 
       <section aria-labelledby="ir-general" className="flex flex-col gap-4">
         <h3 id="ir-general" className="font-semibold">Interest rate: general market risk, {money(result.blocks.interestRateGeneral, currency)} (one ladder per currency, summed without offsetting)</h3>
@@ -236,15 +237,12 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             <div className="mt-2 overflow-x-auto">
               <FigureTable className="min-w-full text-sm" leftColumns={3} {...CAPITAL_TABLE} columns={["Instrument", "Leg", "Currency", "Amount", "Years", "Coupon", { label: "Band", align: "left" }]}>
                 {ir.legs.map((l, i) => (
-                  <tr key={i} className="border-b border-ink-line/60">
-                    <th scope="row" className="py-1 pr-3 text-left font-normal">{l.instrument}</th>
+                  <Row key={i} head={l.instrument}>
                     <td className="py-1 pr-3">{l.leg}</td>
                     <td className="py-1 pr-3">{l.currency}</td>
-                    <td className={td}><Money value={l.amount} currency={currency} /></td>
-                    <td className={td}>{num(l.years, 3)}</td>
-                    <td className={td}>{num(l.coupon, 2)} %</td>
+                    <FigureCells values={[money(l.amount, currency), num(l.years, 3), `${num(l.coupon, 2)} %`]} />
                     <td className="py-1 pr-3 whitespace-nowrap">{l.band}</td>
-                  </tr>
+                  </Row>
                 ))}
               </FigureTable>
             </div>
@@ -253,34 +251,23 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
         {ir.byCurrency.length === 0 ? <p className="text-sm text-ink-soft">No positions on an interest-rate ladder.</p> : ir.byCurrency.map((l) => <Ladder key={l.currency} ladder={l} currency={currency} />)}
       </section>
 
-      <Panel id="equity-block" title={<>Equities, per national market: specific {money(result.blocks.equitySpecific, currency)}, general {money(result.blocks.equityGeneral, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
-        {result.equity.byMarket.length === 0 ? (
-          <p className="text-sm text-ink-soft">No equity positions.</p>
-        ) : (
-          <FigureTable className="min-w-full text-sm" testId="equity-table" {...CAPITAL_TABLE} columns={["Market", "Issues", "Gross", "Net", "Specific rate", "Specific", "General rate", "General"]}>
-            {result.equity.byMarket.map((m) => (
-              <tr key={m.market} className="border-b border-ink-line/60">
-                <th scope="row" className="py-1 pr-3 text-left font-normal">{m.market}</th>
-                <td className={td}>{m.issues.length}</td>
-                <MoneyCells currency={currency} values={[m.gross, m.net]} />
-                <td className={td}>{pct(m.specificRate, 0)}</td>
-                <td className={td}><Money value={m.specific} currency={currency} /></td>
-                <td className={td}>{pct(m.generalRate, 0)}</td>
-                <td className={td}><Money value={m.general} currency={currency} /></td>
-              </tr>
-            ))}
-          </FigureTable>
-        )}
-      </Panel>
+      <BlockPanel id="equity-block" title={<>Equities, per national market: specific {money(result.blocks.equitySpecific, currency)}, general {money(result.blocks.equityGeneral, currency)}</>} empty={result.equity.byMarket.length === 0 && "No equity positions."}>
+        <FigureTable className="min-w-full text-sm" testId="equity-table" {...CAPITAL_TABLE} columns={["Market", "Issues", "Gross", "Net", "Specific rate", "Specific", "General rate", "General"]}>
+          {result.equity.byMarket.map((m) => (
+            <Row key={m.market} head={m.market}>
+              <FigureCells values={[m.issues.length, money(m.gross, currency), money(m.net, currency), pct(m.specificRate, 0), money(m.specific, currency), pct(m.generalRate, 0), money(m.general, currency)]} />
+            </Row>
+          ))}
+        </FigureTable>
+      </BlockPanel>
 
-      <Panel id="fx-block" title={<>Foreign exchange and gold (shorthand method): {money(result.blocks.fx, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
+      <BlockPanel id="fx-block" title={<>Foreign exchange and gold (shorthand method): {money(result.blocks.fx, currency)}</>}>
         <div className="grid gap-4 lg:grid-cols-2">
           <FigureTable className="text-sm" testId="fx-table" caption={<>Net open position per currency against {result.fx.reportingCurrency}</>} {...CAPITAL_TABLE} columns={["Currency", "From positions", "Currency positions", "Net"]}>
             {result.fx.byCurrency.map((c) => (
-              <tr key={c.currency} className="border-b border-ink-line/60">
-                <th scope="row" className="py-1 pr-3 text-left font-normal">{c.currency}</th>
+              <Row key={c.currency} head={c.currency}>
                 <MoneyCells currency={currency} values={[c.fromPositions, c.fromCurrencyPositions, c.net]} />
-              </tr>
+              </Row>
             ))}
           </FigureTable>
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
@@ -302,90 +289,77 @@ function Blocks({ result, currency }: { result: StandardisedResult; currency: st
             </dd>
           </dl>
         </div>
-      </Panel>
+      </BlockPanel>
 
-      <Panel id="commodity-block" title={<>Commodities: {money(result.blocks.commodities, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
-        {result.commodities.byCommodity.length === 0 ? (
-          <p className="text-sm text-ink-soft">No commodity positions.</p>
-        ) : (
-          <FigureTable className="min-w-full text-sm" testId="commodity-table" {...CAPITAL_TABLE} columns={["Commodity", "Long", "Short", "Net", "Gross", "On the net", "On the gross", "Charge"]}>
-            {result.commodities.byCommodity.map((c) => (
-              <tr key={c.commodity} className="border-b border-ink-line/60">
-                <th scope="row" className="py-1 pr-3 text-left font-normal">{c.commodity}</th>
-                <MoneyCells currency={currency} values={[c.long, c.short, c.net, c.gross, c.netCharge, c.grossCharge, c.charge]} />
-              </tr>
-            ))}
-          </FigureTable>
-        )}
-      </Panel>
+      <BlockPanel id="commodity-block" title={<>Commodities: {money(result.blocks.commodities, currency)}</>} empty={result.commodities.byCommodity.length === 0 && "No commodity positions."}>
+        <FigureTable className="min-w-full text-sm" testId="commodity-table" {...CAPITAL_TABLE} columns={["Commodity", "Long", "Short", "Net", "Gross", "On the net", "On the gross", "Charge"]}>
+          {result.commodities.byCommodity.map((c) => (
+            <Row key={c.commodity} head={c.commodity}>
+              <MoneyCells currency={currency} values={[c.long, c.short, c.net, c.gross, c.netCharge, c.grossCharge, c.charge]} />
+            </Row>
+          ))}
+        </FigureTable>
+      </BlockPanel>
 
-      <Panel id="options-block" title={<>Options (simplified carve-out): {money(result.blocks.options, currency)}</>} level={3} headingClassName="mb-2 font-semibold">
-        {result.options.length === 0 ? (
-          <p className="text-sm text-ink-soft">No option positions.</p>
-        ) : (
-          <FigureTable className="min-w-full text-sm" leftColumns={3} {...CAPITAL_TABLE} columns={["Option", "Underlying", "Treatment", "Underlying value", "Rates", "In the money", "Charge"]}>
-            {result.options.map((o) => (
-              <tr key={o.instrument} className="border-b border-ink-line/60">
-                <th scope="row" className="py-1 pr-3 text-left font-normal">{o.instrument} ({o.optionKind})</th>
-                <td className="py-1 pr-3">{o.underlying}</td>
-                <td className="py-1 pr-3">{o.treatment === "hedged" ? "with its hedge" : "bought, no hedge"}</td>
-                <td className={td}><Money value={o.underlyingValue} currency={currency} /></td>
-                <td className={td}>{pct(o.specificRate + o.generalRate, 0)}</td>
-                <MoneyCells currency={currency} values={[o.inTheMoney, o.charge]} />
-              </tr>
-            ))}
-          </FigureTable>
-        )}
-      </Panel>
+      <BlockPanel id="options-block" title={<>Options (simplified carve-out): {money(result.blocks.options, currency)}</>} empty={result.options.length === 0 && "No option positions."}>
+        <FigureTable className="min-w-full text-sm" leftColumns={3} {...CAPITAL_TABLE} columns={["Option", "Underlying", "Treatment", "Underlying value", "Rates", "In the money", "Charge"]}>
+          {result.options.map((o) => (
+            <Row key={o.instrument} head={<>{o.instrument} ({o.optionKind})</>}>
+              <td className="py-1 pr-3">{o.underlying}</td>
+              <td className="py-1 pr-3">{o.treatment === "hedged" ? "with its hedge" : "bought, no hedge"}</td>
+              <FigureCells values={[money(o.underlyingValue, currency), pct(o.specificRate + o.generalRate, 0), money(o.inTheMoney, currency), money(o.charge, currency)]} />
+            </Row>
+          ))}
+        </FigureTable>
+      </BlockPanel>
 
       {result.warnings.length > 0 ? (
-        <Panel id="std-notes" title="What the blocks did not cover or assumed" level={3} headingClassName="mb-2 font-semibold">
+        <BlockPanel id="std-notes" title="What the blocks did not cover or assumed">
           <Bullets items={result.warnings.map((w) => w.message)} className="list-disc pl-5 text-sm" />
-        </Panel>
+        </BlockPanel>
       ) : null}
     </div>
   );
 }
 
-/** The Capital tab: the filed figure and the other beside it, then the standardised building blocks line by line. */
-export function CapitalView({ runId }: { runId: string }) {
+/** The filed figure and the other beside it, then the standardised building blocks line by line. */
+function View({ results, currency }: { results: RunResults; currency: string }) {
+  const std = results.standardised;
   return (
-    <CompletedRun runId={runId}>
-      {({ results, reportingCurrency }) => {
-        const std = results.standardised;
-        return (
-          <div className="flex flex-col gap-6">
-            <DraftCaution />
-            <FiguresHeadline results={results} currency={reportingCurrency} />
-            {std?.result ? (
-              <>
-                <BlocksChart result={std.result} currency={reportingCurrency} />
-                <Blocks result={std.result} currency={reportingCurrency} />
-                <p className="text-xs text-ink-muted">
-                  Standardised rule set “{std.result.profileName}” of the run&apos;s capital rule profile, engine {std.result.engineVersion}. Every figure is in {reportingCurrency} at the period end.
-                </p>
-              </>
-            ) : std && std.problems.length > 0 ? (
-              <section role="alert" className="rounded-lg border border-alert/30 bg-alert-bg p-4 text-sm">
-                <p className="font-semibold text-alert">The standardised figure could not be computed from this run&apos;s positions.</p>
-                <ul className="mt-2 list-disc pl-5">
-                  {std.problems.slice(0, 20).map((p, i) => (
-                    <li key={i}>
-                      Row {p.row} ({p.instrument}), column {p.column}: {p.message}
-                    </li>
-                  ))}
-                </ul>
-                {std.problems.length > 20 ? <p className="mt-1">… and {std.problems.length - 20} more.</p> : null}
-              </section>
-            ) : (
-              <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">
-                This run&apos;s capital rule profile computes the internal-models figure only, so there are no building blocks to show. To compute them, change the profile in Settings; runs started afterwards
-                compute both.
-              </p>
-            )}
-          </div>
-        );
-      }}
-    </CompletedRun>
+    <div className="flex flex-col gap-6">
+      <DraftCaution />
+      <FiguresHeadline results={results} currency={currency} />
+      {std?.result ? (
+        <>
+          <BlocksChart result={std.result} currency={currency} />
+          <Blocks result={std.result} currency={currency} />
+          <p className="text-xs text-ink-muted">
+            Standardised rule set “{std.result.profileName}” of the run&apos;s capital rule profile, engine {std.result.engineVersion}. Every figure is in {currency} at the period end.
+          </p>
+        </>
+      ) : std && std.problems.length > 0 ? (
+        <section role="alert" className="rounded-lg border border-alert/30 bg-alert-bg p-4 text-sm">
+          <p className="font-semibold text-alert">The standardised figure could not be computed from this run&apos;s positions.</p>
+          <ul className="mt-2 list-disc pl-5">
+            {std.problems.slice(0, 20).map((p, i) => (
+              <li key={i}>
+                Row {p.row} ({p.instrument}), column {p.column}: {p.message}
+              </li>
+            ))}
+          </ul>
+          {std.problems.length > 20 ? <p className="mt-1">… and {std.problems.length - 20} more.</p> : null}
+        </section>
+      ) : (
+        <p className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm text-ink-soft">
+          This run&apos;s capital rule profile computes the internal-models figure only, so there are no building blocks to show. To compute them, change the profile in Settings; runs started afterwards
+          compute both.
+        </p>
+      )}
+    </div>
   );
+}
+
+/** The Capital tab of a completed run. */
+export function CapitalView({ runId }: { runId: string }) {
+  return <CompletedRun runId={runId}>{({ results, reportingCurrency }) => <View results={results} currency={reportingCurrency} />}</CompletedRun>;
 }
