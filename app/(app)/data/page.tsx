@@ -11,6 +11,7 @@ import { priceCoverage } from "@/lib/data/prices";
 import { FileUpload } from "./file-upload";
 import { PositionColumnGuide } from "./column-guide";
 import { SimpleTable } from "@/app/_components/simple-table";
+import { Panel } from "@/app/_components/panel";
 
 export const metadata: Metadata = { title: "Data" };
 
@@ -28,10 +29,7 @@ export default async function DataPage() {
         lead="Month-end positions and the firm's price history. Every file is checked row by row and previewed; nothing is used until someone confirms it."
       />
       <div className="grid gap-6 lg:grid-cols-2">
-        <section aria-labelledby="positions-heading" className="rounded-lg border border-ink-line bg-paper-raised p-5">
-          <h2 id="positions-heading" className="text-lg font-semibold">
-            Month-end positions
-          </h2>
+        <Panel id="positions-heading" title="Month-end positions" padding="p-5" headingClassName="text-lg font-semibold">
           <p className="mt-1 text-sm text-ink-soft">
             One file per period: as-of date, book, instrument id and name, asset class, currency, quantity, price, and optionally market value
             (with its currency, or computed), delta-equivalent exposure and a note; <a className="underline" href="#columns-heading">every column is explained below</a>.
@@ -47,11 +45,8 @@ export default async function DataPage() {
           <p className="mt-3 text-sm">
             Template with an example row: <a className="underline" href="/api/templates/positions.csv">positions.csv</a>
           </p>
-        </section>
-        <section aria-labelledby="prices-heading" className="rounded-lg border border-ink-line bg-paper-raised p-5">
-          <h2 id="prices-heading" className="text-lg font-semibold">
-            Price history
-          </h2>
+        </Panel>
+        <Panel id="prices-heading" title="Price history" padding="p-5" headingClassName="text-lg font-semibold">
           <p className="mt-1 text-sm text-ink-soft">
             Daily closes, long (date, instrument, close) or wide (date, then one column per instrument). Exchange rates are instruments named by
             currency pair, e.g. USD{actor.reportingCurrency} = {actor.reportingCurrency} per 1 USD. A changed price is kept as a correction.
@@ -63,7 +58,7 @@ export default async function DataPage() {
             Blank templates: <a className="underline" href="/api/templates/prices-long.csv">prices-long.csv</a> ·{" "}
             <a className="underline" href="/api/templates/prices-wide.csv">prices-wide.csv</a>
           </p>
-        </section>
+        </Panel>
       </div>
 
       <PositionColumnGuide reportingCurrency={actor.reportingCurrency} />
