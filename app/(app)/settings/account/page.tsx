@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import Link from "next/link";
+import { BackLink } from "@/app/_components/back-link";
 import { PageHeader } from "@/app/_components/page-header";
 import { pageActor } from "@/lib/auth/page";
 import { ChangePasswordForm } from "./change-password-form";
@@ -11,11 +11,7 @@ export default async function AccountPage() {
   const { actor } = await pageActor();
   return (
     <>
-      <p className="mb-2 text-sm">
-        <Link href="/settings" className="underline">
-          ← Settings
-        </Link>
-      </p>
+      <BackLink href="/settings">Settings</BackLink>
       <PageHeader title="Your account" lead={`${actor.name} · ${actor.email}`} />
       <section aria-labelledby="password-heading" className="max-w-md rounded-lg border border-ink-line bg-paper-raised p-5">
         <h2 id="password-heading" className="text-lg font-semibold">

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import Link from "next/link";
+import { BackLink } from "@/app/_components/back-link";
 import { notFound } from "next/navigation";
 import { z } from "zod";
 import { QueryProvider } from "@/app/_components/query-provider";
@@ -19,11 +19,7 @@ export default async function UploadPage({ params, searchParams }: { params: Pro
   if (!(await uploadExists(actor, uploadId))) notFound();
   return (
     <>
-      <p className="mb-2 text-sm">
-        <Link href="/data" className="underline">
-          ← Data
-        </Link>
-      </p>
+      <BackLink href="/data">Data</BackLink>
       {duplicate ? (
         <p role="status" className="mb-4 rounded-md border border-ink-line bg-paper-sunk px-3 py-2 text-sm">
           This exact file (same SHA-256) was uploaded before, so it was not stored again. This is that upload.

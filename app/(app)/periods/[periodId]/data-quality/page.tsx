@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
+import { BackLink } from "@/app/_components/back-link";
 import { PageHeader } from "@/app/_components/page-header";
 import { StatusBadge } from "@/app/_components/status-badge";
 import { formatMonth } from "@/app/_components/format";
@@ -25,11 +26,7 @@ export default async function DataQualityPage({ params, searchParams }: { params
   const canConfirm = can(actor, "quality.confirm");
   return (
     <>
-      <p className="mb-2 text-sm">
-        <Link href={`/periods/${periodId}`} className="underline">
-          ← {formatMonth(data.periodEnd)}
-        </Link>
-      </p>
+      <BackLink href={`/periods/${periodId}`}>{formatMonth(data.periodEnd)}</BackLink>
       <PageHeader
         title="Data-quality report"
         lead={

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import Link from "next/link";
+import { BackLink } from "@/app/_components/back-link";
 import { PageHeader } from "@/app/_components/page-header";
 import { QueryProvider } from "@/app/_components/query-provider";
 import { formatDate, formatMonth } from "@/app/_components/format";
@@ -17,11 +17,7 @@ export default async function RunsPage({ params }: { params: Promise<{ periodId:
   const locked = period.state === "signed" || period.state === "filed";
   return (
     <>
-      <p className="mb-2 text-sm">
-        <Link href={`/periods/${period.id}`} className="underline">
-          ← {formatMonth(period.periodEnd)}
-        </Link>
-      </p>
+      <BackLink href={`/periods/${period.id}`}>{formatMonth(period.periodEnd)}</BackLink>
       <PageHeader
         title={`Runs: ${formatMonth(period.periodEnd)}`}
         lead={

@@ -1,4 +1,4 @@
-import Link from "next/link";
+import { BackLink } from "@/app/_components/back-link";
 import { notFound } from "next/navigation";
 import { PageHeader } from "@/app/_components/page-header";
 import { QueryProvider } from "@/app/_components/query-provider";
@@ -19,11 +19,7 @@ export default async function RunLayout({ children, params }: { children: React.
   const base = `/periods/${periodId}/runs/${runId}`;
   return (
     <>
-      <p className="mb-2 text-sm">
-        <Link href={`/periods/${periodId}/runs`} className="underline">
-          ← Runs of {formatMonth(period.periodEnd)}
-        </Link>
-      </p>
+      <BackLink href={`/periods/${periodId}/runs`}>Runs of {formatMonth(period.periodEnd)}</BackLink>
       <PageHeader
         title={`Run of ${formatTimestamp(run.startedAt)}`}
         lead={
