@@ -5,7 +5,8 @@ import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { createColumnHelper, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { apiFetch } from "@/app/_components/api";
 import { DataTable } from "@/app/_components/data-table";
-import { inputClass, secondaryButtonClass } from "@/app/_components/field";
+import { inputClass } from "@/app/_components/field";
+import { Pager } from "@/app/_components/pager";
 import { formatTimestamp } from "@/app/_components/format";
 import { LoadError } from "@/app/_components/load-error";
 
@@ -99,19 +100,7 @@ export function AuditTable() {
       </form>
       {error ? <LoadError error={error} fallback="Could not load the audit trail." /> : null}
       <DataTable table={table} caption="Audit events, newest first" loading={isPending} loadingText="Loading the audit trail…" emptyText="No event matches these filters." rowTestId="audit-row" />
-      <div className="flex items-center justify-between text-sm">
-        <span>
-          Page {page} of {pages}
-        </span>
-        <div className="flex gap-2">
-          <button type="button" className={secondaryButtonClass} disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
-            Newer
-          </button>
-          <button type="button" className={secondaryButtonClass} disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>
-            Older
-          </button>
-        </div>
-      </div>
+      <Pager page={page} pages={pages} setPage={setPage} previous="Newer" next="Older" />
     </div>
   );
 }

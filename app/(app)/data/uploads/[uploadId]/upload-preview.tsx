@@ -10,6 +10,7 @@ import { PageHeader } from "@/app/_components/page-header";
 import { UploadStatus } from "@/app/_components/upload-status";
 import { StatusBadge } from "@/app/_components/status-badge";
 import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { Pager } from "@/app/_components/pager";
 import type { DateFormat, NumberFormat, Problem } from "@/lib/uploads/types";
 import { FormatSelect } from "../../_components/format-select";
 import { SimpleTable } from "@/app/_components/simple-table";
@@ -445,19 +446,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
                     </tbody>
                   </table>
                 </div>
-                <div className="mt-2 flex items-center justify-between text-sm">
-                  <span>
-                    Page {page} of {pages}
-                  </span>
-                  <div className="flex gap-2">
-                    <button type="button" className={secondaryButtonClass} disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
-                      Previous
-                    </button>
-                    <button type="button" className={secondaryButtonClass} disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>
-                      Next
-                    </button>
-                  </div>
-                </div>
+                <Pager page={page} pages={pages} setPage={setPage} className="mt-2 flex items-center justify-between text-sm" />
               </>
             )}
           </section>
