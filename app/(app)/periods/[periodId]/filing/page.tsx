@@ -40,6 +40,13 @@ function group(blocks: Block[]): (Block | { kind: "list"; items: string[] })[] {
   return out;
 }
 
+/** How a block of a section's text shows: its element and classes (a section's first heading labels the section, below). */
+const TEXT_BLOCKS = {
+  h2: { Tag: "h3", className: "mb-2 mt-5 font-semibold" },
+  p: { Tag: "p", className: "my-2 whitespace-pre-wrap" },
+  note: { Tag: "p", className: "my-3 border-l-2 border-ink-line pl-3 text-sm text-ink-soft" },
+} as const;
+
 function Card({ title, children, testId }: { title: string; children: React.ReactNode; testId?: string }) {
   return (
     <section className="rounded-lg border border-ink-line bg-paper-raised p-4" aria-label={title} data-testid={testId}>
@@ -215,23 +222,15 @@ export default async function FilingPage({ params }: { params: Promise<{ periodI
                         </h2>
                       );
                     case "h2":
-                      return (
-                        <h3 key={i} className="mb-2 mt-5 font-semibold">
-                          {b.text}
-                        </h3>
-                      );
                     case "p":
+                    case "note": {
+                      const { Tag, className } = TEXT_BLOCKS[b.kind];
                       return (
-                        <p key={i} className="my-2 whitespace-pre-wrap">
+                        <Tag key={i} className={className}>
                           {b.text}
-                        </p>
+                        </Tag>
                       );
-                    case "note":
-                      return (
-                        <p key={i} className="my-3 border-l-2 border-ink-line pl-3 text-sm text-ink-soft">
-                          {b.text}
-                        </p>
-                      );
+                    }
                     case "list":
                       return (
                         <ul key={i} className="my-2 list-disc space-y-1 pl-6">
