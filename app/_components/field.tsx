@@ -32,6 +32,19 @@ export function Field({
   );
 }
 
+/** A select's options from [value, label] pairs (e.g. a label table's entries). */
+export function SelectOptions({ options }: { options: readonly (readonly [string, React.ReactNode])[] }) {
+  return (
+    <>
+      {options.map(([value, label]) => (
+        <option key={value} value={value}>
+          {label}
+        </option>
+      ))}
+    </>
+  );
+}
+
 export const inputClass =
   "rounded-md border border-ink-line bg-paper-raised px-3 py-2 text-ink shadow-sm placeholder:text-ink-muted focus:border-brass focus:outline-none aria-[invalid=true]:border-alert";
 

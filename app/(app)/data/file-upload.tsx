@@ -3,7 +3,7 @@
 import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { UploadButton } from "@/app/_components/upload-button";
-import { inputClass } from "@/app/_components/field";
+import { inputClass, SelectOptions } from "@/app/_components/field";
 import type { DateFormat, NumberFormat } from "@/lib/uploads/types";
 import { FormatSelect } from "./_components/format-select";
 
@@ -60,11 +60,7 @@ export function FileUpload({ kind, periods = [] }: Props) {
           <label className="flex flex-col gap-1 text-sm" htmlFor={`${id}-period`}>
             Reporting period
             <select id={`${id}-period`} className={inputClass} value={periodId} onChange={(e) => setPeriodId(e.target.value)}>
-              {periods.map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.label}
-                </option>
-              ))}
+              <SelectOptions options={periods.map((p) => [p.id, p.label])} />
             </select>
           </label>
         ) : null}

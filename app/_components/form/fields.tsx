@@ -1,8 +1,8 @@
 "use client";
 
-import type { InputHTMLAttributes, ReactNode, SelectHTMLAttributes, TextareaHTMLAttributes } from "react";
+import type { ElementType, InputHTMLAttributes, ReactNode, SelectHTMLAttributes, TextareaHTMLAttributes } from "react";
 import { get, type FieldValues, type Path, type RegisterOptions, type UseFormReturn } from "react-hook-form";
-import { Field, inputClass } from "@/app/_components/field";
+import { Field, inputClass, SelectOptions } from "@/app/_components/field";
 
 /** What every form-bound field takes: the react-hook-form form, the field's path, its label and hint. */
 type Bound<T extends FieldValues> = {
@@ -45,14 +45,25 @@ function useBound<T extends FieldValues, A extends object>({ form, name, label, 
   return { field: { id: bound.id, label, hint, error: bound.error }, element: { className, ...html, ...bound.props } };
 }
 
-/** A labelled text-like input (text, e-mail, password, date, month…) bound to the form. */
-export function TextField<T extends FieldValues>(props: Bound<T> & Omit<InputHTMLAttributes<HTMLInputElement>, Own>) {
+/** The element a bound field holds, with the HTML attributes it takes. */
+type Elements = { input: InputHTMLAttributes<HTMLInputElement>; textarea: TextareaHTMLAttributes<HTMLTextAreaElement>; select: SelectHTMLAttributes<HTMLSelectElement> };
+
+const TAGS: Record<keyof Elements, ElementType> = { input: "input", textarea: "textarea", select: "select" };
+
+/** A Field (label, hint, error) around one element bound to the form: what every field below draws. */
+function BoundField<T extends FieldValues>({ as, children, ...props }: Bound<T> & Omit<Elements[keyof Elements], Own> & { as: keyof Elements }) {
   const { field, element } = useBound(props);
+  const Element = TAGS[as];
   return (
     <Field {...field}>
-      <input {...element} />
+      <Element {...element}>{children}</Element>
     </Field>
   );
+}
+
+/** A labelled text-like input (text, e-mail, password, date, month…) bound to the form. */
+export function TextField<T extends FieldValues>(props: Bound<T> & Omit<InputHTMLAttributes<HTMLInputElement>, Own>) {
+  return <BoundField as="input" {...props} />;
 }
 
 /** A labelled number input bound to the form (type="number" unless told otherwise). */
@@ -62,12 +73,7 @@ export function NumberField<T extends FieldValues>(props: Bound<T> & Omit<InputH
 
 /** A labelled text area bound to the form. */
 export function TextAreaField<T extends FieldValues>(props: Bound<T> & Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, Own>) {
-  const { field, element } = useBound(props);
-  return (
-    <Field {...field}>
-      <textarea {...element} />
-    </Field>
-  );
+  return <BoundField as="textarea" {...props} />;
 }
 
 /** A labelled select bound to the form; the options are its children, or `options` as [value, label] pairs (e.g. a label table's entries). */
@@ -76,18 +82,11 @@ export function SelectField<T extends FieldValues>({
   options,
   ...props
 }: Bound<T> & Omit<SelectHTMLAttributes<HTMLSelectElement>, Own> & { children?: ReactNode; options?: [string, ReactNode][] }) {
-  const { field, element } = useBound(props);
   return (
-    <Field {...field}>
-      <select {...element}>
-        {options?.map(([value, label]) => (
-          <option key={value} value={value}>
-            {label}
-          </option>
-        ))}
-        {children}
-      </select>
-    </Field>
+    <BoundField as="select" {...props}>
+      {options ? <SelectOptions options={options} /> : null}
+      {children}
+    </BoundField>
   );
 }
 

@@ -1,5 +1,5 @@
 import type { SelectHTMLAttributes } from "react";
-import { inputClass } from "@/app/_components/field";
+import { inputClass, SelectOptions } from "@/app/_components/field";
 import { DATE_FORMAT_LABELS, NUMBER_FORMAT_LABELS } from "@/lib/uploads/types";
 
 /** How the file writes its numbers or its dates: a labelled select of the read options (controlled or not, as the caller passes). */
@@ -9,11 +9,7 @@ export function FormatSelect({ what, className = "", ...select }: { what: "numbe
     <label className={`flex flex-col gap-1 text-sm ${className}`.trim()} htmlFor={select.id}>
       {what === "numbers" ? "Numbers in the file" : "Dates in the file"}
       <select className={inputClass} {...select}>
-        {Object.entries(labels).map(([value, label]) => (
-          <option key={value} value={value}>
-            {label}
-          </option>
-        ))}
+        <SelectOptions options={Object.entries(labels)} />
       </select>
     </label>
   );

@@ -10,7 +10,7 @@ import { TextField, TextAreaField, SelectField, setFieldErrors } from "@/app/_co
 import { useForm, useWatch, type FieldErrors, type UseFormRegister, type UseFormReturn } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { apiFetch, ApiError } from "@/app/_components/api";
-import { Field, inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
+import { Field, inputClass, primaryButtonClass, secondaryButtonClass, SelectOptions } from "@/app/_components/field";
 import { ASSET_CLASSES, ASSET_CLASS_LABELS } from "@/lib/uploads/asset-classes";
 import { ESTIMATOR_LABELS, methodDraftSchema, type EstimatorChoice, type MethodDraft } from "@/lib/validation/method";
 import { CORRELATION_LABELS, COVARIANCE_LABELS, PORTFOLIO_VOLATILITY_LABELS, SCALING_LABELS, VAR_METHOD_LABELS, engineLimitations } from "@/lib/method/describe";
@@ -39,11 +39,7 @@ function ChoiceField({ id, label, value, onChange, options, error }: { id: strin
   return (
     <Field id={id} label={label} error={error}>
       <select id={id} className={inputClass} value={value} onChange={(e) => onChange(e.target.value)}>
-        {options.map(([v, l]) => (
-          <option key={v} value={v}>
-            {l}
-          </option>
-        ))}
+        <SelectOptions options={options} />
       </select>
     </Field>
   );

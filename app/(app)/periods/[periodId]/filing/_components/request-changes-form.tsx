@@ -3,7 +3,7 @@
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { Field, inputClass, secondaryButtonClass } from "@/app/_components/field";
+import { Field, inputClass, secondaryButtonClass, SelectOptions } from "@/app/_components/field";
 import { useSend } from "./use-send";
 import { Alert } from "./alert";
 import { FILING_SECTIONS, requestChangesSchema, type RequestChangesInput } from "@/lib/validation/filings";
@@ -20,11 +20,7 @@ export function RequestChangesForm({ filingId }: { filingId: string }) {
     <form className="flex flex-col gap-3" onSubmit={handleSubmit((v) => send(`/api/filings/${filingId}/request-changes`, "POST", v))} noValidate>
       <Field id="changes-section" label="About" error={errors.section?.message ?? error?.fields.section}>
         <select id="changes-section" className={inputClass} {...register("section")}>
-          {FILING_SECTIONS.map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.label}
-            </option>
-          ))}
+          <SelectOptions options={FILING_SECTIONS.map((s) => [s.id, s.label])} />
         </select>
       </Field>
       <Field id="changes-reason" label="What needs to change" error={errors.reason?.message ?? error?.fields.reason}>
