@@ -4,9 +4,11 @@
  * the audit record). Stored versions never change (db/migrations/0010_capital_profiles_immutable.sql).
  */
 import "server-only";
-import { and, desc, eq, inArray } from "drizzle-orm";
+import { firmRow } from "@/lib/data/firm-row";
+import { and, desc, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { capitalRuleProfiles, users } from "@/db/schema";
+import { capitalRuleProfiles } from "@/db/schema";
+import { userNames } from "./people";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import { now } from "@/lib/clock";
@@ -97,12 +99,6 @@ function view(row: Row, names: Map<string, string>): CapitalProfileVersion {
   };
 }
 
-async function namesOf(ids: (string | null)[]): Promise<Map<string, string>> {
-  const wanted = [...new Set(ids.filter((x): x is string => Boolean(x)))];
-  if (wanted.length === 0) return new Map();
-  const rows = await getDb().select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, wanted));
-  return new Map(rows.map((r) => [r.id, r.name]));
-}
 
 /** The version in force, or null when the firm has none stored (runs then use the engine defaults). */
 export async function currentCapitalProfile(actor: Actor): Promise<CapitalProfileVersion | null> {
@@ -112,13 +108,13 @@ export async function currentCapitalProfile(actor: Actor): Promise<CapitalProfil
     .where(and(eq(capitalRuleProfiles.firmId, actor.firmId), eq(capitalRuleProfiles.active, true)))
     .limit(1);
   if (!row) return null;
-  return view(row, await namesOf([row.createdBy]));
+  return view(row, await userNames([row.createdBy]));
 }
 
 /** Every version, newest first. */
 export async function listCapitalProfileVersions(actor: Actor): Promise<CapitalProfileVersion[]> {
   const rows = await getDb().select().from(capitalRuleProfiles).where(eq(capitalRuleProfiles.firmId, actor.firmId)).orderBy(desc(capitalRuleProfiles.version));
-  const names = await namesOf(rows.map((r) => r.createdBy));
+  const names = await userNames(rows.map((r) => r.createdBy));
   return rows.map((r) => view(r, names));
 }
 
@@ -216,12 +212,8 @@ export async function saveCapitalProfile(actor: Actor, input: CapitalProfileValu
 
 /** One version by id (another firm's is not found). */
 export async function getCapitalProfileVersion(actor: Actor, profileId: string): Promise<CapitalProfileVersion> {
-  const [row] = await getDb()
-    .select()
-    .from(capitalRuleProfiles)
-    .where(and(eq(capitalRuleProfiles.firmId, actor.firmId), eq(capitalRuleProfiles.id, profileId)));
-  if (!row) throw new AppError("not_found:capital_profile");
-  return view(row, await namesOf([row.createdBy]));
+  const row = await firmRow(capitalRuleProfiles, actor.firmId, profileId, "not_found:capital_profile");
+  return view(row, await userNames([row.createdBy]));
 }
 
 export { DEFAULT_PLUS_FACTORS };

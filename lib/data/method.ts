@@ -5,11 +5,14 @@
  * a reason.
  */
 import "server-only";
-import { and, desc, eq, inArray, max } from "drizzle-orm";
+import { approvedMethodRow } from "@/lib/data/approved-method";
+import { firmRow } from "@/lib/data/firm-row";
+import { and, desc, eq, max } from "drizzle-orm";
 import { getDb, type Database, type Tx } from "@/db/client";
-import { firms, instruments, methodStatements, positions, reportingPeriods, uploads, users } from "@/db/schema";
+import { firms, instruments, methodStatements, positions, reportingPeriods, uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
+import { userNames } from "./people";
 import type { Actor } from "@/lib/auth/actor";
 import { now, today } from "@/lib/clock";
 import { DEFAULT_METHOD_CONTENT, methodDraftSchema, readMethodContent, type MethodContent, type MethodDraft } from "@/lib/validation/method";
@@ -78,12 +81,6 @@ export interface MethodVersionSummary {
 
 type Row = typeof methodStatements.$inferSelect;
 
-async function names(ids: (string | null)[]): Promise<Map<string, string>> {
-  const wanted = [...new Set(ids.filter((x): x is string => !!x))];
-  if (wanted.length === 0) return new Map();
-  const rows = await getDb().select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, wanted));
-  return new Map(rows.map((r) => [r.id, r.name]));
-}
 
 const ref = (id: string | null, byId: Map<string, string>): PersonRef | null => (id ? { id, name: byId.get(id) ?? "Former member" } : null);
 
@@ -104,7 +101,7 @@ function summarise(row: Row, byId: Map<string, string>): MethodVersionSummary {
 }
 
 async function present(row: Row): Promise<MethodVersion> {
-  const byId = await names([row.createdBy, row.approvedBy, row.coApprovedBy]);
+  const byId = await userNames([row.createdBy, row.approvedBy, row.coApprovedBy]);
   const content = readMethodContent(row.content);
   const { engine, analyst } = splitLimitations(content, row.limitations);
   let previousVersion: number | null = null;
@@ -130,23 +127,12 @@ async function present(row: Row): Promise<MethodVersion> {
 }
 
 async function findRow(actor: Actor, methodId: string): Promise<Row> {
-  const [row] = await getDb()
-    .select()
-    .from(methodStatements)
-    .where(and(eq(methodStatements.id, methodId), eq(methodStatements.firmId, actor.firmId)));
-  if (!row) throw new AppError("not_found:method", "No such method statement version.");
-  return row;
+  return firmRow(methodStatements, actor.firmId, methodId, "not_found:method", "No such method statement version.");
 }
 
 /** The firm's approved version (the newest, should there be more than one), read through `db` (a transaction or the database). */
 async function approvedRow(actor: Actor, db: Database | Tx = getDb()): Promise<Row | null> {
-  const [row] = await db
-    .select()
-    .from(methodStatements)
-    .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "approved")))
-    .orderBy(desc(methodStatements.version))
-    .limit(1);
-  return row ?? null;
+  return approvedMethodRow(actor.firmId, db);
 }
 
 /** The firm's approved version (the one runs use), or null when none is approved yet. */
@@ -158,7 +144,7 @@ export async function currentMethod(actor: Actor): Promise<MethodVersion | null>
 /** Every version of the firm, newest first. */
 export async function listMethodVersions(actor: Actor): Promise<MethodVersionSummary[]> {
   const rows = await getDb().select().from(methodStatements).where(eq(methodStatements.firmId, actor.firmId)).orderBy(desc(methodStatements.version));
-  const byId = await names(rows.flatMap((r) => [r.createdBy, r.approvedBy, r.coApprovedBy]));
+  const byId = await userNames(rows.flatMap((r) => [r.createdBy, r.approvedBy, r.coApprovedBy]));
   return rows.map((r) => summarise(r, byId));
 }
 

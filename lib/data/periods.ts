@@ -1,5 +1,6 @@
 /** Reporting periods: listing, opening, and what each still needs and from whom. */
 import "server-only";
+import { firmRow } from "@/lib/data/firm-row";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import { getDb, type Database, type Tx } from "@/db/client";
 import { calendarSettings, holidays, reportingPeriods, uploads, methodStatements, runs, filings, reminderLog } from "@/db/schema";
@@ -138,11 +139,7 @@ export async function listPeriods(actor: Actor): Promise<PeriodSummary[]> {
 
 /** One period of the actor's firm; another firm's period looks absent. */
 export async function getPeriod(actor: Actor, periodId: string): Promise<PeriodSummary> {
-  const [row] = await getDb()
-    .select()
-    .from(reportingPeriods)
-    .where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
-  if (!row) throw new AppError("not_found:period", "No such reporting period.");
+  const row = await firmRow(reportingPeriods, actor.firmId, periodId, "not_found:period", "No such reporting period.");
   const { holidays: holidaySet } = await getCalendar(actor.firmId);
   const statuses = await stepStatuses(actor.firmId, [row]);
   return summarise(row, statuses.get(row.id)!, holidaySet);

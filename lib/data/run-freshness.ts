@@ -4,10 +4,11 @@
  * Every page that shows a run, and the filing choice, read it from here.
  */
 import "server-only";
+import { approvedMethodRow } from "@/lib/data/approved-method";
 import { gunzipSync } from "node:zlib";
 import { and, count, desc, eq, inArray, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { capitalRuleProfiles, methodStatements, reportingPeriods, runInputs, runs, uploads } from "@/db/schema";
+import { capitalRuleProfiles, reportingPeriods, runInputs, runs, uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { neededFactors } from "@/lib/runs/compute";
@@ -20,12 +21,7 @@ export type { RunFreshness } from "@/lib/runs/freshness";
 /** The firm's approved method version and capital rule profile in force (what every period's runs are compared to). */
 async function firmRules(firmId: string) {
   const db = getDb();
-  const [method] = await db
-    .select({ id: methodStatements.id, version: methodStatements.version })
-    .from(methodStatements)
-    .where(and(eq(methodStatements.firmId, firmId), eq(methodStatements.status, "approved")))
-    .orderBy(desc(methodStatements.version))
-    .limit(1);
+  const method = await approvedMethodRow(firmId, db);
   const [profile] = await db
     .select({ id: capitalRuleProfiles.id, name: capitalRuleProfiles.name })
     .from(capitalRuleProfiles)

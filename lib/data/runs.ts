@@ -5,6 +5,7 @@
  * them with their hashes and computes the run (lib/runs/execute.ts).
  */
 import "server-only";
+import { approvedMethodRow } from "@/lib/data/approved-method";
 import { createHash } from "node:crypto";
 import { gunzipSync, gzipSync } from "node:zlib";
 import { and, desc, eq, inArray, lt, sql } from "drizzle-orm";
@@ -275,12 +276,7 @@ async function runnableBasics(actor: Actor, periodId: string) {
   assertOpen(period);
   const db = getDb();
   const upload = await confirmedPositionsUpload(actor, periodId);
-  const [method] = await db
-    .select()
-    .from(methodStatements)
-    .where(and(eq(methodStatements.firmId, actor.firmId), eq(methodStatements.status, "approved")))
-    .orderBy(desc(methodStatements.version))
-    .limit(1);
+  const method = await approvedMethodRow(actor.firmId, db);
   const missing: string[] = [];
   if (!upload) missing.push("no positions are confirmed for this period (a compliance officer uploads and confirms them on the Data page)");
   if (!method) missing.push("no method statement is approved (the risk analyst approves one on the Method page)");

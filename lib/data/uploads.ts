@@ -10,6 +10,7 @@
  * - the demo seed, the tests and the benchmarks: `receiveUploadBytes` and `confirmUpload` run the same steps inline.
  */
 import "server-only";
+import { firmRow } from "@/lib/data/firm-row";
 import { and, desc, eq, inArray, ne } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { uploads } from "@/db/schema";
@@ -143,9 +144,7 @@ function inStatuses(statuses: UploadStatus[]) {
 }
 
 async function getUploadRow(actor: Actor, uploadId: string) {
-  const [row] = await getDb().select().from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, actor.firmId)));
-  if (!row) throw new AppError("not_found:upload", "No such upload.");
-  return row;
+  return firmRow(uploads, actor.firmId, uploadId, "not_found:upload", "No such upload.");
 }
 
 /** The actor's firm has this upload and it is of `kind` (each kind has its own routes): else not found. */

@@ -12,7 +12,8 @@ import { buildFilingViewModel, contentHash, type CorrelationView, type FilingSta
 import { filingRunOf, getRun, getRunInputs } from "../runs";
 import { assertRunFresh } from "../run-freshness";
 import { FilingRow, PeriodRow, AssembleArgs } from "./types";
-import { names, findPeriod, firmOf } from "./read";
+import { findPeriod, firmOf } from "./read";
+import { userNames } from "../people";
 import { changesSinceLast } from "./narrative";
 
 /** Runs never change, so the correlation recomputed from a run's stored inputs is kept for the few runs last used. */
@@ -53,7 +54,7 @@ export async function assemble(actor: Actor, args: AssembleArgs): Promise<Filing
       .from(methodStatements)
       .where(and(eq(methodStatements.id, results.method.id), eq(methodStatements.firmId, actor.firmId)))
       .then((rows) => rows[0] ?? null),
-    names([args.preparedBy, args.submittedBy]),
+    userNames([args.preparedBy, args.submittedBy]),
     correlationOf(actor, run),
   ]);
   const exceptionDates = new Set(results.monthEnd.backtest.exceptionList.map((e) => e.date));

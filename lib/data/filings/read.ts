@@ -1,8 +1,10 @@
 /** Reading filings: the detail of a version with its signatures and comments, a period's versions, and the period the shell's Filing link goes to. */
 import "server-only";
+import { firmRow } from "@/lib/data/firm-row";
 import { and, desc, eq, inArray } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { filings, firms, reportingPeriods, reviewComments, signatures, users } from "@/db/schema";
+import { filings, firms, reportingPeriods, reviewComments, signatures } from "@/db/schema";
+import { userNames } from "../people";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { sectionLabel } from "@/lib/validation/filings";
@@ -12,30 +14,14 @@ import { filingRunOf } from "../runs";
 import { runFreshnessOf } from "../run-freshness";
 import { FilingRowStatus, PersonRef, SignatureView, CommentView, FilingDetail, FilingVersionSummary, PeriodFiling, FilingRow, PeriodRow, SignatureRow } from "./types";
 
-export async function names(ids: (string | null | undefined)[]): Promise<Map<string, string>> {
-  const wanted = [...new Set(ids.filter((x): x is string => !!x))];
-  if (wanted.length === 0) return new Map();
-  const rows = await getDb().select({ id: users.id, name: users.name }).from(users).where(inArray(users.id, wanted));
-  return new Map(rows.map((r) => [r.id, r.name]));
-}
 const ref = (id: string, byId: Map<string, string>): PersonRef => ({ id, name: byId.get(id) ?? "Former member" });
 
 export async function findRow(actor: Actor, filingId: string): Promise<FilingRow> {
-  const [row] = await getDb()
-    .select()
-    .from(filings)
-    .where(and(eq(filings.id, filingId), eq(filings.firmId, actor.firmId)));
-  if (!row) throw new AppError("not_found:filing", "No such filing.");
-  return row;
+  return firmRow(filings, actor.firmId, filingId, "not_found:filing", "No such filing.");
 }
 
 export async function findPeriod(actor: Actor, periodId: string): Promise<PeriodRow> {
-  const [row] = await getDb()
-    .select()
-    .from(reportingPeriods)
-    .where(and(eq(reportingPeriods.id, periodId), eq(reportingPeriods.firmId, actor.firmId)));
-  if (!row) throw new AppError("not_found:period", "No such reporting period.");
-  return row;
+  return firmRow(reportingPeriods, actor.firmId, periodId, "not_found:period", "No such reporting period.");
 }
 
 export async function firmOf(actor: Actor) {
@@ -96,7 +82,7 @@ async function detail(actor: Actor, row: FilingRow): Promise<FilingDetail> {
       .where(and(eq(filings.id, row.previousId), eq(filings.firmId, actor.firmId)));
     previousVersion = prev?.version ?? null;
   }
-  const byId = await names([row.preparedBy, row.submittedBy, ...sigs.map((s) => s.signerId), ...comments.map((c) => c.authorId)]);
+  const byId = await userNames([row.preparedBy, row.submittedBy, ...sigs.map((s) => s.signerId), ...comments.map((c) => c.authorId)]);
   const content = presentContent(row);
   return {
     id: row.id,
@@ -161,7 +147,7 @@ export async function listFilingVersions(actor: Actor, periodId: string): Promis
     actor,
     rows.map((r) => r.id),
   );
-  const byId = await names([...rows.map((r) => r.preparedBy), ...sigs.map((s) => s.signerId)]);
+  const byId = await userNames([...rows.map((r) => r.preparedBy), ...sigs.map((s) => s.signerId)]);
   return rows.map((r) => ({
     id: r.id,
     version: r.version,

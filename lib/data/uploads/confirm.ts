@@ -6,6 +6,7 @@
  * the data-quality refresh. A retried confirmation clears what an interrupted one staged and starts again.
  */
 import "server-only";
+import { firmRow } from "@/lib/data/firm-row";
 import { and, count, eq, inArray, max, sql } from "drizzle-orm";
 import { getDb, type Database, type Tx } from "@/db/client";
 import { instruments, pricePoints, uploads } from "@/db/schema";
@@ -57,8 +58,7 @@ function stop(how: ConfirmHow) {
 /** Store an upload's rows and make them count. Confirmed already (a retry after the last step): its stored result. */
 export async function applyConfirm(firmId: string, uploadId: string, how: ConfirmHow): Promise<ConfirmResult> {
   const db = getDb();
-  const [row] = await db.select().from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, firmId)));
-  if (!row) throw new AppError("not_found:upload", "No such upload.");
+  const row = await firmRow(uploads, firmId, uploadId, "not_found:upload", "No such upload.", db);
   if (row.status === "confirmed" && row.summary && typeof row.summary.confirmed === "object") return { status: "confirmed", ...(row.summary.confirmed as object) } as ConfirmResult;
   if (row.status !== how.from) throw new AppError("conflict:upload", `This upload is ${row.status}; it was confirmed or cancelled meanwhile.`);
   if (row.kind === "positions") return confirmPositions(db, row, how);

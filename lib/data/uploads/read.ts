@@ -4,6 +4,7 @@
  * waiting for a person ("pending"). Safe to run again: a read of an upload no longer "reading" does nothing.
  */
 import "server-only";
+import { firmRow } from "@/lib/data/firm-row";
 import { and, eq, inArray, ne } from "drizzle-orm";
 import { getDb, type Database, type Tx } from "@/db/client";
 import { capitalRuleProfiles, firms, instruments, pricePoints, reportingPeriods, uploads, users } from "@/db/schema";
@@ -107,8 +108,7 @@ export async function markReadFailed(db: Database, firmId: string, uploadId: str
 export async function readUpload(firmId: string, uploadId: string, how: ReadHow = {}): Promise<ReadOutcome> {
   const db = getDb();
   const report = how.progress ?? (async () => undefined);
-  const [row] = await db.select().from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.firmId, firmId)));
-  if (!row) throw new AppError("not_found:upload", "No such upload.");
+  const row = await firmRow(uploads, firmId, uploadId, "not_found:upload", "No such upload.", db);
   if (row.status !== "reading") return { status: row.status };
   const kind = row.kind as UploadKind;
   const stillOurs = () => !how.signal?.aborted;
