@@ -1,32 +1,47 @@
-// xlsx-populate publishes no types; this covers the part Ballast uses.
+// xlsx-populate publishes no types; this covers the part Ballast uses (the upload readers, the filing pack and its
+// template script). reports/xlsx/workbook-types.ts gives these the filing pack's names.
 declare module "xlsx-populate" {
-  interface Cell {
+  export type StyleValues = Record<string, unknown>;
+  export interface Cell {
     value(): unknown;
     value(value: unknown): Cell;
     style(name: string): unknown;
     style(name: string, value: unknown): Cell;
-    style(styles: Record<string, unknown>): Cell;
+    style(styles: StyleValues): Cell;
     formula(): string | undefined;
     address(): string;
     rowNumber(): number;
     columnNumber(): number;
   }
-  interface Range {
+  export interface Range {
     value(): unknown[][];
     value(values: unknown[][]): Range;
     style(name: string, value: unknown): Range;
-    style(styles: Record<string, unknown>): Range;
+    style(styles: StyleValues): Range;
     cells(): Cell[][];
+    merged(): boolean;
+    merged(merged: boolean): Range;
   }
-  interface Column {
+  export interface Column {
     width(): number | undefined;
     width(width: number): Column;
+    style(name: string): unknown;
+    style(name: string, value: unknown): Column;
+    style(styles: StyleValues): Column;
   }
-  interface Row {
+  export interface Row {
     cell(column: number | string): Cell;
+    height(): number | undefined;
     height(height: number): Row;
   }
-  interface Sheet {
+  export interface PaneOptions {
+    state?: "split" | "frozen" | "frozenSplit";
+    topLeftCell?: string;
+    xSplit?: number;
+    ySplit?: number;
+    activePane?: string;
+  }
+  export interface Sheet {
     name(): string;
     name(name: string): Sheet;
     cell(address: string): Cell;
@@ -38,13 +53,17 @@ declare module "xlsx-populate" {
     row(row: number): Row;
     freezePanes(columns: number, rows: number): Sheet;
     freezePanes(address: string): Sheet;
+    panes(): PaneOptions | undefined;
+    active(): boolean;
+    active(active: true): Sheet;
+    definedName(name: string, refersTo: string): Sheet;
     delete(): Workbook;
   }
-  interface Workbook {
+  export interface Workbook {
     sheets(): Sheet[];
     sheet(nameOrIndex: string | number): Sheet | undefined;
     addSheet(name: string, indexOrBefore?: number | string): Sheet;
-    definedName(name: string): Cell | Range | Sheet | undefined;
+    definedName(name: string): Cell | undefined; // Ballast's workbooks name single cells only
     definedName(name: string, refersTo: Cell | Range | Sheet | string): Workbook;
     outputAsync(options?: { type?: string; password?: string }): Promise<Buffer | Uint8Array>;
   }

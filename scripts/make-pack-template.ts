@@ -14,28 +14,13 @@ import XlsxPopulate from "xlsx-populate";
 import JSZip from "jszip";
 import { DRAFT_CAUTION } from "@/app/_components/draft-caution";
 import {
-  BASE_FONT,
-  CAUTION_ROW,
-  CAUTION_STYLE,
-  COLUMNS,
-  DRAFT_STYLE,
-  FIRST_DATA_ROW,
-  FREEZE,
-  HEADER_ROW,
-  HEADER_STYLE,
-  MARKING_ROW,
-  NUMBER_FORMATS,
-  SHEETS,
-  SUMMARY_CAUTION_NAME,
-  SUMMARY_ITEMS,
-  SUMMARY_MARKING_NAME,
-  SUMMARY_TITLE_NAME,
-  SUMMARY_VAR_COLUMNS,
-  SUMMARY_VAR_HEADER_ROW,
-  SUMMARY_VAR_TITLE_ROW,
-  TITLE_ROW,
-  TITLE_STYLE,
-  headerText,
+  // the rows every sheet starts with, and the frozen panes
+  TITLE_ROW, MARKING_ROW, CAUTION_ROW, HEADER_ROW, FIRST_DATA_ROW, FREEZE,
+  // styles and number formats
+  BASE_FONT, TITLE_STYLE, DRAFT_STYLE, CAUTION_STYLE, HEADER_STYLE, NUMBER_FORMATS,
+  // the sheets, their columns and the Summary sheet's named cells
+  SHEETS, COLUMNS, headerText, SUMMARY_ITEMS, SUMMARY_TITLE_NAME, SUMMARY_MARKING_NAME, SUMMARY_CAUTION_NAME,
+  SUMMARY_VAR_COLUMNS, SUMMARY_VAR_HEADER_ROW, SUMMARY_VAR_TITLE_ROW,
 } from "@/reports/xlsx/layout";
 import { asPackWorkbook } from "@/reports/xlsx/workbook-types";
 import { withSharedStyles } from "@/reports/xlsx/shared-styles";

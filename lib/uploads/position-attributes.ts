@@ -219,26 +219,14 @@ export function standardisedRequirementProblems(
   });
 }
 
-/** The positions table's columns for the attributes, in POSITION_ATTRIBUTE_KEYS order (db/schema/data.ts). */
-const SQL_COLUMN: Record<PositionAttributeField, string> = {
-  instrumentType: "instrument_type",
-  issuerCategory: "issuer_category",
-  maturityDate: "maturity_date",
-  residualMaturityYears: "residual_maturity_years",
-  coupon: "coupon",
-  nextResetDate: "next_reset_date",
-  nextResetYears: "next_reset_years",
-  modifiedDuration: "modified_duration",
-  nationalMarket: "national_market",
-  commodity: "commodity",
-  notional: "notional",
-  underlyingMaturityYears: "underlying_maturity_years",
-  underlying: "underlying",
-  optionKind: "option_type",
-  strike: "strike",
-  underlyingPrice: "underlying_price",
-};
-export const ATTRIBUTE_SQL_COLUMNS: readonly string[] = POSITION_ATTRIBUTE_KEYS.map((k) => SQL_COLUMN[k]);
+/**
+ * The positions table's column for an attribute (db/schema/data.ts): the file's column name (POSITION_COLUMNS),
+ * except the option kind, stored as option_type.
+ */
+function sqlColumn(field: PositionAttributeField): string {
+  return field === "optionKind" ? "option_type" : POSITION_COLUMNS[field];
+}
+export const ATTRIBUTE_SQL_COLUMNS: readonly string[] = POSITION_ATTRIBUTE_KEYS.map(sqlColumn);
 
 /** A row's attribute values in ATTRIBUTE_SQL_COLUMNS order (null where absent). */
 export function attributeSqlValues(attributes: PositionAttributes | undefined): (string | number | null)[] {
