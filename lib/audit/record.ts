@@ -15,8 +15,16 @@ export interface AuditInput {
   at?: string;
 }
 
+/** Who an audit record names: a person of the firm, or a part of Ballast acting on its own (no user id). */
+export type AuditActor = Pick<Actor, "name" | "firmId"> & { userId: string | null };
+
+/** The actor of what Ballast does on its own schedule for a firm (opening a period, sending a reminder …). */
+export function scheduledActor(firmId: string, name: string): AuditActor {
+  return { firmId, userId: null, name };
+}
+
 /** Record who did what, when, on which record. */
-export async function recordAudit(tx: Tx | Database, actor: Pick<Actor, "userId" | "name" | "firmId">, event: AuditInput): Promise<void> {
+export async function recordAudit(tx: Tx | Database, actor: AuditActor, event: AuditInput): Promise<void> {
   await tx.insert(auditEvents).values({
     firmId: actor.firmId,
     actorId: actor.userId,

@@ -6,8 +6,9 @@
 import "server-only";
 import { and, eq } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { auditEvents, calendarSettings, firms, reportingPeriods } from "@/db/schema";
+import { calendarSettings, firms, reportingPeriods } from "@/db/schema";
 import { getCalendar } from "@/lib/data/periods";
+import { recordAudit, scheduledActor } from "@/lib/audit/record";
 import { deadlineFor, latestMonthEnd } from "./deadline";
 
 export const SCHEDULER_NAME = "Calendar (automatic)";
@@ -37,10 +38,7 @@ export async function openDuePeriods(asOf: string): Promise<{ firmId: string; pe
         .onConflictDoNothing()
         .returning({ id: reportingPeriods.id });
       if (!period) return false;
-      await tx.insert(auditEvents).values({
-        firmId: row.firmId,
-        actorId: null,
-        actorName: SCHEDULER_NAME,
+      await recordAudit(tx, scheduledActor(row.firmId, SCHEDULER_NAME), {
         at: new Date().toISOString(),
         action: "period.open",
         entityType: "reporting_period",

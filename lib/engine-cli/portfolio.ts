@@ -240,25 +240,36 @@ function varCommand(argv: string[]): void {
   });
 }
 
-function backtestCommand(argv: string[]): void {
-  const options = parseOptions(argv, ["input", "confidence"], ["json"]);
+/**
+ * The --input CSV of dated figures: its date column (ISO dates, increasing) and the named number columns, in that
+ * order; with `atLeast`, fewer rows than that is refused before any row is read.
+ */
+function readDatedColumns(options: CliOptions, names: string[], atLeast?: { rows: number; what: string }): { dates: string[]; values: number[][] } {
   const flag = "--input";
   const table = readCsv(stringOption(options, "input"), flag);
   const iDate = column(table, "date", flag, true);
-  const iPnl = column(table, "pnl", flag, true);
-  const iVar = column(table, "var", flag, true);
-  const confidence = numberOption(options, "confidence", (v) => v > 0 && v < 1, "a number between 0 and 1, e.g. 0.99") ?? 0.99;
+  const indexes = names.map((name) => column(table, name, flag, true));
+  if (atLeast && table.rows.length < atLeast.rows) throw new CliError(`${flag}: ${atLeast.what} needs at least ${atLeast.rows} rows (date,${names.join(",")}), found ${table.rows.length}`);
   const dates: string[] = [];
-  const pnl: number[] = [];
-  const vars: number[] = [];
+  const values: number[][] = names.map(() => []);
   table.rows.forEach((row, r) => {
     dates.push(checkDate(row[iDate], r, flag));
-    pnl.push(parseNumber(row[iPnl], r, "pnl"));
-    const v = parseNumber(row[iVar], r, "var");
-    if (v < 0) throw new CliError(`${flag}: row ${r + 2}, column "var": VaR is a positive loss, not ${v}`);
-    vars.push(v);
+    indexes.forEach((i, k) => values[k].push(parseNumber(row[i], r, names[k])));
   });
   for (let i = 1; i < dates.length; i++) if (dates[i] <= dates[i - 1]) throw new CliError(`${flag}: row ${i + 2}: dates must increase (${dates[i - 1]} then ${dates[i]})`);
+  return { dates, values };
+}
+
+function backtestCommand(argv: string[]): void {
+  const options = parseOptions(argv, ["input", "confidence"], ["json"]);
+  const confidence = numberOption(options, "confidence", (v) => v > 0 && v < 1, "a number between 0 and 1, e.g. 0.99") ?? 0.99;
+  const {
+    dates,
+    values: [pnl, vars],
+  } = readDatedColumns(options, ["pnl", "var"]);
+  vars.forEach((v, r) => {
+    if (v < 0) throw new CliError(`--input: row ${r + 2}, column "var": VaR is a positive loss, not ${v}`);
+  });
   const r = runBacktest(dates, pnl, vars, confidence);
   printJson({
     days: r.days,
@@ -282,25 +293,14 @@ function backtestCommand(argv: string[]): void {
 
 function capitalCommand(argv: string[]): void {
   const options = parseOptions(argv, ["input", "exceptions", "mc", "ms"], ["json"]);
-  const flag = "--input";
-  const table = readCsv(stringOption(options, "input"), flag);
-  const iDate = column(table, "date", flag, true);
-  const iVar = column(table, "var", flag, true);
-  const iSvar = column(table, "svar", flag, true);
   const exceptions = numberOption(options, "exceptions", (v) => Number.isInteger(v) && v >= 0 && v <= 250, "a whole number from 0 to 250");
   const mc = numberOption(options, "mc", (v) => v > 0, "a positive multiplier");
   const ms = numberOption(options, "ms", (v) => v > 0, "a positive multiplier");
   const profile = BASEL_CAPITAL_PROFILE;
-  if (table.rows.length < profile.averagingDays) throw new CliError(`${flag}: capital needs at least ${profile.averagingDays} rows (date,var,svar), found ${table.rows.length}`);
-  const dates: string[] = [];
-  const vars: number[] = [];
-  const svars: number[] = [];
-  table.rows.forEach((row, r) => {
-    dates.push(checkDate(row[iDate], r, flag));
-    vars.push(parseNumber(row[iVar], r, "var"));
-    svars.push(parseNumber(row[iSvar], r, "svar"));
-  });
-  for (let i = 1; i < dates.length; i++) if (dates[i] <= dates[i - 1]) throw new CliError(`${flag}: row ${i + 2}: dates must increase (${dates[i - 1]} then ${dates[i]})`);
+  const {
+    dates,
+    values: [vars, svars],
+  } = readDatedColumns(options, ["var", "svar"], { rows: profile.averagingDays, what: "capital" });
   const result = capitalCharge({ varHistory: vars, stressedVarHistory: svars, exceptions: exceptions ?? 0, multiplier: mc, stressedMultiplier: ms }, profile);
   const { profile: used, ...terms } = result;
   printJson({

@@ -13,8 +13,9 @@
 import "server-only";
 import { and, eq, inArray, isNull, lte, or } from "drizzle-orm";
 import { getDb } from "@/db/client";
-import { auditEvents, calendarSettings, firms, memberships, reminderLog, users } from "@/db/schema";
+import { calendarSettings, firms, memberships, reminderLog, users } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
+import { recordAudit, scheduledActor } from "@/lib/audit/record";
 import { parseRoles } from "@/lib/auth/roles";
 import { openDuePeriods } from "@/lib/calendar/auto-open";
 import { businessDaysBetween } from "@/lib/calendar/deadline";
@@ -187,10 +188,7 @@ export async function runReminders(options: RunOptions = {}): Promise<RunResult>
             .update(reminderLog)
             .set({ status: "sent", sentAt: runAt.toISOString(), attempts: row.attempts + tries, lastError: null, nextAttemptAt: null })
             .where(eq(reminderLog.id, row.id));
-          await tx.insert(auditEvents).values({
-            firmId: firm.id,
-            actorId: null,
-            actorName: SCHEDULER_ACTOR_NAME,
+          await recordAudit(tx, scheduledActor(firm.id, SCHEDULER_ACTOR_NAME), {
             at: new Date().toISOString(),
             action: "reminder.sent",
             entityType: "reporting_period",
@@ -213,10 +211,7 @@ export async function runReminders(options: RunOptions = {}): Promise<RunResult>
             .set({ status: givingUp ? "failed" : "retry", attempts, lastError: reason, nextAttemptAt: givingUp ? null : retryAt.toISOString() })
             .where(eq(reminderLog.id, row.id));
           if (givingUp) {
-            await tx.insert(auditEvents).values({
-              firmId: firm.id,
-              actorId: null,
-              actorName: SCHEDULER_ACTOR_NAME,
+            await recordAudit(tx, scheduledActor(firm.id, SCHEDULER_ACTOR_NAME), {
               at: new Date().toISOString(),
               action: "reminder.failed",
               entityType: "reporting_period",

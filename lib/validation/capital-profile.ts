@@ -149,6 +149,11 @@ export function fromPercent(percentValue: number): number {
   return Number((percentValue / 100).toPrecision(12));
 }
 
+/** A maturity band's label, zone and edges, the same in the form and the engine (the high-coupon edge only where the row has one). */
+function bandRow(b: Pick<StandardisedProfile["interestRate"]["bands"][number], "band" | "zone" | "highCouponUpToYears" | "lowCouponUpToYears">) {
+  return { band: b.band, zone: b.zone, ...(b.highCouponUpToYears !== undefined ? { highCouponUpToYears: b.highCouponUpToYears } : {}), lowCouponUpToYears: b.lowCouponUpToYears };
+}
+
 /** The form's standardised section for an engine profile (decimals → percent). */
 export function standardisedFormOf(p: StandardisedProfile): StandardisedFormValues {
   const ir = p.interestRate;
@@ -159,14 +164,7 @@ export function standardisedFormOf(p: StandardisedProfile): StandardisedFormValu
     qualifying: ir.specific.qualifying.map((t) => ({ upToMonths: t.upToYears === null ? null : Number((t.upToYears * 12).toPrecision(12)), ratePercent: toPercent(t.rate) })),
     otherPercent: toPercent(ir.specific.other),
     couponThresholdPercent: ir.couponThresholdPercent,
-    bands: ir.bands.map((b) => ({
-      band: b.band,
-      zone: b.zone,
-      weightPercent: toPercent(b.weight),
-      ...(b.highCouponUpToYears !== undefined ? { highCouponUpToYears: b.highCouponUpToYears } : {}),
-      lowCouponUpToYears: b.lowCouponUpToYears,
-      yieldChangePercent: b.yieldChange,
-    })),
+    bands: ir.bands.map((b) => ({ ...bandRow(b), weightPercent: toPercent(b.weight), yieldChangePercent: b.yieldChange })),
     verticalMaturityPercent: toPercent(ir.verticalMaturity),
     verticalDurationPercent: toPercent(ir.verticalDuration),
     withinZone1Percent: toPercent(ir.withinZone.zone1),
@@ -209,14 +207,7 @@ export function engineStandardisedProfile(v: StandardisedFormValues, showRwa: bo
         other: fromPercent(v.otherPercent),
       },
       couponThresholdPercent: v.couponThresholdPercent,
-      bands: v.bands.map((b) => ({
-        band: b.band,
-        zone: b.zone,
-        weight: fromPercent(b.weightPercent),
-        ...(b.highCouponUpToYears !== undefined ? { highCouponUpToYears: b.highCouponUpToYears } : {}),
-        lowCouponUpToYears: b.lowCouponUpToYears,
-        yieldChange: b.yieldChangePercent,
-      })),
+      bands: v.bands.map((b) => ({ ...bandRow(b), weight: fromPercent(b.weightPercent), yieldChange: b.yieldChangePercent })),
       verticalMaturity: fromPercent(v.verticalMaturityPercent),
       verticalDuration: fromPercent(v.verticalDurationPercent),
       withinZone: { zone1: fromPercent(v.withinZone1Percent), zone2: fromPercent(v.withinZone2Percent), zone3: fromPercent(v.withinZone3Percent) },

@@ -291,30 +291,24 @@ export function correlationForm(cov: Float64Array, w: Float64Array, k: number, s
     if (d > 0) scratch[i] = w[i] / Math.sqrt(d);
     else { scratch[i] = 0; zeroVar += w[i] * w[i]; }
   }
-  let s = 0;
-  for (let i = 0; i < k; i++) {
-    const ai = scratch[i];
-    if (ai === 0) continue;
-    const row = i * k;
-    let t = 0;
-    for (let j = 0; j < i; j++) t += cov[row + j] * scratch[j];
-    s += ai * (2 * t + cov[row + i] * ai);
-  }
-  return s + zeroVar;
+  return symmetricForm(cov, scratch, k) + zeroVar;
 }
 
 /** wᵀ R w for an explicit correlation matrix (full storage). */
 export function matrixForm(r: SymmetricMatrix, w: Float64Array): number {
-  const k = r.size;
-  const v = r.values;
+  return symmetricForm(r.values, w, r.size);
+}
+
+/** xᵀ V x for a symmetric k × k matrix in full row-major storage, reading its lower triangle (zero entries of x skipped). */
+function symmetricForm(v: Float64Array, x: Float64Array, k: number): number {
   let s = 0;
   for (let i = 0; i < k; i++) {
-    const wi = w[i];
-    if (wi === 0) continue;
+    const xi = x[i];
+    if (xi === 0) continue;
     const row = i * k;
     let t = 0;
-    for (let j = 0; j < i; j++) t += v[row + j] * w[j];
-    s += wi * (2 * t + v[row + i] * wi);
+    for (let j = 0; j < i; j++) t += v[row + j] * x[j];
+    s += xi * (2 * t + v[row + i] * xi);
   }
   return s;
 }
