@@ -81,22 +81,10 @@ function view(row: Row, names: Map<string, string>): CapitalProfileVersion {
   const standardised = standardisedProfileOfRow(row);
   const regimes = regimesOf(row);
   const filedRegime = filedOf(row);
-  return {
-    id: row.id,
-    version: row.version,
-    active: row.active,
-    name: row.name,
-    regimes,
-    filedRegime,
-    showRwa: row.showRwa,
-    reason: row.reason,
-    previousId: row.previousId,
-    createdBy: row.createdBy ? { id: row.createdBy, name: names.get(row.createdBy) ?? "(former member)" } : null,
-    createdAt: row.createdAt,
-    internal,
-    standardised,
-    form: { name: row.name, reason: "", regimes, filedRegime, showRwa: row.showRwa, internal, standardised: standardisedFormOf(standardised) },
-  };
+  const { id, version, active, name, showRwa, reason, previousId, createdAt } = row;
+  const createdBy = row.createdBy ? { id: row.createdBy, name: names.get(row.createdBy) ?? "(former member)" } : null;
+  const form = { name, reason: "", regimes, filedRegime, showRwa, internal, standardised: standardisedFormOf(standardised) };
+  return { id, version, active, name, regimes, filedRegime, showRwa, reason, previousId, createdBy, createdAt, internal, standardised, form };
 }
 
 

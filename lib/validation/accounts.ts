@@ -19,21 +19,15 @@ export const inviteSchema = newMemberSchema;
 export type InviteInput = z.infer<typeof inviteSchema>;
 
 /** Choosing a password through a link: the new password typed twice. */
-export const tokenPasswordSchema = withNewPassword(
-  { token: z.string().min(1, "The link is missing its token.").max(100, "The link is not valid.") },
-  "password",
-  "The two passwords differ.",
-);
+const linkToken = z.string().min(1, "The link is missing its token.").max(100, "The link is not valid.");
+export const tokenPasswordSchema = withNewPassword({ token: linkToken }, "password", "The two passwords differ.");
 export type TokenPasswordInput = z.infer<typeof tokenPasswordSchema>;
 
 export const resetRequestSchema = z.object({ email });
 export type ResetRequestInput = z.infer<typeof resetRequestSchema>;
 
-export const changePasswordSchema = withNewPassword(
-  { currentPassword: z.string().min(1, "Enter your current password.").max(200, "That password is too long.") },
-  "newPassword",
-  "The two new passwords differ.",
-);
+const currentPassword = z.string().min(1, "Enter your current password.").max(200, "That password is too long.");
+export const changePasswordSchema = withNewPassword({ currentPassword }, "newPassword", "The two new passwords differ.");
 export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
 
 export const firstRunSchema = withNewPassword(
