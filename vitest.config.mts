@@ -1,5 +1,6 @@
 import { defineConfig } from "vitest/config";
 import path from "node:path";
+import { availableParallelism } from "node:os";
 import { fileURLToPath } from "node:url";
 
 const __dirname = path.dirname(fileURLToPath(import.meta.url));
@@ -24,6 +25,9 @@ export default defineConfig({
     // The hook's limit is there to catch a hang, not to measure speed (speed belongs in npm run bench).
     hookTimeout: 180_000,
     pool: "forks",
+    // One worker per core (vitest's default leaves one core idle, which on a 2-core machine runs the files one at a
+    // time): every file opens its own copy of a template database and listens on port 0, so files run side by side.
+    maxWorkers: availableParallelism(),
     reporters: ["default", ["json", { outputFile: ".test-output/vitest.json" }]],
   },
 });
