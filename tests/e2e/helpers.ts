@@ -1,4 +1,5 @@
 import { request as playwrightRequest, type APIRequestContext, type Page, expect } from "@playwright/test";
+import { readFileSync } from "node:fs";
 import { createClient } from "@libsql/client";
 import { DEMO_PASSWORD, DEMO_USERS, SECOND_FIRM_USERS } from "@/db/seed";
 
@@ -35,6 +36,33 @@ export async function signedInApi(email: string | null, password = DEMO_PASSWORD
   const session = await (await api.get("/api/auth/session")).json();
   expect(session?.user?.email, `signed in as ${email}`).toBe(email);
   return api;
+}
+
+/** A CSV file as the upload button takes it. */
+export const csv = (name: string, text: string) => ({ name, mimeType: "text/csv", buffer: Buffer.from(text) });
+
+/** A demo firm's file from templates/demo/, as text. */
+export const demoFile = (name: string) => readFileSync(`templates/demo/${name}`, "utf8");
+
+/**
+ * Northmoor's demo November book with its first position resized by `by` units and that position's market value
+ * scaled with it (its own ratio of value to quantity × price kept), so that the file's SHA-256 is new; with the
+ * number of positions it holds.
+ */
+export function resizedDemoBook(by: number): { text: string; positions: number } {
+  const lines = demoFile("northmoor-positions-2026-11.csv").trimEnd().split("\n");
+  const [head, first, ...rest] = lines;
+  const cells = first.split(",");
+  const quantity = Number(cells[6]) + by;
+  cells[6] = String(quantity);
+  cells[8] = (quantity * Number(cells[7]) * (Number(cells[8]) / ((quantity - by) * Number(cells[7])))).toFixed(2);
+  return { text: [head, cells.join(","), ...rest].join("\n") + "\n", positions: lines.length - 1 };
+}
+
+/** The id of the signed-in firm's reporting period ending `periodEnd` (YYYY-MM-DD). */
+export async function periodIdEnding(api: APIRequestContext, periodEnd: string): Promise<string> {
+  const periods = (await (await api.get("/api/periods")).json()).periods as { id: string; periodEnd: string }[];
+  return periods.find((p) => p.periodEnd === periodEnd)!.id;
 }
 
 /**

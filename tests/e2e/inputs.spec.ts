@@ -7,12 +7,11 @@
 import { test, expect } from "@playwright/test";
 import { readFileSync } from "node:fs";
 import { DataPage } from "./pages/data";
-import { DEMO_USERS, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { csv, DEMO_USERS, periodIdEnding, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
 
 const SCREENS = "test-results/screens";
 const OFFICER = DEMO_USERS[1].email; // Northmoor's compliance officer
 const PELLAM = SECOND_FIRM_USERS.find((u) => u.email === "june.okafor@pellam.example")!.email; // officer and analyst
-const csv = (name: string, text: string) => ({ name, mimeType: "text/csv", buffer: Buffer.from(text) });
 
 test.describe.serial("inputs and stale runs", () => {
   test("the Data page explains every positions column, with units, examples and the asset-class spellings", async ({ page }) => {
@@ -51,15 +50,12 @@ test.describe.serial("inputs and stale runs", () => {
     await expect(problems).toContainText("it looks like a value in USD: add a market_value_currency column");
     await expect(problems).not.toContainText("is not a date");
     await expect(problems).not.toContainText("is not an asset class");
-    await expect(data.confirmButton()).toBeDisabled();
-    await page.screenshot({ path: `${SCREENS}/upload-sek-refused.png`, fullPage: true });
-    await data.cancel();
+    await data.cancelRefused(() => page.screenshot({ path: `${SCREENS}/upload-sek-refused.png`, fullPage: true }));
   });
 
   test("restated positions make the period's runs stale: badge, notice, step, the draft's notice, and the filing choice refused", async ({ page }) => {
     const api = await signedInApi(PELLAM);
-    const periods = (await (await api.get("/api/periods")).json()).periods as { id: string; periodEnd: string }[];
-    const periodId = periods.find((p) => p.periodEnd === "2026-11-30")!.id;
+    const periodId = await periodIdEnding(api, "2026-11-30");
     const completedRun = async () => {
       const started = await api.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
       expect(started.status(), await started.text()).toBe(202);

@@ -8,12 +8,11 @@
 import { test, expect } from "@playwright/test";
 import { readFileSync } from "node:fs";
 import { DataPage } from "./pages/data";
-import { DEMO_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { csv, DEMO_USERS, periodIdEnding, signInThroughPage, signedInApi } from "./helpers";
 
 const OFFICER = DEMO_USERS.find((u) => u.email === "tomas.reyne@northmoor.example")!.email;
 const ANALYST = DEMO_USERS.find((u) => u.email === "priya.castell@northmoor.example")!.email;
 const SCREENS = "test-results/screens";
-const csv = (name: string, text: string) => ({ name, mimeType: "text/csv", buffer: Buffer.from(text) });
 
 test.describe.configure({ mode: "serial" });
 
@@ -77,15 +76,12 @@ test.describe("standardised capital", () => {
     await expect(problem.getByRole("cell").first()).toHaveText("3");
     await expect(problem).toContainText("column residual_maturity_years: a bond needs a residual maturity (residual_maturity_years or maturity_date)");
     await expect(problem).toContainText("the firm files the standardised capital figure");
-    await expect(data.confirmButton()).toBeDisabled();
-    await page.screenshot({ path: `${SCREENS}/capital-positions-refused.png`, fullPage: true });
-    await data.cancel();
+    await data.cancelRefused(() => page.screenshot({ path: `${SCREENS}/capital-positions-refused.png`, fullPage: true }));
   });
 
   test("the November run's Capital tab shows every building block line by line beside the VaR-based figure", async ({ page }) => {
     const api = await signedInApi(ANALYST);
-    const periods = (await (await api.get("/api/periods")).json()).periods as { id: string; periodEnd: string }[];
-    const periodId = periods.find((p) => p.periodEnd === "2026-11-30")!.id;
+    const periodId = await periodIdEnding(api, "2026-11-30");
     const started = await api.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
     expect(started.status(), await started.text()).toBe(202);
     const runId = (await started.json()).run.id as string;

@@ -1,40 +1,25 @@
 import { test, expect } from "@playwright/test";
-import { readFileSync } from "node:fs";
 import { DataPage } from "./pages/data";
-import { DEMO_USERS, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { csv, demoFile, DEMO_USERS, resizedDemoBook, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
 
 const officer = DEMO_USERS[1].email;
 const analyst = DEMO_USERS[2].email;
-const csv = (name: string, text: string) => ({ name, mimeType: "text/csv", buffer: Buffer.from(text) });
-const demoFile = (name: string) => readFileSync(`templates/demo/${name}`, "utf8");
 
 test.describe.serial("month-end data intake", () => {
   test("the compliance officer sees a bad file's problems, cancels it, then confirms a good one", async ({ page }) => {
     await signInThroughPage(page, officer);
     const data = new DataPage(page);
-    await data.open();
-    await data.upload("positions", csv("northmoor-positions-bad.csv", demoFile("northmoor-positions-bad.csv")));
-    const problems = data.problems();
-    await expect(problems).toContainText('currency "EUX" is not an ISO 4217 currency code');
-    await expect(problems).toContainText('quantity "12O0" is not a number');
+    const problems = await data.uploadBadDemoBook();
     await expect(problems).toContainText("2026-02-30 does not exist");
     await expect(problems).toContainText("is in the future");
     await expect(problems).toContainText("duplicate position");
-    await expect(page.getByRole("button", { name: "Confirm", exact: true })).toBeDisabled();
-    await page.screenshot({ path: "test-results/screens/upload-bad-positions.png", fullPage: true });
-    await page.getByRole("button", { name: "Cancel upload" }).click();
-    await expect(page.getByTestId("preview-message")).toHaveText("Cancelled. Nothing from this file was stored.");
+    await data.cancelRefused(() => page.screenshot({ path: "test-results/screens/upload-bad-positions.png", fullPage: true }));
 
     // A corrected book for the month: the demo file with one position resized (so it is a new file).
-    const lines = demoFile("northmoor-positions-2026-11.csv").trimEnd().split("\n");
-    const [head, first, ...rest] = lines;
-    const cells = first.split(",");
-    const quantity = Number(cells[6]) + 10;
-    cells[6] = String(quantity);
-    cells[8] = (quantity * Number(cells[7]) * (Number(cells[8]) / ((quantity - 10) * Number(cells[7])))).toFixed(2);
+    const book = resizedDemoBook(10);
     await data.open();
-    await data.upload("positions", csv("northmoor-positions-2026-11-v2.csv", [head, cells.join(","), ...rest].join("\n") + "\n"));
-    await expect(page.getByTestId("total-positions")).toHaveText(String(lines.length - 1));
+    await data.upload("positions", csv("northmoor-positions-2026-11-v2.csv", book.text));
+    await expect(page.getByTestId("total-positions")).toHaveText(String(book.positions));
     await expect(page.getByTestId("rows-table")).toBeVisible();
     await page.screenshot({ path: "test-results/screens/upload-preview.png", fullPage: true });
     await data.confirm();

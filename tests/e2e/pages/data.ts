@@ -1,4 +1,5 @@
 import { expect, type Page } from "@playwright/test";
+import { csv, demoFile } from "../helpers";
 
 /** The Data page and the upload preview. */
 export class DataPage {
@@ -23,6 +24,16 @@ export class DataPage {
     return this.page.getByTestId("problems-table");
   }
 
+  /** Upload the demo's bad positions file (templates/demo/northmoor-positions-bad.csv); its first problems are named. */
+  async uploadBadDemoBook() {
+    await this.open();
+    await this.upload("positions", csv("northmoor-positions-bad.csv", demoFile("northmoor-positions-bad.csv")));
+    const problems = this.problems();
+    await expect(problems).toContainText('currency "EUX" is not an ISO 4217 currency code');
+    await expect(problems).toContainText('quantity "12O0" is not a number');
+    return problems;
+  }
+
   async confirm() {
     const acknowledge = this.page.getByLabel(/I have read the \d+ warnings?/);
     if (await acknowledge.count()) await acknowledge.check();
@@ -33,6 +44,13 @@ export class DataPage {
 
   confirmButton() {
     return this.page.getByRole("button", { name: "Confirm", exact: true });
+  }
+
+  /** A refused file's preview: Confirm stays disabled; `screenshot` is taken, then the upload is cancelled. */
+  async cancelRefused(screenshot: () => Promise<unknown>) {
+    await expect(this.confirmButton()).toBeDisabled();
+    await screenshot();
+    await this.cancel();
   }
 
   /** Cancel the upload from its preview: nothing from the file is stored. */
