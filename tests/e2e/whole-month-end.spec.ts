@@ -8,7 +8,7 @@ import { MailPage } from "./pages/calendar";
 import { FilingPage } from "./pages/filing";
 import { MethodPage } from "./pages/method";
 import { RunPage } from "./pages/runs";
-import { DEMO_PASSWORD, DEMO_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { csv, demoFile, DEMO_PASSWORD, DEMO_USERS, resizedDemoBook, signInThroughPage, signedInApi } from "./helpers";
 
 /**
  * The whole month end of the demo firm Northmoor (period ending 2026-11-30), through the browser, as the people who
@@ -35,8 +35,6 @@ const SECRET = E2E_ENV.REMINDERS_SECRET!;
 const SCREENS = "test-results/screens";
 const FILING_REFERENCE = "FMA/2026/11/0042";
 
-const csv = (name: string, text: string) => ({ name, mimeType: "text/csv", buffer: Buffer.from(text) });
-const demoFile = (name: string) => readFileSync(`templates/demo/${name}`, "utf8");
 const status = (page: Page) => new FilingPage(page).status();
 
 let shot = 0;
@@ -62,6 +60,13 @@ test("the whole month end of Northmoor's November 2026, person by person", async
   let periodId = "";
   let runId = "";
   const positionsFile = "northmoor-positions-2026-11-v3.csv";
+  /** A step one person does in a signed-in page of their own, closed after it. */
+  const stepAs = (title: string, email: string, body: (page: Page) => Promise<void>) =>
+    test.step(title, async () => {
+      const page = await asPerson(browser, email);
+      await body(page);
+      await page.close();
+    });
 
   await test.step("the period is open and its reminders have gone out", async () => {
     const api = await signedInApi(OFFICER.email);
@@ -81,34 +86,20 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     expect((await novemberReminders()).length).toBeGreaterThan(0);
   });
 
-  await test.step("the compliance officer uploads a bad positions file, reads its problems and cancels it", async () => {
-    const page = await asPerson(browser, OFFICER.email);
+  await stepAs("the compliance officer uploads a bad positions file, reads its problems and cancels it", OFFICER.email, async (page) => {
     const data = new DataPage(page);
-    await data.open();
-    await data.upload("positions", csv("northmoor-positions-bad.csv", demoFile("northmoor-positions-bad.csv")));
-    const problems = data.problems();
-    await expect(problems).toContainText('currency "EUX" is not an ISO 4217 currency code');
-    await expect(problems).toContainText('quantity "12O0" is not a number');
-    await expect(data.confirmButton()).toBeDisabled();
-    await screen(page, "positions-bad-file");
-    await data.cancel();
-    await page.close();
+    await data.uploadBadDemoBook();
+    await data.cancelRefused(() => screen(page, "positions-bad-file"));
   });
 
-  await test.step("the compliance officer uploads a corrected book and confirms it", async () => {
-    const page = await asPerson(browser, OFFICER.email);
+  await stepAs("the compliance officer uploads a corrected book and confirms it", OFFICER.email, async (page) => {
     const data = new DataPage(page);
     // The demo book with its first position resized by 20 (uploads.spec used 10), so its SHA-256 is new.
-    const lines = demoFile("northmoor-positions-2026-11.csv").trimEnd().split("\n");
-    const [head, first, ...rest] = lines;
-    const cells = first.split(",");
-    const quantity = Number(cells[6]) + 20;
-    cells[6] = String(quantity);
-    cells[8] = (quantity * Number(cells[7]) * (Number(cells[8]) / ((quantity - 20) * Number(cells[7])))).toFixed(2);
+    const book = resizedDemoBook(20);
     await data.open();
-    await data.upload("positions", csv(positionsFile, [head, cells.join(","), ...rest].join("\n") + "\n"));
+    await data.upload("positions", csv(positionsFile, book.text));
     await expect(page).not.toHaveURL(/duplicate=1/);
-    await expect(page.getByTestId("total-positions")).toHaveText(String(lines.length - 1));
+    await expect(page.getByTestId("total-positions")).toHaveText(String(book.positions));
     await expect(page.getByTestId("rows-table")).toBeVisible();
     await screen(page, "positions-preview");
     await data.confirm();
@@ -117,11 +108,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await expect(rows.filter({ hasText: positionsFile })).toContainText("Confirmed");
     await expect(rows.filter({ hasText: "northmoor-positions-2026-11-v2.csv" }).or(rows.filter({ hasText: "northmoor-positions-2026-11.csv" })).first()).toContainText("Superseded");
     await screen(page, "data-page");
-    await page.close();
   });
 
-  await test.step("the risk analyst extends the price history (or is told the same file was taken before)", async () => {
-    const page = await asPerson(browser, ANALYST.email);
+  await stepAs("the risk analyst extends the price history (or is told the same file was taken before)", ANALYST.email, async (page) => {
     const data = new DataPage(page);
     await data.open();
     await data.upload("prices", csv("northmoor-prices-extension.csv", demoFile("northmoor-prices-extension.csv")));
@@ -131,11 +120,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
       await data.confirm();
     }
     await screen(page, "prices-extension");
-    await page.close();
   });
 
-  await test.step("the risk analyst starts a new method statement version, attaches evidence and approves it; the compliance head co-approves", async () => {
-    const page = await asPerson(browser, ANALYST.email);
+  await stepAs("the risk analyst starts a new method statement version, attaches evidence and approves it; the compliance head co-approves", ANALYST.email, async (page) => {
     const method = new MethodPage(page);
     await method.open();
     const approvedHeading = method.approvedHeading();
@@ -162,11 +149,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await expect(method.approvedHeading(next)).toBeVisible();
     await expect(page.getByText("EWMA, λ 0.96 (fixed)")).toBeVisible();
     await screen(page, "method-approved");
-    await page.close();
   });
 
-  await test.step("the risk analyst starts a run and follows it to completion", async () => {
-    const page = await asPerson(browser, ANALYST.email);
+  await stepAs("the risk analyst starts a run and follows it to completion", ANALYST.email, async (page) => {
     const runs = new RunPage(page);
     await runs.openPeriod(periodId, "November 2026");
     const rows = runs.rows();
@@ -185,11 +170,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await newest.getByRole("link").first().click();
     await expect(page).toHaveURL(/\/runs\/[0-9a-f-]{36}$/);
     runId = page.url().split("/").pop()!;
-    await page.close();
   });
 
-  await test.step("the risk analyst reads the results and chooses the run for the filing", async () => {
-    const page = await asPerson(browser, ANALYST.email);
+  await stepAs("the risk analyst reads the results and chooses the run for the filing", ANALYST.email, async (page) => {
     const run = new RunPage(page);
     await run.open(periodId, runId);
     await expect(page.getByTestId("var-table")).toBeVisible();
@@ -208,11 +191,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
 
     await run.open(periodId, runId);
     await run.useForFiling();
-    await page.close();
   });
 
-  await test.step("the compliance officer assembles the draft from the chosen run and submits it", async () => {
-    const page = await asPerson(browser, OFFICER.email);
+  await stepAs("the compliance officer assembles the draft from the chosen run and submits it", OFFICER.email, async (page) => {
     const filing = new FilingPage(page);
     await filing.open(periodId);
     // No filing yet: assemble it. A draft left by an earlier spec (from another run): rebuild it from the marked run.
@@ -246,22 +227,18 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await page.getByRole("button", { name: /^(Submit|Resubmit) for review$/ }).click();
     await expect(status(page)).toHaveText(/In review/);
     await expect(page.getByTestId("comments-general")).toContainText("November is ready for your review.");
-    await page.close();
   });
 
-  await test.step("the compliance head requests a change", async () => {
-    const page = await asPerson(browser, HEAD.email);
+  await stepAs("the compliance head requests a change", HEAD.email, async (page) => {
     const filing = new FilingPage(page);
     await filing.open(periodId);
     await expect(filing.status()).toHaveText(/In review/);
     await screen(page, "filing-in-review");
     await filing.requestChanges("backtest", "Explain every backtest exception, not only the first.");
     await screen(page, "filing-changes-requested");
-    await page.close();
   });
 
-  await test.step("the compliance officer answers and resubmits", async () => {
-    const page = await asPerson(browser, OFFICER.email);
+  await stepAs("the compliance officer answers and resubmits", OFFICER.email, async (page) => {
     const filing = new FilingPage(page);
     await filing.open(periodId);
     await expect(filing.status()).toHaveText(/Changes requested/);
@@ -272,11 +249,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await screen(page, "filing-answered");
     await page.getByRole("button", { name: "Resubmit for review" }).click();
     await expect(status(page)).toHaveText(/In review/);
-    await page.close();
   });
 
-  await test.step("the compliance head's wrong password is refused; she then signs with the attestation", async () => {
-    const page = await asPerson(browser, HEAD.email);
+  await stepAs("the compliance head's wrong password is refused; she then signs with the attestation", HEAD.email, async (page) => {
     const filing = new FilingPage(page);
     await filing.open(periodId);
     await expect(filing.status()).toHaveText(/In review/);
@@ -295,11 +270,9 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await expect(filing.status()).toHaveText(/Signed/);
     await filing.verifySignature();
     await screen(page, "filing-signed");
-    await page.close();
   });
 
-  await test.step("both packs download and open with the sign-off", async () => {
-    const page = await asPerson(browser, OFFICER.email);
+  await stepAs("both packs download and open with the sign-off", OFFICER.email, async (page) => {
     await page.goto(`/periods/${periodId}/filing`);
     await expect(status(page)).toHaveText(/Signed/);
     const [docx] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-docx").click()]);
@@ -314,24 +287,20 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     const book = await XlsxPopulate.fromDataAsync(readFileSync((await xlsx.path())!));
     expect(book.sheets().length).toBeGreaterThan(3);
     await screen(page, "filing-packs");
-    await page.close();
   });
 
-  await test.step("the compliance officer records the filing as filed", async () => {
-    const page = await asPerson(browser, OFFICER.email);
+  await stepAs("the compliance officer records the filing as filed", OFFICER.email, async (page) => {
     const filing = new FilingPage(page);
     await filing.open(periodId);
     await filing.recordFiled(FILING_REFERENCE);
     await screen(page, "filing-filed");
-    await page.close();
     const api = await signedInApi(OFFICER.email);
     const period = (await (await api.get(`/api/periods/${periodId}`)).json()).period;
     expect(period).toMatchObject({ state: "filed", filingReference: FILING_REFERENCE });
     await api.dispose();
   });
 
-  await test.step("the auditor reads the audit trail of all of it", async () => {
-    const page = await asPerson(browser, AUDITOR.email);
+  await stepAs("the auditor reads the audit trail of all of it", AUDITOR.email, async (page) => {
     await page.goto("/audit");
     const filters = page.getByRole("search", { name: "Filter the audit trail" });
     const rows = page.getByTestId("audit-row");
@@ -365,7 +334,6 @@ test("the whole month end of Northmoor's November 2026, person by person", async
     await expect(rows.filter({ hasText: "upload.receive" })).toHaveCount(1);
     await expect(rows.filter({ hasText: "upload.confirm" })).toHaveCount(1);
     await screen(page, "audit-upload");
-    await page.close();
   });
 
   await test.step("the reminder e-mails for November reached the SMTP listener", async () => {
