@@ -4,7 +4,7 @@
  * Every page that shows a run, and the filing choice, read it from here.
  */
 import "server-only";
-import { approvedMethodRow } from "@/lib/data/approved-method";
+import { approvedMethodVersion } from "@/lib/data/approved-method";
 import { gunzipSync } from "node:zlib";
 import { and, count, desc, eq, inArray, max } from "drizzle-orm";
 import { getDb } from "@/db/client";
@@ -21,7 +21,7 @@ export type { RunFreshness } from "@/lib/runs/freshness";
 /** The firm's approved method version and capital rule profile in force (what every period's runs are compared to). */
 async function firmRules(firmId: string) {
   const db = getDb();
-  const method = await approvedMethodRow(firmId, db);
+  const method = await approvedMethodVersion(firmId, db);
   const [profile] = await db
     .select({ id: capitalRuleProfiles.id, name: capitalRuleProfiles.name })
     .from(capitalRuleProfiles)
