@@ -8,22 +8,10 @@ import { describe, expect, it } from "vitest";
 import { capitalProfileOf, engineMethodOf } from "@/lib/runs/method-map";
 import { DEFAULT_METHOD_CONTENT, methodContentSchema, readMethodContent, upgradeMethodContent } from "@/lib/validation/method";
 
-/** A version 1 as the demo stored it before these fields existed. */
-const stored = {
-  defaultEstimator: { kind: "ewma", lambdaMode: "fixed", lambda: 0.94 },
-  byAssetClass: { equity: { kind: "garch", distribution: "t", mean: "zero", targeting: false, fallback: "ewma" } },
-  covariance: "ewma",
-  covarianceLambda: 0.94,
-  covarianceWindow: 250,
-  varMethod: "parametric",
-  distribution: "normal",
-  confidences: [0.99, 0.975],
-  horizonDays: 10,
-  scaling: "sqrt",
-  historicalWindow: 500,
-  stressWindow: { mode: "search" },
-  minHistory: 250,
-};
+/** A version 1 as the demo stored it before these fields existed: a frozen copy, kept as data so that a field added to
+ * today's defaults cannot slip into the "older" content. */
+import stored from "@/tests/fixtures/method/stored-content-v1.json";
+
 const capital = capitalProfileOf({ id: "p1", name: "Profile", confidence: 0.99, horizonDays: 10, averagingDays: 60, baseMultiplier: 3, stressedMultiplier: 3, backtestDays: 250, plusFactors: {} });
 
 describe("older method content", () => {

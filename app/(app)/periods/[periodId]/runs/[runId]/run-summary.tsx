@@ -6,7 +6,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiFetch } from "@/app/_components/api";
 import { DraftCaution } from "@/app/_components/draft-caution";
 import { primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
-import { FigureTable } from "@/app/_components/figure-table";
+import { FigureRow, FigureTable } from "@/app/_components/figure-table";
 import { Panel } from "@/app/_components/panel";
 import { formatDate, formatTimestamp } from "@/app/_components/format";
 import { StatusBadge } from "@/app/_components/status-badge";
@@ -27,18 +27,10 @@ function Card({ title, id, children, className = "" }: { title: string; id: stri
   );
 }
 
-function Row({ label, children, testId }: { label: React.ReactNode; children: React.ReactNode; testId?: string }) {
-  return (
-    <tr className="border-b border-ink-line/60 last:border-b-0">
-      <th scope="row" className="py-1.5 pr-3 text-left font-normal text-ink-soft">
-        {label}
-      </th>
-      <td className="figure py-1.5 text-right" data-testid={testId}>
-        {children}
-      </td>
-    </tr>
-  );
-}
+/** A line of the capital table: what it is, and its figure. */
+const Row = ({ label, children }: { label: React.ReactNode; children: React.ReactNode }) => (
+  <FigureRow head={label} cells={[children]} className="border-b border-ink-line/60 text-right last:border-b-0" headClassName="text-left font-normal text-ink-soft" gap="pr-3" />
+);
 
 function VarTable({ results, currency }: { results: RunResults; currency: string }) {
   const m = results.monthEnd;
@@ -136,25 +128,11 @@ function Reproduction({ r, periodId }: { r: NonNullable<RunResults["reproduction
       ) : null}
       {r.differences.length ? (
         <div className="mt-3 max-h-80 overflow-auto rounded border border-ink-line bg-paper-raised">
-          <table className="w-full text-xs">
-            <caption className="sr-only">Values that differ</caption>
-            <thead className="sticky top-0 bg-paper-sunk text-left">
-              <tr>
-                <th scope="col" className="px-2 py-1">Figure</th>
-                <th scope="col" className="px-2 py-1 text-right">Original</th>
-                <th scope="col" className="px-2 py-1 text-right">Reproduced</th>
-              </tr>
-            </thead>
-            <tbody className="figure">
-              {r.differences.map((d) => (
-                <tr key={d.path} className="border-t border-ink-line/60">
-                  <td className="px-2 py-1 font-mono">{d.path}</td>
-                  <td className="px-2 py-1 text-right">{String(d.original)}</td>
-                  <td className="px-2 py-1 text-right">{String(d.reproduced)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <FigureTable className="w-full text-xs" caption="Values that differ" hiddenCaption headClassName="sticky top-0 bg-paper-sunk" columns={["Figure", "Original", "Reproduced"]} pad="px-2 py-1" gap="">
+            {r.differences.map((d) => (
+              <FigureRow key={d.path} head={d.path} cells={[String(d.original), String(d.reproduced)]} className="border-t border-ink-line/60 text-right" headClassName="text-left font-mono font-normal" pad="px-2 py-1" gap="" />
+            ))}
+          </FigureTable>
         </div>
       ) : null}
     </section>
