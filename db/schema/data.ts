@@ -1,6 +1,6 @@
 import { sql } from "drizzle-orm";
 import { sqliteTable, text, integer, real, index, uniqueIndex } from "drizzle-orm/sqlite-core";
-import { id, createdAt, firmColumns } from "../columns";
+import { id, createdAt } from "../columns";
 import { firmReference } from "./firms";
 import { reportingPeriods } from "./periods";
 import type { ReadOptions } from "../../lib/uploads/types";
@@ -45,16 +45,22 @@ export const uploads = sqliteTable(
 );
 export type Upload = typeof uploads.$inferSelect;
 
-/** The firm's instruments, including exchange-rate series named by currency pair. */
+/**
+ * The firm's instruments, including exchange-rate series named by currency pair. A price confirmation adds the codes
+ * it does not know before it stages their closes (so that the closes can refer to them); until its last step they are
+ * pending (`pendingUpload` set) and no reader lists them.
+ */
 export const instruments = sqliteTable(
   "instruments",
   {
     id: id(),
-    ...firmColumns,
+    ...firmReference(),
     code: text("code").notNull(),
     name: text("name").notNull().default(""),
     assetClass: text("asset_class").notNull().default("unknown"),
     currency: text("currency").notNull().default(""),
+    /** the price upload whose confirmation, still in progress, added this instrument; null once it counts */
+    pendingUpload: text("pending_upload").references(() => uploads.id),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex("instruments_firm_code").on(t.firmId, t.code)],
@@ -67,8 +73,9 @@ export const pricePoints = sqliteTable(
   {
     id: id(),
     ...firmReference(),
-    /** no declared reference: a confirmation stages prices under instrument ids it adds only in its last step */
-    instrumentId: text("instrument_id").notNull(),
+    instrumentId: text("instrument_id")
+      .notNull()
+      .references(() => instruments.id),
     date: text("date").notNull(),
     close: real("close").notNull(),
     uploadId: text("upload_id").references(() => uploads.id),

@@ -7,7 +7,7 @@
 import "server-only";
 import { approvedMethodRow } from "@/lib/data/approved-method";
 import { firmRow } from "@/lib/data/firm-row";
-import { and, desc, eq, max } from "drizzle-orm";
+import { and, desc, eq, isNull, max } from "drizzle-orm";
 import { getDb, type Database, type Tx } from "@/db/client";
 import { firms, instruments, methodStatements, positions, reportingPeriods, uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
@@ -302,7 +302,7 @@ export async function computeEvidence(
     }
   }
   if (source === "instruments") {
-    const rows = await db.select({ code: instruments.code, assetClass: instruments.assetClass }).from(instruments).where(eq(instruments.firmId, actor.firmId));
+    const rows = await db.select({ code: instruments.code, assetClass: instruments.assetClass }).from(instruments).where(and(eq(instruments.firmId, actor.firmId), isNull(instruments.pendingUpload)));
     for (const r of rows) if (r.assetClass !== "unknown") classes.set(r.assetClass, [...(classes.get(r.assetClass) ?? []), r.code]);
   }
   const series = await priceSeries(actor.firmId, asOf);

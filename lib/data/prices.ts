@@ -1,6 +1,6 @@
 /** The firm's stored price history: coverage per instrument, and the series as of a date for runs and checks. */
 import "server-only";
-import { and, eq, lte, sql } from "drizzle-orm";
+import { and, eq, isNull, lte, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { instruments, pricePoints } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
@@ -31,7 +31,7 @@ export async function priceCoverage(actor: Actor): Promise<InstrumentCoverage[]>
     })
     .from(instruments)
     .leftJoin(pricePoints, and(eq(pricePoints.instrumentId, instruments.id), eq(pricePoints.firmId, actor.firmId)))
-    .where(eq(instruments.firmId, actor.firmId))
+    .where(and(eq(instruments.firmId, actor.firmId), isNull(instruments.pendingUpload)))
     .groupBy(instruments.id)
     .orderBy(instruments.code);
   return rows.map((r) => ({ ...r, points: Number(r.points ?? 0), corrections: Number(r.corrections ?? 0) }));

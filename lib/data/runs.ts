@@ -320,7 +320,7 @@ export async function assessHistoryOfUpload(
   for (const r of byCurrency) if (!needed.has(`${r.currency}${rc}`)) needed.set(`${r.currency}${rc}`, "fx");
   const counted = await db.all<{ code: string; returns: number }>(sql`
     WITH needed AS (SELECT value AS code FROM json_each(${JSON.stringify([...needed.keys()])})),
-    ids AS MATERIALIZED (SELECT i.id, i.code FROM instruments i JOIN needed n ON n.code = i.code WHERE i.firm_id = ${firmId}),
+    ids AS MATERIALIZED (SELECT i.id, i.code FROM instruments i JOIN needed n ON n.code = i.code WHERE i.firm_id = ${firmId} AND i.pending_upload IS NULL),
     p AS MATERIALIZED (SELECT pp.instrument_id AS iid, pp.date AS d FROM price_points pp JOIN ids ON ids.id = pp.instrument_id
           WHERE pp.firm_id = ${firmId} AND pp.current = 1 AND pp.date <= ${periodEnd}),
     spans AS MATERIALIZED (SELECT iid, min(d) AS f, max(d) AS l FROM p GROUP BY iid),

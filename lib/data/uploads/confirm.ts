@@ -3,7 +3,9 @@
  * first in short transactions where no reader sees them (positions under an upload that is not confirmed; prices
  * marked staged, not current), then one short last transaction makes them count: the upload confirmed, an earlier
  * positions file superseded, corrected prices no longer current and the staged ones current, the audit record and
- * the data-quality refresh. A retried confirmation clears what an interrupted one staged and starts again.
+ * the data-quality refresh. Instruments a price file names for the first time are added before its closes are staged,
+ * pending (no reader lists them) until that last step. A retried confirmation clears what an interrupted one staged
+ * and starts again.
  */
 import "server-only";
 import { firmRow } from "@/lib/data/firm-row";
@@ -71,10 +73,17 @@ export async function applyConfirm(firmId: string, uploadId: string, how: Confir
   }
 }
 
-/** Delete what an earlier, interrupted confirmation of the upload staged (nobody reads it). */
+/**
+ * Delete what an earlier, interrupted confirmation of the upload staged (nobody reads it): its positions, or its
+ * staged closes and the pending instruments it added that no other row refers to.
+ */
 export async function clearStaged(db: Database | Tx, firmId: string, uploadId: string, kind: string): Promise<void> {
-  if (kind === "positions") await db.run(sql`DELETE FROM positions WHERE firm_id = ${firmId} AND upload_id = ${uploadId}`);
-  else await db.run(sql`DELETE FROM price_points WHERE firm_id = ${firmId} AND upload_id = ${uploadId} AND staged = 1`);
+  if (kind === "positions") {
+    await db.run(sql`DELETE FROM positions WHERE firm_id = ${firmId} AND upload_id = ${uploadId}`);
+    return;
+  }
+  await db.run(sql`DELETE FROM price_points WHERE firm_id = ${firmId} AND upload_id = ${uploadId} AND staged = 1`);
+  await db.run(sql`DELETE FROM instruments WHERE firm_id = ${firmId} AND pending_upload = ${uploadId} AND NOT EXISTS (SELECT 1 FROM price_points p WHERE p.instrument_id = instruments.id)`);
 }
 
 async function confirmPositions(db: Database, row: typeof uploads.$inferSelect, how: ConfirmHow): Promise<ConfirmResult> {
@@ -160,8 +169,8 @@ async function confirmPrices(db: Database, row: typeof uploads.$inferSelect, how
     const fxPair = /^[A-Z]{6}$/.test(p.instrument) && isCurrencyPair(p.instrument);
     wanted.set(p.instrument, { name: fxPair ? `${p.instrument.slice(0, 3)}/${p.instrument.slice(3)} exchange rate` : "", assetClass: fxPair ? "fx" : "unknown", currency: fxPair ? p.instrument.slice(3) : "" });
   }
-  // New instruments are only planned here (ids chosen, nothing written): they are added in the last step.
-  const ids = await planInstruments(db, firmId, [...wanted.keys()]);
+  // New instruments are added now, pending (no reader lists them), so that the staged closes can refer to them.
+  const ids = await addPendingInstruments(db, firmId, uploadId, wanted);
   const current = new Map<string, { id: string; close: number }>();
   const instrumentIds = [...new Set(ids.values())];
   for (let i = 0; i < instrumentIds.length; i += 200) {
@@ -203,7 +212,7 @@ async function confirmPrices(db: Database, row: typeof uploads.$inferSelect, how
   return db.transaction(async (tx) => {
     if ((await pricesVersion(tx, firmId)) !== version) throw new PricesChangedMeanwhile();
     await claimConfirmed(tx, firmId, uploadId, how);
-    await upsertInstruments(tx, firmId, wanted, { uploadId, planned: ids });
+    await upsertInstruments(tx, firmId, wanted);
     for (let i = 0; i < corrected.length; i += 500) {
       await tx.update(pricePoints).set({ current: false, replacedByUpload: uploadId }).where(and(eq(pricePoints.firmId, firmId), inArray(pricePoints.id, corrected.slice(i, i + 500))));
     }
@@ -224,22 +233,33 @@ async function confirmPrices(db: Database, row: typeof uploads.$inferSelect, how
   });
 }
 
-/** The instrument id of each code: the firm's where it has one, else a new id chosen for the last step to add. */
-async function planInstruments(db: Database, firmId: string, codes: string[]): Promise<Map<string, string>> {
-  const ids = new Map<string, string>();
-  for (let i = 0; i < codes.length; i += 500) {
-    const existing = await db.select({ id: instruments.id, code: instruments.code }).from(instruments).where(and(eq(instruments.firmId, firmId), inArray(instruments.code, codes.slice(i, i + 500))));
-    for (const e of existing) ids.set(e.code, e.id);
-  }
-  for (const code of codes) if (!ids.has(code)) ids.set(code, crypto.randomUUID());
-  return ids;
+/**
+ * The instrument id of each code: the firm's where it has one, else a new instrument added pending under this upload
+ * (in one short transaction; a code someone else added meanwhile keeps their row).
+ */
+async function addPendingInstruments(db: Database, firmId: string, uploadId: string, wanted: Map<string, { name: string; assetClass: string; currency: string }>): Promise<Map<string, string>> {
+  const codes = [...wanted.keys()];
+  const createdAt = now().toISOString();
+  return db.transaction(async (tx) => {
+    const ids = new Map<string, string>();
+    for (let i = 0; i < codes.length; i += 500) {
+      const chunk = codes.slice(i, i + 500);
+      await tx
+        .insert(instruments)
+        .values(chunk.map((code) => ({ firmId, code, ...wanted.get(code)!, pendingUpload: uploadId, createdAt })))
+        .onConflictDoNothing({ target: [instruments.firmId, instruments.code] });
+      const rows = await tx.select({ id: instruments.id, code: instruments.code }).from(instruments).where(and(eq(instruments.firmId, firmId), inArray(instruments.code, chunk)));
+      for (const r of rows) ids.set(r.code, r.id);
+    }
+    return ids;
+  });
 }
 
 /**
- * Add the instruments the firm does not know yet (with their planned ids, when prices were staged under them) and
- * fill in blanks of those it does. A planned instrument someone else added meanwhile: the staged prices move to its id.
+ * Make the instruments a confirmed upload names count: add those the firm does not know yet, fill in blanks of those
+ * it does, and clear `pendingUpload` of any a price confirmation in progress added (this upload's rows refer to them).
  */
-async function upsertInstruments(tx: Tx, firmId: string, wanted: Map<string, { name: string; assetClass: string; currency: string }>, staged?: { uploadId: string; planned: Map<string, string> }): Promise<void> {
+async function upsertInstruments(tx: Tx, firmId: string, wanted: Map<string, { name: string; assetClass: string; currency: string }>): Promise<void> {
   const codes = [...wanted.keys()];
   const known = new Set<string>();
   for (let i = 0; i < codes.length; i += 500) {
@@ -247,20 +267,16 @@ async function upsertInstruments(tx: Tx, firmId: string, wanted: Map<string, { n
     for (const e of existing) {
       known.add(e.code);
       const w = wanted.get(e.code)!;
-      if ((e.name === "" && w.name) || (e.assetClass === "unknown" && w.assetClass !== "unknown") || (e.currency === "" && w.currency)) {
+      if ((e.name === "" && w.name) || (e.assetClass === "unknown" && w.assetClass !== "unknown") || (e.currency === "" && w.currency) || e.pendingUpload !== null) {
         await tx
           .update(instruments)
-          .set({ name: e.name || w.name, assetClass: e.assetClass === "unknown" ? w.assetClass : e.assetClass, currency: e.currency || w.currency })
+          .set({ name: e.name || w.name, assetClass: e.assetClass === "unknown" ? w.assetClass : e.assetClass, currency: e.currency || w.currency, pendingUpload: null })
           .where(eq(instruments.id, e.id));
-      }
-      const planned = staged?.planned.get(e.code);
-      if (staged && planned && planned !== e.id) {
-        await tx.run(sql`UPDATE price_points SET instrument_id = ${e.id} WHERE firm_id = ${firmId} AND upload_id = ${staged.uploadId} AND staged = 1 AND instrument_id = ${planned}`);
       }
     }
   }
   const createdAt = now().toISOString();
-  const fresh = codes.filter((c) => !known.has(c)).map((code) => ({ id: staged?.planned.get(code) ?? crypto.randomUUID(), code, ...wanted.get(code)! }));
+  const fresh = codes.filter((c) => !known.has(c)).map((code) => ({ id: crypto.randomUUID(), code, ...wanted.get(code)! }));
   await bulkInsert(tx, "instruments", ["id", "firm_id", "code", "name", "asset_class", "currency", "created_at"], fresh.map((f) => [f.id, firmId, f.code, f.name, f.assetClass, f.currency, createdAt]));
 }
 

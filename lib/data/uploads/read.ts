@@ -5,7 +5,7 @@
  */
 import "server-only";
 import { firmRow } from "@/lib/data/firm-row";
-import { and, eq, inArray, ne } from "drizzle-orm";
+import { and, eq, inArray, isNull, ne } from "drizzle-orm";
 import { getDb, type Database, type Tx } from "@/db/client";
 import { capitalRuleProfiles, firms, instruments, pricePoints, reportingPeriods, uploads, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
@@ -40,7 +40,7 @@ export type ReadOutcome = { status: "pending"; rows: number; errors: number } | 
 
 /** Rates to the reporting currency on or before `asOf`, from the firm's `CCY` + reporting-currency series. */
 async function fxRates(db: Database, firmId: string, reportingCurrency: string, asOf: string): Promise<{ rates: Record<string, number>; dates: Record<string, string> }> {
-  const pairs = await db.select().from(instruments).where(eq(instruments.firmId, firmId));
+  const pairs = await db.select().from(instruments).where(and(eq(instruments.firmId, firmId), isNull(instruments.pendingUpload)));
   const rates: Record<string, number> = {};
   const dates: Record<string, string> = {};
   for (const pair of pairs.filter((p) => /^[A-Z]{3}[A-Z]{3}$/.test(p.code) && p.code.endsWith(reportingCurrency))) {

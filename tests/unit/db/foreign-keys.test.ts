@@ -1,5 +1,6 @@
 /**
- * Foreign keys where a row refers to another row (db/migrations/0019_foreign_keys.sql), and the triggers kept:
+ * Foreign keys where a row refers to another row (db/migrations/0019_foreign_keys.sql and, for the instruments,
+ * 0021_instrument_references.sql), and the triggers kept:
  * libSQL changes most columns in place, but run_inputs had to be rebuilt (its primary key is the reference), and a
  * dropped table takes its triggers with it, so 0020_foreign_keys_triggers_again.sql re-creates them. Checked here:
  * every trigger any migration creates still exists on its table after all migrations, the declared references name
@@ -64,7 +65,8 @@ describe("declared references", () => {
     expect(await references(db, "uploads")).toEqual([firm, "period_id → reporting_periods.id"]);
     expect(await references(db, "positions")).toEqual([firm, "period_id → reporting_periods.id", "upload_id → uploads.id"]);
     expect(await references(db, "upload_parts")).toEqual([firm, "upload_id → uploads.id"]);
-    expect(await references(db, "price_points")).toEqual([firm, "upload_id → uploads.id"]);
+    expect(await references(db, "price_points")).toEqual([firm, "instrument_id → instruments.id", "upload_id → uploads.id"]);
+    expect(await references(db, "instruments")).toEqual([firm, "pending_upload → uploads.id"]);
     expect(await references(db, "runs")).toEqual([
       "capital_profile_id → capital_rule_profiles.id",
       firm,
@@ -97,6 +99,10 @@ describe("declared references", () => {
     await expect(
       db.$client.execute({ sql: "INSERT INTO upload_parts (id, firm_id, upload_id, part, seq, items) VALUES ('fk-test-part', ?, 'no-such-upload', 'rows', 0, '[]')", args: [firmId as string] }),
     ).rejects.toThrow(/FOREIGN KEY constraint failed/);
+    await expect(
+      db.$client.execute({ sql: "INSERT INTO price_points (id, firm_id, instrument_id, date, close, created_at) VALUES ('fk-test-close', ?, 'no-such-instrument', '2026-11-30', 1, '2026-12-01T09:00:00Z')", args: [firmId as string] }),
+    ).rejects.toThrow(/FOREIGN KEY constraint failed/);
+    await expect(db.$client.execute({ sql: "DELETE FROM instruments WHERE id = (SELECT instrument_id FROM price_points LIMIT 1)" })).rejects.toThrow(/FOREIGN KEY constraint failed/);
     await expect(
       db.$client.execute({ sql: "INSERT INTO run_inputs (run_id, firm_id, data, bytes, created_at) VALUES ('no-such-run', ?, x'00', 1, '2026-12-01T09:00:00Z')", args: [firmId as string] }),
     ).rejects.toThrow(/FOREIGN KEY constraint failed/);

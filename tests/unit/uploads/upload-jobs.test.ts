@@ -6,10 +6,10 @@
  * retried; a price confirmation that finds the history changed meanwhile starts again and accounts for the change.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { and, eq } from "drizzle-orm";
+import { and, eq, inArray } from "drizzle-orm";
 import path from "node:path";
 import type { Database } from "@/db/client";
-import { auditEvents, jobs, positions, pricePoints, uploadParts, uploads } from "@/db/schema";
+import { auditEvents, instruments, jobs, positions, pricePoints, uploadParts, uploads } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
 import {
   applyConfirm,
@@ -208,7 +208,22 @@ describe("an interrupted confirmation", () => {
     const stored = await db.select({ current: pricePoints.current, staged: pricePoints.staged }).from(pricePoints).where(eq(pricePoints.uploadId, uploadId));
     expect(stored).toHaveLength(points);
     expect(stored.every((p) => p.current && !p.staged)).toBe(true);
+    expect(await db.select({ id: instruments.id }).from(instruments).where(and(eq(instruments.firmId, analyst.firmId), eq(instruments.pendingUpload, uploadId)))).toEqual([]);
   }, 120_000);
+
+  it("of prices, then cancelled, leaves no instrument it added: the new codes were pending, listed nowhere", async () => {
+    const { uploadId } = await receiveUploadBytes(context(analyst, "prices"), { key: "int-3", name: "pending.csv", ufsUrl: "http://127.0.0.1:9/f/int-3" }, enc("date,instrument,close\n2026-11-26,PEND-A,10\n2026-11-27,PEND-A,11\n2026-11-27,PEND-B,5\n"));
+    const coverage = JSON.stringify(await priceCoverage(analyst));
+    await expect(
+      applyConfirm(analyst.firmId, uploadId, { from: "pending", by: { userId: analyst.userId, name: analyst.name }, warningsAcknowledged: 0, progress: async (stage) => void (stage.startsWith("Making") && (() => { throw new Error("Stopped before the last step"); })()) }),
+    ).rejects.toThrow(/Stopped/);
+    const pending = await db.select({ code: instruments.code, pendingUpload: instruments.pendingUpload }).from(instruments).where(and(eq(instruments.firmId, analyst.firmId), eq(instruments.pendingUpload, uploadId)));
+    expect(pending.map((i) => i.code).sort()).toEqual(["PEND-A", "PEND-B"]);
+    expect(JSON.stringify(await priceCoverage(analyst))).toBe(coverage);
+    await cancelUpload(analyst, uploadId);
+    expect(await db.select({ id: instruments.id }).from(instruments).where(and(eq(instruments.firmId, analyst.firmId), inArray(instruments.code, ["PEND-A", "PEND-B"])))).toEqual([]);
+    expect(await db.select({ id: pricePoints.id }).from(pricePoints).where(eq(pricePoints.uploadId, uploadId))).toEqual([]);
+  });
 
   it("of prices that finds the history changed meanwhile starts again and accounts for the change", async () => {
     const first = await receiveUploadBytes(context(analyst, "prices"), { key: "race-1", name: "race-1.csv", ufsUrl: "http://127.0.0.1:9/f/race-1" }, enc("date,instrument,close\n2026-11-26,RACE,10\n2026-11-27,RACE,11\n"));
