@@ -11,7 +11,7 @@ import { actorFor, load } from "./seed-uploads";
 import { DEMO_PASSWORD } from "./demo-people";
 import { openPeriod } from "../lib/data/periods";
 import { startRun, useForFiling as chooseFilingRun } from "../lib/data/runs";
-import { executeRun } from "../lib/runs/execute";
+import { executeRun } from "../lib/data/run-execution";
 import { prepareFiling, submitFiling, signFiling, markFiled } from "../lib/data/filings";
 import { setStampClock } from "../lib/clock";
 

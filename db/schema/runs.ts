@@ -49,19 +49,30 @@ export const runs = sqliteTable(
 );
 export type Run = typeof runs.$inferSelect;
 
-/**
- * The exact inputs of a run (positions rows, aligned closes per factor, method content, capital profile), as
- * gzip-compressed canonical JSON, written once with the run and never changed: reproducing a run reads these,
- * never today's data.
- */
-export const runInputs = sqliteTable("run_inputs", {
+/** The columns of a run's write-once compressed record: the run it belongs to, its firm, the gzip bytes and their uncompressed size. */
+const runBlobColumns = () => ({
   runId: text("run_id")
     .primaryKey()
     .references(() => runs.id),
   ...firmReference(),
-  /** gzip of the canonical JSON of RunInputs (lib/runs/types.ts) */
+  /** gzip of JSON (see each table) */
   data: blob("data", { mode: "buffer" }).notNull(),
   /** uncompressed size in bytes */
   bytes: integer("bytes").notNull(),
   createdAt: createdAt(),
 });
+
+/**
+ * The exact inputs of a run (positions rows, aligned closes per factor, method content, capital profile), as
+ * gzip-compressed canonical JSON of RunInputs (lib/runs/types.ts), written once with the run and never changed:
+ * reproducing a run reads these, never today's data.
+ */
+export const runInputs = sqliteTable("run_inputs", runBlobColumns());
+
+/**
+ * A completed run's per-position detail (each method's contributions by position and confidence), as gzip of the
+ * JSON of RunDetail (lib/runs/detail.ts), written once with the run's completion and never changed. Kept apart from
+ * `runs.results` so that the run's page, lists and checks do not read it; the contributions page, the packs and a
+ * reproduction do.
+ */
+export const runDetails = sqliteTable("run_details", runBlobColumns());

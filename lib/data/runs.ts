@@ -2,15 +2,15 @@
  * Runs of a reporting period: starting one (refused clearly when something is missing, without reading the book;
  * queued with its job in one transaction), reading them (firm-scoped), reproducing one from its stored inputs, and
  * marking the one the filing uses. A worker process (`npm run worker`, job kind "run") gathers the inputs, stores
- * them with their hashes and computes the run (lib/runs/execute.ts).
+ * them with their hashes and computes the run (lib/data/run-execution.ts).
  */
 import "server-only";
 import { approvedMethodRow } from "@/lib/data/approved-method";
 import { createHash } from "node:crypto";
 import { gunzipSync, gzipSync } from "node:zlib";
 import { and, desc, eq, inArray, lt, sql } from "drizzle-orm";
-import { getDb } from "@/db/client";
-import { capitalRuleProfiles, methodStatements, positions, reportingPeriods, runInputs, runs, uploads, users } from "@/db/schema";
+import { getDb, type Database, type Tx } from "@/db/client";
+import { capitalRuleProfiles, methodStatements, positions, reportingPeriods, runDetails, runInputs, runs, uploads, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import { now, today } from "@/lib/clock";
@@ -18,6 +18,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { BASEL_CAPITAL_PROFILE } from "@/lib/risk/capital/capital";
 import { explainRuns, explainVarChange } from "@/lib/risk";
 import { resultsUnderCurrentNames, storedPortfolioStateOf } from "@/lib/runs/stored-state";
+import { joinDetail, type RunDetail } from "@/lib/runs/detail";
 import { infeasibilityMessage, methodInfeasibilities, type Infeasibility } from "@/lib/runs/feasibility";
 import { runInputsExport, runInputsFileName } from "@/lib/runs/export";
 import { methodContentSchema, type MethodContent } from "@/lib/validation/method";
@@ -83,12 +84,38 @@ async function selectRuns(firmId: string, where: ReturnType<typeof and>) {
     .orderBy(desc(runs.startedAt), desc(runs.id));
 }
 
+/** Whether a read of a run joins its per-position detail (stored apart, lib/runs/detail.ts) back into its results. */
+export interface RunReadOptions {
+  /** false: the figures only (`results.detailApart` stays set, contributions empty); default true */
+  detail?: boolean;
+}
+
+/** Compress the JSON of a run's per-position detail. */
+export function packDetail(detail: RunDetail): { data: Buffer; bytes: number } {
+  const json = JSON.stringify(detail);
+  return { data: gzipSync(Buffer.from(json, "utf8"), { level: 6 }), bytes: Buffer.byteLength(json, "utf8") };
+}
+
+/** A run's whole results: its figures, and its per-position detail when that is stored apart. */
+export async function withStoredDetail(db: Database | Tx, firmId: string, runId: string, results: RunResults): Promise<RunResults> {
+  if (!results.detailApart) return results;
+  const [row] = await db.select({ data: runDetails.data }).from(runDetails).where(and(eq(runDetails.runId, runId), eq(runDetails.firmId, firmId)));
+  if (!row) throw new Error(`The per-position detail of run ${runId} is missing.`);
+  return joinDetail(results, JSON.parse(gunzipSync(row.data).toString("utf8")) as RunDetail);
+}
+
+async function recordWith(firmId: string, row: Parameters<typeof toRecord>[0], options: RunReadOptions): Promise<RunRecord> {
+  const record = toRecord(row);
+  if (options.detail === false || !record.results) return record;
+  return { ...record, results: await withStoredDetail(getDb(), firmId, record.id, record.results) };
+}
+
 /** One run of the actor's firm; another firm's run looks absent. A run left running by a dead server is marked failed first. */
-export async function getRun(actor: Actor, runId: string): Promise<RunRecord> {
+export async function getRun(actor: Actor, runId: string, options: RunReadOptions = {}): Promise<RunRecord> {
   await markIfInterrupted(actor.firmId, { runId });
   const [row] = await selectRuns(actor.firmId, and(eq(runs.id, runId), eq(runs.firmId, actor.firmId)));
   if (!row) throw new AppError("not_found:run", "No such run.");
-  return toRecord(row);
+  return recordWith(actor.firmId, row, options);
 }
 
 /** Every run of a period, newest first, without the stored results (the headline figures instead), each with its freshness. */
@@ -104,9 +131,9 @@ export async function listRuns(actor: Actor, periodId: string): Promise<RunListI
 }
 
 /** The run marked as the one the period's filing uses, or null. */
-export async function filingRunOf(actor: Actor, periodId: string): Promise<RunRecord | null> {
+export async function filingRunOf(actor: Actor, periodId: string, options: RunReadOptions = {}): Promise<RunRecord | null> {
   const [row] = await selectRuns(actor.firmId, and(eq(runs.firmId, actor.firmId), eq(runs.periodId, periodId), eq(runs.isFilingRun, true)));
-  return row ? toRecord(row) : null;
+  return row ? recordWith(actor.firmId, row, options) : null;
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -135,7 +162,7 @@ export async function getRunInputs(actor: Actor, runId: string): Promise<RunInpu
 
 /** A run's stored inputs as one JSON download, recorded in the audit trail with its SHA-256. */
 export async function exportRunInputs(actor: Actor, runId: string): Promise<{ fileName: string; contentType: string; bytes: Uint8Array }> {
-  const run = await getRun(actor, runId);
+  const run = await getRun(actor, runId, { detail: false });
   const inputs = await getRunInputs(actor, runId);
   const fileName = runInputsFileName(inputs.periodEnd, run.id);
   const bytes = new Uint8Array(Buffer.from(JSON.stringify(runInputsExport(run, inputs), null, 1), "utf8"));
@@ -487,12 +514,12 @@ export async function startRun(actor: Actor, periodId: string, options: StartOpt
       detail: { periodEnd: period.periodEnd, methodVersion: method.version, positionsUploadId: upload.id, excludedFactors: assessment.short },
     },
   );
-  return getRun(actor, id);
+  return getRun(actor, id, { detail: false });
 }
 
 /** Re-run a completed run from its stored inputs (never today's data) as a new run pointing at it, through the queue. */
 export async function reproduceRun(actor: Actor, runId: string): Promise<RunRecord> {
-  const original = await getRun(actor, runId);
+  const original = await getRun(actor, runId, { detail: false });
   if (original.status !== "completed") throw new AppError("conflict:run", "Only a completed run can be reproduced.");
   const period = await getPeriod(actor, original.periodId);
   await markIfInterrupted(actor.firmId, { periodId: original.periodId });
@@ -508,12 +535,12 @@ export async function reproduceRun(actor: Actor, runId: string): Promise<RunReco
       detail: { originalRunId: runId },
     },
   );
-  return getRun(actor, id);
+  return getRun(actor, id, { detail: false });
 }
 
 /** Mark a completed run as the one the period's filing uses (one per period), with its audit record. */
 export async function useForFiling(actor: Actor, runId: string): Promise<RunRecord> {
-  const run = await getRun(actor, runId);
+  const run = await getRun(actor, runId, { detail: false });
   if (run.status !== "completed") throw new AppError("conflict:run", "Only a completed run can be the one the filing uses.");
   const period = await getPeriod(actor, run.periodId);
   assertOpen(period);
@@ -534,7 +561,7 @@ export async function useForFiling(actor: Actor, runId: string): Promise<RunReco
       detail: { previousFilingRunId: previous[0]?.id ?? null, inputHashes: run.inputHashes },
     });
   });
-  return getRun(actor, runId);
+  return getRun(actor, runId, { detail: false });
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -542,7 +569,7 @@ export async function useForFiling(actor: Actor, runId: string): Promise<RunReco
 
 /** The explain of this run's one-day parametric VaR against the previous period's filing run. */
 export async function runChange(actor: Actor, runId: string): Promise<RunChange> {
-  const run = await getRun(actor, runId);
+  const run = await getRun(actor, runId, { detail: false });
   if (run.status !== "completed" || !run.results) return { previous: null, explanation: null, note: "The run has not completed." };
   const period = await getPeriod(actor, run.periodId);
   const earlier = await getDb()
@@ -551,7 +578,7 @@ export async function runChange(actor: Actor, runId: string): Promise<RunChange>
     .where(and(eq(reportingPeriods.firmId, actor.firmId), lt(reportingPeriods.periodEnd, period.periodEnd)))
     .orderBy(desc(reportingPeriods.periodEnd));
   for (const p of earlier) {
-    const filing = await filingRunOf(actor, p.id);
+    const filing = await filingRunOf(actor, p.id, { detail: false });
     if (!filing) continue;
     const confidence = run.results.capitalProfile.profile.confidence;
     // the stored state of both runs (nothing recomputed); runs stored before the engine returned it are recomputed

@@ -192,6 +192,12 @@ export interface RunResults {
   reproduction: Reproduction | null;
   /** the standardised building blocks, when the capital rule profile computes them (absent on earlier runs) */
   standardised?: RunStandardised | null;
+  /**
+   * set when the per-position detail (each method's contributions by position) is stored apart (run_details) and
+   * left out here: read the run with `{ detail: true }` for it (lib/runs/detail.ts). Absent on earlier runs, which
+   * keep it inline.
+   */
+  detailApart?: boolean;
 }
 
 /** A run as the pages and other modules see it. */

@@ -15,6 +15,11 @@ export const useForFilingSchema = z.object({
   confirm: z.literal(true, { message: "Confirm that this run is the one the filing uses." }),
 });
 
+/** GET /api/runs/[runId]: `?detail=contributions` adds each position's contributions (stored apart; large on a big book). */
+export const runQuerySchema = z.object({
+  detail: z.enum(["contributions"], { message: 'The only detail a run adds is "contributions".' }).optional(),
+});
+
 export const volatilityQuerySchema = z.object({
   factor: z.string().trim().min(1, "Name a factor.").max(100, "At most 100 characters.").optional(),
 });

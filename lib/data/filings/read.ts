@@ -66,7 +66,7 @@ async function detail(actor: Actor, row: FilingRow): Promise<FilingDetail> {
   const db = getDb();
   const [period, marked, sigs, comments] = await Promise.all([
     findPeriod(actor, row.periodId),
-    filingRunOf(actor, row.periodId),
+    filingRunOf(actor, row.periodId, { detail: false }),
     signaturesOf(actor, [row.id]),
     db
       .select()
@@ -164,7 +164,7 @@ export async function listFilingVersions(actor: Actor, periodId: string): Promis
 /** The filing page of a period: the period, its marked run, the current version and every version. */
 export async function periodFiling(actor: Actor, periodId: string): Promise<PeriodFiling> {
   const period = await findPeriod(actor, periodId);
-  const [marked, row, versions, firm] = await Promise.all([filingRunOf(actor, periodId), currentRow(actor, periodId), listFilingVersions(actor, periodId), firmOf(actor)]);
+  const [marked, row, versions, firm] = await Promise.all([filingRunOf(actor, periodId, { detail: false }), currentRow(actor, periodId), listFilingVersions(actor, periodId), firmOf(actor)]);
   const [last] = await getDb()
     .select({ reference: signatures.licenceReference })
     .from(signatures)

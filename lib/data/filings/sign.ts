@@ -49,7 +49,7 @@ async function fourEyesRefusal(actor: Actor, row: FilingRow, run: RunRecord): Pr
 /** Why this person cannot sign this version under the four-eyes rule (the page says so before they try), or null. */
 export async function fourEyesNote(actor: Actor, filingId: string): Promise<string | null> {
   const row = await findRow(actor, filingId);
-  return fourEyesRefusal(actor, row, await getRun(actor, row.runId));
+  return fourEyesRefusal(actor, row, await getRun(actor, row.runId, { detail: false }));
 }
 
 /** Failed signing passwords of this person in the rate window (the same window and limit as sign-in). */
@@ -74,7 +74,7 @@ export async function signFiling(actor: Actor, filingId: string, input: SignFili
     if (LOCKED.includes(row.status as FilingRowStatus)) throw new AppError("conflict:filing_locked", row.status === "signed" ? `Version ${row.version} is already signed.` : lockedMessage(row));
     throw new AppError("conflict:filing", row.status === "changes_requested" ? `Changes to version ${row.version} were requested; it can be signed once it is resubmitted.` : `Version ${row.version} has not been submitted for review yet.`);
   }
-  const run = await getRun(actor, row.runId);
+  const run = await getRun(actor, row.runId, { detail: false });
   const refusal = await fourEyesRefusal(actor, row, run);
   if (refusal) throw new AppError("forbidden:four_eyes", refusal);
 
@@ -104,7 +104,7 @@ export async function signFiling(actor: Actor, filingId: string, input: SignFili
     throw new AppError("unprocessable:sign_password", "The password is not correct. Nothing was signed.", { password: "The password is not correct." });
   }
 
-  const marked = await filingRunOf(actor, row.periodId);
+  const marked = await filingRunOf(actor, row.periodId, { detail: false });
   if (!marked || marked.id !== row.runId) {
     throw new AppError("conflict:filing_run", "The run marked for the period's filing changed after this version was submitted. Request changes so that the compliance officer rebuilds it from the marked run.");
   }

@@ -1,5 +1,5 @@
 /**
- * "run": compute a queued run (lib/runs/execute.ts: gather and store its inputs, check the method can be computed,
+ * "run": compute a queued run (lib/data/run-execution.ts: gather and store its inputs, check the method can be computed,
  * compute, store the results), reporting stage and progress on the run row and keeping the job's lease alive.
  * Payload `{ runId, excludeShortHistory }`; enqueued by startRun/reproduceRun (lib/data/runs.ts) in the run's own
  * transaction with maxAttempts 1: a run whose worker stopped is not silently computed again but shown as
@@ -13,7 +13,7 @@ import type { JobKind } from "../types";
 
 export const runJob: JobKind = {
   async handle(context) {
-    const { executeRun } = await import("@/lib/runs/execute");
+    const { executeRun } = await import("@/lib/data/run-execution");
     const { computeInThread } = await import("@/lib/runs/compute-in-thread");
     const payload = readPayload(context.job, runPayloadSchema);
     // computed in a thread of its own, so that the worker's heartbeat goes on through a large book's long steps

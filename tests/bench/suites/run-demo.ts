@@ -12,7 +12,7 @@ import { getDb } from "@/db/client";
 import { seedDemoUploads } from "@/db/seed-uploads";
 import { seedDemoMethod } from "@/db/seed-method";
 import { getRun, reproduceRun, startRun } from "@/lib/data/runs";
-import { executeRun } from "@/lib/runs/execute";
+import { executeRun } from "@/lib/data/run-execution";
 
 (async () => {
   process.env.UPLOAD_STANDIN_DIR = mkdtempSync(path.join(tmpdir(), "ballast-bench-files-"));

@@ -18,7 +18,7 @@ import { seedDemoMethod } from "@/db/seed-method";
 import { actorForEmail } from "@/db/actor-for";
 import { getDataQuality, qualityComputations } from "@/lib/data/data-quality";
 import { getRun, startRun, useForFiling } from "@/lib/data/runs";
-import { executeRun } from "@/lib/runs/execute";
+import { executeRun } from "@/lib/data/run-execution";
 import { downloadPack, prepareFiling } from "@/lib/data/filings";
 import { packRenders } from "@/lib/data/packs";
 

@@ -7,7 +7,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { actorFor, demoPeriodId, runsDatabase, PEOPLE } from "../runs/setup";
 import { seedDemoCapitalProfile } from "@/db/seed-capital";
 import { getRun, getRunInputs, reproduceRun, startRun } from "@/lib/data/runs";
-import { executeRun } from "@/lib/runs/execute";
+import { executeRun } from "@/lib/data/run-execution";
 import { computeStandardised } from "@/lib/risk/standardised";
 import { filedCapitalOf, RWA_MULTIPLIER } from "@/lib/runs/standardised";
 import { standardisedPositionOf } from "@/lib/uploads/position-attributes";

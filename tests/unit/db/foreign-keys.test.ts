@@ -75,6 +75,7 @@ describe("declared references", () => {
       "positions_upload_id → uploads.id",
     ]);
     expect(await references(db, "run_inputs")).toEqual([firm, "run_id → runs.id"]);
+    expect(await references(db, "run_details")).toEqual([firm, "run_id → runs.id"]);
     expect(await references(db, "filings")).toEqual([firm, "period_id → reporting_periods.id", "run_id → runs.id"]);
     for (const table of ["review_comments", "signatures", "pack_files"]) expect(await references(db, table)).toEqual(["filing_id → filings.id", firm]);
     expect(await references(db, "memberships")).toEqual([firm, "user_id → users.id"]);

@@ -26,7 +26,7 @@ export interface FilingWorld {
 /** Complete a run of the period as `starter` and, unless told not to, mark it for the filing. */
 export async function completedRun(starter: Actor, periodId: string, mark = true): Promise<string> {
   const runs = await import("@/lib/data/runs");
-  const { executeRun } = await import("@/lib/runs/execute");
+  const { executeRun } = await import("@/lib/data/run-execution");
   const run = await runs.startRun(starter, periodId, { excludeShortHistory: true });
   const outcome = await executeRun(run.id);
   if (outcome !== "completed") throw new Error(`the test run did not complete (${outcome})`);

@@ -11,7 +11,7 @@ import { and, eq } from "drizzle-orm";
 import { actorFor, demoWorldAs, PEOPLE } from "./setup";
 import { auditEvents } from "@/db/schema";
 import { exportRunInputs, getRun, startRun } from "@/lib/data/runs";
-import { executeRun } from "@/lib/runs/execute";
+import { executeRun } from "@/lib/data/run-execution";
 import { compareRuns } from "@/lib/runs/compare";
 import { RUN_INPUTS_FORMAT } from "@/lib/runs/export";
 import { AppError } from "@/lib/errors";

@@ -6,7 +6,7 @@ import { capitalProfileOf, engineMethodOf, estimatorFor, firmPlusFactor, storedH
 import { alignReturns, usableSeries } from "@/lib/runs/align";
 import { canonicalJson, hashOf, sha256Hex } from "@/lib/domain/canonical";
 import { choicesFor } from "@/lib/runs/factor-volatility";
-import { progressOf } from "@/lib/runs/execute";
+import { progressOf } from "@/lib/data/run-execution";
 import { RUN_STAGES } from "@/lib/runs/types";
 
 const row = { id: "p1", name: "Firm profile", confidence: 0.99, horizonDays: 10, averagingDays: 60, baseMultiplier: 3, stressedMultiplier: 3, backtestDays: 250, plusFactors: { "5": 0.4, "6": 0.5, "7": 0.65, "8": 0.75, "9": 0.85, "10": 1 } };

@@ -6,12 +6,12 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import type { Database } from "@/db/client";
-import { runInputs, runs } from "@/db/schema";
+import { runDetails, runInputs, runs } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
 import { AppError } from "@/lib/errors";
 import { openPeriod } from "@/lib/data/periods";
 import { filingRunOf, getRun, getRunInputs, listRuns, packInputs, reproduceRun, runChange, startRun, useForFiling } from "@/lib/data/runs";
-import { executeRun } from "@/lib/runs/execute";
+import { executeRun } from "@/lib/data/run-execution";
 import { computeRun } from "@/lib/runs/compute";
 import { compareRuns, inputHashesOf } from "@/lib/runs/compare";
 import { volatilityDetail } from "@/lib/runs/volatility-detail";
@@ -111,6 +111,26 @@ describe("a run of the demo period", () => {
     expect(r.dataQuality.items).toBeGreaterThan(0);
     // the demo statement keeps one EWMA covariance for every factor, and the run says so
     expect(r.factorVolatility.statement).toContain("one EWMA covariance for every factor");
+  });
+
+  it("stores each position's contributions apart from the figures, and joins them back on a read", async () => {
+    const [row] = await db.select({ results: runs.results }).from(runs).where(eq(runs.id, run.id));
+    expect(row.results!.detailApart).toBe(true);
+    expect(row.results!.monthEnd.methods.flatMap((m) => m.byConfidence.map((c) => c.contributions.length))).toEqual([0, 0, 0, 0]);
+    const [detail] = await db.select({ bytes: runDetails.bytes }).from(runDetails).where(eq(runDetails.runId, run.id));
+    expect(detail.bytes).toBeGreaterThan(0);
+    // the default read is whole: 55 positions of the 56 count (one is excluded for its missing history), per method and confidence
+    expect(run.results!.detailApart).toBeUndefined();
+    expect(run.results!.monthEnd.methods.flatMap((m) => m.byConfidence.map((c) => c.contributions.length))).toEqual([55, 55, 55, 55]);
+    // component VaRs add up to the VaR (Euler allocation of a homogeneous risk measure; relative 1e-9, common practice, no source)
+    const c99 = run.results!.monthEnd.methods[0].byConfidence[0];
+    expect(Math.abs(c99.contributions.reduce((a, p) => a + p.componentVar, 0) - c99.oneDay.var) / c99.oneDay.var).toBeLessThan(1e-9);
+    const figures = await getRun(analyst, run.id, { detail: false });
+    expect(figures.results!.detailApart).toBe(true);
+    expect({ ...figures.results!, monthEnd: { ...figures.results!.monthEnd, methods: [] }, detailApart: undefined }).toEqual({ ...run.results!, monthEnd: { ...run.results!.monthEnd, methods: [] }, detailApart: undefined });
+    // written once, like the stored inputs
+    await expect(db.$client.execute({ sql: "UPDATE run_details SET bytes = 1 WHERE run_id = ?", args: [run.id] })).rejects.toThrow(/cannot be changed/);
+    await expect(db.$client.execute({ sql: "DELETE FROM run_details WHERE run_id = ?", args: [run.id] })).rejects.toThrow(/cannot be deleted/);
   });
 
   it("reports parametric VaR as the normal quantile times the book's volatility", () => {

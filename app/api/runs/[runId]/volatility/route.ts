@@ -7,7 +7,7 @@ import { volatilityDetail } from "@/lib/runs/volatility-detail";
 
 /** One factor's volatility over time under each estimator, computed on demand from the run's stored inputs. */
 export const GET = route({ permission: "periods.read", params: idParam("runId"), query: volatilityQuerySchema }, async ({ actor, params, query }) => {
-  await getRun(actor, params.runId);
+  await getRun(actor, params.runId, { detail: false });
   const inputs = await getRunInputs(actor, params.runId);
   const factors = Object.keys(inputs.prices.factors).sort();
   const factor = query.factor ?? factors[0];

@@ -22,10 +22,10 @@ export function ZoneBadge({ zone }: { zone: string }) {
 
 /**
  * Loads a run and shows its loading, error, in-progress and failed states; renders `children` once the run has
- * completed, with its results.
+ * completed, with its results (with `detail`, each position's contributions too).
  */
-export function CompletedRun({ runId, children }: { runId: string; children: (data: { run: RunRecord; results: RunResults; reportingCurrency: string }) => React.ReactNode }) {
-  const { data, error, isPending } = useRun(runId);
+export function CompletedRun({ runId, detail, children }: { runId: string; detail?: "contributions"; children: (data: { run: RunRecord; results: RunResults; reportingCurrency: string }) => React.ReactNode }) {
+  const { data, error, isPending } = useRun(runId, detail);
   if (isPending) return <p className="text-sm text-ink-muted" role="status">Loading the run…</p>;
   if (error || !data) return <LoadError error={error} fallback="Could not load the run." />;
   const { run } = data;

@@ -14,11 +14,14 @@ export interface RunResponse {
 
 export const isActive = (status: string | undefined) => status === "queued" || status === "running";
 
-/** One run, polled every second while it is queued or running. */
-export function useRun(runId: string) {
+/**
+ * One run, polled every second while it is queued or running: its figures, and with `detail` each position's
+ * contributions too (stored apart, large on a big book: only the page that shows them asks).
+ */
+export function useRun(runId: string, detail?: "contributions") {
   return useQuery({
-    queryKey: ["run", runId],
-    queryFn: () => apiFetch<RunResponse>(`/api/runs/${runId}`),
+    queryKey: detail ? ["run", runId, detail] : ["run", runId],
+    queryFn: () => apiFetch<RunResponse>(detail ? `/api/runs/${runId}?detail=${detail}` : `/api/runs/${runId}`),
     refetchInterval: (q) => (isActive(q.state.data?.run.status) ? 1000 : false),
   });
 }

@@ -152,5 +152,5 @@ function View({ results, currency }: { results: RunResults; currency: string }) 
 }
 
 export function Contributions({ runId }: { runId: string }) {
-  return <CompletedRun runId={runId}>{({ results, reportingCurrency }) => <View results={results} currency={reportingCurrency} />}</CompletedRun>;
+  return <CompletedRun runId={runId} detail="contributions">{({ results, reportingCurrency }) => <View results={results} currency={reportingCurrency} />}</CompletedRun>;
 }

@@ -2,25 +2,27 @@
  * Execute a queued run in a worker process (job kind "run", lib/jobs/kinds/run.ts): gather its inputs as they stand
  * (or read the stored ones: a reproduction, or a run given back by a stopping worker), store them with their hashes,
  * check the method can be computed, compute, record stage and percentage as it goes (extending the job's lease),
- * then store the results and its completion in one transaction with the audit record. A failure is stored with its
+ * then store the results (the figures in the run's row, the per-position detail in run_details) and its completion
+ * in one transaction with the audit record. A failure is stored with its
  * reason; earlier runs are never touched.
  */
 import "server-only";
 import { and, eq, inArray } from "drizzle-orm";
 import { getDb, type Database } from "@/db/client";
-import { firms, memberships, runInputs, runs, users } from "@/db/schema";
+import { firms, memberships, runDetails, runInputs, runs, users } from "@/db/schema";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
 import { parseRoles } from "@/lib/auth/roles";
 import { now } from "@/lib/clock";
 import { ENGINE_VERSION } from "@/lib/risk/version";
-import { gatherRunInputs, packInputs, unpackInputs } from "@/lib/data/runs";
+import { gatherRunInputs, packDetail, packInputs, unpackInputs, withStoredDetail } from "./runs";
+import { splitDetail } from "@/lib/runs/detail";
 import { jobByKey } from "@/lib/jobs/queue";
 import { readPayload, runPayloadSchema } from "@/lib/jobs/payload";
-import { runJobKey } from "./staleness";
-import { inputHashesOf, compareRuns, asStored } from "./compare";
-import { computeRun, type ComputeContext, type RunProgress } from "./compute";
-import { RUN_STAGES, type RunInputHashes, type RunInputs, type RunResults } from "./types";
+import { runJobKey } from "@/lib/runs/staleness";
+import { inputHashesOf, compareRuns, asStored } from "@/lib/runs/compare";
+import { computeRun, type ComputeContext, type RunProgress } from "@/lib/runs/compute";
+import { RUN_STAGES, type RunInputHashes, type RunInputs, type RunResults } from "@/lib/runs/types";
 
 /** Progress 0..1 of a stage at a fraction of its own work. */
 export function progressOf(stage: string, fraction: number): number {
@@ -132,7 +134,7 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
       if (run.reproducesRunId) {
         const [original] = await db.select().from(runs).where(and(eq(runs.id, run.reproducesRunId), eq(runs.firmId, run.firmId)));
         if (original?.results) {
-          const originalResults = original.results;
+          const originalResults = await withStoredDetail(db, run.firmId, original.id, original.results);
           // the data-quality report belongs to the original's start; a reproduction reads no live data
           results = { ...results, dataQuality: originalResults.dataQuality };
           results.reproduction = compareRuns(
@@ -141,14 +143,18 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
           );
         }
       }
+      // the figures in the run's row, the per-position detail apart (the run's page and lists read only the figures)
+      const { figures, detail } = splitDetail(results);
+      const packedDetail = packDetail(detail);
       const finishedAt = now().toISOString();
       await db.transaction(async (tx) => {
         const completed = await tx
           .update(runs)
-          .set({ status: "completed", stage: "done", progress: 1, results, engineVersion: ENGINE_VERSION, finishedAt, heartbeatAt: finishedAt })
+          .set({ status: "completed", stage: "done", progress: 1, results: figures, engineVersion: ENGINE_VERSION, finishedAt, heartbeatAt: finishedAt })
           .where(active)
           .returning({ id: runs.id });
         if (completed.length === 0) throw new Error("the run was finished meanwhile (interrupted)");
+        await tx.insert(runDetails).values({ runId, firmId: run.firmId, data: packedDetail.data, bytes: packedDetail.bytes });
         const r = results.reproduction;
         await recordAudit(tx, actor, {
           action: "run.complete",
