@@ -18,7 +18,7 @@ async function main() {
     if (problem) throw new Error(`--as-of: ${problem}`);
     if (process.env.NODE_ENV === "production" && process.env.BALLAST_ALLOW_CLOCK !== "1") throw new Error("--as-of is test-only; set BALLAST_ALLOW_CLOCK=1 to allow it.");
   }
-  const { runReminders } = await import("../lib/reminders/run");
+  const { runReminders } = await import("../lib/data/reminders");
   const { getMailer } = await import("../lib/mail/transport");
   const result = await runReminders({ asOf });
   getMailer()?.close();

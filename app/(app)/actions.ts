@@ -1,13 +1,10 @@
 "use server";
 
-import { eq, sql } from "drizzle-orm";
 import { cookies } from "next/headers";
-import { getDb } from "@/db/client";
-import { users } from "@/db/schema";
 import { signOut } from "@/lib/auth";
 import { action } from "@/lib/auth/action";
 import { FIRM_COOKIE } from "@/lib/auth/actor";
-import { recordAudit } from "@/lib/audit/record";
+import { endSessionOfActor } from "@/lib/data/sessions";
 import { z } from "zod";
 
 /**
@@ -15,10 +12,7 @@ import { z } from "zod";
  * session token stops working on the server too.
  */
 const endSession = action("member", z.object({}), async (_input, actor) => {
-  await getDb().transaction(async (tx) => {
-    await tx.update(users).set({ sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, actor.userId));
-    await recordAudit(tx, actor, { action: "session.sign_out", entityType: "user", entityId: actor.userId, summary: `${actor.name} signed out` });
-  });
+  await endSessionOfActor(actor);
 });
 
 export async function signOutAction(): Promise<void> {

@@ -10,7 +10,7 @@ import { getDb } from "@/db/client";
 import { memberships, users } from "@/db/schema";
 import { signInSchema } from "@/lib/validation/auth";
 import { verifyPassword, dummyHash } from "./password";
-import { endSessionsOf } from "./sessions";
+import { endSessionsOf } from "@/lib/data/sessions";
 import { clientAddress, isSignInBlocked, recordSignInAttempt } from "./rate-limit";
 
 declare module "next-auth" {

@@ -7,7 +7,7 @@ import { now, today } from "@/lib/clock";
 import { appUrl } from "@/lib/reminders/message";
 import { businessDaysBetween, deadlineFor, nextMonthEnds, subtractBusinessDays, type DeadlineRule } from "./deadline";
 import { buildIcs } from "./ics";
-import { getReminderSettings, type ReminderSettings } from "./settings";
+import { getReminderSettings, type ReminderSettings } from "@/lib/data/calendar-settings";
 
 export interface ComingDeadline {
   periodEnd: string;

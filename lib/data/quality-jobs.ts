@@ -1,7 +1,7 @@
 /**
  * Enqueueing the "data-quality" job (lib/jobs/kinds/data-quality.ts) from the writes that change what a period's
  * report reads: confirming an upload (lib/data/uploads.ts), confirming a finding (lib/data/quality-confirmations.ts), editing the
- * holidays (lib/calendar/settings.ts), a new capital rule profile version (lib/data/capital-profile.ts) and a new reporting
+ * holidays (lib/data/calendar-settings.ts), a new capital rule profile version (lib/data/capital-profile.ts) and a new reporting
  * currency (lib/data/firm.ts).
  * Its own module, so those can enqueue without importing the report (no import cycle).
  */

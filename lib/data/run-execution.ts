@@ -19,7 +19,7 @@ import { gatherRunInputs, packDetail, packInputs, unpackInputs, withStoredDetail
 import { splitDetail } from "@/lib/runs/detail";
 import { jobByKey } from "@/lib/jobs/queue";
 import { readPayload, runPayloadSchema } from "@/lib/jobs/payload";
-import { runJobKey } from "@/lib/runs/staleness";
+import { runJobKey } from "@/lib/data/run-staleness";
 import { inputHashesOf, compareRuns, asStored } from "@/lib/runs/compare";
 import { computeRun, type ComputeContext, type RunProgress } from "@/lib/runs/compute";
 import { RUN_STAGES, type RunInputHashes, type RunInputs, type RunResults } from "@/lib/runs/types";

@@ -27,7 +27,7 @@ import { regimeFieldsOf, storedAttributesOf } from "@/lib/runs/standardised";
 import { canonicalJson } from "@/lib/domain/canonical";
 import { assessHistory, engineInputOf, neededFactors, type HistoryAssessment } from "@/lib/runs/compute";
 import { capitalProfileOf } from "@/lib/runs/method-map";
-import { markIfInterrupted, runJobKey, type RunJobPayload } from "@/lib/runs/staleness";
+import { markIfInterrupted, runJobKey, type RunJobPayload } from "@/lib/data/run-staleness";
 import { enqueue } from "@/lib/jobs/queue";
 import type { RunChange, RunInputHashes, RunInputs, RunListItem, RunRecord, RunResults, RunStatus, StoredPosition } from "@/lib/runs/types";
 import { dataQualityReport } from "@/lib/uploads/data-quality";

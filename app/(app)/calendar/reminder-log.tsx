@@ -1,6 +1,6 @@
 import { StatusBadge } from "@/app/_components/status-badge";
 import { formatMonth, formatTimestamp } from "@/app/_components/format";
-import type { ReminderLogEntry } from "@/lib/reminders/log";
+import type { ReminderLogEntry } from "@/lib/data/reminder-log";
 import { SimpleTable } from "@/app/_components/simple-table";
 
 const STATUS: Record<ReminderLogEntry["status"], { tone: "ok" | "caution" | "alert" | "neutral"; label: string }> = {

@@ -1,7 +1,7 @@
 import Link from "next/link";
 import type { Actor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/permissions";
-import { getReminderSettings, listHolidays } from "@/lib/calendar/settings";
+import { getReminderSettings, listHolidays } from "@/lib/data/calendar-settings";
 import { mailListenerUrl } from "@/lib/mail/inbox";
 import { ReminderScheduleForm } from "./reminder-schedule-form";
 import { HolidaysPanel } from "./holidays-panel";

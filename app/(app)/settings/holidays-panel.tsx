@@ -6,7 +6,7 @@ import { apiFetch, ApiError } from "@/app/_components/api";
 import { formatDate } from "@/app/_components/format";
 import { inputClass, primaryButtonClass, secondaryButtonClass } from "@/app/_components/field";
 import { dateProblem } from "@/lib/calendar/validation";
-import type { Holiday } from "@/lib/calendar/settings";
+import type { Holiday } from "@/lib/data/calendar-settings";
 import { useHydrated } from "@/app/_components/use-hydrated";
 import { saveFailed, SaveStatusLine, type SaveStatus } from "./save-status";
 

@@ -7,7 +7,7 @@ import { apiFetch, ApiError } from "@/app/_components/api";
 import { CheckboxField, TextField } from "@/app/_components/form/fields";
 import { parseOffsetList, reminderSettingsSchema } from "@/lib/calendar/validation";
 import { fieldMessages } from "./field-messages";
-import type { ReminderSettings } from "@/lib/calendar/settings";
+import type { ReminderSettings } from "@/lib/data/calendar-settings";
 import { saveFailed, SaveButton, SaveStatusLine, type SaveStatus } from "./save-status";
 
 /** What the form holds: the days before the deadline as typed ("10, 5, 2, 1"), and the two switches. */

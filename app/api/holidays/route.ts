@@ -1,5 +1,5 @@
 import { route } from "@/lib/auth/route";
-import { listHolidays, replaceHolidays } from "@/lib/calendar/settings";
+import { listHolidays, replaceHolidays } from "@/lib/data/calendar-settings";
 import { holidayListSchema } from "@/lib/calendar/validation";
 
 /** The firm's holidays (days that are not business days, beyond weekends). */

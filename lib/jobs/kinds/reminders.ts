@@ -1,5 +1,5 @@
 /**
- * "reminders": one round of the reminder scheduler (lib/reminders/run.ts: opens due periods, records then sends due
+ * "reminders": one round of the reminder scheduler (lib/data/reminders.ts: opens due periods, records then sends due
  * reminders). Safe to run again: each reminder is recorded before it is sent and claimed once. The worker keeps one
  * queued, due REMINDERS_INTERVAL_MINUTES (default 10; 0 turns the schedule off) after the last round finished.
  * `npm run reminders` and POST /api/cron/reminders still run a round on demand.
@@ -14,7 +14,7 @@ export function remindersIntervalMs(): number {
 
 export const remindersJob: JobKind = {
   async handle(context) {
-    const { runReminders } = await import("@/lib/reminders/run");
+    const { runReminders } = await import("@/lib/data/reminders");
     await context.progress("sending", 0);
     const result = await runReminders();
     if (result.failed > 0) console.error(`reminders: ${result.failed} not sent (${result.problems.join(" ")})`);

@@ -21,7 +21,7 @@ export const runJob: JobKind = {
     return { outcome };
   },
   async onGivenUp(job: Job, db: Database, reason: string) {
-    const { markRunInterrupted } = await import("@/lib/runs/staleness");
+    const { markRunInterrupted } = await import("@/lib/data/run-staleness");
     await markRunInterrupted(db, readPayload(job, runPayloadSchema).runId, reason);
   },
 };

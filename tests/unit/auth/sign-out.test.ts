@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { eq } from "drizzle-orm";
 import { freshDatabase } from "../helpers/db";
-import { endSessionsOf } from "@/lib/auth/sessions";
+import { endSessionsOf } from "@/lib/data/sessions";
 import { users } from "@/db/schema";
 import type { Database } from "@/db/client";
 

@@ -4,10 +4,10 @@ import { actorFor, freshDatabase, snapshot } from "../helpers/db";
 import type { Database } from "@/db/client";
 import { auditEvents, reportingPeriods } from "@/db/schema";
 import { AppError } from "@/lib/errors";
-import { importHolidayCsv, listHolidays, replaceHolidays, getReminderSettings, updateReminderSettings, setMyReminderPreference, getMyReminderPreference } from "@/lib/calendar/settings";
+import { importHolidayCsv, listHolidays, replaceHolidays, getReminderSettings, updateReminderSettings, setMyReminderPreference, getMyReminderPreference } from "@/lib/data/calendar-settings";
 import { holidayListSchema, parseHolidayCsv, parseOffsetList, reminderSettingsSchema } from "@/lib/calendar/validation";
 import { firmSettingsSchema } from "@/lib/validation/firm";
-import { openDuePeriods } from "@/lib/calendar/auto-open";
+import { openDuePeriods } from "@/lib/data/period-auto-open";
 import { DEMO_USERS, SECOND_FIRM_USERS } from "@/db/seed";
 
 let db: Database;

@@ -10,7 +10,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { freshDatabase } from "../helpers/db";
 import type { Database } from "@/db/client";
 import type { JobState } from "@/lib/jobs/queue";
-import type { ReminderStatus } from "@/lib/reminders/log";
+import type { ReminderStatus } from "@/lib/data/reminder-log";
 import type { MethodStatus } from "@/lib/data/method";
 import type { CommentView, FilingRowStatus } from "@/lib/data/filings";
 import type { RunStatus } from "@/lib/runs/types";

@@ -3,8 +3,8 @@ import { actorFor } from "../helpers/db";
 import { reminderWorld } from "../helpers/reminder-world";
 import { DEMO_USERS, SECOND_FIRM_USERS } from "@/db/seed";
 import type { Mailer } from "@/lib/mail/transport";
-import { runReminders } from "@/lib/reminders/run";
-import { listReminderLog } from "@/lib/reminders/log";
+import { runReminders } from "@/lib/data/reminders";
+import { listReminderLog } from "@/lib/data/reminder-log";
 import { closedPort, delayRecorder, logRows, mailerFor, RUN } from "./helpers";
 
 const world = reminderWorld();

@@ -5,8 +5,8 @@ import { reminderWorld } from "../helpers/reminder-world";
 import { auditEvents, reminderLog, reportingPeriods } from "@/db/schema";
 import { DEMO_USERS, SECOND_FIRM_USERS } from "@/db/seed";
 import { startMailListener } from "@/lib/mail/listener";
-import { runReminders } from "@/lib/reminders/run";
-import { setMyReminderPreference } from "@/lib/calendar/settings";
+import { runReminders } from "@/lib/data/reminders";
+import { setMyReminderPreference } from "@/lib/data/calendar-settings";
 import { delayRecorder, logRows, mailerFor, RUN } from "./helpers";
 
 const world = reminderWorld();

@@ -9,7 +9,7 @@ import { demoWorldAs, PEOPLE } from "../runs/setup";
 import type { Database } from "@/db/client";
 import { jobs } from "@/db/schema";
 import type { Actor } from "@/lib/auth/actor";
-import { listHolidays, replaceHolidays } from "@/lib/calendar/settings";
+import { listHolidays, replaceHolidays } from "@/lib/data/calendar-settings";
 import { currentCapitalProfile, saveCapitalProfile } from "@/lib/data/capital-profile";
 import { getFirmSettings, updateFirmSettings } from "@/lib/data/firm";
 import { capitalProfileSchema } from "@/lib/validation/capital-profile";

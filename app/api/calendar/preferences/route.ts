@@ -1,5 +1,5 @@
 import { route } from "@/lib/auth/route";
-import { getMyReminderPreference, setMyReminderPreference } from "@/lib/calendar/settings";
+import { getMyReminderPreference, setMyReminderPreference } from "@/lib/data/calendar-settings";
 import { reminderPreferenceSchema } from "@/lib/calendar/validation";
 
 /** Whether I receive reminder e-mails (any member, for themselves). */

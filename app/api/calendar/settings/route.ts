@@ -1,5 +1,5 @@
 import { route } from "@/lib/auth/route";
-import { getReminderSettings, updateReminderSettings } from "@/lib/calendar/settings";
+import { getReminderSettings, updateReminderSettings } from "@/lib/data/calendar-settings";
 import { reminderSettingsSchema } from "@/lib/calendar/validation";
 
 /** The reminder schedule and automatic opening (administrators). */

@@ -2,7 +2,7 @@ import { timingSafeEqual, createHash } from "node:crypto";
 import { fieldErrors, route } from "@/lib/auth/route";
 import { AppError } from "@/lib/errors";
 import { cronRequestSchema } from "@/lib/calendar/validation";
-import { runReminders } from "@/lib/reminders/run";
+import { runReminders } from "@/lib/data/reminders";
 
 /** Whether the request carries the scheduler secret (compared in constant time). */
 function hasSecret(request: Request): boolean {

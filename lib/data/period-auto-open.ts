@@ -9,7 +9,7 @@ import { getDb } from "@/db/client";
 import { calendarSettings, firms, reportingPeriods } from "@/db/schema";
 import { getCalendar } from "@/lib/data/periods";
 import { recordAudit, scheduledActor } from "@/lib/audit/record";
-import { deadlineFor, latestMonthEnd } from "./deadline";
+import { deadlineFor, latestMonthEnd } from "@/lib/calendar/deadline";
 
 export const SCHEDULER_NAME = "Calendar (automatic)";
 

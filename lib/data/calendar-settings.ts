@@ -7,7 +7,7 @@ import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import type { Actor } from "@/lib/auth/actor";
 import { enqueueQualityRefresh, periodsTakingPrices } from "@/lib/data/quality-jobs";
-import { parseHolidayCsv, type HolidayCsvInput, type HolidayListInput, type ReminderSettingsInput } from "./validation";
+import { parseHolidayCsv, type HolidayCsvInput, type HolidayListInput, type ReminderSettingsInput } from "@/lib/calendar/validation";
 
 export interface ReminderSettings {
   reminderOffsets: number[];

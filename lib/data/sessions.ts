@@ -3,6 +3,16 @@ import { and, eq, sql } from "drizzle-orm";
 import { getDb } from "@/db/client";
 import { auditEvents, memberships, users } from "@/db/schema";
 import { now } from "@/lib/clock";
+import type { Actor } from "@/lib/auth/actor";
+import { recordAudit } from "@/lib/audit/record";
+
+/** The app's own sign-out: the person's session version moves on (every copy of the token stops working), audited. */
+export async function endSessionOfActor(actor: Actor): Promise<void> {
+  await getDb().transaction(async (tx) => {
+    await tx.update(users).set({ sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, actor.userId));
+    await recordAudit(tx, actor, { action: "session.sign_out", entityType: "user", entityId: actor.userId, summary: `${actor.name} signed out` });
+  });
+}
 
 /**
  * End a person's sessions on the server: the session version moves on, so every copy of the token is refused by

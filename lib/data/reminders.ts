@@ -17,14 +17,14 @@ import { calendarSettings, firms, memberships, reminderLog, users } from "@/db/s
 import type { Actor } from "@/lib/auth/actor";
 import { recordAudit, scheduledActor } from "@/lib/audit/record";
 import { parseRoles } from "@/lib/auth/roles";
-import { openDuePeriods } from "@/lib/calendar/auto-open";
+import { openDuePeriods } from "@/lib/data/period-auto-open";
 import { businessDaysBetween } from "@/lib/calendar/deadline";
 import { getCalendar, listPeriods, type PeriodSummary } from "@/lib/data/periods";
 import { now as clockNow, today } from "@/lib/clock";
 import { describeMailError, getMailer, type Mailer } from "@/lib/mail/transport";
-import { appUrl as defaultAppUrl, reminderMessage } from "./message";
-import { dueOffset, planReminders, timingText, OVERDUE_OFFSET, type PlanPerson, type ReminderSchedule } from "./plan";
-import { withRetry, type Delay } from "./retry";
+import { appUrl as defaultAppUrl, reminderMessage } from "@/lib/reminders/message";
+import { dueOffset, planReminders, timingText, OVERDUE_OFFSET, type PlanPerson, type ReminderSchedule } from "@/lib/reminders/plan";
+import { withRetry, type Delay } from "@/lib/reminders/retry";
 
 export const SCHEDULER_ACTOR_NAME = "Reminder scheduler";
 /** SMTP tries, over all runs, before a reminder is given up as failed. */
