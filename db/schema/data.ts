@@ -4,6 +4,7 @@ import { id, createdAt } from "../columns";
 import { firmReference } from "./firms";
 import { reportingPeriods } from "./periods";
 import type { ReadOptions } from "../../lib/uploads/types";
+import type { UploadSummary } from "../../lib/uploads/summary";
 
 /** An uploaded file: positions for a period, or price history for the firm. Confirmed by a person before use. */
 export const uploads = sqliteTable(
@@ -33,7 +34,7 @@ export const uploads = sqliteTable(
      * confirmed → superseded
      */
     status: text("status").notNull().default("pending"),
-    summary: text("summary", { mode: "json" }).$type<Record<string, unknown>>(),
+    summary: text("summary", { mode: "json" }).$type<UploadSummary>(),
     problems: text("problems", { mode: "json" }).$type<unknown[]>(),
     uploadedBy: text("uploaded_by").notNull(),
     confirmedBy: text("confirmed_by"),

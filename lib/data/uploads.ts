@@ -211,7 +211,7 @@ async function uploadJob(uploadId: string, status: string) {
 /** An upload with its full problem list and totals, for the preview screen (and its job's progress while one runs). */
 export async function getUploadPreview(actor: Actor, uploadId: string) {
   const row = await getUploadRow(actor, uploadId);
-  const summary = (row.summary ?? null) as (Record<string, unknown> & { header?: string[]; missingColumns?: string[] }) | null;
+  const summary = row.summary ?? null;
   const problems = row.status === "pending" ? ((await readAll(getDb(), actor.firmId, uploadId, "problems")) as Problem[]) : ((row.problems ?? []) as Problem[]);
   return {
     upload: { ...listItem(row), options: row.options, summary: row.summary, sizeBytes: row.sizeBytes },

@@ -19,6 +19,7 @@ import { now } from "@/lib/clock";
 import { countOf } from "@/lib/text/count";
 import type { PositionRow } from "@/lib/uploads/parse-positions";
 import type { PricePoint } from "@/lib/uploads/parse-prices";
+import type { ConfirmedSummary, PriceCorrection } from "@/lib/uploads/summary";
 import { ATTRIBUTE_SQL_COLUMNS, attributeSqlValues } from "@/lib/uploads/position-attributes";
 import { assertPeriodTakesData } from "../periods";
 import { enqueueQualityRefresh, periodsTakingPrices } from "../quality-jobs";
@@ -37,9 +38,7 @@ export interface ConfirmHow {
   signal?: AbortSignal;
 }
 
-export type ConfirmResult =
-  | { status: "confirmed"; stored: number; superseded: string[] }
-  | { status: "confirmed"; added: number; corrected: number; unchanged: number; corrections: { instrument: string; date: string; from: number; to: number }[] };
+export type ConfirmResult = { status: "confirmed" } & ConfirmedSummary;
 
 class PricesChangedMeanwhile extends Error {}
 
@@ -61,7 +60,7 @@ function stop(how: ConfirmHow) {
 export async function applyConfirm(firmId: string, uploadId: string, how: ConfirmHow): Promise<ConfirmResult> {
   const db = getDb();
   const row = await firmRow(uploads, firmId, uploadId, "not_found:upload", "No such upload.", db);
-  if (row.status === "confirmed" && row.summary && typeof row.summary.confirmed === "object") return { status: "confirmed", ...(row.summary.confirmed as object) } as ConfirmResult;
+  if (row.status === "confirmed" && row.summary?.confirmed) return { status: "confirmed", ...row.summary.confirmed };
   if (row.status !== how.from) throw new AppError("conflict:upload", `This upload is ${row.status}; it was confirmed or cancelled meanwhile.`);
   if (row.kind === "positions") return confirmPositions(db, row, how);
   for (let attempt = 1; ; attempt++) {
@@ -181,7 +180,7 @@ async function confirmPrices(db: Database, row: typeof uploads.$inferSelect, how
     for (const e of existing) current.set(`${e.instrumentId}\u0000${e.date}`, { id: e.id, close: e.close });
   }
   const corrected: string[] = [];
-  const corrections: { instrument: string; date: string; from: number; to: number }[] = [];
+  const corrections: PriceCorrection[] = [];
   let unchanged = 0;
   const fresh: PricePoint[] = [];
   for (const p of points) {

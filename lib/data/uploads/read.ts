@@ -15,6 +15,7 @@ import { countOf } from "@/lib/text/count";
 import { parseFile, rejected, type ParsedUpload, type ParseFileContext, type UploadKind } from "@/lib/uploads/parse-file";
 import { deleteStoredFiles, fetchStoredFile, sha256 } from "@/lib/uploads/file-store";
 import type { ParseProgress, ReadOptions } from "@/lib/uploads/types";
+import type { UploadSummary } from "@/lib/uploads/summary";
 import type { StandardisedProfile } from "@/lib/risk/standardised";
 import { standardisedProfileOfRow } from "../capital-profile";
 import { assertPeriodTakesData } from "../periods";
@@ -89,7 +90,7 @@ export function counts(parsed: ParsedUpload) {
 }
 
 /** The summary stored on the upload row: totals, layout, the file's header and the columns it lacks. */
-export function summaryOf(parsed: ParsedUpload): Record<string, unknown> {
+export function summaryOf(parsed: ParsedUpload): UploadSummary {
   if (parsed.kind === "positions") return { totals: parsed.totals, source: parsed.source, header: parsed.header.slice(0, 500), missingColumns: parsed.missingColumns, rates: parsed.rates ?? [] };
   if (parsed.kind === "prices") return { ...parsed.summary, layout: parsed.layout, source: parsed.source, header: parsed.header.slice(0, 500), missingColumns: parsed.missingColumns };
   return { rejected: parsed.message };

@@ -14,13 +14,10 @@ import { Pager } from "@/app/_components/pager";
 import type { DateFormat, NumberFormat, Problem } from "@/lib/uploads/types";
 import { FormatSelect } from "../../_components/format-select";
 import { SimpleTable } from "@/app/_components/simple-table";
+import type { PositionTotals } from "@/lib/uploads/parse-positions";
+import type { UploadSummary } from "@/lib/uploads/summary";
 
-interface Group {
-  key: string;
-  count: number;
-  gross: number;
-  net: number;
-}
+type Group = PositionTotals["byAssetClass"][number];
 interface Preview {
   upload: {
     id: string;
@@ -33,7 +30,7 @@ interface Preview {
     sha256: string;
     sizeBytes: number;
     options: { numberFormat: NumberFormat; dateFormat?: DateFormat; mapping?: Record<string, string> } | null;
-    summary: Record<string, unknown> | null;
+    summary: UploadSummary | null;
   };
   canConfirm: boolean;
   reportingCurrency: string;
@@ -41,7 +38,7 @@ interface Preview {
   header: string[];
   missingColumns: string[];
   fields: { key: string; label: string; required: boolean }[];
-  summary: Record<string, unknown> | null;
+  summary: UploadSummary | null;
   /** the worker's reading or confirming job, while the upload is "reading" or "confirming" */
   job: { state: string; stage: string | null; progress: number | null; error: string | null } | null;
 }
@@ -50,8 +47,8 @@ interface Preview {
 const WORKING = new Set(["reading", "confirming"]);
 
 /** What a finished confirmation stored, in words. */
-function confirmedText(kind: "positions" | "prices", summary: Record<string, unknown> | null): string {
-  const done = (summary?.confirmed ?? summary ?? {}) as { stored?: number; added?: number; corrected?: number };
+function confirmedText(kind: "positions" | "prices", summary: UploadSummary | null): string {
+  const done: { stored?: number; added?: number; corrected?: number } = summary?.confirmed ?? summary ?? {};
   const n = (v: number | undefined) => (v ?? 0).toLocaleString("en");
   return kind === "positions" ? `Confirmed: ${n(done.stored)} positions stored in the period.` : `Confirmed: ${n(done.added)} new closes, ${n(done.corrected)} corrections.`;
 }
@@ -110,20 +107,12 @@ function cellText(value: unknown, column: string): string {
 
 const money = (n: number) => n.toLocaleString("en", { maximumFractionDigits: 0 });
 
-interface RateUsed {
-  currency: string;
-  pair: string;
-  rate: number;
-  date: string | null;
-  periodEnd: boolean;
-}
-
-function Totals({ summary, kind, reportingCurrency }: { summary: Record<string, unknown> | null; kind: "positions" | "prices"; reportingCurrency: string }) {
+function Totals({ summary, kind, reportingCurrency }: { summary: UploadSummary | null; kind: "positions" | "prices"; reportingCurrency: string }) {
   if (!summary) return null;
   if (kind === "positions") {
-    const totals = summary.totals as { positions: number; grossMarketValue: number; netMarketValue: number; byAssetClass: Group[]; byCurrency: Group[] } | undefined;
+    const totals = summary.totals;
     if (!totals || totals.positions === 0) return null;
-    const rates = (summary.rates as RateUsed[] | undefined) ?? [];
+    const rates = summary.rates ?? [];
     const table = (title: string, groups: Group[]) => (
       <table className="w-full text-sm">
         <caption className="mb-1 text-left font-medium">{title}</caption>
@@ -184,7 +173,7 @@ function Totals({ summary, kind, reportingCurrency }: { summary: Record<string, 
       </section>
     );
   }
-  const s = summary as { points?: number; instruments?: number; firstDate?: string; lastDate?: string; layout?: string; added?: number; corrected?: number; unchanged?: number };
+  const s = summary;
   return (
     <section aria-label="Totals" className="rounded-lg border border-ink-line bg-paper-raised p-4 text-sm">
       <p>
@@ -225,7 +214,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
     const before = previous.current;
     previous.current = data.upload.status;
     if (data.upload.status === "duplicate") {
-      const earlier = (data.upload.summary as { duplicateOf?: string } | null)?.duplicateOf;
+      const earlier = data.upload.summary?.duplicateOf;
       if (earlier) router.replace(`/data/uploads/${earlier}?duplicate=1`);
       return;
     }
@@ -235,7 +224,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
       router.refresh();
     }
     if (before === "confirming" && data.upload.status === "pending") {
-      const why = (data.upload.summary as { confirmError?: string } | null)?.confirmError;
+      const why = data.upload.summary?.confirmError;
       setMessage({ tone: "alert", text: why ?? "Confirming did not finish; nothing of the file counts yet. Confirm again." });
     }
     if ((before === "reading" || asked.current === "options") && data.upload.status === "pending") {
@@ -316,7 +305,7 @@ export function UploadPreview({ uploadId }: { uploadId: string }) {
             <h2 id="failed-heading" className="font-semibold">
               This file could not be read
             </h2>
-            <p className="mt-1 text-sm">{String((summary as { rejected?: string } | null)?.rejected ?? "The reading stopped.")} Nothing was stored.</p>
+            <p className="mt-1 text-sm">{summary?.rejected ?? "The reading stopped."} Nothing was stored.</p>
             {canConfirm ? (
               <div className="mt-3 flex gap-2">
                 <button type="button" className={secondaryButtonClass} disabled={act.isPending} onClick={() => act.mutate({ path: "options", method: "PUT", body: upload.options ?? { numberFormat: "plain" } })}>
