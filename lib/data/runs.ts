@@ -93,7 +93,8 @@ export interface RunReadOptions {
 /** Compress the JSON of a run's per-position detail. */
 export function packDetail(detail: RunDetail): { data: Buffer; bytes: number } {
   const json = JSON.stringify(detail);
-  return { data: gzipSync(Buffer.from(json, "utf8"), { level: 6 }), bytes: Buffer.byteLength(json, "utf8") };
+  // level 1: written once on the worker's thread at the run's completion, half the time of level 6 for ~15 % more bytes
+  return { data: gzipSync(Buffer.from(json, "utf8"), { level: 1 }), bytes: Buffer.byteLength(json, "utf8") };
 }
 
 /** A run's whole results: its figures, and its per-position detail when that is stored apart. */
