@@ -39,7 +39,6 @@ export async function openDuePeriods(asOf: string): Promise<{ firmId: string; pe
         .returning({ id: reportingPeriods.id });
       if (!period) return false;
       await recordAudit(tx, scheduledActor(row.firmId, SCHEDULER_NAME), {
-        at: new Date().toISOString(),
         action: "period.open",
         entityType: "reporting_period",
         entityId: period.id,

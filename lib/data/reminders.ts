@@ -189,7 +189,6 @@ export async function runReminders(options: RunOptions = {}): Promise<RunResult>
             .set({ status: "sent", sentAt: runAt.toISOString(), attempts: row.attempts + tries, lastError: null, nextAttemptAt: null })
             .where(eq(reminderLog.id, row.id));
           await recordAudit(tx, scheduledActor(firm.id, SCHEDULER_ACTOR_NAME), {
-            at: new Date().toISOString(),
             action: "reminder.sent",
             entityType: "reporting_period",
             entityId: period.id,
@@ -212,7 +211,6 @@ export async function runReminders(options: RunOptions = {}): Promise<RunResult>
             .where(eq(reminderLog.id, row.id));
           if (givingUp) {
             await recordAudit(tx, scheduledActor(firm.id, SCHEDULER_ACTOR_NAME), {
-              at: new Date().toISOString(),
               action: "reminder.failed",
               entityType: "reporting_period",
               entityId: period.id,
