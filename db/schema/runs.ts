@@ -1,11 +1,12 @@
 import { sql } from "drizzle-orm";
-import { sqliteTable, text, integer, real, index, uniqueIndex, blob } from "drizzle-orm/sqlite-core";
+import { sqliteTable, text, integer, real, index, uniqueIndex, blob, primaryKey } from "drizzle-orm/sqlite-core";
 import { id, createdAt } from "../columns";
 import { firmReference } from "./firms";
 import { reportingPeriods } from "./periods";
 import { uploads } from "./data";
 import { methodStatements, capitalRuleProfiles } from "./method";
 import type { RunInputHashes, RunResults } from "../../lib/runs/types";
+import type { InputChange } from "../../lib/runs/freshness";
 
 /** A run computes every figure of a period from stated inputs; it is never edited. */
 export const runs = sqliteTable(
@@ -76,3 +77,23 @@ export const runInputs = sqliteTable("run_inputs", runBlobColumns());
  * reproduction do.
  */
 export const runDetails = sqliteTable("run_details", runBlobColumns());
+
+/**
+ * A run's stored closes compared with the firm's price history in one state of it (the count and latest confirmation
+ * of its price uploads): the changes found, kept so that every web process and page view reads them instead of
+ * comparing again (lib/data/run-freshness.ts). The worker fills them after a price confirmation (the data-quality job);
+ * a row of an earlier state is replaced by the next.
+ */
+export const runPriceChecks = sqliteTable(
+  "run_price_checks",
+  {
+    runId: text("run_id")
+      .notNull()
+      .references(() => runs.id),
+    ...firmReference(),
+    priceState: text("price_state").notNull(),
+    changes: text("changes", { mode: "json" }).$type<InputChange[]>().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.runId, t.priceState] })],
+);

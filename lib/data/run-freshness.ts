@@ -6,9 +6,9 @@
 import "server-only";
 import { approvedMethodVersion } from "@/lib/data/approved-method";
 import { gunzipSync } from "node:zlib";
-import { and, count, desc, eq, inArray, max } from "drizzle-orm";
-import { getDb } from "@/db/client";
-import { capitalRuleProfiles, reportingPeriods, runInputs, runs, uploads } from "@/db/schema";
+import { and, count, desc, eq, inArray, max, ne } from "drizzle-orm";
+import { getDb, isDatabaseBusy } from "@/db/client";
+import { capitalRuleProfiles, reportingPeriods, runInputs, runPriceChecks, runs, uploads } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { neededFactors } from "@/lib/runs/compute";
@@ -50,8 +50,8 @@ async function currentInputsOfFirm(firmId: string, periodId: string): Promise<Cu
   };
 }
 
-// Price comparisons are the costly part (the run's stored closes against the held ones): kept per run and state of
-// the firm's price history. Closes are written only by confirming a price-history upload (lib/data/uploads.ts), so
+// Price comparisons are the costly part (the run's stored closes against the held ones, seconds on a big book): kept
+// per run and state of the firm's price history, in run_price_checks for every process and in memory here. Closes are written only by confirming a price-history upload (lib/data/uploads.ts), so
 // the state is the count and the latest confirmation of those uploads: a page view recomputes only after one.
 const priceCache = new Map<string, InputChange[]>();
 function rememberPrices(key: string, value: InputChange[]): InputChange[] {
@@ -66,6 +66,30 @@ async function priceState(firmId: string): Promise<string> {
     .from(uploads)
     .where(and(eq(uploads.firmId, firmId), eq(uploads.kind, "prices"), inArray(uploads.status, ["confirmed", "superseded"])));
   return `${row?.n ?? 0}:${row?.latest ?? ""}`;
+}
+
+/** The price comparison of a run kept for this state of the price history (by any process), or undefined. */
+async function keptPriceCheck(firmId: string, runId: string, state: string): Promise<InputChange[] | undefined> {
+  const [kept] = await getDb()
+    .select({ changes: runPriceChecks.changes })
+    .from(runPriceChecks)
+    .where(and(eq(runPriceChecks.runId, runId), eq(runPriceChecks.firmId, firmId), eq(runPriceChecks.priceState, state)));
+  return kept?.changes;
+}
+
+/**
+ * Keep a run's price comparison for this state (replacing the earlier state's), for every process to read. A courtesy
+ * of the read, like marking an interrupted run: skipped when another writer holds the database just then.
+ */
+async function keepPriceCheck(firmId: string, runId: string, state: string, changes: InputChange[]): Promise<void> {
+  try {
+    await getDb().transaction(async (tx) => {
+      await tx.delete(runPriceChecks).where(and(eq(runPriceChecks.runId, runId), eq(runPriceChecks.firmId, firmId), ne(runPriceChecks.priceState, state)));
+      await tx.insert(runPriceChecks).values({ runId, firmId, priceState: state, changes }).onConflictDoNothing();
+    });
+  } catch (error) {
+    if (!isDatabaseBusy(error)) throw error;
+  }
 }
 
 /** The freshness of each run of an open period (none for a signed or filed one), by run id. */
@@ -114,7 +138,7 @@ export async function freshnessForPeriods(firmId: string, periods: readonly { id
     let series: Awaited<ReturnType<typeof priceSeries>> | null = null;
     for (const run of rows.filter((r) => r.periodId === period.id)) {
       const key = `${run.id}:${state}`;
-      let prices = priceCache.get(key);
+      let prices = priceCache.get(key) ?? (await keptPriceCheck(firmId, run.id, state));
       if (!prices) {
         const [stored] = await db
           .select({ data: runInputs.data })
@@ -123,9 +147,11 @@ export async function freshnessForPeriods(firmId: string, periods: readonly { id
         if (stored) {
           const inputs = JSON.parse(gunzipSync(Buffer.from(stored.data)).toString("utf8")) as RunInputs;
           series ??= await priceSeries(firmId, period.periodEnd);
-          prices = rememberPrices(key, priceChanges(inputs.prices, series, [...neededFactors(inputs.positions, inputs.reportingCurrency).keys()]));
+          prices = priceChanges(inputs.prices, series, [...neededFactors(inputs.positions, inputs.reportingCurrency).keys()]);
+          await keepPriceCheck(firmId, run.id, state, prices);
         } else prices = [];
       }
+      rememberPrices(key, prices);
       out.get(period.id)!.set(run.id, runFreshness(run, current.get(period.id)!, prices));
     }
   }

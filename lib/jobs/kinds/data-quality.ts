@@ -2,7 +2,9 @@
  * "data-quality": compute and store a period's data-quality report for its inputs as they are now
  * (lib/data/data-quality.ts refreshDataQuality), so the page reads it instead of computing it. Payload `{ periodId }`;
  * enqueued when a positions or price-history upload is confirmed and when a finding is confirmed
- * (enqueueQualityRefresh). Safe to run again: a report already stored for the current inputs is left as it is.
+ * (enqueueQualityRefresh). Then the period's runs are compared with the price history as it is now and the comparison
+ * kept (run_price_checks), so that no page view has to compare a big run's closes itself. Safe to run again: a report
+ * or comparison already stored for the current inputs is left as it is.
  */
 import "server-only";
 import { periodPayloadSchema, readPayload } from "../payload";
@@ -16,11 +18,16 @@ export const dataQualityJob: JobKind = {
     const actor = await firmWorkerActor(context.db, context.job.firmId);
     await context.progress("checking the stored report", 0);
     const key = await qualityInputsKey(context.db, actor, periodId);
-    if (await storedDataQuality(actor, periodId, key)) return { periodId, computed: false };
-    await context.progress("computing the report", 0.1);
-    const view = await refreshDataQuality(actor, periodId, key);
+    let items: number | null = null;
+    if (!(await storedDataQuality(actor, periodId, key))) {
+      await context.progress("computing the report", 0.1);
+      items = (await refreshDataQuality(actor, periodId, key)).report.items.length;
+    }
+    await context.progress("comparing the period's runs with the price history", 0.8);
+    const { periodRunFreshness } = await import("@/lib/data/run-freshness");
+    const runs = (await periodRunFreshness(actor, periodId)).size;
     await context.progress("stored", 1);
-    return { periodId, computed: true, items: view.report.items.length };
+    return items === null ? { periodId, computed: false, runsChecked: runs } : { periodId, computed: true, items, runsChecked: runs };
   },
   backoffMs: (attempt) => 5_000 * attempt,
 };

@@ -114,4 +114,19 @@ describe("a period's runs against its current inputs", () => {
     const pellam = await actorFor("june.okafor@pellam.example");
     await expect((await freshness()).runFreshnessOf(pellam, spare)).rejects.toThrow("No such run.");
   });
+
+  it("keeps each run's price comparison for the price history's state, for every process to read, one state per run", async () => {
+    const { runPriceChecks } = await import("@/db/schema");
+    const { eq } = await import("drizzle-orm");
+    const kept = await w.db.select().from(runPriceChecks).where(eq(runPriceChecks.runId, spare));
+    expect(kept).toHaveLength(1);
+    expect(kept[0].changes).toEqual([expect.objectContaining({ input: "prices" })]);
+    // a later price upload is a new state of the history (here a new instrument no run holds): the next comparison
+    // replaces the row
+    await load(w.analyst, "prices", "later.csv", "date,instrument,close\n2026-11-26,NMB-EQ-NEWCO,10\n2026-11-27,NMB-EQ-NEWCO,10.5\n");
+    await (await freshness()).runFreshnessOf(w.analyst, spare);
+    const next = await w.db.select().from(runPriceChecks).where(eq(runPriceChecks.runId, spare));
+    expect(next).toHaveLength(1);
+    expect(next[0].priceState).not.toBe(kept[0].priceState);
+  });
 });
