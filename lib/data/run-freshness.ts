@@ -51,8 +51,9 @@ async function currentInputsOfFirm(firmId: string, periodId: string): Promise<Cu
 }
 
 // Price comparisons are the costly part (the run's stored closes against the held ones, seconds on a big book): kept
-// per run and state of the firm's price history, in run_price_checks for every process and in memory here. Closes are written only by confirming a price-history upload (lib/data/uploads.ts), so
-// the state is the count and the latest confirmation of those uploads: a page view recomputes only after one.
+// per run and state of the firm's price history, in run_price_checks for every process and in memory here. Closes
+// are written only by confirming a price-history upload (lib/data/uploads.ts), so the state is the count and the
+// latest confirmation of those uploads: a page view recomputes only after one.
 const priceCache = new Map<string, InputChange[]>();
 function rememberPrices(key: string, value: InputChange[]): InputChange[] {
   priceCache.set(key, value);
@@ -149,9 +150,9 @@ export async function freshnessForPeriods(firmId: string, periods: readonly { id
           series ??= await priceSeries(firmId, period.periodEnd);
           prices = priceChanges(inputs.prices, series, [...neededFactors(inputs.positions, inputs.reportingCurrency).keys()]);
           await keepPriceCheck(firmId, run.id, state, prices);
-        } else prices = [];
-      }
-      rememberPrices(key, prices);
+          rememberPrices(key, prices);
+        } else prices = []; // inputs not stored yet (a queued run): nothing to compare, and nothing kept
+      } else rememberPrices(key, prices);
       out.get(period.id)!.set(run.id, runFreshness(run, current.get(period.id)!, prices));
     }
   }
