@@ -7,6 +7,7 @@ import { uploads } from "./data";
 import { methodStatements, capitalRuleProfiles } from "./method";
 import type { RunInputHashes, RunResults } from "../../lib/runs/types";
 import type { InputChange } from "../../lib/runs/freshness";
+import type { HistoryAssessment } from "../../lib/runs/compute";
 
 /** A run computes every figure of a period from stated inputs; it is never edited. */
 export const runs = sqliteTable(
@@ -96,4 +97,26 @@ export const runPriceChecks = sqliteTable(
     createdAt: createdAt(),
   },
   (t) => [primaryKey({ columns: [t.runId, t.priceState] })],
+);
+
+/**
+ * A run start's history check (lib/data/runs.ts keptHistoryAssessment) of one confirmed positions upload against one
+ * state of the firm's price history, for a period end and a minimum history: kept so that a start answers without
+ * counting a big book's history again. The worker fills it after each confirmation (the data-quality job); a row of an
+ * earlier price state is replaced by the next.
+ */
+export const historyChecks = sqliteTable(
+  "history_checks",
+  {
+    uploadId: text("upload_id")
+      .notNull()
+      .references(() => uploads.id),
+    ...firmReference(),
+    periodEnd: text("period_end").notNull(),
+    minHistory: integer("min_history").notNull(),
+    priceState: text("price_state").notNull(),
+    assessment: text("assessment", { mode: "json" }).$type<HistoryAssessment>().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [primaryKey({ columns: [t.uploadId, t.periodEnd, t.minHistory, t.priceState] })],
 );

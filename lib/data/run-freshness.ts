@@ -61,7 +61,11 @@ function rememberPrices(key: string, value: InputChange[]): InputChange[] {
   return value;
 }
 
-async function priceState(firmId: string): Promise<string> {
+/**
+ * The state of a firm's price history: the count and latest confirmation of its price uploads (closes are written only
+ * by confirming one). Kept price comparisons and history checks are keyed by it.
+ */
+export async function priceHistoryState(firmId: string): Promise<string> {
   const [row] = await getDb()
     .select({ n: count(), latest: max(uploads.confirmedAt) })
     .from(uploads)
@@ -134,7 +138,7 @@ export async function freshnessForPeriods(firmId: string, periods: readonly { id
   if (rows.length === 0) return out;
   const withRuns = open.filter((p) => rows.some((r) => r.periodId === p.id));
   const current = await currentInputsOfPeriods(firmId, withRuns.map((p) => p.id));
-  const state = await priceState(firmId);
+  const state = await priceHistoryState(firmId);
   for (const period of withRuns) {
     let series: Awaited<ReturnType<typeof priceSeries>> | null = null;
     for (const run of rows.filter((r) => r.periodId === period.id)) {

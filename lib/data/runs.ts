@@ -8,9 +8,9 @@ import "server-only";
 import { approvedMethodRow } from "@/lib/data/approved-method";
 import { createHash } from "node:crypto";
 import { gunzipSync, gzipSync } from "node:zlib";
-import { and, desc, eq, inArray, lt, sql } from "drizzle-orm";
-import { getDb, type Database, type Tx } from "@/db/client";
-import { capitalRuleProfiles, methodStatements, positions, reportingPeriods, runDetails, runInputs, runs, uploads, users } from "@/db/schema";
+import { and, desc, eq, inArray, lt, ne, sql } from "drizzle-orm";
+import { getDb, isDatabaseBusy, type Database, type Tx } from "@/db/client";
+import { capitalRuleProfiles, historyChecks, methodStatements, positions, reportingPeriods, runDetails, runInputs, runs, uploads, users } from "@/db/schema";
 import { AppError } from "@/lib/errors";
 import { recordAudit } from "@/lib/audit/record";
 import { now, today } from "@/lib/clock";
@@ -34,7 +34,7 @@ import { dataQualityReport } from "@/lib/uploads/data-quality";
 import { confirmedPositionsUpload, getDataQuality } from "./data-quality";
 import { getPeriod } from "./periods";
 import { priceSeries } from "./prices";
-import { assertRunFresh, periodRunFreshness } from "./run-freshness";
+import { assertRunFresh, periodRunFreshness, priceHistoryState } from "./run-freshness";
 
 type RunRow = typeof runs.$inferSelect;
 
@@ -326,7 +326,7 @@ async function runnableBasics(actor: Actor, periodId: string) {
  * returns `alignReturns` would find, counted in SQL over the price dates alone. A date inside a factor's own history
  * (between its first and last close up to the period end) on which the factor has no close is left out for every
  * factor; a factor's usable returns are the kept dates of its history, less one, when its history reaches the last
- * kept date, else none (the same answer as `assessHistory`, tests/unit/runs/history-sql.test.ts).
+ * kept date, else none (the same answer as `assessHistory`, tests/unit/runs/queue-runs.test.ts).
  */
 export async function assessHistoryOfUpload(
   actor: Pick<Actor, "firmId" | "reportingCurrency">,
@@ -380,6 +380,75 @@ export async function assessHistoryOfUpload(
     : [];
   const positionsAffected = affected.map((p) => `${p.book} · ${p.instrument}`);
   return { minHistory, factors, short, positionsAffected, positionsUsable: Number(total) - positionsAffected.length };
+}
+
+/** A start's history check as kept (history_checks) for a book, period end, minimum history and price state. */
+interface HistoryCheck {
+  assessment: HistoryAssessment;
+  priceState: string;
+  /** whether it was read from history_checks (false: counted now, not yet kept) */
+  kept: boolean;
+}
+
+/**
+ * The history check of a start as kept for this positions upload, period end, minimum history and state of the price
+ * history (history_checks), or counted now (`kept: false`): a start on a big book answers without counting again
+ * once the data-quality job (after each confirmation) or an earlier start has kept it.
+ */
+async function historyCheck(actor: Pick<Actor, "firmId" | "reportingCurrency">, uploadId: string, periodEnd: string, minHistory: number): Promise<HistoryCheck> {
+  const priceState = await priceHistoryState(actor.firmId);
+  const [row] = await getDb()
+    .select({ assessment: historyChecks.assessment })
+    .from(historyChecks)
+    .where(and(historyCheckKey(actor.firmId, uploadId, periodEnd, minHistory), eq(historyChecks.priceState, priceState)));
+  if (row) return { assessment: row.assessment, priceState, kept: true };
+  return { assessment: await assessHistoryOfUpload(actor, uploadId, periodEnd, minHistory), priceState, kept: false };
+}
+
+function historyCheckKey(firmId: string, uploadId: string, periodEnd: string, minHistory: number) {
+  return and(eq(historyChecks.firmId, firmId), eq(historyChecks.uploadId, uploadId), eq(historyChecks.periodEnd, periodEnd), eq(historyChecks.minHistory, minHistory));
+}
+
+/**
+ * Keep a counted history check for every process (replacing an earlier price state's). A courtesy, like keeping a
+ * price comparison: skipped when another writer holds the database just then.
+ */
+async function keepHistoryCheck(firmId: string, uploadId: string, periodEnd: string, minHistory: number, check: HistoryCheck): Promise<void> {
+  if (check.kept) return;
+  try {
+    await getDb().transaction(async (tx) => {
+      await tx.delete(historyChecks).where(and(historyCheckKey(firmId, uploadId, periodEnd, minHistory), ne(historyChecks.priceState, check.priceState)));
+      await tx.insert(historyChecks).values({ uploadId, firmId, periodEnd, minHistory, priceState: check.priceState, assessment: check.assessment }).onConflictDoNothing();
+    });
+  } catch (error) {
+    if (!isDatabaseBusy(error)) throw error;
+  }
+}
+
+/** The history check of a start, read from history_checks or counted and kept there. */
+export async function keptHistoryAssessment(
+  actor: Pick<Actor, "firmId" | "reportingCurrency">,
+  uploadId: string,
+  periodEnd: string,
+  minHistory: number,
+): Promise<HistoryAssessment> {
+  const check = await historyCheck(actor, uploadId, periodEnd, minHistory);
+  await keepHistoryCheck(actor.firmId, uploadId, periodEnd, minHistory, check);
+  return check.assessment;
+}
+
+/**
+ * Keep the history check of the period's current book under the approved method statement, for the next start (the
+ * data-quality job, after a confirmation). Nothing when the period has no confirmed positions or no approved method.
+ */
+export async function keepPeriodHistoryCheck(actor: Actor, periodId: string): Promise<boolean> {
+  const period = await getPeriod(actor, periodId);
+  const upload = await confirmedPositionsUpload(actor, periodId);
+  const method = await approvedMethodRow(actor.firmId, getDb());
+  const content = method ? methodContentSchema.safeParse(method.content) : null;
+  if (!upload || !content?.success) return false;
+  await keptHistoryAssessment(actor, upload.id, period.periodEnd, content.data.minHistory);
+  return true;
 }
 
 /** Refuse a start (or, in the worker, the computation) on a history assessment, naming the factors. */
@@ -503,7 +572,9 @@ export async function startRun(actor: Actor, periodId: string, options: StartOpt
   await markIfInterrupted(actor.firmId, { periodId });
   const { period, upload, method, content, capitalProfileId } = await runnableBasics(actor, periodId);
   await assertNoActiveRun(actor, periodId);
-  const assessment = await assessHistoryOfUpload(actor, upload.id, period.periodEnd, content.minHistory);
+  // Read as kept, or counted; a refused start stores nothing, a start that goes ahead keeps what it counted.
+  const check = await historyCheck(actor, upload.id, period.periodEnd, content.minHistory);
+  const { assessment } = check;
   assertHistory(assessment, period.periodEnd, options);
   const id = await insertRun(
     actor,
@@ -515,6 +586,7 @@ export async function startRun(actor: Actor, periodId: string, options: StartOpt
       detail: { periodEnd: period.periodEnd, methodVersion: method.version, positionsUploadId: upload.id, excludedFactors: assessment.short },
     },
   );
+  await keepHistoryCheck(actor.firmId, upload.id, period.periodEnd, content.minHistory, check);
   return getRun(actor, id, { detail: false });
 }
 
