@@ -230,18 +230,20 @@ export function varPnlChart(vm: FilingViewModel): Chart | null {
   };
 }
 
+// The font is looked up at run time in the installed package; the turbopackIgnore comments keep the build from tracing
+// (and so bundling) the whole project for these paths.
 function fontFiles(): string[] {
   const names = ["DejaVuSans.ttf", "DejaVuSans-Bold.ttf"];
   const candidates: string[] = [];
   try {
-    const req = createRequire(path.join(process.cwd(), "package.json"));
-    candidates.push(path.join(path.dirname(req.resolve("dejavu-fonts-ttf/package.json")), "ttf"));
+    const req = createRequire(path.join(/*turbopackIgnore: true*/ process.cwd(), "package.json"));
+    candidates.push(path.join(/*turbopackIgnore: true*/ path.dirname(req.resolve("dejavu-fonts-ttf/package.json")), "ttf"));
   } catch {
     // resolved below from the working directory
   }
-  candidates.push(path.join(process.cwd(), "node_modules", "dejavu-fonts-ttf", "ttf"));
+  candidates.push(path.join(/*turbopackIgnore: true*/ process.cwd(), "node_modules", "dejavu-fonts-ttf", "ttf"));
   for (const dir of candidates) {
-    const files = names.map((n) => path.join(dir, n));
+    const files = names.map((n) => path.join(/*turbopackIgnore: true*/ dir, n));
     if (files.every((f) => existsSync(f))) return files;
   }
   throw new Error("The chart font (dejavu-fonts-ttf) is not installed; run npm install.");
