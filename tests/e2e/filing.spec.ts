@@ -5,7 +5,7 @@ import JSZip from "jszip";
 import XlsxPopulate from "xlsx-populate";
 import { DataPage } from "./pages/data";
 import { FilingPage } from "./pages/filing";
-import { bookDatedTo, DEMO_PASSWORD, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { bookDatedTo, completedRunOf, DEMO_PASSWORD, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
 
 /**
  * The review loop across roles, in the browser: the compliance officer assembles and submits the draft filing; the
@@ -88,10 +88,7 @@ test.beforeAll(async ({ browser }) => {
 
     // a run by the risk analyst, marked for the filing
     const analyst = await signedInApi(OFFICER.email);
-    const started = await analyst.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
-    expect(started.status(), await started.text()).toBe(202);
-    const runId = (await started.json()).run.id as string;
-    await expect.poll(async () => (await json<{ run: { status: string } }>(analyst, `/api/runs/${runId}`)).run.status, { timeout: 90_000 }).toBe("completed");
+    const runId = await completedRunOf(analyst, periodId);
     const marked = await analyst.post(`/api/runs/${runId}/use-for-filing`, { data: { confirm: true } });
     expect(marked.status(), await marked.text()).toBe(200);
     await analyst.dispose();

@@ -105,3 +105,17 @@ export async function databaseSnapshot(options: { ignore?: string[] } = {}): Pro
     client.close();
   }
 }
+
+/** Wait, polling the run API, until a run has completed (the worker computes it). */
+export async function runCompletes(api: APIRequestContext, runId: string, timeout = 180_000): Promise<void> {
+  await expect.poll(async () => (await (await api.get(`/api/runs/${runId}`)).json()).run.status, { timeout, intervals: [500, 1000, 2000] }).toBe("completed");
+}
+
+/** Start a run of a period through the API (leaving out factors short of history), wait until it completes; its id. */
+export async function completedRunOf(api: APIRequestContext, periodId: string, timeout = 180_000): Promise<string> {
+  const started = await api.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
+  expect(started.status(), await started.text()).toBe(202);
+  const runId = (await started.json()).run.id as string;
+  await runCompletes(api, runId, timeout);
+  return runId;
+}

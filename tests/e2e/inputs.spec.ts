@@ -7,7 +7,7 @@
 import { test, expect } from "@playwright/test";
 import { readFileSync } from "node:fs";
 import { DataPage } from "./pages/data";
-import { csv, DEMO_USERS, periodIdEnding, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
+import { completedRunOf, csv, DEMO_USERS, periodIdEnding, SECOND_FIRM_USERS, signInThroughPage, signedInApi } from "./helpers";
 
 const SCREENS = "test-results/screens";
 const OFFICER = DEMO_USERS[1].email; // Northmoor's compliance officer
@@ -57,11 +57,7 @@ test.describe.serial("inputs and stale runs", () => {
     const api = await signedInApi(PELLAM);
     const periodId = await periodIdEnding(api, "2026-11-30");
     const completedRun = async () => {
-      const started = await api.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
-      expect(started.status(), await started.text()).toBe(202);
-      const id = (await started.json()).run.id as string;
-      await expect.poll(async () => (await (await api.get(`/api/runs/${id}`)).json()).run.status, { timeout: 90_000 }).toBe("completed");
-      return id;
+      return completedRunOf(api, periodId);
     };
     // one run chosen for the filing with a draft assembled from it, and a second one not chosen
     const filingRunId = await completedRun();

@@ -1,6 +1,6 @@
 import { readFileSync } from "node:fs";
 import { test, expect, type Locator, type Page } from "@playwright/test";
-import { bookDatedTo, DEMO_PASSWORD, SECOND_FIRM_USERS, signedInApi, signInThroughPage } from "./helpers";
+import { bookDatedTo, DEMO_PASSWORD, runCompletes, SECOND_FIRM_USERS, signedInApi, signInThroughPage } from "./helpers";
 import { expectNoSeriousViolations } from "./a11y";
 
 /**
@@ -95,7 +95,7 @@ test("a run is started with the keyboard and opens at once", async ({ page }) =>
   await expect(page).toHaveURL(runPage);
   const runId = page.url().split("/").pop()!;
   const api = await signedInApi(OFFICER.email);
-  await expect.poll(async () => (await (await api.get(`/api/runs/${runId}`)).json()).run.status, { timeout: 90_000 }).toBe("completed");
+  await runCompletes(api, runId);
   await page.reload();
   await expect(page.getByTestId("var-table")).toBeVisible();
   await expectNoSeriousViolations(page, "run summary after a keyboard start");

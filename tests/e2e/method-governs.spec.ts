@@ -7,7 +7,7 @@
  */
 import JSZip from "jszip";
 import { test, expect, type APIRequestContext } from "@playwright/test";
-import { signInThroughPage, signedInApi } from "./helpers";
+import { completedRunOf, signInThroughPage, signedInApi } from "./helpers";
 
 const ANALYST = "june.okafor@pellam.example"; // risk analyst and compliance officer
 const HEAD = "rafe.pellam@pellam.example"; // compliance head (co-approves)
@@ -32,10 +32,7 @@ interface RunJson {
 }
 
 async function runToCompletion(api: APIRequestContext, periodId: string): Promise<RunJson> {
-  const started = await api.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
-  expect(started.status(), await started.text()).toBe(202);
-  const id = (await started.json()).run.id as string;
-  await expect.poll(async () => (await json<{ run: RunJson }>(api, `/api/runs/${id}`)).run.status, { timeout: 180_000, intervals: [1000, 2000, 3000] }).toBe("completed");
+  const id = await completedRunOf(api, periodId);
   return (await json<{ run: RunJson }>(api, `/api/runs/${id}`)).run;
 }
 

@@ -1,6 +1,6 @@
 import { test, expect, type APIRequestContext } from "@playwright/test";
 import { ROUTES, type RouteCase } from "../permission-table";
-import { DEMO_USERS, SECOND_FIRM_USERS, signedInApi } from "./helpers";
+import { completedRunOf as startCompletedRun, DEMO_USERS, SECOND_FIRM_USERS, signedInApi } from "./helpers";
 import type { Role } from "@/lib/auth/roles";
 
 /**
@@ -26,12 +26,7 @@ async function completedRunOf(periodId: string): Promise<string> {
   const listed = (await (await analyst.get(`/api/periods/${periodId}/runs`)).json()).runs as { id: string; status: string; freshness?: { stale: boolean } | null }[];
   // a stale run (an earlier spec changed the period's inputs) cannot be chosen for the filing: a fresh one is needed
   let runId = listed.find((r) => r.status === "completed" && !r.freshness?.stale)?.id;
-  if (!runId) {
-    const started = await analyst.post(`/api/periods/${periodId}/runs`, { data: { excludeShortHistory: true } });
-    expect(started.status(), await started.text()).toBe(202);
-    runId = (await started.json()).run.id as string;
-    await expect.poll(async () => (await (await analyst.get(`/api/runs/${runId}`)).json()).run.status, { timeout: 45_000 }).toBe("completed");
-  }
+  runId ??= await startCompletedRun(analyst, periodId);
   await analyst.dispose();
   return runId;
 }
