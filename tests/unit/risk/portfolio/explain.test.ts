@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { explainRuns, explainVarChange } from "@/lib/risk/portfolio/explain";
 import { matrixFromRows } from "@/lib/risk/portfolio/matrix";
 import { runMonthEnd, type MonthEndInput } from "@/lib/risk/portfolio/run-month-end";
-import { syntheticBook } from "./synthetic-book";
+import { bookInput, syntheticBook } from "./synthetic-book";
 
 const z99 = 2.326348; // Φ⁻¹(0.99), standard normal tables (e.g. Abramowitz & Stegun 1964, Handbook of Mathematical Functions, ch. 26; chapter from memory)
 
@@ -34,13 +34,14 @@ describe("explainVarChange", () => {
   it("explains two runs' inputs, ending at this run's parametric VaR", () => {
     const book = syntheticBook(8, 700, 20, 5);
     const cut = 680;
-    const lastMonth: MonthEndInput = {
-      positions: book.positions.map((p) => ({ ...p, marketValue: p.marketValue * 0.8 })),
-      returns: { dates: book.returns.dates.slice(0, cut), factors: Object.fromEntries(Object.entries(book.returns.factors).map(([k, v]) => [k, Array.from(v).slice(0, cut)])) },
-      reportingCurrency: "USD",
-      method: { covariance: "ewma" },
-    };
-    const thisMonth: MonthEndInput = { positions: book.positions, returns: book.returns, reportingCurrency: "USD", method: { covariance: "ewma" } };
+    const lastMonth: MonthEndInput = bookInput(
+      {
+        positions: book.positions.map((p) => ({ ...p, marketValue: p.marketValue * 0.8 })),
+        returns: { dates: book.returns.dates.slice(0, cut), factors: Object.fromEntries(Object.entries(book.returns.factors).map(([k, v]) => [k, Array.from(v).slice(0, cut)])) },
+      },
+      { covariance: "ewma" },
+    );
+    const thisMonth: MonthEndInput = bookInput(book, { covariance: "ewma" });
     const x = explainRuns(lastMonth, thisMonth);
     const run = runMonthEnd({ ...thisMonth, method: { methods: ["parametric"], covariance: "ewma" } });
     expect(x.currentVar).toBeCloseTo(run.methods[0].byConfidence[0].oneDay.var, 6);

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { runMonthEnd, type MonthEndMethod } from "@/lib/risk/portfolio/run-month-end";
-import { syntheticBook } from "./synthetic-book";
+import { bookInput, syntheticBook } from "./synthetic-book";
 
 // Today's figures before issue 13, recorded from the engine at commit 2fee9cf (same figures as 54e9cd0: that commit
 // added types only) on syntheticBook(12, 700, 60, 11): the methods without `volatility` must reproduce them EXACTLY
@@ -22,7 +22,7 @@ const book = syntheticBook(12, 700, 60, 11);
 describe("methods configured as before issue 13 give the same figures, bit for bit", () => {
   for (const [name, f] of Object.entries(fixture.configs)) {
     it(`${name}: ${JSON.stringify(f.method)}`, () => {
-      const r = runMonthEnd({ positions: book.positions, returns: book.returns, reportingCurrency: "USD", method: f.method });
+      const r = runMonthEnd(bookInput(book, f.method));
       f.methods.forEach((m, i) => {
         expect(r.methods[i].method).toBe(m.method);
         expect(r.methods[i].portfolioVolatility).toBe(m.portfolioVolatility);

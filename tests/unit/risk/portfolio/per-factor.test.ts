@@ -3,10 +3,10 @@ import { runMonthEnd, portfolioVar, type MonthEndInput } from "@/lib/risk/portfo
 import { standardCandidates } from "@/lib/risk/portfolio/candidates";
 import { candidateEvidence } from "@/lib/risk/portfolio/candidate-evidence";
 import { refitBlocks } from "@/lib/risk/portfolio/per-factor";
-import { syntheticBook } from "./synthetic-book";
+import { bookInput, syntheticBook } from "./synthetic-book";
 
 const book = syntheticBook(9, 700, 36, 21);
-const base = (method: MonthEndInput["method"]): MonthEndInput => ({ positions: book.positions, returns: book.returns, reportingCurrency: "USD", method });
+const base = (method: MonthEndInput["method"]): MonthEndInput => bookInput(book, method);
 
 describe("per-factor processes in the month-end run", () => {
   it("GARCH(1,1)-t for equities and EWMA 0.97 for FX: the figures move and the model says exactly that", () => {
@@ -76,7 +76,7 @@ describe("per-factor processes in the month-end run", () => {
 
   it("a process that cannot be computed is refused naming the factor, its asset class and the reason", () => {
     const short = syntheticBook(3, 170, 6, 2);
-    const input: MonthEndInput = { positions: short.positions, returns: short.returns, reportingCurrency: "USD", method: { methods: ["parametric"], backtestDays: 60, historyDays: 60, stressWindowDays: 50, volatility: { default: { kind: "ewma", lambda: 0.94 }, byAssetClass: { equity: { kind: "arch", order: 8 } } } } };
+    const input: MonthEndInput = bookInput(short, { methods: ["parametric"], backtestDays: 60, historyDays: 60, stressWindowDays: 50, volatility: { default: { kind: "ewma", lambda: 0.94 }, byAssetClass: { equity: { kind: "arch", order: 8 } } } });
     // ARCH(8) needs 180 returns: the equity factor is left out, with the reason and its class
     const r = runMonthEnd(input);
     const ex = r.factors.excluded.find((e) => e.factor === "INST0000")!;

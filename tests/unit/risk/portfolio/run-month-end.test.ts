@@ -2,10 +2,10 @@ import { describe, expect, it } from "vitest";
 import { runMonthEnd, prepareRun, type MonthEndInput } from "@/lib/risk/portfolio/run-month-end";
 import { ENGINE_VERSION } from "@/lib/risk/version";
 import { varMultiplier } from "@/lib/risk/var/parametric";
-import { syntheticBook } from "./synthetic-book";
+import { bookInput, syntheticBook } from "./synthetic-book";
 
 const book = syntheticBook(12, 900, 40, 11);
-const base: MonthEndInput = { positions: book.positions, returns: book.returns, reportingCurrency: "USD" };
+const base: MonthEndInput = bookInput(book);
 
 function sum(values: number[]): number {
   return values.reduce((a, b) => a + b, 0);

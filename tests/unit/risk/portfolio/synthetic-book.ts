@@ -62,7 +62,7 @@ export function syntheticBook(instruments: number, days: number, positionsCount:
   return { positions, returns: { dates, factors } };
 }
 
-/** The book as the engine's month-end input, in USD, under `method`. */
-export function bookInput(book: SyntheticBook, method: MonthEndMethod): MonthEndInput {
-  return { positions: book.positions, returns: book.returns, reportingCurrency: "USD", method };
+/** The book as the engine's month-end input, in USD, under `method` (the engine's defaults when none). */
+export function bookInput(book: Pick<SyntheticBook, "positions" | "returns">, method?: MonthEndMethod): MonthEndInput {
+  return { positions: book.positions, returns: book.returns, reportingCurrency: "USD", ...(method ? { method } : {}) };
 }
