@@ -100,10 +100,10 @@ export const runPriceChecks = sqliteTable(
 );
 
 /**
- * A run start's history check (lib/data/runs.ts keptHistoryAssessment) of one confirmed positions upload against one
- * state of the firm's price history, for a period end and a minimum history: kept so that a start answers without
- * counting a big book's history again. The worker fills it after each confirmation (the data-quality job); a row of an
- * earlier price state is replaced by the next.
+ * A run start's history check (lib/data/runs.ts historyCheck) of one confirmed positions upload against one state of
+ * the firm's price history, for a period end and a minimum history: kept so that a start answers without counting a
+ * big book's history again. The worker keeps it after each confirmation (the data-quality job), and so does a start
+ * that goes ahead (never a refused one); a row of an earlier price state is replaced by the next.
  */
 export const historyChecks = sqliteTable(
   "history_checks",
