@@ -116,7 +116,8 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
         inputs = await gatherRunInputs(actor, run, { excludeShortHistory });
         await keepLease(true);
         hashes = inputHashesOf(inputs);
-        const packed = packInputs(inputs);
+        const packed = await packInputs(inputs);
+        await keepLease(true);
         const kept = await db.transaction(async (tx) => {
           const rows = await tx.update(runs).set({ inputHashes: hashes }).where(active).returning({ id: runs.id });
           if (rows.length === 0) return false;
@@ -124,11 +125,12 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
           return true;
         });
         if (!kept) throw new Error("the run was finished meanwhile (interrupted)");
-        // compute from exactly what was stored (the canonical JSON read back), as a reproduction or the CLI would
-        inputs = unpackInputs(packed.data);
+        // compute from exactly what was stored (its canonical JSON read back), as a reproduction or the CLI would
+        inputs = JSON.parse(packed.json) as RunInputs;
         await report("inputs", 1);
       }
       let results: RunResults = await (options.compute ?? computeRun)(inputs, { fromStoredInputsOf: run.reproducesRunId }, report, options.signal);
+      await keepLease(true);
       await report("storing", 0);
       results = asStored(results);
       if (run.reproducesRunId) {
@@ -145,7 +147,9 @@ export async function executeRun(runId: string, options: ExecuteOptions = {}): P
       }
       // the figures in the run's row, the per-position detail apart (the run's page and lists read only the figures)
       const { figures, detail } = splitDetail(results);
-      const packedDetail = packDetail(detail);
+      const packedDetail = await packDetail(detail);
+      // Every long step of storing extends the lease as it ends: the worker's timer cannot beat during a synchronous one.
+      await keepLease(true);
       const finishedAt = now().toISOString();
       await db.transaction(async (tx) => {
         const completed = await tx

@@ -130,9 +130,10 @@ describe("a run whose worker stopped", () => {
     const started = await startRun(analyst, periodId, { excludeShortHistory: true });
     const job = await claim(db, { owner: "stopping-worker", kinds: ["run"] });
     // the stopping worker had stored the inputs and begun computing
+    const { data, bytes } = await packInputs(stored);
     await db.transaction(async (tx) => {
       await tx.update(runs).set({ status: "running", stage: "var", progress: 0.55, inputHashes: first.inputHashes }).where(eq(runs.id, started.id));
-      await tx.insert(runInputs).values({ runId: started.id, firmId: analyst.firmId, ...packInputs(stored) });
+      await tx.insert(runInputs).values({ runId: started.id, firmId: analyst.firmId, data, bytes });
     });
     expect(await release(db, job!.id, "stopping-worker")).toBe(true);
     expect((await getRun(analyst, started.id)).status).toBe("running");

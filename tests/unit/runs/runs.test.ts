@@ -341,7 +341,8 @@ describe("failure and interruption", () => {
       .returning();
     const tampered = structuredClone(original);
     tampered.positions[0].marketValue += 1;
-    await db.insert(runInputs).values({ runId: queued.id, firmId: row.firmId, ...packInputs(tampered) });
+    const { data, bytes } = await packInputs(tampered);
+    await db.insert(runInputs).values({ runId: queued.id, firmId: row.firmId, data, bytes });
     expect(await executeRun(queued.id)).toBe("failed");
     const failed = await getRun(analyst, queued.id);
     expect(failed.status).toBe("failed");
