@@ -57,6 +57,33 @@ describe("a run through the queue", () => {
     expect(done.results!.reproduction!.matches).toBe(true);
   }, 180_000);
 
+  it("extends its lease as each long step of storing ends, not only on the worker's timer (which a busy loop holds up)", async () => {
+    const queued = await startRun(analyst, periodId, { excludeShortHistory: true });
+    // the run's stage at each lease extension the run asks for itself (the worker's timer beats apart from these)
+    const stages: string[] = [];
+    const recording = new Worker({
+      db,
+      owner: "recording-worker",
+      log: () => undefined,
+      kinds: {
+        run: {
+          ...runJob,
+          handle: (context) =>
+            runJob.handle({
+              ...context,
+              heartbeat: async () => {
+                const [row] = await db.select({ stage: runs.stage }).from(runs).where(eq(runs.id, queued.id));
+                stages.push(row.stage ?? "");
+                return context.heartbeat();
+              },
+            }),
+        },
+      },
+    });
+    expect((await recording.runOne())?.outcome).toBe("completed");
+    expect(stages, "after compressing the per-position detail, before writing it").toContain("storing");
+  }, 180_000);
+
   it("counts the history in SQL exactly as assessHistory does over the gathered closes", async () => {
     const method = (await currentMethod(analyst))!;
     const upload = (await confirmedPositionsUpload(analyst, periodId))!;
